@@ -1,0 +1,28 @@
+import { defineConfig } from 'vitest/config';
+
+// Two projects: fast unit/integration tests, and browser tests that drive the real UI
+// through the loopback server with Debian's Chromium. The machine has 2 cores.
+export default defineConfig({
+  test: {
+    maxWorkers: 2,
+    projects: [
+      {
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          testTimeout: 180_000,
+          hookTimeout: 180_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
