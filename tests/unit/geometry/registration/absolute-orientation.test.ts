@@ -31,7 +31,7 @@ describe('absolute orientation (Horn 1987, unit quaternions)', () => {
       const from = new Float64Array(3 * n);
       for (let i = 0; i < 3 * n; i++) from[i] = (rand() - 0.5) * 100;
       const truth = transformFrom(rotationAboutAxis([rand() - 0.5, rand() - 0.5, rand() - 0.5], rand() * Math.PI), [rand() * 50, rand() * 50, rand() * 50]);
-      const to = applyToPoints(truth, from, new Float64Array(3 * n));
+      const to = applyToPoints(truth, from, new Float64Array(3 * n)) as Float64Array;
       for (let i = 0; i < 3 * n; i++) to[i] += (rand() - 0.5) * 2;
       const horn = absoluteOrientation(from, to);
       expect(isRigid(horn.transform, 1e-9)).toBe(true);
