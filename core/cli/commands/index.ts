@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerInit } from './init';
+import { registerServe } from './serve';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -9,4 +10,5 @@ import { registerInit } from './init';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerServe,
 ];
