@@ -1,5 +1,7 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerInit } from './init';
+import { registerServe } from './serve';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -7,4 +9,6 @@ import { registerAbout } from './about';
  */
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
+  registerInit,
+  registerServe,
 ];

@@ -1,0 +1,3 @@
+export function CatalogueScreen() {
+  return <p className="empty">Not yet.</p>;
+}

@@ -1,0 +1,3 @@
+export function CountsScreen() {
+  return <p className="empty">Not yet.</p>;
+}

@@ -1,0 +1,3 @@
+export function RefitSetsScreen() {
+  return <p className="empty">Not yet.</p>;
+}

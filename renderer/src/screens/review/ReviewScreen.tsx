@@ -1,0 +1,3 @@
+export function ReviewScreen() {
+  return <p className="empty">Not yet.</p>;
+}

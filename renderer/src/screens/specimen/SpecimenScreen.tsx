@@ -1,0 +1,3 @@
+export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
+  return <p className="empty">Not yet {specimenId}.</p>;
+}
