@@ -1,4 +1,4 @@
-import { forwardRef, useImperativeHandle, useRef, useState } from 'react';
+import { forwardRef, useEffect, useImperativeHandle, useRef, useState } from 'react';
 import { ApiError } from '../../api/client';
 import type { FieldName, SpecimenRecord } from './specimen-view';
 import { nextCatalogueNo } from './specimen-view';
@@ -78,6 +78,13 @@ export const BenchEntry = forwardRef<BenchEntryHandle, {
   const [generalProblem, setGeneralProblem] = useState<string | null>(null);
   const [saving, setSaving] = useState(false);
   const first = useRef<HTMLInputElement>(null);
+  const proposed = useRef(props.nextNumber);
+
+  // The catalogue's next number, until the analyst types their own.
+  useEffect(() => {
+    setDraft((d) => (!editing && (!d.catalogueNo || d.catalogueNo === proposed.current) ? { ...d, catalogueNo: props.nextNumber } : d));
+    proposed.current = props.nextNumber;
+  }, [props.nextNumber, editing]);
 
   useImperativeHandle(ref, () => ({
     edit(record) {
@@ -180,11 +187,6 @@ export const BenchEntry = forwardRef<BenchEntryHandle, {
                   ))}
                 </datalist>
               )}
-              {problem && (
-                <span className="field-problem" id={`${id}-problem`} role="alert">
-                  {problem}
-                </span>
-              )}
             </div>
           );
         })}
@@ -194,6 +196,15 @@ export const BenchEntry = forwardRef<BenchEntryHandle, {
           </button>
         </div>
       </div>
+      {FIELDS.some((f) => problemOf(f.field)) && (
+        <ul className="field-problems" role="alert">
+          {FIELDS.filter((f) => problemOf(f.field)).map((f) => (
+            <li key={f.field} id={`bench-${f.field}-problem`}>
+              <label htmlFor={`bench-${f.field}`}>{f.label}</label>: {problemOf(f.field)}
+            </li>
+          ))}
+        </ul>
+      )}
       {generalProblem && (
         <p className="problems" role="alert">
           {generalProblem}

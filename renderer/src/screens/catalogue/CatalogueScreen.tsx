@@ -125,7 +125,7 @@ export function CatalogueScreen() {
   });
 
   const last = undo[undo.length - 1];
-  const undoLabel = last ? (last.kind === 'create' ? `Undo logging ${last.record.catalogueNo}` : `Undo changes to ${last.catalogueNo}`) : 'Undo';
+  const undoLabel = last && canUndo ? (last.kind === 'create' ? `Undo logging ${last.record.catalogueNo}` : `Undo changes to ${last.catalogueNo}`) : 'Undo';
 
   return (
     <section className="catalogue-screen" aria-labelledby="catalogue-title">
