@@ -91,7 +91,7 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
     // Unit names only where there is room for them.
     const roomy = input.units.filter((u) => (u.xMax - u.xMin) * k >= 34 && (u.yMax - u.yMin) * k >= 16);
     if (roomy.length) {
-      out += `<g id="unit-names" font-size="10" fill="${MUTED}">`;
+      out += `<g id="unit-names" font-size="10" fill="${MUTED}" stroke="#f2efe8" stroke-width="2.5" paint-order="stroke">`;
       for (const u of roomy) out += text(sx(u.xMin) + 3, sy(u.yMax) + 11, u.unit);
       out += `</g>`;
     }
