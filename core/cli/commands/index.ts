@@ -2,6 +2,8 @@ import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerInit } from './init';
 import { registerServe } from './serve';
+import { registerSite } from './site';
+import { registerSpatial } from './spatial';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -11,4 +13,6 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
   registerServe,
+  registerSpatial,
+  registerSite,
 ];
