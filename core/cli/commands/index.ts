@@ -1,6 +1,8 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerInit } from './init';
+import { registerImportSpecimens } from './import-specimens';
+import { registerExport } from './export';
 import { registerServe } from './serve';
 import { registerSite } from './site';
 import { registerSpatial } from './spatial';
@@ -12,6 +14,8 @@ import { registerSpatial } from './spatial';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerImportSpecimens,
+  registerExport,
   registerServe,
   registerSpatial,
   registerSite,

@@ -147,3 +147,19 @@ describe('spatial analysis of a catalogue', () => {
     expect(usage.status).toBe(2);
   });
 });
+
+describe('knitbone import site', () => {
+  it('imports a units CSV and lists it with knitbone site --json', () => {
+    const file = smallCatalogue();
+    const csv = join(temp(), 'units.csv');
+    writeFileSync(csv, 'unit,x_min,y_min,x_max,y_max\nN2E0,0,2,2,4\n');
+    const r = run('import', 'site', file, csv, '--json');
+    expect(r.status).toBe(0);
+    expect(JSON.parse(r.stdout)).toMatchObject({ unitsAdded: 1 });
+    const shown = JSON.parse(run('site', file, '--json').stdout);
+    expect(shown.units.map((u: { unit: string }) => u.unit)).toEqual(['N0E2', 'N2E0']);
+    const bad = run('import', 'site', file, join(temp(), 'missing.csv'));
+    expect(bad.status).toBe(1);
+    expect(bad.stderr).toMatch(/missing\.csv/);
+  });
+});
