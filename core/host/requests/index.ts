@@ -1,6 +1,7 @@
 import { appRequests } from './app';
 import { catalogueRequests } from './catalogue';
 import { spatialRequests } from './spatial';
+import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -12,6 +13,7 @@ export const requests = {
   ...catalogueRequests,
   ...spatialRequests,
   ...vocabularyRequests,
+  ...viewerRequests,
 };
 
 export type Requests = typeof requests;
