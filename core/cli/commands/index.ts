@@ -4,6 +4,8 @@ import { registerInit } from './init';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerServe } from './serve';
+import { registerSite } from './site';
+import { registerSpatial } from './spatial';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -15,4 +17,6 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerImportSpecimens,
   registerExport,
   registerServe,
+  registerSpatial,
+  registerSite,
 ];

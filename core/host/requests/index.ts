@@ -1,5 +1,6 @@
 import { appRequests } from './app';
 import { catalogueRequests } from './catalogue';
+import { spatialRequests } from './spatial';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -9,6 +10,7 @@ import { vocabularyRequests } from './vocabulary';
 export const requests = {
   ...appRequests,
   ...catalogueRequests,
+  ...spatialRequests,
   ...vocabularyRequests,
 };
 
