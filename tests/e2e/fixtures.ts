@@ -26,7 +26,8 @@ export async function openFromFirstRun(page: import('playwright-core').Page): Pr
  */
 export async function bunnyPly(dir: string, name: string): Promise<string> {
   const { writeFileSync } = await import('node:fs');
-  const bunny = (await import('bunny')) as unknown as { positions: number[][]; cells: number[][] };
+  const { createRequire } = await import('node:module');
+  const bunny = createRequire(import.meta.url)('bunny') as { positions: number[][]; cells: number[][] };
   const header = [
     'ply',
     'format binary_little_endian 1.0',
