@@ -1,4 +1,4 @@
-import { carriedBy, isConjoin, type JoinType } from './join-type';
+import { carriedBy, isConjoin, type RefitJoinType } from './join-type';
 import type { Conflict } from './conflict';
 import { mostSpecific } from './most-specific';
 import type { Observation, Side } from './observation';
@@ -12,7 +12,7 @@ export interface RefitJoin {
   id: JoinId;
   a: string;
   b: string;
-  type: JoinType;
+  type: RefitJoinType;
 }
 
 /** What propagation concluded for one specimen, field by field, and from which joins. */
