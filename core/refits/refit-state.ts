@@ -60,6 +60,8 @@ export class RefitState {
   private readonly sets: UnionFind;
   /** Fragments joined across modern breaks (one specimen by common practice). */
   private readonly modern: UnionFind;
+  /** Every accepted join of any type: nothing derived flows outside these components. */
+  private readonly linked: UnionFind;
   private readonly taxa: UnionFind;
   private readonly elements: UnionFind;
   private readonly sides: UnionFind;
@@ -84,6 +86,7 @@ export class RefitState {
     const n = observations.length;
     this.sets = new UnionFind(n);
     this.modern = new UnionFind(n);
+    this.linked = new UnionFind(n);
     this.taxa = new UnionFind(n);
     this.elements = new UnionFind(n);
     this.sides = new UnionFind(n);
@@ -228,6 +231,7 @@ export class RefitState {
     const ia = this.indexOf(join.a);
     const ib = this.indexOf(join.b);
     if (ia === ib) return conflicts;
+    this.linked.union(ia, ib);
     const bad = new Set(conflicts.map((c) => c.field));
     const { vocab } = this;
     const ea = this.elementAt[this.elements.find(ia)];
@@ -302,6 +306,21 @@ export class RefitState {
   /** Index of the group of fragments joined across modern breaks. */
   modernGroupIndexOf(specimen: string): number {
     return this.modern.find(this.indexOf(specimen));
+  }
+
+  /**
+   * Every specimen linked to this one through accepted joins of any type. Derived values
+   * depend only on this component, so accepting or undoing a join between two specimens
+   * can change derived values only within their components.
+   */
+  linkedMembers(specimen: string): string[] {
+    const root = this.linked.find(this.indexOf(specimen));
+    if (this.linked.sizeOf(root) === 1) return [specimen];
+    const out: string[] = [];
+    this.observations.forEach((o, i) => {
+      if (this.linked.find(i) === root) out.push(o.specimen);
+    });
+    return out;
   }
 
   /** Refit sets with more than one member, each as sorted catalogue numbers. */

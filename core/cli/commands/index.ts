@@ -1,6 +1,13 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerServe } from './serve';
+import { registerLink } from './link';
+import { registerAccept } from './accept';
+import { registerReject } from './reject';
+import { registerUnlink } from './unlink';
+import { registerJoins } from './joins';
+import { registerConflicts } from './conflicts';
+import { registerTally } from './tally';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -9,4 +16,11 @@ import { registerServe } from './serve';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerServe,
+  registerLink,
+  registerAccept,
+  registerReject,
+  registerUnlink,
+  registerJoins,
+  registerConflicts,
+  registerTally,
 ];

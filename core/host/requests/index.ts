@@ -1,4 +1,6 @@
 import { appRequests } from './app';
+import { joinsRequests } from './joins';
+import { tallyRequests } from './tally';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -6,6 +8,8 @@ import { appRequests } from './app';
  */
 export const requests = {
   ...appRequests,
+  ...joinsRequests,
+  ...tallyRequests,
 };
 
 export type Requests = typeof requests;
