@@ -78,6 +78,8 @@ export class RefitState {
   private readonly sideJoins: (JoinId[] | null)[];
 
   private readonly accepted: RefitJoin[] = [];
+  /** Goes up by one with every join applied, so readers can tell the state moved on. */
+  revision = 0;
   private readonly conflictsByJoin = new Map<JoinId, Conflict[]>();
 
   constructor(observations: readonly Observation[], vocab: RefitVocabulary) {
@@ -226,6 +228,7 @@ export class RefitState {
    */
   accept(join: RefitJoin): Conflict[] {
     const conflicts = this.check(join);
+    this.revision++;
     this.accepted.push(join);
     this.conflictsByJoin.set(join.id, conflicts);
     const ia = this.indexOf(join.a);
@@ -298,6 +301,11 @@ export class RefitState {
       .filter((x) => x.conflicts.length > 0);
   }
 
+  /** Refit set and modern-break group of the specimen at a position in `observations`. */
+  groupsAt(i: number): { set: number; modernGroup: number } {
+    return { set: this.sets.find(i), modernGroup: this.modern.find(i) };
+  }
+
   /** Index of the refit set of a specimen: equal for every member of one set. */
   setIndexOf(specimen: string): number {
     return this.sets.find(this.indexOf(specimen));
@@ -366,7 +374,11 @@ export class RefitState {
 
   /** The identification to count with: own observation raised by what was derived. */
   effective(specimen: string): EffectiveIdentification {
-    const i = this.indexOf(specimen);
+    return this.effectiveAt(this.indexOf(specimen));
+  }
+
+  /** As effective(), by position in `observations`. */
+  effectiveAt(i: number): EffectiveIdentification {
     const o = this.observations[i];
     const side = sideName(this.sideOf(i));
     return {

@@ -4,7 +4,7 @@
  * 2,000 accepted conjoins; then we time link + tally and unlink + tally through the host.
  */
 import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { emptySpecimenFields, openCatalogue, type SpecimenFields } from '../../core/catalogue/index';
@@ -102,18 +102,29 @@ export default async function main(): Promise<void> {
     const host = new Host();
     const accept: number[] = [];
     const undo: number[] = [];
+    const acceptCpu: number[] = [];
+    const undoCpu: number[] = [];
+    const cpu = () => {
+      const u = process.cpuUsage();
+      return (u.user + u.system) / 1000;
+    };
     let refitted = 0;
     for (let k = 0; k < TRIALS; k++) {
       const [a, b] = free[k];
       const s = performance.now();
+      const cs = cpu();
       const d = await host.call('joins.link', { catalogue: path, a: specimens[a].catalogueNo, b: specimens[b].catalogueNo, type: 'conjoin-green' });
       const t = await host.call('tally.counts', { catalogue: path });
       const m = performance.now();
+      const cm = cpu();
       await host.call('joins.unlink', { catalogue: path, id: d.join.id });
       await host.call('tally.counts', { catalogue: path });
       const e = performance.now();
+      const ce = cpu();
       accept.push(m - s);
       undo.push(e - m);
+      acceptCpu.push(cm - cs);
+      undoCpu.push(ce - cm);
       refitted = t.refitted.nisp;
     }
     const rows = [
@@ -124,13 +135,16 @@ export default async function main(): Promise<void> {
       ['tally recorded + refitted ms (median)', median(count).toFixed(1)],
       ['link + tally ms (median)', median(accept).toFixed(1)],
       ['link + tally ms (max)', Math.max(...accept).toFixed(1)],
+      ['link + tally CPU ms (median)', median(acceptCpu).toFixed(1)],
       ['unlink + tally ms (median)', median(undo).toFixed(1)],
+      ['unlink + tally CPU ms (median)', median(undoCpu).toFixed(1)],
+      ['machine load average (1 min, 2 cores)', loadavg()[0].toFixed(1)],
       ['refitted NISP after one link', String(refitted)],
       ['target ms per accept-and-recount', '50'],
     ];
     const w = Math.max(...rows.map((r) => r[0].length));
     for (const [k, v] of rows) process.stdout.write(`${k.padEnd(w)}  ${v}\n`);
   } finally {
-    if (!process.env.KEEP) rmSync(dir, { recursive: true, force: true }); else console.log(path);
+    rmSync(dir, { recursive: true, force: true });
   }
 }

@@ -1,7 +1,8 @@
 import type { Catalogue } from '../../catalogue/index';
 import type { IdentificationRule } from '../../quant/identified';
 import { numberOfSpecimens } from '../../quant/nsp';
-import { tally, type Tally } from '../../quant/tally';
+import { tally, TallyBook, type Tally } from '../../quant/tally';
+import type { RefitState } from '../../refits/refit-state';
 import { recordedView, refittedView } from '../../refits/counting-view';
 import { identificationRuleOf, type Counts } from './counts-of';
 import { refitsOf, type CatalogueRefits } from './refits-of';
@@ -19,7 +20,8 @@ interface Entry {
   refits: CatalogueRefits;
   rule: IdentificationRule;
   recorded?: Tally;
-  refitted?: Tally;
+  /** The refitted counts, and the state and revision they were last brought to. */
+  book?: { tally: TallyBook; state: RefitState; revision: number };
 }
 
 const entries = new Map<string, Entry>();
@@ -52,6 +54,7 @@ export function remember(cat: Catalogue, refits: CatalogueRefits): void {
     refits,
     rule: old?.rule ?? identificationRuleOf(cat),
     ...(sameSpecimens && old?.recorded ? { recorded: old.recorded } : {}),
+    ...(sameSpecimens && old?.book ? { book: old.book } : {}),
   });
 }
 
@@ -65,9 +68,15 @@ export function countsFor(cat: Catalogue): Counts {
   const refits = refitsFor(cat);
   const e = entries.get(cat.path)!;
   if (!e.recorded) e.recorded = tally(recordedView(refits.state), refits.vocab, e.rule);
-  if (!e.refitted) {
-    const view = refittedView(refits.state);
-    e.refitted = tally(view.specimens, refits.vocab, e.rule, view.pairs);
+  const { state } = refits;
+  if (!e.book) {
+    const view = refittedView(state);
+    e.book = { tally: new TallyBook(view.specimens, refits.vocab, e.rule, view.pairs), state, revision: state.revision };
+  } else if (e.book.state !== state || e.book.revision !== state.revision) {
+    const view = refittedView(state);
+    e.book.tally.update(view.specimens, view.pairs);
+    e.book.state = state;
+    e.book.revision = state.revision;
   }
-  return structuredClone({ nsp: numberOfSpecimens(refits.specimens), recorded: e.recorded, refitted: e.refitted });
+  return { nsp: numberOfSpecimens(refits.specimens), recorded: structuredClone(e.recorded), refitted: e.book.tally.result() };
 }

@@ -14,6 +14,8 @@ export interface CatalogueRefits {
   byNo: Map<string, Specimen>;
   vocab: RefitVocabulary & CountingVocabulary;
   state: RefitState;
+  /** The latest decision time among accepted joins ('' when none): new decisions come after it. */
+  lastDecidedAt: string;
 }
 
 /** The analyst's own observations of a specimen, as refits reads them. */
@@ -53,8 +55,11 @@ export function refitsOf(cat: Catalogue, options: { without?: number } = {}): Ca
   const byNo = new Map(specimens.map((s) => [s.catalogueNo, s]));
   const vocab = countingVocabulary(vocabularyOf(cat));
   const state = new RefitState(specimens.map(observationOf), vocab);
+  let lastDecidedAt = '';
   for (const j of acceptedInDecisionOrder(cat)) {
-    if (j.id !== options.without) state.accept(refitJoinOf(j, byId));
+    if (j.id === options.without) continue;
+    state.accept(refitJoinOf(j, byId));
+    if (j.decidedAt && j.decidedAt > lastDecidedAt) lastDecidedAt = j.decidedAt;
   }
-  return { specimens, byId, byNo, vocab, state };
+  return { specimens, byId, byNo, vocab, state, lastDecidedAt };
 }

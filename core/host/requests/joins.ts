@@ -90,11 +90,12 @@ function decide<T>(cat: Catalogue, fn: (refits: CatalogueRefits) => { result: T;
 }
 
 /** A moment strictly after every decision already taken, so decision order is kept. */
-function decisionTime(cat: Catalogue): string {
+function decisionTime(refits: CatalogueRefits): string {
   const now = new Date().toISOString();
-  const last = cat.joins.list({ status: 'accepted' }).reduce((m, j) => (j.decidedAt && j.decidedAt > m ? j.decidedAt : m), '');
-  if (now > last) return now;
-  return new Date(Date.parse(last) + 1).toISOString();
+  const last = refits.lastDecidedAt;
+  const at = now > last ? now : new Date(Date.parse(last) + 1).toISOString();
+  refits.lastDecidedAt = at;
+  return at;
 }
 
 /** Requests that record, decide and undo joins, with propagation of identifications. */
@@ -132,7 +133,7 @@ export const joinsRequests = {
               note: input.note ?? null,
               forced: conflicts.length > 0,
               decidedBy: who,
-              decidedAt: decisionTime(cat),
+              decidedAt: decisionTime(refits),
             },
             who,
             'link',
@@ -161,7 +162,7 @@ export const joinsRequests = {
           const stored = kind === 'conjoin' ? { type: 'conjoin' as const, breakAge: current.breakAge } : storedKind(kind);
           const join = cat.joins.update(
             current.id,
-            { status: 'accepted', ...stored, forced: conflicts.length > 0, decidedBy: who, decidedAt: decisionTime(cat) },
+            { status: 'accepted', ...stored, forced: conflicts.length > 0, decidedBy: who, decidedAt: decisionTime(refits) },
             who,
             'accept',
           );
