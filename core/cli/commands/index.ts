@@ -1,5 +1,8 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerInit } from './init';
+import { registerImportSpecimens } from './import-specimens';
+import { registerExport } from './export';
 import { registerServe } from './serve';
 import { registerLink } from './link';
 import { registerAccept } from './accept';
@@ -8,6 +11,8 @@ import { registerUnlink } from './unlink';
 import { registerJoins } from './joins';
 import { registerConflicts } from './conflicts';
 import { registerTally } from './tally';
+import { registerSite } from './site';
+import { registerSpatial } from './spatial';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -15,6 +20,9 @@ import { registerTally } from './tally';
  */
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
+  registerInit,
+  registerImportSpecimens,
+  registerExport,
   registerServe,
   registerLink,
   registerAccept,
@@ -23,4 +31,6 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerJoins,
   registerConflicts,
   registerTally,
+  registerSpatial,
+  registerSite,
 ];

@@ -1,6 +1,9 @@
 import { appRequests } from './app';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
+import { catalogueRequests } from './catalogue';
+import { spatialRequests } from './spatial';
+import { vocabularyRequests } from './vocabulary';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -10,6 +13,9 @@ export const requests = {
   ...appRequests,
   ...joinsRequests,
   ...tallyRequests,
+  ...catalogueRequests,
+  ...spatialRequests,
+  ...vocabularyRequests,
 };
 
 export type Requests = typeof requests;

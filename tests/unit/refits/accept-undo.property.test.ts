@@ -6,7 +6,7 @@ import { recordedView, refittedView } from '../../../core/refits/counting-view';
 import { JOIN_TYPES } from '../../../core/refits/join-type';
 import type { Observation } from '../../../core/refits/observation';
 import { RefitState, type RefitJoin } from '../../../core/refits/refit-state';
-import { fixtureVocabulary as vocab } from './fixture-vocabulary';
+import { fixtureVocabulary as vocab } from './vocabulary';
 
 // Property of issue 3: for random catalogues and random accept/undo sequences, accepting
 // then undoing returns every count and derived value to what it was, and refitted NISP
