@@ -1,11 +1,13 @@
 import type { Command } from 'commander';
 
 /**
- * The `knitbone import` command group (import specimens, import scans, ...). Each area adds
- * its own subcommand through this, so the group is created once whoever registers first.
+ * `knitbone import <what> ...` is one command with a subcommand per kind of input
+ * (specimens, scans). Each area's command file calls this to get the shared group.
  */
 export function importGroup(program: Command): Command {
   const existing = program.commands.find((c) => c.name() === 'import');
   if (existing) return existing;
-  return program.command('import').description('bring specimens or scans into a catalogue');
+  const group = program.command('import').description('bring specimens or scans into a catalogue');
+  group.exitOverride();
+  return group;
 }

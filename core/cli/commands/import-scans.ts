@@ -8,6 +8,7 @@ import { importGroup } from './import-group';
 export function registerImportScans(program: Command): void {
   importGroup(program)
     .command('scans')
+    .exitOverride()
     .description('read every .ply, .stl and .obj file in a folder and link it to the specimen whose catalogue number is the file name')
     .argument('<catalogue>', 'path of the catalogue file')
     .argument('<folder>', 'folder that holds the scan files')

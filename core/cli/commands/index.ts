@@ -3,6 +3,8 @@ import { registerAbout } from './about';
 import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
 import { registerInspect } from './inspect';
+import { registerImportSpecimens } from './import-specimens';
+import { registerExport } from './export';
 import { registerServe } from './serve';
 
 /**
@@ -14,5 +16,7 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerInit,
   registerInspect,
   registerImportScans,
+  registerImportSpecimens,
+  registerExport,
   registerServe,
 ];

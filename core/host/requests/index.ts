@@ -1,6 +1,7 @@
 import { appRequests } from './app';
 import { catalogueRequests } from './catalogue';
 import { scanRequests } from './scans';
+import { vocabularyRequests } from './vocabulary';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -10,6 +11,7 @@ export const requests = {
   ...appRequests,
   ...catalogueRequests,
   ...scanRequests,
+  ...vocabularyRequests,
 };
 
 export type Requests = typeof requests;
