@@ -6,6 +6,8 @@ import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerServe } from './serve';
+import { registerSite } from './site';
+import { registerSpatial } from './spatial';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -19,4 +21,6 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerImportSpecimens,
   registerExport,
   registerServe,
+  registerSpatial,
+  registerSite,
 ];

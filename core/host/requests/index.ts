@@ -1,6 +1,7 @@
 import { appRequests } from './app';
 import { catalogueRequests } from './catalogue';
 import { scanRequests } from './scans';
+import { spatialRequests } from './spatial';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -11,6 +12,7 @@ export const requests = {
   ...appRequests,
   ...catalogueRequests,
   ...scanRequests,
+  ...spatialRequests,
   ...vocabularyRequests,
 };
 
