@@ -1,4 +1,6 @@
 import { appRequests } from './app';
+import { joinsRequests } from './joins';
+import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
 import { spatialRequests } from './spatial';
 import { vocabularyRequests } from './vocabulary';
@@ -9,6 +11,8 @@ import { vocabularyRequests } from './vocabulary';
  */
 export const requests = {
   ...appRequests,
+  ...joinsRequests,
+  ...tallyRequests,
   ...catalogueRequests,
   ...spatialRequests,
   ...vocabularyRequests,
