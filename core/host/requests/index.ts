@@ -4,6 +4,7 @@ import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { reviewRequests } from './review';
 import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
@@ -20,6 +21,7 @@ export const requests = {
   ...spatialRequests,
   ...vocabularyRequests,
   ...viewerRequests,
+  ...reviewRequests,
 };
 
 export type Requests = typeof requests;
