@@ -3,6 +3,7 @@ import { registerAbout } from './about';
 import { registerInit } from './init';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
+import { registerVocabulary } from './vocabulary';
 import { registerServe } from './serve';
 import { registerLink } from './link';
 import { registerAccept } from './accept';
@@ -23,6 +24,7 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerInit,
   registerImportSpecimens,
   registerExport,
+  registerVocabulary,
   registerServe,
   registerLink,
   registerAccept,
