@@ -1,6 +1,8 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
+import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerVocabulary } from './vocabulary';
@@ -22,6 +24,8 @@ import { registerSpatial } from './spatial';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerInspect,
+  registerImportScans,
   registerImportSpecimens,
   registerExport,
   registerVocabulary,
