@@ -5,6 +5,7 @@ import { registerInit } from './init';
 import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
+import { registerVocabulary } from './vocabulary';
 import { registerServe } from './serve';
 import { registerLink } from './link';
 import { registerAccept } from './accept';
@@ -27,6 +28,7 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerImportScans,
   registerImportSpecimens,
   registerExport,
+  registerVocabulary,
   registerServe,
   registerLink,
   registerAccept,
