@@ -1,5 +1,6 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerInit } from './init';
 import { registerServe } from './serve';
 
 /**
@@ -8,5 +9,6 @@ import { registerServe } from './serve';
  */
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
+  registerInit,
   registerServe,
 ];
