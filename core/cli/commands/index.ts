@@ -1,6 +1,8 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerInit } from './init';
+import { registerMatch } from './match';
+import { registerPropose } from './propose';
 import { registerServe } from './serve';
 
 /**
@@ -10,5 +12,7 @@ import { registerServe } from './serve';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerMatch,
+  registerPropose,
   registerServe,
 ];

@@ -118,3 +118,17 @@ export function defaultSpacing(diagonals: number[]): number {
   const d = Math.max(...diagonals);
   return Math.max(1e-6, d / 60);
 }
+
+/** Samples wanted on a typical break face: enough for FPFH and RANSAC, few enough to be quick. */
+export const SAMPLES_PER_FACE = 300;
+
+/**
+ * One spacing for a set of break faces (all faces compared must share it, since FPFH depends on
+ * it): a typical (median) face gets about SAMPLES_PER_FACE samples; kept within 0.3-4 mm.
+ */
+export function spacingForFaces(areas: number[]): number {
+  if (areas.length === 0) return 1;
+  const s = [...areas].sort((p, q) => p - q);
+  const median = s[Math.floor(s.length / 2)];
+  return Math.min(4, Math.max(0.3, Math.sqrt(median / SAMPLES_PER_FACE)));
+}

@@ -1,5 +1,6 @@
 import { appRequests } from './app';
 import { catalogueRequests } from './catalogue';
+import { proposalRequests } from './proposals';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -8,6 +9,7 @@ import { catalogueRequests } from './catalogue';
 export const requests = {
   ...appRequests,
   ...catalogueRequests,
+  ...proposalRequests,
 };
 
 export type Requests = typeof requests;
