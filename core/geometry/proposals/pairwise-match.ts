@@ -26,7 +26,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   ransacIterations: 3000,
   hypothesesPerPair: 4,
   icpTrim: 0.7,
-  contactToleranceSpacings: 0.75,
+  contactToleranceSpacings: 0.4,
   seed: 1,
 };
 
@@ -37,7 +37,7 @@ export interface FaceMatch extends JoinScore {
 }
 
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
-  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, outline: face.outline };
+  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
 }
 
 /** Refined, scored motions carrying B's face fb onto A's face fa, best first. */

@@ -17,6 +17,8 @@ export interface BreakFaceInput {
   outline?: Float32Array;
   /** Area in mm^2, if known. */
   area?: number;
+  /** The face's triangles (indices into the fragment's triangles): when given, the face is sampled from them. */
+  triangleIds?: Uint32Array;
 }
 
 export interface FragmentInput {
@@ -42,6 +44,7 @@ export interface PreparedFragment {
   surface: TargetSurface;
   surfacePoints: Float32Array;
   surfaceNormals: Float32Array;
+  surfaceTree: KdTree;
   faces: PreparedFace[];
   centroid: [number, number, number];
   diagonal: number;
@@ -63,7 +66,9 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
   const all = sampleTriangles(positions, triangles, params.spacing * 1.5);
   const faces: PreparedFace[] = [];
   input.faces.forEach((f, index) => {
-    const s = voxelResample(f.points, f.normals, params.spacing);
+    const s = f.triangleIds && f.triangleIds.length
+      ? sampleFaceTriangles(positions, triangles, f.triangleIds, params.spacing)
+      : voxelResample(f.points, f.normals, params.spacing);
     const tree = new KdTree(s.points, 3);
     const fpfh = computeFpfh(s.points, s.normals, params.spacing * params.fpfhRadiusSpacings, tree);
     const outline = f.outline && f.outline.length >= 3 ? thinPolyline(f.outline, params.spacing * 0.5) : new Float32Array(0);
@@ -76,11 +81,18 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
     surface,
     surfacePoints: all.points,
     surfaceNormals: all.normals,
+    surfaceTree: new KdTree(all.points, 3),
     faces,
     centroid: centroidOf(positions),
     diagonal: Math.hypot(box[3] - box[0], box[4] - box[1], box[5] - box[2]),
     spacing: params.spacing,
   };
+}
+
+function sampleFaceTriangles(positions: Float32Array, triangles: Uint32Array, ids: Uint32Array, spacing: number) {
+  const sub = new Uint32Array(ids.length * 3);
+  ids.forEach((t, i) => sub.set(triangles.subarray(3 * t, 3 * t + 3), 3 * i));
+  return sampleTriangles(positions, sub, spacing);
 }
 
 export function centroidOf(p: ArrayLike<number>): [number, number, number] {
