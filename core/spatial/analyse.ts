@@ -170,6 +170,7 @@ export function analyseRefits(
       a: a.catalogueNo,
       b: b.catalogueNo,
       type: join.type,
+      breakAge: join.breakAge ?? null,
       horizontalM: horizontalDistance(from, to),
       verticalM: verticalDisplacement(from, to),
       distance3dM: distance3d(from, to),

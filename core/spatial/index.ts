@@ -6,7 +6,7 @@
 export * from './types';
 export * from './measures';
 export { analyseRefits, compareLayerNames, type PlacedJoin, type SpatialAnalysis, type SpatialSummary, type LayerCrossing } from './analyse';
-export { joinPasses, type JoinFilter } from './filters';
+export { joinKind, joinPasses, type JoinFilter } from './filters';
 export { indexSite, resolvePosition } from './positions';
 export { spatialReport, type SpatialReport } from './report';
 export * from './figures/index';

@@ -35,6 +35,7 @@ export function spatialReport(analysis: SpatialAnalysis): SpatialReport {
       a: j.a,
       b: j.b,
       type: j.type,
+      breakAge: j.breakAge,
       horizontalM: round(j.horizontalM, M),
       verticalM: round(j.verticalM, M),
       distance3dM: round(j.distance3dM, M),

@@ -23,6 +23,8 @@ export interface SpatialJoin {
   b: number;
   /** Join type: conjoin, articulation, pair (design.md section 6), or a finer label. */
   type: string;
+  /** For a conjoin, the age of the break it mends: fresh, dry, modern or indeterminate. */
+  breakAge?: string | null;
 }
 
 /** An excavation unit: an axis-aligned rectangle on the site grid. */
@@ -77,6 +79,7 @@ export interface MeasuredJoin {
   a: string;
   b: string;
   type: string;
+  breakAge: string | null;
   horizontalM: number;
   /** Absolute difference in elevation. */
   verticalM: number;

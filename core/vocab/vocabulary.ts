@@ -1,6 +1,7 @@
 import { BUILT_IN_ELEMENTS, LONG_BONE, type ElementNode } from './elements';
 import { Hierarchy } from './hierarchy';
 import { closestTerms, termKey } from './normalise';
+import { PORTION_ZONES, type PortionZone } from './portion-zones';
 import { SKELETON_COUNTS } from './skeleton-counts';
 import { BUILT_IN_TAXA, SKELETON_GROUPS, TAXON_RANKS, type SkeletonGroup, type TaxonNode, type TaxonRank } from './taxa';
 import { BREAK_AGE_TERMS, FUSION_TERMS, MODIFICATION_TERMS, SIDE_TERMS, flatIndex, type FlatTerm } from './terms';
@@ -233,4 +234,17 @@ export function countPerSkeleton(element: string, taxonOrGroup: string, vocab: V
   const specifics = vocab.elements.descendantsOf(element).filter((e) => vocab.elements.get(e)!.specific);
   if (specifics.length === 0 || specifics.some((e) => counts[e] === undefined)) return undefined;
   return specifics.reduce((s, e) => s + counts[e], 0);
+}
+
+/** Portion zones of an element in order (long bones and their categories), or null when it has none. */
+export function zonesOf(element: string, vocab: Vocabulary = builtInVocabulary): readonly PortionZone[] | null {
+  return isLongBone(element, vocab) ? PORTION_ZONES : null;
+}
+
+/**
+ * An element (or category) of the fore- or hindlimb: long bones, limb girdles, carpals,
+ * tarsals, patella, sesamoids and phalanges (common practice).
+ */
+export function isLimbElement(element: string, vocab: Vocabulary = builtInVocabulary): boolean {
+  return ['long bone', 'girdle', 'carpal', 'tarsal', 'patella', 'sesamoid', 'phalanx'].some((root) => vocab.elements.isAncestorOrSelf(root, element));
 }

@@ -22,7 +22,9 @@ export interface InventedSite {
   site: SiteDefinitions;
 }
 
-const TYPES = ['conjoin-green', 'conjoin-green', 'conjoin-dry', 'conjoin-dry', 'conjoin-modern', 'articulation', 'pair'];
+const KINDS: [string, string | null][] = [
+  ['conjoin', 'fresh'], ['conjoin', 'fresh'], ['conjoin', 'dry'], ['conjoin', 'dry'], ['conjoin', 'modern'], ['articulation', null], ['pair', null],
+];
 
 export function inventedSite(specimenCount: number, joinCount: number, seed = 7, unitsPerSide = 10): InventedSite {
   const rand = mulberry32(seed);
@@ -101,7 +103,8 @@ export function inventedSite(specimenCount: number, joinCount: number, seed = 7,
       }
     }
     const b = best ?? specimens[(a.id) % specimens.length];
-    joins.push({ id, a: a.id, b: b.id, type: TYPES[Math.floor(rand() * TYPES.length)] });
+    const [type, breakAge] = KINDS[Math.floor(rand() * KINDS.length)];
+    joins.push({ id, a: a.id, b: b.id, type, breakAge });
   }
   return { specimens, joins, site: { units, levels, layerBoundaries } };
 }

@@ -3,7 +3,11 @@ import { registerAbout } from './about';
 import { registerInit } from './init';
 import { registerMatch } from './match';
 import { registerPropose } from './propose';
+import { registerImportSpecimens } from './import-specimens';
+import { registerExport } from './export';
 import { registerServe } from './serve';
+import { registerSite } from './site';
+import { registerSpatial } from './spatial';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -14,5 +18,9 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerInit,
   registerMatch,
   registerPropose,
+  registerImportSpecimens,
+  registerExport,
   registerServe,
+  registerSpatial,
+  registerSite,
 ];

@@ -1,4 +1,8 @@
+import { readFileSync } from 'node:fs';
+import { basename } from 'node:path';
 import { z } from 'zod';
+import { exportCatalogue } from '../../catalogue/export';
+import { importSpecimens } from '../../catalogue/import-specimens';
 import { openCatalogue, withCatalogue } from '../../catalogue/catalogue';
 import { checkSpecimenFields, checkSpecimenPatch } from '../../catalogue/specimen-input';
 import { emptySpecimenFields } from '../../catalogue/records';
@@ -119,6 +123,62 @@ export const catalogueRequests = {
           return cat.specimens.update(current.id, patch);
         },
         { who: input.who },
+      ),
+  }),
+
+  'specimens.import': defineRequest({
+    summary: 'Import specimens from a CSV file, all or nothing; with update, change existing ones (recorded in history)',
+    input: z
+      .object({
+        catalogue: cataloguePath,
+        /** Path of the CSV file (CLI), or its text in `csv` (Electron, HTTP). */
+        file: z.string().trim().min(1).optional(),
+        csv: z.string().optional(),
+        fileName: z.string().optional(),
+        update: z.boolean().default(false),
+        who,
+      })
+      .strict()
+      .refine((r) => (r.file === undefined) !== (r.csv === undefined), { message: 'give either file (a path) or csv (the text)' }),
+    run: (input, ctx) =>
+      withCatalogue(
+        input.catalogue,
+        (cat) => {
+          let bytes: Uint8Array | string;
+          if (input.file !== undefined) {
+            try {
+              bytes = readFileSync(input.file);
+            } catch (err) {
+              throw new KnitboneError('not-found', [{ file: input.file, message: `cannot read the file (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})` }]);
+            }
+          } else bytes = input.csv!;
+          const fileName = input.fileName ?? (input.file !== undefined ? basename(input.file) : 'specimens.csv');
+          return importSpecimens(cat, bytes, { update: input.update, fileName, onProgress: ctx.onProgress });
+        },
+        { who: input.who },
+      ),
+  }),
+
+  'catalogue.export': defineRequest({
+    summary: 'Write specimens.csv, joins.csv and history.csv of a catalogue into a folder',
+    input: z.object({ catalogue: cataloguePath, out: z.string().trim().min(1, 'give the folder to write to') }).strict(),
+    run: (input) => withCatalogue(input.catalogue, (cat) => ({ files: exportCatalogue(cat, input.out) })),
+  }),
+
+  'history.list': defineRequest({
+    summary: "A catalogue's history of edits and decisions, oldest first (optionally of one entity)",
+    input: z
+      .object({
+        catalogue: cataloguePath,
+        entity: z.string().optional(),
+        entityId: z.union([z.string(), z.number()]).optional(),
+        afterId: z.number().int().optional(),
+        limit: z.number().int().positive().optional(),
+      })
+      .strict(),
+    run: (input) =>
+      withCatalogue(input.catalogue, (cat) =>
+        cat.history.list({ entity: input.entity, entityId: input.entityId, afterId: input.afterId, limit: input.limit }),
       ),
   }),
 };

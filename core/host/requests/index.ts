@@ -1,6 +1,8 @@
 import { appRequests } from './app';
 import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
+import { spatialRequests } from './spatial';
+import { vocabularyRequests } from './vocabulary';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -10,6 +12,8 @@ export const requests = {
   ...appRequests,
   ...catalogueRequests,
   ...proposalRequests,
+  ...spatialRequests,
+  ...vocabularyRequests,
 };
 
 export type Requests = typeof requests;

@@ -3,6 +3,7 @@ import type { UnitDefinition } from '../types';
 import { bottomAxis, leftAxis, linearScale, niceStep } from './axis';
 import { densityClasses, densityDots } from './point-density';
 import { emptyExtent, include, padded } from './frame';
+import { joinKind } from '../filters';
 import { lineWidthFor, stylesFor, strokeAttrs } from './join-styles';
 import { esc, heading, INK, label, MUTED, px, svgOpen, text } from './svg';
 
@@ -66,7 +67,8 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
   const sy = linearScale([ext.yMin, ext.yMax], [top + plotH, top]);
   const step = niceStep(Math.max(spanX, spanY), 7);
 
-  const styles = stylesFor(input.joins.map((j) => j.type));
+  const kinds = input.joins.map((j) => joinKind(j.type, j.breakAge));
+  const styles = stylesFor(kinds);
   const approximateCount = input.joins.filter((j) => j.approximate).length;
 
   let out = svgOpen(
@@ -91,7 +93,7 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
     // Unit names only where there is room for them.
     const roomy = input.units.filter((u) => (u.xMax - u.xMin) * k >= 34 && (u.yMax - u.yMin) * k >= 16);
     if (roomy.length) {
-      out += `<g id="unit-names" font-size="10" fill="${MUTED}">`;
+      out += `<g id="unit-names" font-size="10" fill="${MUTED}" stroke="#f2efe8" stroke-width="2.5" paint-order="stroke">`;
       for (const u of roomy) out += text(sx(u.xMin) + 3, sy(u.yMax) + 11, u.unit);
       out += `</g>`;
     }
@@ -111,8 +113,9 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
   out += `<g id="refits" fill="none" stroke-linecap="round">`;
   for (const [type, style] of styles) {
     out += `<g data-type="${esc(type)}" ${strokeAttrs(style, lineWidthFor(style, input.joins.length))}>`;
-    for (const j of input.joins) {
-      if (j.type !== type) continue;
+    for (let i = 0; i < input.joins.length; i++) {
+      if (kinds[i] !== type) continue;
+      const j = input.joins[i];
       out += `<line x1="${px(sx(j.from.x))}" y1="${px(sy(j.from.y))}" x2="${px(sx(j.to.x))}" y2="${px(sy(j.to.y))}"${j.approximate ? ' stroke-opacity=".4"' : ''}/>`;
     }
     out += `</g>`;
@@ -123,7 +126,7 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
   out += scaleBar(left + 14, top + plotH - 16, k, spanX);
   out += bottomAxis(sx, top + plotH, step, 'Easting (m)');
   out += leftAxis(sy, left, step, 'Northing (m)');
-  out += legend(width - LEGEND_W, top, styles, input.joins, approximateCount, cell, input.units.length > 0);
+  out += legend(width - LEGEND_W, top, styles, kinds, approximateCount, cell, input.units.length > 0);
   return out + '</svg>';
 }
 
@@ -160,13 +163,13 @@ function legend(
   x: number,
   y: number,
   styles: ReturnType<typeof stylesFor>,
-  joins: readonly PlacedJoin[],
+  kinds: readonly string[],
   approximateCount: number,
   cell: number,
   hasUnits: boolean,
 ): string {
   const counts = new Map<string, number>();
-  for (const j of joins) counts.set(j.type, (counts.get(j.type) ?? 0) + 1);
+  for (const k of kinds) counts.set(k, (counts.get(k) ?? 0) + 1);
   let out = `<g id="legend" font-size="12">`;
   let row = y + 4;
   out += text(x, row, 'Refit lines', 'font-weight="bold"');

@@ -3,6 +3,7 @@ import { compareLayerNames } from '../analyse';
 import type { LayerBoundaryPoint } from '../types';
 import { bottomAxis, leftAxis, linearScale, niceStep } from './axis';
 import { densityClasses, densityDots } from './point-density';
+import { joinKind } from '../filters';
 import { lineWidthFor, stylesFor, strokeAttrs } from './join-styles';
 import { esc, heading, label, MUTED, px, svgOpen, text } from './svg';
 
@@ -106,7 +107,8 @@ export function sectionFigure(input: SectionInput, axis: SectionAxis, options: S
   const pxPerMUp = plotH / (zMax - zMin + 2 * padZ);
   const exaggeration = pxPerMUp / pxPerMAlong;
 
-  const styles = stylesFor(lines.map((l) => l.j.type));
+  const kinds = lines.map((l) => joinKind(l.j.type, l.j.breakAge));
+  const styles = stylesFor(kinds);
   const title = options.title ?? 'Section of refits';
   const direction = `bearing ${label(((axis.bearingDeg % 360) + 360) % 360, 1)}°`;
   let out = svgOpen(width, height, title,
@@ -149,8 +151,9 @@ export function sectionFigure(input: SectionInput, axis: SectionAxis, options: S
   out += `<g id="refits" fill="none" stroke-linecap="round">`;
   for (const [type, style] of styles) {
     out += `<g data-type="${esc(type)}" ${strokeAttrs(style, lineWidthFor(style, input.joins.length))}>`;
-    for (const l of lines) {
-      if (l.j.type !== type) continue;
+    for (let i = 0; i < lines.length; i++) {
+      if (kinds[i] !== type) continue;
+      const l = lines[i];
       out += `<line x1="${px(sa(l.a0))}" y1="${px(sz(l.z0))}" x2="${px(sa(l.a1))}" y2="${px(sz(l.z1))}"${l.j.approximate ? ' stroke-opacity=".4"' : ''}/>`;
     }
     out += `</g>`;

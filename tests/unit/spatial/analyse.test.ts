@@ -28,7 +28,8 @@ describe('analyseRefits', () => {
         id: 7,
         a: 'S-1',
         b: 'S-2',
-        type: 'conjoin-dry',
+        type: 'conjoin',
+        breakAge: 'dry',
         horizontalM: 5, // 3-4-5 triangle
         verticalM: 0.15, // 1.20 - 1.05
         distance3dM: 5.002, // sqrt(25.0225) = 5.00225
@@ -144,7 +145,7 @@ describe('analyseRefits', () => {
       specimen(3, { x: 2, y: 0, z: 0, layer: 'B', taxon: 'Bos taurus' }),
       specimen(4, { x: 3, y: 0, z: 0, layer: 'C', taxon: 'Bos taurus' }),
     ];
-    const joins = [join(1, 2, 'conjoin-green', 1), join(3, 4, 'conjoin-dry', 2), join(2, 3, 'articulation', 3), join(1, 4, 'pair', 4)];
+    const joins = [join(1, 2, 'conjoin-fresh', 1), join(3, 4, 'conjoin-dry', 2), join(2, 3, 'articulation', 3), join(1, 4, 'pair', 4)];
     const ids = (f: Parameters<typeof analyseRefits>[3]) => analyseRefits(s, joins, noSiteDefinitions, f).joins.map((j) => j.id);
     expect(ids({})).toEqual([1, 2, 3, 4]);
     expect(ids({ types: ['conjoin'] })).toEqual([1, 2]);

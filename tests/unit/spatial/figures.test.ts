@@ -45,7 +45,7 @@ const specimens = [
   specimen(8, { x: 2.5, y: 1.5, z: 1.1, layer: 'B', unit: 'N0E2' }), // same spot as 7
 ];
 const joins = [
-  join(1, 2, 'conjoin-green', 1),
+  join(1, 2, 'conjoin-fresh', 1),
   join(3, 4, 'conjoin-dry', 2),
   join(1, 3, 'articulation', 3),
   join(4, 5, 'pair', 4),
@@ -67,7 +67,7 @@ describe('figures', () => {
     const refits = doc.svg.g.find((g: { '@id'?: string }) => g['@id'] === 'refits');
     const types = refits.g.map((g: { '@data-type': string; line?: unknown[] }) => [g['@data-type'], g.line?.length]);
     expect(types).toEqual([
-      ['conjoin-green', 1],
+      ['conjoin-fresh', 1],
       ['conjoin-dry', 1],
       ['articulation', 1],
       ['pair', 1],

@@ -17,6 +17,8 @@ export function specimen(id: number, fields: Partial<SpatialSpecimen> = {}): Spa
 }
 
 let nextJoin = 1;
-export function join(a: number, b: number, type = 'conjoin-green', id = nextJoin++): SpatialJoin {
-  return { id, a, b, type };
+/** A join; "conjoin-dry" stands for a conjoin with break age dry, as the catalogue stores it. */
+export function join(a: number, b: number, kind = 'conjoin-fresh', id = nextJoin++): SpatialJoin {
+  const m = /^conjoin-(.+)$/.exec(kind);
+  return m ? { id, a, b, type: 'conjoin', breakAge: m[1] } : { id, a, b, type: kind, breakAge: null };
 }
