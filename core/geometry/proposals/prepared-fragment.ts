@@ -63,7 +63,7 @@ export const DEFAULT_FPFH_RADIUS_SPACINGS = 5;
 export function prepareFragment(input: FragmentInput, params: SamplingParameters): PreparedFragment {
   const { positions, triangles } = input;
   const surface = new TargetSurface(positions, triangles);
-  const all = sampleTriangles(positions, triangles, params.spacing * 1.5);
+  const all = sampleTriangles(positions, triangles, params.spacing * 2.5);
   const faces: PreparedFace[] = [];
   input.faces.forEach((f, index) => {
     const s = f.triangleIds && f.triangleIds.length

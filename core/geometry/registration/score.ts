@@ -51,11 +51,13 @@ export interface ScoreOptions {
 }
 
 /**
- * Logistic model over the components: logit = b0 + b1 contact + b2 contactOther + b3 outline
- * - b4 gap/tol - b5 penetration/tol. Coefficients fitted on generated truth (see
- * tests/bench/proposals.bench.ts); the starting values were chosen by hand.
+ * Logistic model over the components: logit = b0 + contact + contactOther + outline
+ * - gap/gapScale - penetration/gapScale - (1 - min(1, interlock/interlockFull)). Gaps are
+ * measured against an absolute scale (a true join's faces sit within scanner noise and light
+ * erosion of each other, a few tenths of a millimetre, from memory), not against the sampling.
+ * Coefficients fitted on generated truth (tests/bench/proposals.bench.ts); starting values by hand.
  */
-export const SCORE_MODEL = { b0: -4, contact: 7, contactOther: 3, outline: 3, gap: 1.2, penetration: 1.0, interlock: 8, interlockFull: 0.12 };
+export const SCORE_MODEL = { b0: -5, contact: 6, contactOther: 3, outline: 2, gap: 2.5, penetration: 1.5, gapScaleMm: 0.3, interlock: 8, interlockFull: 0.12 };
 
 export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): JoinScore {
   const tol = options.contactTolerance;
@@ -79,7 +81,7 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const m = SCORE_MODEL;
   const logit =
     m.b0 + m.contact * contactFraction + m.contactOther * contactFractionOther + m.outline * outlineAgreement -
-    m.gap * (gapRmsMm / tol) - m.penetration * (penetrationMm / tol) - m.interlock * (1 - Math.min(1, interlock / m.interlockFull));
+    m.gap * (gapRmsMm / m.gapScaleMm) - m.penetration * (penetrationMm / m.gapScaleMm) - m.interlock * (1 - Math.min(1, interlock / m.interlockFull));
   const score = 1 / (1 + Math.exp(-logit));
   return { score, contactFraction, contactFractionOther, gapRmsMm, penetrationMm, outlineAgreement, interlock };
 }
