@@ -86,25 +86,30 @@ export function readSpecimenCsv(
   file: string,
   vocab: Vocabulary,
 ): { rows: Row[]; columns: SpecimenField[]; delimiter: ',' | ';'; problems: Problem[] } {
-  const delimiter = detectDelimiter(text);
-  let records: { record: string[]; info: { lines: number } }[];
+  // One kind of line ending, so that a file mixing them (pasted rows) still parses and
+  // line numbers stay simple.
+  const unified = text.replace(/\r\n?/g, '\n');
+  const delimiter = detectDelimiter(unified);
+  let parsed: string[][];
   try {
-    records = parse(text, {
-      delimiter,
-      info: true,
-      relax_column_count: true,
-      skip_empty_lines: true,
-      skip_records_with_empty_values: true,
-    }) as unknown as { record: string[]; info: { lines: number } }[];
+    // Every physical line yields a record (blank ones too), so line numbers can be counted.
+    parsed = parse(unified, { delimiter, relax_column_count: true }) as string[][];
   } catch (err) {
     const e = err as { lines?: number; message: string };
     throw new KnitboneError('bad-input', [{ file, line: e.lines, message: `the file is not valid CSV: ${e.message.replace(/ at line \d+/, '')}` }]);
   }
+  const records: { record: string[]; line: number }[] = [];
+  let nextLine = 1;
+  for (const record of parsed) {
+    const line = nextLine;
+    for (const cell of record) for (let i = cell.indexOf('\n'); i !== -1; i = cell.indexOf('\n', i + 1)) nextLine++;
+    nextLine++;
+    if (record.some((cell) => cell.trim() !== '')) records.push({ record, line });
+  }
   if (records.length === 0) throw new KnitboneError('bad-input', [{ file, message: 'the file is empty; it needs a header row with at least catalogue_no' }]);
 
   const problems: Problem[] = [];
-  const startLine = (r: { record: string[]; info: { lines: number } }) =>
-    r.info.lines - r.record.reduce((n, cell) => n + (cell.match(/\n/g)?.length ?? 0), 0);
+  const startLine = (r: { line: number }) => r.line;
 
   // Header
   const header = records[0];
@@ -170,16 +175,17 @@ export function importSpecimens(cat: Catalogue, bytes: Uint8Array | string, opti
   // Against the catalogue
   const inserts: SpecimenFields[] = [];
   const updates: { current: Specimen; patch: Partial<SpecimenFields> }[] = [];
-  const existing = new Map(cat.specimens.list().map((s) => [s.catalogueNo, s]));
+  const existingIds = cat.specimens.catalogueNumbers();
   for (const row of rows) {
     const fields = row.values as Partial<SpecimenFields>;
     if (fields.catalogueNo === undefined) continue;
-    const current = existing.get(fields.catalogueNo);
-    if (!current) {
+    const currentId = existingIds.get(fields.catalogueNo);
+    if (currentId === undefined) {
       inserts.push({ ...emptySpecimenFields(fields.catalogueNo!), ...fields });
     } else if (!options.update) {
       problems.push({ file, line: row.line, column: 'catalogue_no', message: `catalogue number "${fields.catalogueNo}" is already in the catalogue (import with --update to change existing specimens)` });
     } else {
+      const current = cat.specimens.get(currentId)!;
       const patch: Partial<SpecimenFields> = {};
       for (const f of columns) (patch as Record<string, unknown>)[f] = fields[f];
       const checkable = row.ok ? checkSpecimenConsistency({ ...current, ...patch }, vocab) : [];

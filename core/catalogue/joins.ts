@@ -141,6 +141,17 @@ export class JoinRepository {
     });
     return run();
   }
+
+  /** Remove a join (the undo of a link made by hand); history keeps what it was. */
+  remove(id: number, who: string = this.defaultWho, action = 'delete'): Join {
+    const run = this.db.transaction((): Join => {
+      const current = this.require(id);
+      this.db.prepare('DELETE FROM specimen_join WHERE id = ?').run(id);
+      this.history.record({ who, entity: 'join', entityId: id, action, before: current });
+      return current;
+    });
+    return run();
+  }
 }
 
 function checkTransform(t: Transform | null | undefined): void {

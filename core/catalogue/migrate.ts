@@ -118,7 +118,7 @@ export function migrate(
 
   const done = new Set(applied.map((r) => r.version));
   const pending = migrations.filter((m) => !done.has(m.version));
-  const from = applied.length ? applied[applied.length - 1].version : 0;
+  const from = applied.reduce((v, r) => Math.max(v, r.version), 0);
   const outcome: MigrationOutcome = { applied: [], from, to: from };
   if (pending.length === 0) return outcome;
 
@@ -130,7 +130,9 @@ export function migrate(
     const apply = db.transaction(() => {
       db.exec(m.sql);
       record.run(m.version, m.name, m.checksum, now().toISOString());
-      db.pragma(`user_version = ${m.version}`);
+      // Areas number their migrations in their own ranges and land at different times, so a
+      // lower number may arrive after a higher one was applied: the version is the highest.
+      db.pragma(`user_version = ${Math.max(m.version, outcome.to)}`);
     });
     try {
       apply();
@@ -140,7 +142,7 @@ export function migrate(
       ]);
     }
     outcome.applied.push(m.version);
-    outcome.to = m.version;
+    outcome.to = Math.max(outcome.to, m.version);
   }
   return outcome;
 }

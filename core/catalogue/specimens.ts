@@ -75,8 +75,15 @@ export class SpecimenRepository {
     for (const key of ['unit', 'taxon', 'element'] as const) {
       if (filter[key] !== undefined) { where.push(`${key} = ?`); args.push(filter[key]); }
     }
-    const sql = `SELECT * FROM specimen ${where.length ? 'WHERE ' + where.join(' AND ') : ''} ORDER BY id`;
-    return (this.db.prepare(sql).all(...args) as SpecimenRow[]).map(specimenFromRow);
+    const sql = `SELECT ${LIST_COLUMNS} FROM specimen ${where.length ? 'WHERE ' + where.join(' AND ') : ''} ORDER BY id`;
+    // Rows as arrays: noticeably cheaper than objects for the full list of a large assemblage.
+    return (this.db.prepare(sql).raw(true).all(...args) as unknown[][]).map(specimenFromArray);
+  }
+
+  /** Every catalogue number with its specimen id (cheaper than list() for lookups). */
+  catalogueNumbers(): Map<string, number> {
+    const rows = this.db.prepare('SELECT catalogue_no, id FROM specimen').raw(true).all() as [string, number][];
+    return new Map(rows);
   }
 
   count(): number {
@@ -154,6 +161,34 @@ export class SpecimenRepository {
   }
 }
 
+const LIST_COLUMNS =
+  'id, catalogue_no, unit, level, layer, x, y, z, taxon, element, side, portion, fusion, size_class, break_age, modifications, weight_g, notes, created_at, updated_at';
+
+function specimenFromArray(r: unknown[]): Specimen {
+  return {
+    id: r[0] as number,
+    catalogueNo: r[1] as string,
+    unit: r[2] as string | null,
+    level: r[3] as string | null,
+    layer: r[4] as string | null,
+    x: r[5] as number | null,
+    y: r[6] as number | null,
+    z: r[7] as number | null,
+    taxon: r[8] as string | null,
+    element: r[9] as string | null,
+    side: r[10] as Specimen['side'],
+    portion: parseList(r[11] as string),
+    fusion: r[12] as string | null,
+    sizeClass: r[13] as number | null,
+    breakAge: r[14] as Specimen['breakAge'],
+    modifications: parseList(r[15] as string),
+    weightG: r[16] as number | null,
+    notes: r[17] as string | null,
+    createdAt: r[18] as string,
+    updatedAt: r[19] as string,
+  };
+}
+
 export function specimenFromRow(r: SpecimenRow): Specimen {
   return {
     id: r.id,
@@ -167,16 +202,20 @@ export function specimenFromRow(r: SpecimenRow): Specimen {
     taxon: r.taxon,
     element: r.element,
     side: r.side as Specimen['side'],
-    portion: JSON.parse(r.portion) as string[],
+    portion: parseList(r.portion),
     fusion: r.fusion,
     sizeClass: r.size_class,
     breakAge: r.break_age as Specimen['breakAge'],
-    modifications: JSON.parse(r.modifications) as string[],
+    modifications: parseList(r.modifications),
     weightG: r.weight_g,
     notes: r.notes,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
   };
+}
+
+function parseList(text: string): string[] {
+  return text === '[]' ? [] : (JSON.parse(text) as string[]);
 }
 
 function pickFields(f: SpecimenFields): SpecimenFields {

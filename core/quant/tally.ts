@@ -1,7 +1,6 @@
 import type { CountingSpecimen, PairLink } from './counting-specimen';
-import { elementUnits, unitKeyOf, type ElementUnit } from './element-unit';
-import { identificationRates } from './identification-rate';
-import { isIdentified, type IdentificationRule } from './identified';
+import { elementUnits, unitKeyOf } from './element-unit';
+import { isIdentified, isIdentifiedToElement, isIdentifiedToTaxon, type IdentificationRule } from './identified';
 import { lPlusRMinusP } from './lrp';
 import { minimumAnimalUnits, percentMau } from './mau';
 import { minimumNumberOfElements } from './mne';
@@ -52,22 +51,134 @@ export function tally(
   rule: IdentificationRule,
   pairs: readonly PairLink[] = [],
 ): Tally {
-  const identified = specimens.filter((s) => isIdentified(s, vocab, rule));
-  const nisps = nispByElement(identified);
-  const units = elementUnits(identified);
-  const unitsByElement = groupBy(units, (u) => `${u.taxon}\u0000${u.element}`);
-  const pairCounts = countPairs(specimens, pairs, units);
+  return new TallyBook(specimens, vocab, rule, pairs).result();
+}
 
-  const byElement: ElementTally[] = [];
-  const mniByTaxon = new Map<string, number>();
-  const lrpByTaxon = new Map<string, number>();
-  for (const n of nisps) {
-    const key = `${n.taxon}\u0000${n.element}`;
-    const us = unitsByElement.get(key) ?? [];
-    const scheme = vocab.zonesOf(n.element);
-    const paired = vocab.isPairedElement(n.element);
-    const count = vocab.countPerSkeleton(n.element, n.taxon);
-    const mne = minimumNumberOfElements(us, scheme, paired);
+/** What one taxon and element contributes, kept between recounts. */
+interface ElementRow {
+  row: ElementTally;
+  nispFragments: number;
+  mni: number;
+  lrp: number | null;
+}
+
+const groupKey = (taxon: string, element: string) => `${taxon}\u0000${element}`;
+
+/**
+ * The tally kept up to date as specimens change: after a join is accepted or undone only
+ * the specimens whose identification or refit set changed are compared, and only the
+ * taxon-element groups they leave or enter are counted again. `tally()` is the same book
+ * read once, so both always agree.
+ */
+export class TallyBook {
+  private specimens: CountingSpecimen[];
+  private pairs: readonly PairLink[];
+  private readonly identified: boolean[];
+  private toElement = 0;
+  private toTaxon = 0;
+  /** Members (positions) of each identified taxon-element group. */
+  private readonly groups = new Map<string, Set<number>>();
+  private readonly rows = new Map<string, ElementRow>();
+  private readonly decided = new Map<string, boolean>();
+  private readonly bySpecimen = new Map<string, number>();
+
+  constructor(
+    specimens: readonly CountingSpecimen[],
+    private readonly vocab: CountingVocabulary,
+    private readonly rule: IdentificationRule,
+    pairs: readonly PairLink[] = [],
+  ) {
+    this.specimens = [...specimens];
+    this.pairs = pairs;
+    this.identified = new Array(specimens.length).fill(false);
+    specimens.forEach((s, i) => {
+      this.bySpecimen.set(s.specimen, i);
+      this.add(i);
+    });
+    for (const key of this.groups.keys()) this.recount(key);
+  }
+
+  private isIdentified(s: CountingSpecimen): boolean {
+    // Many specimens share an identification: decide each pair of taxon and element once.
+    const key = `${s.taxon}\u0000${s.element}`;
+    let yes = this.decided.get(key);
+    if (yes === undefined) this.decided.set(key, (yes = isIdentified(s, this.vocab, this.rule)));
+    return yes;
+  }
+
+  private add(i: number): string | null {
+    const s = this.specimens[i];
+    if (isIdentifiedToElement(s.element, this.vocab)) this.toElement++;
+    if (isIdentifiedToTaxon(s.taxon, this.vocab, this.rule)) this.toTaxon++;
+    const yes = this.isIdentified(s);
+    this.identified[i] = yes;
+    if (!yes) return null;
+    const key = groupKey(s.taxon!, s.element!);
+    let g = this.groups.get(key);
+    if (!g) this.groups.set(key, (g = new Set()));
+    g.add(i);
+    return key;
+  }
+
+  private remove(i: number): string | null {
+    const s = this.specimens[i];
+    if (isIdentifiedToElement(s.element, this.vocab)) this.toElement--;
+    if (isIdentifiedToTaxon(s.taxon, this.vocab, this.rule)) this.toTaxon--;
+    if (!this.identified[i]) return null;
+    const key = groupKey(s.taxon!, s.element!);
+    this.groups.get(key)!.delete(i);
+    return key;
+  }
+
+  /**
+   * Bring the book to a new reading of the same specimens (same order) and pair joins.
+   * Returns how many specimens changed.
+   */
+  update(specimens: readonly CountingSpecimen[], pairs: readonly PairLink[] = []): number {
+    if (specimens.length !== this.specimens.length) throw new RangeError('a tally book counts a fixed list of specimens');
+    const dirty = new Set<string>();
+    let changed = 0;
+    for (let i = 0; i < specimens.length; i++) {
+      const a = this.specimens[i];
+      const b = specimens[i];
+      if (a.taxon === b.taxon && a.element === b.element && a.side === b.side && a.set === b.set && a.modernGroup === b.modernGroup && a.fusion === b.fusion && a.zones === b.zones) continue;
+      changed++;
+      const before = this.remove(i);
+      if (before) dirty.add(before);
+      this.specimens[i] = b;
+      const after = this.add(i);
+      if (after) dirty.add(after);
+    }
+    // Pair joins that appeared or went away touch the groups of their specimens.
+    const pairKey = (p: PairLink) => `${p.a}\u0000${p.b}`;
+    const oldPairs = new Set(this.pairs.map(pairKey));
+    const newPairs = new Set(pairs.map(pairKey));
+    for (const p of [...this.pairs.filter((p) => !newPairs.has(pairKey(p))), ...pairs.filter((p) => !oldPairs.has(pairKey(p)))]) {
+      for (const no of [p.a, p.b]) {
+        const i = this.bySpecimen.get(no);
+        if (i !== undefined && this.identified[i]) dirty.add(groupKey(this.specimens[i].taxon!, this.specimens[i].element!));
+      }
+    }
+    this.pairs = pairs;
+    for (const key of dirty) this.recount(key);
+    return changed;
+  }
+
+  /** Count one taxon and element again from its members. */
+  private recount(key: string): void {
+    const members = this.groups.get(key);
+    if (!members || members.size === 0) {
+      this.groups.delete(key);
+      this.rows.delete(key);
+      return;
+    }
+    const list = [...members].map((i) => this.specimens[i]);
+    const [n] = nispByElement(list);
+    const units = elementUnits(list);
+    const scheme = this.vocab.zonesOf(n.element);
+    const paired = this.vocab.isPairedElement(n.element);
+    const count = this.vocab.countPerSkeleton(n.element, n.taxon);
+    const mne = minimumNumberOfElements(units, scheme, paired);
     const row: ElementTally = {
       taxon: n.taxon,
       element: n.element,
@@ -76,75 +187,66 @@ export function tally(
       mau: count ? minimumAnimalUnits(mne.mne, count) : null,
       percentMau: null,
     };
-    const p = pairCounts.get(key);
-    if (p !== undefined && paired) {
-      row.pairs = p;
-      const lrp = lPlusRMinusP(mne.mneLeft, mne.mneRight, Math.min(p, mne.mneLeft, mne.mneRight));
-      lrpByTaxon.set(n.taxon, Math.max(lrpByTaxon.get(n.taxon) ?? 0, lrp));
+    let lrp: number | null = null;
+    if (paired && this.pairs.length) {
+      const p = this.pairsWithin(list);
+      if (p > 0) {
+        row.pairs = p;
+        lrp = lPlusRMinusP(mne.mneLeft, mne.mneRight, Math.min(p, mne.mneLeft, mne.mneRight));
+      }
     }
-    byElement.push(row);
-    const mni = mniFromElement(us, scheme, paired, count);
-    mniByTaxon.set(n.taxon, Math.max(mniByTaxon.get(n.taxon) ?? 0, mni));
-  }
-  byElement.sort((a, b) => cmp(a.taxon, b.taxon) || cmp(a.element, b.element));
-  for (const rows of groupBy(byElement, (r) => r.taxon).values()) {
-    const known = rows.filter((r) => r.mau !== null);
-    const pct = percentMau(known.map((r) => r.mau as number));
-    known.forEach((r, i) => (r.percentMau = pct[i]));
+    this.rows.set(key, { row, nispFragments: n.nispFragments, mni: mniFromElement(units, scheme, paired, count), lrp });
   }
 
-  const byTaxon: TaxonTally[] = [];
-  for (const [taxon, rows] of groupBy(byElement, (r) => r.taxon)) {
-    const t: TaxonTally = { taxon, nisp: rows.reduce((s, r) => s + r.nisp, 0), mni: mniByTaxon.get(taxon) ?? 0 };
-    const lrp = lrpByTaxon.get(taxon);
-    if (lrp !== undefined) t.lrp = lrp;
-    byTaxon.push(t);
+  /** Distinct left-right unit pairs linked by pair joins among these members. */
+  private pairsWithin(members: readonly CountingSpecimen[]): number {
+    const inGroup = new Map(members.map((s) => [s.specimen, s]));
+    const seen = new Set<string>();
+    for (const p of this.pairs) {
+      const a = inGroup.get(p.a);
+      const b = inGroup.get(p.b);
+      if (!a || !b) continue;
+      if (!((a.side === 'left' && b.side === 'right') || (a.side === 'right' && b.side === 'left'))) continue;
+      const ka = unitKeyOf(a);
+      const kb = unitKeyOf(b);
+      seen.add(ka < kb ? `${ka}\u0001${kb}` : `${kb}\u0001${ka}`);
+    }
+    return seen.size;
   }
-  byTaxon.sort((a, b) => cmp(a.taxon, b.taxon));
 
-  return {
-    nisp: nisps.reduce((s, n) => s + n.nisp, 0),
-    nispFragments: nisps.reduce((s, n) => s + n.nispFragments, 0),
-    ...identificationRates(specimens, vocab, rule),
-    byTaxon,
-    byElement,
-  };
-}
-
-/** Distinct left-right unit pairs linked by pair joins, per taxon and element. */
-function countPairs(specimens: readonly CountingSpecimen[], pairs: readonly PairLink[], units: readonly ElementUnit[]): Map<string, number> {
-  const out = new Map<string, number>();
-  if (pairs.length === 0) return out;
-  const unitKeys = new Set(units.map((u) => u.key));
-  const bySpecimen = new Map(specimens.map((s) => [s.specimen, s]));
-  const seen = new Set<string>();
-  for (const p of pairs) {
-    const a = bySpecimen.get(p.a);
-    const b = bySpecimen.get(p.b);
-    if (!a || !b || a.taxon !== b.taxon || a.element !== b.element) continue;
-    const sides = new Set([a.side, b.side]);
-    if (!(sides.has('left') && sides.has('right'))) continue;
-    const ka = unitKeyOf(a);
-    const kb = unitKeyOf(b);
-    if (!unitKeys.has(ka) || !unitKeys.has(kb)) continue;
-    const pairKey = ka < kb ? `${ka}\u0001${kb}` : `${kb}\u0001${ka}`;
-    if (seen.has(pairKey)) continue;
-    seen.add(pairKey);
-    const key = `${a.taxon}\u0000${a.element}`;
-    out.set(key, (out.get(key) ?? 0) + 1);
+  /** The tally as it stands (a fresh object each time). */
+  result(): Tally {
+    const rows = [...this.rows.values()].sort((a, b) => cmp(a.row.taxon, b.row.taxon) || cmp(a.row.element, b.row.element));
+    const byElement = rows.map((r) => ({ ...r.row }));
+    const byTaxon: TaxonTally[] = [];
+    let start = 0;
+    for (let i = 1; i <= rows.length; i++) {
+      if (i < rows.length && rows[i].row.taxon === rows[start].row.taxon) continue;
+      const group = rows.slice(start, i);
+      const elements = byElement.slice(start, i);
+      const known = elements.filter((r) => r.mau !== null);
+      const pct = percentMau(known.map((r) => r.mau as number));
+      known.forEach((r, k) => (r.percentMau = pct[k]));
+      const t: TaxonTally = {
+        taxon: group[0].row.taxon,
+        nisp: group.reduce((s, r) => s + r.row.nisp, 0),
+        mni: Math.max(...group.map((r) => r.mni)),
+      };
+      const lrps = group.filter((r) => r.lrp !== null).map((r) => r.lrp as number);
+      if (lrps.length) t.lrp = Math.max(...lrps);
+      byTaxon.push(t);
+      start = i;
+    }
+    const n = this.specimens.length;
+    return {
+      nisp: rows.reduce((s, r) => s + r.row.nisp, 0),
+      nispFragments: rows.reduce((s, r) => s + r.nispFragments, 0),
+      identifiedToElement: n ? this.toElement / n : 0,
+      identifiedToTaxon: n ? this.toTaxon / n : 0,
+      byTaxon,
+      byElement,
+    };
   }
-  return out;
-}
-
-function groupBy<T>(items: readonly T[], keyOf: (t: T) => string): Map<string, T[]> {
-  const m = new Map<string, T[]>();
-  for (const t of items) {
-    const k = keyOf(t);
-    const g = m.get(k);
-    if (g) g.push(t);
-    else m.set(k, [t]);
-  }
-  return m;
 }
 
 const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);

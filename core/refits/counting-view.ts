@@ -21,8 +21,9 @@ export function recordedView(state: RefitState): CountingSpecimen[] {
 }
 
 export function refittedView(state: RefitState): { specimens: CountingSpecimen[]; pairs: PairLink[] } {
-  const specimens = state.observations.map((o) => {
-    const id = state.effective(o.specimen);
+  const specimens = state.observations.map((o, i) => {
+    const id = state.effectiveAt(i);
+    const groups = state.groupsAt(i);
     return {
       specimen: o.specimen,
       taxon: id.taxon,
@@ -30,8 +31,8 @@ export function refittedView(state: RefitState): { specimens: CountingSpecimen[]
       side: id.side,
       zones: o.zones,
       fusion: o.fusion,
-      set: state.setIndexOf(o.specimen),
-      modernGroup: state.modernGroupIndexOf(o.specimen),
+      set: groups.set,
+      modernGroup: groups.modernGroup,
     };
   });
   const pairs = state

@@ -9,12 +9,15 @@
 export const JOIN_TYPES = ['conjoin-green', 'conjoin-dry', 'conjoin-modern', 'articulation', 'pair'] as const;
 export type JoinType = (typeof JOIN_TYPES)[number];
 
+/** A conjoin whose break age was not recorded (a proposal not yet typed, for instance). */
+export type RefitJoinType = JoinType | 'conjoin';
+
 export function isJoinType(value: string): value is JoinType {
   return (JOIN_TYPES as readonly string[]).includes(value);
 }
 
-export function isConjoin(type: JoinType): boolean {
-  return type === 'conjoin-green' || type === 'conjoin-dry' || type === 'conjoin-modern';
+export function isConjoin(type: RefitJoinType): boolean {
+  return type === 'conjoin' || type === 'conjoin-green' || type === 'conjoin-dry' || type === 'conjoin-modern';
 }
 
 /** Which identification fields a join carries from one member to the other. */
@@ -34,7 +37,7 @@ export interface Carried {
  * the opposite side; an articulation carries taxon, and side only where both elements are
  * limb elements (a joint within one limb). Neither of the last two merges specimens.
  */
-export function carriedBy(type: JoinType, bothLimbElements: boolean): Carried {
+export function carriedBy(type: RefitJoinType, bothLimbElements: boolean): Carried {
   if (isConjoin(type)) return { taxon: true, element: true, side: 'same', size: true, zones: true };
   if (type === 'pair') return { taxon: true, element: true, side: 'opposite', size: true, zones: false };
   return { taxon: true, element: false, side: bothLimbElements ? 'same' : 'none', size: true, zones: false };

@@ -1,4 +1,4 @@
-import { carriedBy, isConjoin, type JoinType } from './join-type';
+import { carriedBy, isConjoin, type RefitJoinType } from './join-type';
 import type { Conflict } from './conflict';
 import { mostSpecific } from './most-specific';
 import type { Observation, Side } from './observation';
@@ -12,7 +12,7 @@ export interface RefitJoin {
   id: JoinId;
   a: string;
   b: string;
-  type: JoinType;
+  type: RefitJoinType;
 }
 
 /** What propagation concluded for one specimen, field by field, and from which joins. */
@@ -60,6 +60,8 @@ export class RefitState {
   private readonly sets: UnionFind;
   /** Fragments joined across modern breaks (one specimen by common practice). */
   private readonly modern: UnionFind;
+  /** Every accepted join of any type: nothing derived flows outside these components. */
+  private readonly linked: UnionFind;
   private readonly taxa: UnionFind;
   private readonly elements: UnionFind;
   private readonly sides: UnionFind;
@@ -76,6 +78,8 @@ export class RefitState {
   private readonly sideJoins: (JoinId[] | null)[];
 
   private readonly accepted: RefitJoin[] = [];
+  /** Goes up by one with every join applied, so readers can tell the state moved on. */
+  revision = 0;
   private readonly conflictsByJoin = new Map<JoinId, Conflict[]>();
 
   constructor(observations: readonly Observation[], vocab: RefitVocabulary) {
@@ -84,6 +88,7 @@ export class RefitState {
     const n = observations.length;
     this.sets = new UnionFind(n);
     this.modern = new UnionFind(n);
+    this.linked = new UnionFind(n);
     this.taxa = new UnionFind(n);
     this.elements = new UnionFind(n);
     this.sides = new UnionFind(n);
@@ -223,11 +228,13 @@ export class RefitState {
    */
   accept(join: RefitJoin): Conflict[] {
     const conflicts = this.check(join);
+    this.revision++;
     this.accepted.push(join);
     this.conflictsByJoin.set(join.id, conflicts);
     const ia = this.indexOf(join.a);
     const ib = this.indexOf(join.b);
     if (ia === ib) return conflicts;
+    this.linked.union(ia, ib);
     const bad = new Set(conflicts.map((c) => c.field));
     const { vocab } = this;
     const ea = this.elementAt[this.elements.find(ia)];
@@ -294,6 +301,11 @@ export class RefitState {
       .filter((x) => x.conflicts.length > 0);
   }
 
+  /** Refit set and modern-break group of the specimen at a position in `observations`. */
+  groupsAt(i: number): { set: number; modernGroup: number } {
+    return { set: this.sets.find(i), modernGroup: this.modern.find(i) };
+  }
+
   /** Index of the refit set of a specimen: equal for every member of one set. */
   setIndexOf(specimen: string): number {
     return this.sets.find(this.indexOf(specimen));
@@ -302,6 +314,21 @@ export class RefitState {
   /** Index of the group of fragments joined across modern breaks. */
   modernGroupIndexOf(specimen: string): number {
     return this.modern.find(this.indexOf(specimen));
+  }
+
+  /**
+   * Every specimen linked to this one through accepted joins of any type. Derived values
+   * depend only on this component, so accepting or undoing a join between two specimens
+   * can change derived values only within their components.
+   */
+  linkedMembers(specimen: string): string[] {
+    const root = this.linked.find(this.indexOf(specimen));
+    if (this.linked.sizeOf(root) === 1) return [specimen];
+    const out: string[] = [];
+    this.observations.forEach((o, i) => {
+      if (this.linked.find(i) === root) out.push(o.specimen);
+    });
+    return out;
   }
 
   /** Refit sets with more than one member, each as sorted catalogue numbers. */
@@ -347,7 +374,11 @@ export class RefitState {
 
   /** The identification to count with: own observation raised by what was derived. */
   effective(specimen: string): EffectiveIdentification {
-    const i = this.indexOf(specimen);
+    return this.effectiveAt(this.indexOf(specimen));
+  }
+
+  /** As effective(), by position in `observations`. */
+  effectiveAt(i: number): EffectiveIdentification {
     const o = this.observations[i];
     const side = sideName(this.sideOf(i));
     return {

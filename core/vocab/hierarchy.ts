@@ -23,6 +23,7 @@ export class Hierarchy<N extends HierarchyNode = HierarchyNode> {
   private readonly nodes = new Map<string, N>();
   private readonly byKey = new Map<string, string>();
   private readonly depthOf = new Map<string, number>();
+  private readonly resolved = new Map<string, string | undefined>();
 
   constructor(nodes: readonly N[], readonly kind: string) {
     for (const n of nodes) {
@@ -70,7 +71,11 @@ export class Hierarchy<N extends HierarchyNode = HierarchyNode> {
 
   /** The canonical term for what someone typed (any case, spacing, synonym), or undefined. */
   resolve(typed: string): string | undefined {
-    return this.byKey.get(termKey(typed));
+    // Imports repeat the same few spellings thousands of times: remember what each meant.
+    if (this.resolved.has(typed)) return this.resolved.get(typed);
+    const found = this.byKey.get(termKey(typed));
+    if (this.resolved.size < 50_000) this.resolved.set(typed, found);
+    return found;
   }
 
   /** Closest canonical terms to an unknown spelling, for "did you mean" messages. */

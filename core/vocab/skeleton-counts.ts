@@ -8,8 +8,14 @@ import type { SkeletonGroup } from './taxa';
  * the Domestic Animals, 5th ed.; Barone 1986, Anatomie comparée des mammifères
  * domestiques), FROM MEMORY, for the reference species named per group. Teeth follow
  * the permanent dental formula of that species (from memory). An element left out of
- * a group has no fixed count there (caudal vertebrae, sternebrae, carpals) or is absent.
+ * a group has no fixed count there (caudal vertebrae, carpals) or is absent.
  * Counts are for the whole skeleton, both sides together (a femur is 2).
+ *
+ * For the bovid, cervid, equid, suid and carnivore (canid) groups, every element that
+ * Lyman 2008 (Quantitative Paleozoology, Table 6.4) lists takes the count of that table,
+ * checked against the published figures in tests/unit/quant/skeleton-counts.test.ts: this
+ * counts the sternum as one element, and gives canids 10 metatarsals and 20 first and 20
+ * third phalanges (hind dewclaws included), where the dog's usual hind foot has 8 and 18.
  */
 export interface SkeletonCounts {
   group: SkeletonGroup;
@@ -23,10 +29,12 @@ export interface SkeletonCounts {
 const limbs = { humerus: 2, femur: 2, radius: 2, ulna: 2, tibia: 2, scapula: 2, pelvis: 2, patella: 2, astragalus: 2, calcaneus: 2 };
 const head = { cranium: 1, mandible: 2 };
 const neck = { atlas: 1, axis: 1, 'cervical vertebra': 5, sacrum: 1 };
+/** Lyman 2008, Table 6.4: the sternum counted as one element. */
+const sternum = { sternum: 1 };
 
 /** Ruminant skeleton (Cervus elaphus / Bos taurus): 13 thoracic, 6 lumbar; two main digits per foot. */
 const ruminant = {
-  ...limbs, ...head, ...neck,
+  ...limbs, ...head, ...neck, ...sternum,
   fibula: 2, // reduced to the lateral malleolus
   metacarpal: 2, metatarsal: 2, // fused III+IV cannon bones
   'thoracic vertebra': 13, 'lumbar vertebra': 6, rib: 26,
@@ -55,7 +63,7 @@ export const SKELETON_COUNTS: Readonly<Record<SkeletonGroup, SkeletonCounts>> = 
     group: 'suid',
     reference: 'Sus scrofa',
     counts: {
-      ...limbs, ...head, ...neck,
+      ...limbs, ...head, ...neck, ...sternum,
       fibula: 2, metacarpal: 8, metatarsal: 8, // digits II-V
       'thoracic vertebra': 14, 'lumbar vertebra': 6, rib: 28,
       'first phalanx': 16, 'second phalanx': 16, 'third phalanx': 16,
@@ -68,7 +76,7 @@ export const SKELETON_COUNTS: Readonly<Record<SkeletonGroup, SkeletonCounts>> = 
     group: 'equid',
     reference: 'Equus caballus',
     counts: {
-      ...limbs, ...head, ...neck,
+      ...limbs, ...head, ...neck, ...sternum,
       fibula: 2, // vestigial, fused to the tibia in adults
       metacarpal: 2, metatarsal: 2, // digit III; splint bones II and IV not counted
       'thoracic vertebra': 18, 'lumbar vertebra': 6, rib: 36,
@@ -82,15 +90,16 @@ export const SKELETON_COUNTS: Readonly<Record<SkeletonGroup, SkeletonCounts>> = 
     group: 'carnivore',
     reference: 'Canis familiaris',
     counts: {
-      ...limbs, ...head, ...neck,
-      fibula: 2, metacarpal: 10, metatarsal: 8,
+      ...limbs, ...head, ...neck, ...sternum,
+      // Lyman 2008, Table 6.4 (canid): metatarsals and first and third phalanges with the
+      // hind dewclaw (digit I) counted; digit I has no second phalanx
+      fibula: 2, metacarpal: 10, metatarsal: 10,
       'thoracic vertebra': 13, 'lumbar vertebra': 7, rib: 26,
-      // forefoot digits I-V, hind foot II-V; digit I has no second phalanx
-      'first phalanx': 18, 'second phalanx': 16, 'third phalanx': 18,
+      'first phalanx': 20, 'second phalanx': 16, 'third phalanx': 20,
       // I 3/3, C 1/1, P 4/4, M 2/3
       incisor: 12, canine: 4, premolar: 16, molar: 10,
     },
-    notes: ['counts of the dog; felids, ursids and mustelids differ in the feet and the teeth', 'a hind dewclaw adds a metatarsal and phalanges'],
+    notes: ['counts of the dog; felids, ursids and mustelids differ in the feet and the teeth', 'feet as in Lyman 2008, Table 6.4: hind dewclaws counted (a dog without them has 8 metatarsals and 18 first and third phalanges)'],
   },
   lagomorph: {
     group: 'lagomorph',

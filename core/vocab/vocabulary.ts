@@ -25,6 +25,7 @@ export interface UserTerm {
 /** A flat controlled list (sides, break ages, fusion states, modifications). */
 export class TermList {
   private readonly index: Map<string, string>;
+  private readonly resolved = new Map<string, string | undefined>();
   readonly terms: readonly string[];
 
   constructor(readonly kind: string, list: readonly FlatTerm[]) {
@@ -33,7 +34,10 @@ export class TermList {
   }
 
   resolve(typed: string): string | undefined {
-    return this.index.get(termKey(typed));
+    if (this.resolved.has(typed)) return this.resolved.get(typed);
+    const found = this.index.get(termKey(typed));
+    if (this.resolved.size < 50_000) this.resolved.set(typed, found);
+    return found;
   }
 
   suggest(typed: string, limit = 3): string[] {

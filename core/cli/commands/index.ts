@@ -6,6 +6,13 @@ import { registerPropose } from './propose';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerServe } from './serve';
+import { registerLink } from './link';
+import { registerAccept } from './accept';
+import { registerReject } from './reject';
+import { registerUnlink } from './unlink';
+import { registerJoins } from './joins';
+import { registerConflicts } from './conflicts';
+import { registerTally } from './tally';
 import { registerSite } from './site';
 import { registerSpatial } from './spatial';
 
@@ -21,6 +28,13 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerImportSpecimens,
   registerExport,
   registerServe,
+  registerLink,
+  registerAccept,
+  registerReject,
+  registerUnlink,
+  registerJoins,
+  registerConflicts,
+  registerTally,
   registerSpatial,
   registerSite,
 ];

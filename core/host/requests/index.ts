@@ -1,4 +1,6 @@
 import { appRequests } from './app';
+import { joinsRequests } from './joins';
+import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
 import { spatialRequests } from './spatial';
@@ -10,6 +12,8 @@ import { vocabularyRequests } from './vocabulary';
  */
 export const requests = {
   ...appRequests,
+  ...joinsRequests,
+  ...tallyRequests,
   ...catalogueRequests,
   ...proposalRequests,
   ...spatialRequests,

@@ -17,6 +17,8 @@ function migrationsCopy(): string {
   return dir;
 }
 
+const newestShipped = () => Math.max(...readMigrations().map((m) => m.version));
+
 function refusal(fn: () => unknown): KnitboneError {
   try {
     fn();
@@ -59,10 +61,10 @@ describe('catalogue migrations', () => {
     const oldVersion = v1.schemaVersion(); // the newest shipped migration (other areas add theirs)
     v1.close();
 
-    writeFileSync(join(dir, '0009_test_addition.sql'), 'CREATE TABLE test_addition (id INTEGER PRIMARY KEY);\n');
+    writeFileSync(join(dir, '9990_test_addition.sql'), 'CREATE TABLE test_addition (id INTEGER PRIMARY KEY);\n');
     const v2 = openCatalogue(file, { migrations: readMigrations(dir) });
-    expect(v2.migration.applied).toEqual([9]);
-    expect(v2.schemaVersion()).toBe(9);
+    expect(v2.migration.applied).toEqual([9990]);
+    expect(v2.schemaVersion()).toBe(9990);
     const backup = v2.migration.backupPath!;
     expect(backup).toBeTruthy();
     expect(existsSync(backup)).toBe(true);
@@ -93,7 +95,7 @@ describe('catalogue migrations', () => {
 
   it('refuses a catalogue written by a newer knitbone and leaves it as it was', () => {
     const dir = migrationsCopy();
-    writeFileSync(join(dir, '0009_newer.sql'), 'CREATE TABLE newer (id INTEGER PRIMARY KEY);\n');
+    writeFileSync(join(dir, '9991_newer.sql'), 'CREATE TABLE newer (id INTEGER PRIMARY KEY);\n');
     const file = join(tempDir(), 'site.sqlite');
     openCatalogue(file, { create: true, migrations: readMigrations(dir) }).close();
     const before = readFileSync(file);
@@ -103,13 +105,27 @@ describe('catalogue migrations', () => {
     expect(readFileSync(file).equals(before)).toBe(true);
   });
 
+  it('applies a lower-numbered migration that lands after a higher one, keeping the highest version', () => {
+    // Areas own number ranges and land at different times (0040 before 0010, say).
+    const dir = migrationsCopy();
+    writeFileSync(join(dir, '9995_later_area.sql'), 'CREATE TABLE later_area (id INTEGER PRIMARY KEY);\n');
+    const file = join(tempDir(), 'site.sqlite');
+    openCatalogue(file, { create: true, migrations: readMigrations(dir) }).close();
+    writeFileSync(join(dir, '9993_earlier_area.sql'), 'CREATE TABLE earlier_area (id INTEGER PRIMARY KEY);\n');
+    const cat = openCatalogue(file, { migrations: readMigrations(dir) });
+    expect(cat.migration.applied).toEqual([9993]);
+    expect(cat.schemaVersion()).toBe(9995);
+    expect(cat.db.prepare(`SELECT count(*) AS n FROM sqlite_master WHERE name = 'earlier_area'`).get()).toEqual({ n: 1 });
+    cat.close();
+  });
+
   it('rolls a failing migration back completely', () => {
     const dir = migrationsCopy();
     const file = join(tempDir(), 'site.sqlite');
     const created = openCatalogue(file, { create: true, migrations: readMigrations(dir) });
     const oldVersion = created.schemaVersion();
     created.close();
-    writeFileSync(join(dir, '0009_broken.sql'), 'CREATE TABLE half_done (id INTEGER);\nTHIS IS NOT SQL;\n');
+    writeFileSync(join(dir, '9992_broken.sql'), 'CREATE TABLE half_done (id INTEGER);\nTHIS IS NOT SQL;\n');
     expect(() => openCatalogue(file, { migrations: readMigrations(dir) })).toThrow(/rolled back/);
     const db = new Database(file, { readonly: true });
     expect(db.pragma('user_version', { simple: true })).toBe(oldVersion);

@@ -4,7 +4,7 @@ import { tally } from '../../../core/quant/tally';
 import { recordedView, refittedView } from '../../../core/refits/counting-view';
 import type { Observation } from '../../../core/refits/observation';
 import { RefitState, type RefitJoin } from '../../../core/refits/refit-state';
-import { fixtureVocabulary as vocab } from '../refits/fixture-vocabulary';
+import { fixtureVocabulary as vocab } from '../refits/vocabulary';
 
 const obs = (specimen: string, o: Partial<Observation> = {}): Observation => ({
   specimen, taxon: null, element: null, side: null, zones: [], fusion: null, sizeClass: null, ...o,

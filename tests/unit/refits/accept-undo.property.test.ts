@@ -1,12 +1,12 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { defaultIdentificationRule, isIdentified } from '../../../core/quant/identified';
-import { tally } from '../../../core/quant/tally';
+import { tally, TallyBook } from '../../../core/quant/tally';
 import { recordedView, refittedView } from '../../../core/refits/counting-view';
 import { JOIN_TYPES } from '../../../core/refits/join-type';
 import type { Observation } from '../../../core/refits/observation';
 import { RefitState, type RefitJoin } from '../../../core/refits/refit-state';
-import { fixtureVocabulary as vocab } from './fixture-vocabulary';
+import { fixtureVocabulary as vocab } from './vocabulary';
 
 // Property of issue 3: for random catalogues and random accept/undo sequences, accepting
 // then undoing returns every count and derived value to what it was, and refitted NISP
@@ -57,6 +57,14 @@ describe('accept and undo (property)', () => {
         // A live state that joins are applied to one by one, as the host does on accept;
         // undo rebuilds from the remaining accepted joins.
         let live = new RefitState(observations, vocab);
+        // A tally book brought along after every step must agree with a fresh tally.
+        const start = refittedView(live);
+        const book = new TallyBook(start.specimens, vocab, defaultIdentificationRule, start.pairs);
+        const checkBook = () => {
+          const view = refittedView(live);
+          book.update(view.specimens, view.pairs);
+          expect(book.result()).toEqual(tally(view.specimens, vocab, defaultIdentificationRule, view.pairs));
+        };
         let accepted: RefitJoin[] = [];
         let id = 1;
         for (const step of steps) {
@@ -64,6 +72,7 @@ describe('accept and undo (property)', () => {
           const before = snapshot(live);
           const j: RefitJoin = { id: id++, a: observations[step.a].specimen, b: observations[step.b].specimen, type: step.type };
           live.accept(j);
+          checkBook();
           const after = snapshot(live);
           // recorded never moves with joins
           expect(after.recorded).toEqual(before.recorded);
@@ -74,6 +83,7 @@ describe('accept and undo (property)', () => {
           expect(after.refitted.nisp).toBeLessThanOrEqual(after.recorded.nisp + newly);
           if (step.undo) {
             live = RefitState.build(observations, accepted, vocab);
+            checkBook();
             expect(comparable(snapshot(live))).toEqual(comparable(before));
           } else {
             accepted = [...accepted, j];

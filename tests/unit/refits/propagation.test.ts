@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Observation } from '../../../core/refits/observation';
 import { RefitState, type RefitJoin } from '../../../core/refits/refit-state';
-import { fixtureVocabulary as vocab } from './fixture-vocabulary';
+import { fixtureVocabulary as vocab } from './vocabulary';
 
 const obs = (specimen: string, o: Partial<Observation> = {}): Observation => ({
   specimen,
