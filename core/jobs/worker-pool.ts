@@ -1,139 +1,97 @@
-/**
- * A small pool of worker threads for long runs: tasks go to idle workers, preferring a worker
- * that already holds the task's inputs (affinity keys, e.g. fragments it has loaded), results
- * come back in any order, progress is reported, and an abort signal stops the run (workers are
- * terminated; finished results stay delivered).
- */
+import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
+import { startTypeScriptWorker } from './typescript-worker';
 
-export interface PoolTask<M> {
-  /** Inputs this task needs (a worker that has seen them is preferred). */
-  keys: string[];
-  message: M;
+/** What a pool worker module receives and answers (see scan-worker.ts). */
+export interface TaskMessage<T> {
+  id: number;
+  task: T;
 }
+export type AnswerMessage<R> = { id: number; ok: true; result: R } | { id: number; ok: false; error: { name: string; message: string; detail?: unknown } };
 
-export interface PoolOptions<R> {
-  workers: Worker[];
-  /** How many keys a worker is assumed to keep (mirrors the worker's own cache size). */
-  cacheSize: number;
-  onResult: (result: R, taskIndex: number) => void;
-  /** A task that failed in its worker; without this, the first failure stops the run. */
-  onError?: (message: string, taskIndex: number) => void;
-  onProgress?: (done: number, total: number) => void;
+export interface PoolRun<T, R> {
+  moduleUrl: URL;
+  tasks: T[];
+  workers?: number;
   signal?: AbortSignal;
-  /** How far down the queue to look for a task whose inputs a worker already has. */
-  lookahead?: number;
+  /** Called in task order of completion. Return 'stop' to end the run early (remaining tasks are not started). */
+  onResult: (index: number, result: R) => void | 'stop';
+  onError: (index: number, error: { name: string; message: string; detail?: unknown }) => void | 'stop';
 }
 
 export interface PoolOutcome {
-  done: number;
+  completed: number;
+  failed: number;
+  /** Tasks never finished because the run was cancelled or stopped. */
+  notRun: number;
   cancelled: boolean;
+  stopped: boolean;
 }
 
-interface WorkerReply<R> {
-  taskId: number;
-  ok: boolean;
-  result?: R;
-  error?: string;
+/** Default number of worker threads: one per core, at least one. */
+export function defaultWorkerCount(): number {
+  return Math.max(1, availableParallelism());
 }
 
-/** Run tasks on the given workers; each worker answers `{ taskId, ok, result | error }` per message `{ taskId, ...message }`. */
-export function runPool<M extends object, R>(tasks: PoolTask<M>[], options: PoolOptions<R>): Promise<PoolOutcome> {
-  const { workers, cacheSize } = options;
-  const lookahead = options.lookahead ?? 256;
-  const queue: number[] = tasks.map((_, i) => i);
-  const caches = workers.map(() => new Map<string, true>());
-  let done = 0;
-  let running = 0;
-  let finished = false;
-  return new Promise<PoolOutcome>((resolve, reject) => {
-    const stopAll = (): void => {
-      for (const w of workers) {
-        w.removeAllListeners('message');
-        w.removeAllListeners('error');
-        void w.terminate();
-      }
-    };
-    const finish = (cancelled: boolean): void => {
-      if (finished) return;
-      finished = true;
-      options.signal?.removeEventListener('abort', onAbort);
-      resolve({ done, cancelled });
-    };
-    const fail = (err: Error): void => {
-      if (finished) return;
-      finished = true;
-      options.signal?.removeEventListener('abort', onAbort);
-      stopAll();
-      reject(err);
-    };
-    const onAbort = (): void => {
-      stopAll();
-      finish(true);
-    };
-    if (options.signal?.aborted) {
-      finish(true);
+/**
+ * Run tasks on a pool of worker threads, each task posted to the next free worker. The
+ * abort signal ends the run at once: running workers are terminated, their tasks count as
+ * not run (callers resume by running what is left).
+ */
+export function runInWorkerPool<T, R>(run: PoolRun<T, R>): Promise<PoolOutcome> {
+  const count = Math.max(1, Math.min(run.workers ?? defaultWorkerCount(), run.tasks.length));
+  return new Promise((resolve) => {
+    if (run.tasks.length === 0) {
+      resolve({ completed: 0, failed: 0, notRun: 0, cancelled: false, stopped: false });
       return;
     }
-    options.signal?.addEventListener('abort', onAbort);
-
-    const pick = (w: number): number => {
-      const cache = caches[w];
-      let best = -1, bestHits = -1;
-      const n = Math.min(queue.length, lookahead);
-      for (let q = 0; q < n; q++) {
-        const keys = tasks[queue[q]].keys;
-        let hits = 0;
-        for (const k of keys) if (cache.has(k)) hits++;
-        if (hits > bestHits) {
-          best = q;
-          bestHits = hits;
-          if (hits === keys.length) break;
-        }
-      }
-      return best < 0 ? -1 : queue.splice(best, 1)[0];
+    const workers: Worker[] = [];
+    let next = 0, completed = 0, failed = 0, settled = false, stopped = false;
+    const busy = new Set<number>();
+    const finish = (cancelled: boolean): void => {
+      if (settled) return;
+      settled = true;
+      run.signal?.removeEventListener('abort', onAbort);
+      for (const w of workers) void w.terminate();
+      resolve({ completed, failed, notRun: run.tasks.length - completed - failed, cancelled, stopped });
     };
-    const dispatch = (w: number): void => {
-      if (finished) return;
-      const t = pick(w);
-      if (t < 0) {
-        if (running === 0) finish(false);
+    const onAbort = (): void => finish(true);
+    if (run.signal?.aborted) { finish(true); return; }
+    run.signal?.addEventListener('abort', onAbort);
+    const feed = (w: Worker, slot: number): void => {
+      if (settled) return;
+      if (stopped || next >= run.tasks.length) {
+        busy.delete(slot);
+        if (busy.size === 0) finish(false);
         return;
       }
-      const cache = caches[w];
-      for (const k of tasks[t].keys) {
-        cache.delete(k);
-        cache.set(k, true);
-        while (cache.size > cacheSize) cache.delete(cache.keys().next().value as string);
-      }
-      running++;
-      workers[w].postMessage({ taskId: t, ...tasks[t].message });
+      const id = next++;
+      busy.add(slot);
+      w.postMessage({ id, task: run.tasks[id] } satisfies TaskMessage<T>);
     };
-    workers.forEach((worker, w) => {
-      worker.on('message', (reply: WorkerReply<R>) => {
-        if (finished) return;
-        running--;
-        if (!reply.ok && !options.onError) {
-          fail(new Error(reply.error ?? 'worker task failed'));
-          return;
+    for (let slot = 0; slot < count; slot++) {
+      const w = startTypeScriptWorker(run.moduleUrl);
+      workers.push(w);
+      w.on('message', (m: AnswerMessage<R>) => {
+        if (settled) return;
+        if (m.ok) {
+          completed++;
+          if (run.onResult(m.id, m.result) === 'stop') stopped = true;
+        } else {
+          failed++;
+          if (run.onError(m.id, m.error) === 'stop') stopped = true;
         }
-        done++;
-        try {
-          if (reply.ok) options.onResult(reply.result as R, reply.taskId);
-          else options.onError!(reply.error ?? 'worker task failed', reply.taskId);
-        } catch (err) {
-          fail(err as Error);
-          return;
-        }
-        options.onProgress?.(done, tasks.length);
-        dispatch(w);
+        feed(w, slot);
       });
-      worker.on('error', (err) => fail(err));
-    });
-    if (tasks.length === 0) {
-      finish(false);
-      return;
+      w.on('error', (err) => {
+        if (settled) return;
+        failed++;
+        run.onError(-1, { name: err.name, message: err.message });
+        stopped = true;
+        busy.delete(slot);
+        if (busy.size === 0) finish(false);
+      });
+      feed(w, slot);
     }
-    workers.forEach((_, w) => dispatch(w));
   });
 }

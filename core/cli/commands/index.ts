@@ -1,8 +1,10 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
 import { registerMatch } from './match';
 import { registerPropose } from './propose';
+import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerServe } from './serve';
@@ -25,6 +27,8 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerInit,
   registerMatch,
   registerPropose,
+  registerInspect,
+  registerImportScans,
   registerImportSpecimens,
   registerExport,
   registerServe,

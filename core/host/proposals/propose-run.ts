@@ -22,8 +22,8 @@ import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '
 import { cycleAgreement, solvePoses, type PoseSolution } from '../../geometry/proposals/pose-graph';
 import { invert } from '../../geometry/registration/rigid-transform';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, spacingForFaces, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
-import { startTypeScriptWorker } from '../../jobs/start-worker';
-import { runPool, type PoolTask } from '../../jobs/worker-pool';
+import { startTypeScriptWorker } from '../../jobs/typescript-worker';
+import { runPool, type PoolTask } from '../../jobs/affinity-pool';
 import { WORKER_CACHE_SIZE, type AnalyseResult, type DescribeResult, type MatchResult, type ProposalTask, type ScanRef } from '../../jobs/proposal-worker';
 import type { LengthUnit } from '../../jobs/fragment-loader';
 import type { RequestContext } from '../request';

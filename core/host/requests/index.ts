@@ -3,6 +3,7 @@ import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
+import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
 import { vocabularyRequests } from './vocabulary';
 
@@ -16,6 +17,7 @@ export const requests = {
   ...tallyRequests,
   ...catalogueRequests,
   ...proposalRequests,
+  ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
 };
