@@ -5,6 +5,7 @@ import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -20,6 +21,7 @@ export const requests = {
   ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
+  ...viewerRequests,
 };
 
 export type Requests = typeof requests;
