@@ -7,6 +7,7 @@ import { registerPropose } from './propose';
 import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
+import { registerVocabulary } from './vocabulary';
 import { registerServe } from './serve';
 import { registerLink } from './link';
 import { registerAccept } from './accept';
@@ -31,6 +32,7 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerImportScans,
   registerImportSpecimens,
   registerExport,
+  registerVocabulary,
   registerServe,
   registerLink,
   registerAccept,
