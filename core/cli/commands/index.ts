@@ -1,6 +1,8 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
+import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerServe } from './serve';
@@ -21,6 +23,8 @@ import { registerSpatial } from './spatial';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerInspect,
+  registerImportScans,
   registerImportSpecimens,
   registerExport,
   registerServe,

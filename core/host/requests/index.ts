@@ -2,6 +2,7 @@ import { appRequests } from './app';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
+import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
 import { vocabularyRequests } from './vocabulary';
 
@@ -14,6 +15,7 @@ export const requests = {
   ...joinsRequests,
   ...tallyRequests,
   ...catalogueRequests,
+  ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
 };
