@@ -4,6 +4,7 @@ import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -18,6 +19,7 @@ export const requests = {
   ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
+  ...viewerRequests,
 };
 
 export type Requests = typeof requests;
