@@ -2,6 +2,8 @@ import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
+import { registerMatch } from './match';
+import { registerPropose } from './propose';
 import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
@@ -24,6 +26,8 @@ import { registerSpatial } from './spatial';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerMatch,
+  registerPropose,
   registerInspect,
   registerImportScans,
   registerImportSpecimens,

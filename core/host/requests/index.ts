@@ -2,6 +2,7 @@ import { appRequests } from './app';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
+import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
 import { viewerRequests } from './viewer';
@@ -16,6 +17,7 @@ export const requests = {
   ...joinsRequests,
   ...tallyRequests,
   ...catalogueRequests,
+  ...proposalRequests,
   ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
