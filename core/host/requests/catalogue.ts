@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import { z } from 'zod';
 import { exportCatalogue } from '../../catalogue/export';
+import { tallyExport } from '../counting/tally-export';
 import { importSpecimens } from '../../catalogue/import-specimens';
 import { openCatalogue, withCatalogue } from '../../catalogue/catalogue';
 import { checkSpecimenFields, checkSpecimenPatch } from '../../catalogue/specimen-input';
@@ -171,9 +172,9 @@ export const catalogueRequests = {
   }),
 
   'catalogue.export': defineRequest({
-    summary: 'Write specimens.csv, joins.csv and history.csv of a catalogue into a folder',
+    summary: 'Write specimens.csv, joins.csv, history.csv and tally.csv of a catalogue into a folder',
     input: z.object({ catalogue: cataloguePath, out: z.string().trim().min(1, 'give the folder to write to') }).strict(),
-    run: (input) => withCatalogue(input.catalogue, (cat) => ({ files: exportCatalogue(cat, input.out) })),
+    run: (input) => withCatalogue(input.catalogue, (cat) => ({ files: exportCatalogue(cat, input.out, [tallyExport]) })),
   }),
 
   'history.list': defineRequest({
