@@ -127,6 +127,17 @@ export const catalogueRequests = {
       ),
   }),
 
+  'specimens.delete': defineRequest({
+    summary: 'Remove a specimen entered by mistake (refused while scans or joins refer to it); history keeps the record',
+    input: z.object({ catalogue: cataloguePath, who }).strict().and(specimenRef),
+    run: (input) =>
+      withCatalogue(
+        input.catalogue,
+        (cat) => cat.specimens.remove(cat.specimens.require(input.id ?? input.catalogueNo!).id),
+        { who: input.who },
+      ),
+  }),
+
   'specimens.import': defineRequest({
     summary: 'Import specimens from a CSV file, all or nothing; with update, change existing ones (recorded in history)',
     input: z
