@@ -85,13 +85,14 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
   // Plot frame and units.
   out += `<rect x="${px(left)}" y="${px(top)}" width="${px(plotWUsed)}" height="${px(plotH)}" fill="none" stroke="${MUTED}"/>`;
   if (input.units.length) {
-    out += `<g id="units" fill="#f2efe8" stroke="#9a9a9a" stroke-width="0.8">`;
+    // All units in one path (a site of thousands of 1 m squares stays small).
+    let d = '';
     for (const u of input.units) {
       const x = sx(u.xMin);
       const y = sy(u.yMax);
-      out += `<rect x="${px(x)}" y="${px(y)}" width="${px(sx(u.xMax) - x)}" height="${px(sy(u.yMin) - y)}"/>`;
+      d += `M${px(x)} ${px(y)}h${px(sx(u.xMax) - x)}v${px(sy(u.yMin) - y)}h${px(x - sx(u.xMax))}z`;
     }
-    out += `</g>`;
+    out += `<path id="units" d="${d}" fill="#f2efe8" stroke="#9a9a9a" stroke-width="0.8"/>`;
     // Unit names only where there is room for them.
     const roomy = input.units.filter((u) => (u.xMax - u.xMin) * k >= 34 && (u.yMax - u.yMin) * k >= 16);
     if (roomy.length) {
