@@ -153,7 +153,7 @@ function scaleBar(x: number, y: number, pxPerM: number, spanM: number): string {
   const unit = lengthM < 1 ? `${label(lengthM * 100, 0)} cm` : `${label(lengthM, 2)} m`;
   return (
     `<g id="scale-bar">` +
-    `<rect x="${px(x - 6)}" y="${px(y - 22)}" width="${px(w + 12 + 8 * unit.length)}" height="30" fill="#ffffff" fill-opacity=".85"/>` +
+    `<rect x="${px(x - 6)}" y="${px(y - 22)}" width="${px(w + 10 + 6.5 * unit.length)}" height="30" fill="#ffffff" fill-opacity=".85"/>` +
     `<rect x="${px(x)}" y="${px(y - 5)}" width="${px(half)}" height="5" fill="${INK}" stroke="${INK}" stroke-width=".8"/>` +
     `<rect x="${px(x + half)}" y="${px(y - 5)}" width="${px(half)}" height="5" fill="#ffffff" stroke="${INK}" stroke-width=".8"/>` +
     text(x, y - 9, '0', 'text-anchor="middle" font-size="11"') +
