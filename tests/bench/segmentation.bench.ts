@@ -9,6 +9,7 @@
  * KNITBONE_SAMPLE_DIR points at another generated sample folder.
  */
 import { readFileSync } from 'node:fs';
+import { availableParallelism, loadavg } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { analyseFragment, type FragmentAnalysis } from '../../core/geometry/analyse-fragment';
@@ -110,7 +111,7 @@ export function scoreSample(dir: string, settings = {}): SampleScores {
 
 async function largeScan(targetTriangles: number): Promise<{ bytes: Uint8Array; truth: Uint8Array; triangles: number }> {
   // Edge length chosen so the tube has about the target number of triangles.
-  let edge = 0.6;
+  let edge = 0.28;
   for (let i = 0; i < 4; i++) {
     const t = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -30 }, { baseZ: -45, baseRadius: 50, halfAngleDeg: 45 }], edgeLength: edge });
     const n = t.mesh.triangles.length / 3;
@@ -165,7 +166,7 @@ export default async function main(): Promise<void> {
     total += areas[f];
     if ((analysis!.triangleClass[f] === 0 ? 1 : 0) === big.truth[analysis!.sourceTriangle[f]]) agree += areas[f];
   }
-  process.stdout.write(`\nLarge scan: broken tube with known truth, ${big.triangles} triangles, binary PLY ${(big.bytes.length / 1e6).toFixed(1)} MB (one thread)\n`);
+  process.stdout.write(`\nLarge scan: broken tube with known truth, ${big.triangles} triangles, binary PLY ${(big.bytes.length / 1e6).toFixed(1)} MB (one thread; load average ${loadavg().map((x) => x.toFixed(1)).join(' ')} on ${availableParallelism()} cores)\n`);
   console.table({
     'ingest + segmentation, best of 3': `${Math.min(...times).toFixed(0)} ms`,
     'ingest + segmentation, each run': times.map((t) => t.toFixed(0)).join(', ') + ' ms',
