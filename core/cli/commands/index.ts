@@ -2,9 +2,12 @@ import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
+import { registerMatch } from './match';
+import { registerPropose } from './propose';
 import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
+import { registerVocabulary } from './vocabulary';
 import { registerServe } from './serve';
 import { registerLink } from './link';
 import { registerAccept } from './accept';
@@ -23,10 +26,13 @@ import { registerSpatial } from './spatial';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerInit,
+  registerMatch,
+  registerPropose,
   registerInspect,
   registerImportScans,
   registerImportSpecimens,
   registerExport,
+  registerVocabulary,
   registerServe,
   registerLink,
   registerAccept,

@@ -2,8 +2,11 @@ import { appRequests } from './app';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
+import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { reviewRequests } from './review';
+import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -15,9 +18,12 @@ export const requests = {
   ...joinsRequests,
   ...tallyRequests,
   ...catalogueRequests,
+  ...proposalRequests,
   ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
+  ...viewerRequests,
+  ...reviewRequests,
 };
 
 export type Requests = typeof requests;

@@ -1,3 +1,4 @@
+import Database from 'better-sqlite3';
 import { afterEach, describe, expect, it } from 'vitest';
 import { Host } from '../../../core/host/host';
 import { KnitboneError } from '../../../core/host/errors';
@@ -139,5 +140,28 @@ describe('joins through the host API', () => {
     ]);
     const t = await host.call('tally.counts', { catalogue: path });
     expect(t.refitted.byTaxon).toEqual([{ taxon: 'Cervus elaphus', nisp: 4, mni: 2, lrp: 2 + 2 - 2 }]);
+  });
+
+  it('the identification threshold is a catalogue setting (default family; Grayson 1984 counts at a chosen rank)', async () => {
+    const path = fresh([
+      { catalogueNo: 'G-1', taxon: 'Cervidae', element: 'femur' },
+      { catalogueNo: 'G-2', taxon: 'Cervus elaphus', element: 'femur' },
+    ]);
+    expect(await host.call('tally.identificationRank', { catalogue: path })).toEqual({ rank: 'family' });
+    expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(2);
+    expect(await host.call('tally.identificationRank', { catalogue: path, rank: 'genus' })).toEqual({ rank: 'genus' });
+    const t = await host.call('tally.counts', { catalogue: path });
+    expect(t.recorded.nisp).toBe(1);
+    expect(t.recorded.identifiedToTaxon).toBe(0.5);
+    await expect(host.call('tally.identificationRank', { catalogue: path, rank: 'kingdom' as never })).rejects.toMatchObject({ kind: 'bad-input' });
+  });
+
+  it('an edit made with another SQLite tool is counted at once (change counter, migration 0010)', async () => {
+    const path = fresh([{ catalogueNo: 'E-1', taxon: 'Mammalia', element: 'femur' }]);
+    expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(0);
+    const outside = new Database(path);
+    outside.prepare(`UPDATE specimen SET taxon = 'Cervus elaphus' WHERE catalogue_no = 'E-1'`).run();
+    outside.close();
+    expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(1);
   });
 });
