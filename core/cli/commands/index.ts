@@ -1,5 +1,6 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerDemo } from './demo';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -7,4 +8,5 @@ import { registerAbout } from './about';
  */
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
+  registerDemo,
 ];

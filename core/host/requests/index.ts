@@ -1,4 +1,5 @@
 import { appRequests } from './app';
+import { demoRequests } from './demo';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -6,6 +7,7 @@ import { appRequests } from './app';
  */
 export const requests = {
   ...appRequests,
+  ...demoRequests,
 };
 
 export type Requests = typeof requests;
