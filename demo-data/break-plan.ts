@@ -40,7 +40,7 @@ export interface BreakPlan {
 /** Roughness of fracture faces, multi-scale, 0.1-1 mm (issue text; the octaves are our choice). */
 export const ROUGHNESS: Record<BreakAge, RoughnessSpec> = {
   fresh: { octaves: [{ wavelength: 9, amplitude: 0.55 }, { wavelength: 4, amplitude: 0.28 }, { wavelength: 2, amplitude: 0.14 }, { wavelength: 1, amplitude: 0.07 }] },
-  dry: { ridged: true, octaves: [{ wavelength: 6, amplitude: 0.8 }, { wavelength: 3, amplitude: 0.4 }, { wavelength: 1.5, amplitude: 0.2 }, { wavelength: 0.8, amplitude: 0.1 }] },
+  dry: { ridged: true, octaves: [{ wavelength: 7, amplitude: 0.32 }, { wavelength: 3, amplitude: 0.22 }, { wavelength: 1.5, amplitude: 0.12 }, { wavelength: 0.8, amplitude: 0.06 }] },
   modern: { octaves: [{ wavelength: 5, amplitude: 0.15 }, { wavelength: 2, amplitude: 0.07 }, { wavelength: 1, amplitude: 0.04 }] },
 };
 
@@ -55,7 +55,7 @@ export function planBreaks(shape: BoneShape, random: Random): BreakPlan {
   const diam = 2 * shape.shaftRadius(L / 2);
   const rings: PlannedRingBreak[] = [];
   const taken: Array<[number, number]> = [];
-  const nRings = boneAge === 'fresh' ? random.weighted([[1, 1], [2, 4], [3, 4], [4, 2]] as const) : random.weighted([[1, 2], [2, 3], [3, 3], [4, 2]] as const);
+  const nRings = boneAge === 'fresh' ? random.weighted([[1, 1], [2, 3], [3, 4], [4, 3]] as const) : random.weighted([[1, 1], [2, 3], [3, 3], [4, 2]] as const);
   let id = 0;
   const hollowLo = shape.cavityStart + 6;
   const hollowHi = shape.cavityEnd - 6;

@@ -157,10 +157,13 @@ export interface WedgeGeometry {
   rOutside: number;
   lower: (r: number, zeta: number) => number;
   upper: (r: number, zeta: number) => number;
+  /** Roughens the two ends of the wedge, where they cross bone. */
+  capRoughness?: { at(x: number, y: number): number };
 }
 
 export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
-  const nA = 6;
+  const width = Math.abs(g.upper(g.rBand[1], 0) - g.lower(g.rBand[1], 0));
+  const nA = Math.max(6, Math.ceil((width * g.rBand[1]) / resolution));
   const radii: number[] = [g.rInside];
   const nBand = Math.ceil((g.rBand[1] - g.rBand[0]) / resolution);
   for (let i = 0; i <= nBand; i++) radii.push(g.rBand[0] + ((g.rBand[1] - g.rBand[0]) * i) / nBand);
@@ -175,10 +178,12 @@ export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
     let id = index.get(key);
     if (id === undefined) {
       const r = radii[k];
-      const zeta = g.zetaLo + ((g.zetaHi - g.zetaLo) * l) / nZ;
+      let zeta = g.zetaLo + ((g.zetaHi - g.zetaLo) * l) / nZ;
       const lo = g.lower(r, zeta);
       const hi = g.upper(r, zeta);
-      place(g.frame, r, lo + ((hi - lo) * i) / nA, zeta, tmp, 0);
+      const phi = lo + ((hi - lo) * i) / nA;
+      if (g.capRoughness && (l === 0 || l === nZ)) zeta += g.capRoughness.at(r * Math.cos(phi) + l, r * Math.sin(phi));
+      place(g.frame, r, phi, zeta, tmp, 0);
       id = pos.length / 3;
       pos.push(tmp[0], tmp[1], tmp[2]);
       index.set(key, id);

@@ -29,6 +29,8 @@ export interface GenerateOptions {
   damage?: boolean;
   /** Lose some fragments (end pieces and others), as in a real assemblage. */
   losses?: boolean;
+  /** Stop after this many bones even if fewer fragments were made (fragments is then a ceiling). */
+  bones?: number;
   /** Restrict the bones to these elements (by index into ELEMENTS), e.g. for tests. */
   elements?: readonly number[];
 }
@@ -103,7 +105,7 @@ export async function generateAssemblage(options: GenerateOptions, onProgress: P
   let firstFragment = true;
   let boneIndex = 0;
   try {
-    while (produced < total) {
+    while (produced < total && (options.bones === undefined || boneIndex < options.bones)) {
       const rng = root.fork(`bone-${boneIndex}`);
       const boneId = `bone-${String(boneIndex + 1).padStart(4, '0')}`;
       const spec = rng.pick(elementChoices);

@@ -8,7 +8,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { generateAssemblage } from './generate';
 
-export const SAMPLE_OPTIONS = { fragments: 30, seed: 'quarnel-sample', pointSpacing: 1.5, elements: [0, 1, 5, 7] } as const;
+export const SAMPLE_OPTIONS = { fragments: 36, bones: 4, seed: process.argv[2] ?? 'qs-3', pointSpacing: 1.5, elements: [0, 1, 2, 5, 6] } as const;
 
 const out = join(dirname(fileURLToPath(import.meta.url)), 'sample');
 rmSync(out, { recursive: true, force: true });

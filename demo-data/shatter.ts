@@ -80,9 +80,15 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
     const sp = plan.splintering(index);
     if (!sp) return;
     const box = seg.solid.boundingBox();
-    const z0 = box.min[2];
-    const z1 = box.max[2];
-    if (z0 < shape.cavityStart + 4 || z1 > shape.cavityEnd - 4 || z1 - z0 < 25) return;
+    // the hollow stretch of this segment; where the segment runs on into a solid end, the
+    // splinters end in a rough break across the shaft
+    const hollowLo = shape.cavityStart + 4;
+    const hollowHi = shape.cavityEnd - 4;
+    const openLo = box.min[2] < hollowLo;
+    const openHi = box.max[2] > hollowHi;
+    const z0 = Math.max(box.min[2], hollowLo);
+    const z1 = Math.min(box.max[2], hollowHi);
+    if (z1 - z0 < 30) return;
     const zm = (z0 + z1) / 2;
     const c = shape.center(zm);
     const frame = axisFrame([c[0], c[1], zm], shape.tangent(zm));
@@ -97,11 +103,12 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       acc += w;
     }
     const smooth = (i: number) => (r: number, zeta: number) => base[i] + (sp.twist * zeta) / len + (sp.bevels[i] * (r - rMean)) / rMean;
-    const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, r * 1.7) / rMean;
+    const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, r) / rMean;
     const common = {
       frame,
-      zetaLo: z0 - zm - 6,
-      zetaHi: z1 - zm + 6,
+      zetaLo: z0 - zm - (openLo ? 0 : 6),
+      zetaHi: z1 - zm + (openHi ? 0 : 6),
+      capRoughness: sp.roughness[0],
       rInside: rIn * 0.6,
       rBand: [Math.max(rIn * 0.6 + 0.5, rIn - 1.5), rOut + 2] as const,
       rOutside: rOut + 12,
