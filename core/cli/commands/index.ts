@@ -1,6 +1,19 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerDemo } from './demo';
+import { registerInit } from './init';
+import { registerImportSpecimens } from './import-specimens';
+import { registerExport } from './export';
+import { registerServe } from './serve';
+import { registerLink } from './link';
+import { registerAccept } from './accept';
+import { registerReject } from './reject';
+import { registerUnlink } from './unlink';
+import { registerJoins } from './joins';
+import { registerConflicts } from './conflicts';
+import { registerTally } from './tally';
+import { registerSite } from './site';
+import { registerSpatial } from './spatial';
 
 /**
  * Every subcommand registers itself here, one file per command (or small family) in this
@@ -9,4 +22,17 @@ import { registerDemo } from './demo';
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerDemo,
+  registerInit,
+  registerImportSpecimens,
+  registerExport,
+  registerServe,
+  registerLink,
+  registerAccept,
+  registerReject,
+  registerUnlink,
+  registerJoins,
+  registerConflicts,
+  registerTally,
+  registerSpatial,
+  registerSite,
 ];

@@ -1,5 +1,10 @@
 import { appRequests } from './app';
 import { demoRequests } from './demo';
+import { joinsRequests } from './joins';
+import { tallyRequests } from './tally';
+import { catalogueRequests } from './catalogue';
+import { spatialRequests } from './spatial';
+import { vocabularyRequests } from './vocabulary';
 
 /**
  * Every request of the host API, by name. Each area adds its own table (one file in this
@@ -8,6 +13,11 @@ import { demoRequests } from './demo';
 export const requests = {
   ...appRequests,
   ...demoRequests,
+  ...joinsRequests,
+  ...tallyRequests,
+  ...catalogueRequests,
+  ...spatialRequests,
+  ...vocabularyRequests,
 };
 
 export type Requests = typeof requests;

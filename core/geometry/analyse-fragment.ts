@@ -1,0 +1,169 @@
+import { vertexRings } from './adjacency';
+import { classifyRegion, regionFigures, type RegionFigures } from './classify-regions';
+import { principalCurvatures, type SurfaceCurvature } from './curvature';
+import { fractureFaces, type FractureFace } from './fracture-faces';
+import { enclosedVolume, surfaceArea } from './measure';
+import { boundingBox, triangleNormalsAndAreas, vertexNormals, type BoundingBox, type TriangleMesh } from './mesh';
+import { bilateralNormalFilter, triangleCentroids } from './normal-filter';
+import { growRegions, mergeSmallRegions } from './regions';
+import { resampleSurface, type SurfaceSamples } from './resample';
+import { analysisSettings, type AnalysisSettings } from './settings';
+import { facingGroups, fitShaftAxis, type ShaftAxis } from './shaft-axis';
+import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
+import { buildTopology, triangleComponents } from './topology';
+import { keepTriangles, weldVertices } from './weld';
+
+export interface SurfaceRegion extends RegionFigures {
+  id: number;
+  surfaceClass: SurfaceClass;
+  kind: 'fracture' | 'original';
+}
+
+export interface MeshStats {
+  inputVertices: number;
+  inputTriangles: number;
+  vertices: number;
+  triangles: number;
+  area: number;
+  volume: number;
+  /** Watertight: no open edges, no edge shared by three or more triangles, consistent winding. */
+  closed: boolean;
+  boundaryEdges: number;
+  nonManifoldEdges: number;
+  inconsistentEdges: number;
+  droppedDegenerate: number;
+  /** Components found; only the largest is analysed. */
+  components: number;
+  droppedComponentTriangles: number;
+  bbox: BoundingBox;
+}
+
+export interface FragmentAnalysis {
+  /** Welded, cleaned mesh of the largest component: every other array indexes into it. */
+  mesh: TriangleMesh;
+  /** Input triangle index of each analysed triangle (for labels in input order). */
+  sourceTriangle: Uint32Array;
+  stats: MeshStats;
+  vertexNormals: Float32Array;
+  triangleNormals: Float32Array;
+  curvature: SurfaceCurvature;
+  axis: ShaftAxis;
+  /** Region id of each triangle, and the regions with their class. */
+  regionOfTriangle: Uint32Array;
+  regions: SurfaceRegion[];
+  /** surfaceClassCode per triangle (0 fracture, 1 outer cortical, 2 medullary, 3 articular). */
+  triangleClass: Uint8Array;
+  samples: SurfaceSamples;
+  fractureFaces: FractureFace[];
+  settings: AnalysisSettings;
+}
+
+/**
+ * Everything the matcher needs from one fragment's scan (design.md section 7, steps 1-4):
+ * weld and clean, keep the largest component, measure, curvatures and roughness, resample,
+ * segment into regions without seed points, classify each region, and describe every
+ * fracture face. `regionClassOverrides` applies the analyst's corrections (region id -> class).
+ */
+export function analyseFragment(
+  input: TriangleMesh,
+  overrides: Partial<AnalysisSettings> = {},
+  regionClassOverrides: ReadonlyMap<number, SurfaceClass> = new Map(),
+): FragmentAnalysis {
+  const settings = analysisSettings(overrides);
+  const welded = weldVertices(input, settings.weldToleranceMm);
+  const comps = triangleComponents(welded.mesh);
+  let mesh = welded.mesh;
+  let sourceTriangle = welded.sourceTriangle;
+  let dropped = 0;
+  if (comps.sizes.length > 1) {
+    const kept = keepTriangles(mesh, (f) => comps.component[f] === 0);
+    mesh = kept.mesh;
+    sourceTriangle = kept.kept.map((f) => welded.sourceTriangle[f]);
+    dropped = comps.sizes.slice(1).reduce((s, x) => s + x, 0);
+  }
+  const topo = buildTopology(mesh);
+  const { normals: triNormals, areas } = triangleNormalsAndAreas(mesh);
+  const vNormals = vertexNormals(mesh);
+  const rings = vertexRings(mesh);
+  const curvature = principalCurvatures(mesh, vNormals, rings);
+  const centroids = triangleCentroids(mesh.positions, mesh.triangles);
+  const nt = areas.length;
+  const triRough = new Float32Array(nt), triMean = new Float32Array(nt);
+  const t = mesh.triangles;
+  for (let f = 0; f < nt; f++) {
+    const a = t[3 * f], b = t[3 * f + 1], c = t[3 * f + 2];
+    triRough[f] = (curvature.roughness[a] + curvature.roughness[b] + curvature.roughness[c]) / 3;
+    triMean[f] = (curvature.k1[a] + curvature.k1[b] + curvature.k1[c] + curvature.k2[a] + curvature.k2[b] + curvature.k2[c]) / 6;
+  }
+  const area = surfaceArea(mesh);
+  const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
+  const axis = fitShaftAxis(centroids, filtered, areas);
+  const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
+  let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing);
+  region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
+  let regionCount = 0;
+  for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
+  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, axis);
+  const regions: SurfaceRegion[] = figures.map((fig, id) => {
+    const surfaceClass = regionClassOverrides.get(id) ?? classifyRegion(fig, axis, settings);
+    return { id, ...fig, surfaceClass, kind: surfaceClass === 'fracture' ? 'fracture' : 'original' };
+  });
+  const triangleClass = new Uint8Array(nt);
+  for (let f = 0; f < nt; f++) triangleClass[f] = surfaceClassCode(regions[region[f]].surfaceClass);
+  const samples = resampleSurface(mesh, triNormals, settings.sampleSpacingMm);
+  const roughSorted = Float32Array.from(triRough).sort();
+  const faces = fractureFaces({
+    mesh,
+    neighbours: topo.neighbours,
+    triNormals,
+    areas,
+    centroids,
+    triClass: triangleClass,
+    triRoughness: triRough,
+    medianRoughness: roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9,
+    axis,
+    samples,
+    settings,
+  });
+  return {
+    mesh,
+    sourceTriangle,
+    stats: {
+      inputVertices: input.positions.length / 3,
+      inputTriangles: input.triangles.length / 3,
+      vertices: mesh.positions.length / 3,
+      triangles: nt,
+      area,
+      volume: enclosedVolume(mesh),
+      closed: topo.closed,
+      boundaryEdges: topo.boundaryEdges,
+      nonManifoldEdges: topo.nonManifoldEdges,
+      inconsistentEdges: topo.inconsistentEdges,
+      droppedDegenerate: welded.droppedDegenerate,
+      components: comps.sizes.length,
+      droppedComponentTriangles: dropped,
+      bbox: boundingBox(mesh.positions),
+    },
+    vertexNormals: vNormals,
+    triangleNormals: triNormals,
+    curvature,
+    axis,
+    regionOfTriangle: region,
+    regions,
+    triangleClass,
+    samples,
+    fractureFaces: faces,
+    settings,
+  };
+}
+
+/** One byte per input triangle, in input order: 1 fracture, 0 original (or dropped). */
+export function fractureLabelsForInput(analysis: FragmentAnalysis): Uint8Array {
+  const labels = new Uint8Array(analysis.stats.inputTriangles);
+  for (let f = 0; f < analysis.triangleClass.length; f++) {
+    if (analysis.triangleClass[f] === 0) labels[analysis.sourceTriangle[f]] = 1;
+  }
+  return labels;
+}
+
+export { SURFACE_CLASSES };

@@ -1,0 +1,120 @@
+/**
+ * A fragment made ready for matching: its surface in a BVH, evenly spaced samples of the whole
+ * surface and of each break face (with FPFH descriptors), the faces' outlines, and a small
+ * descriptor per face for the candidate index. Pure: typed arrays in, typed arrays out.
+ */
+import { computeFpfh } from '../registration/fpfh';
+import { KdTree } from '../registration/nearest-neighbours';
+import { TargetSurface } from '../registration/target-surface';
+import { sampleTriangles, voxelResample } from '../registration/voxel-sampling';
+import { faceDescriptor } from './face-descriptor';
+
+/** A break face as segmentation reports it (any resolution): samples with outward normals. */
+export interface BreakFaceInput {
+  points: Float32Array;
+  normals: Float32Array;
+  /** Points along the face's outline curve(s), packed xyz; empty when unknown. */
+  outline?: Float32Array;
+  /** Area in mm^2, if known. */
+  area?: number;
+}
+
+export interface FragmentInput {
+  positions: Float32Array;
+  triangles: Uint32Array;
+  faces: BreakFaceInput[];
+}
+
+export interface PreparedFace {
+  index: number;
+  points: Float32Array;
+  normals: Float32Array;
+  fpfh: Float32Array;
+  tree: KdTree;
+  outline: Float32Array;
+  area: number;
+  centroid: [number, number, number];
+  /** Rotation-invariant numbers for the candidate index (see face-descriptor.ts). */
+  descriptor: Float32Array;
+}
+
+export interface PreparedFragment {
+  surface: TargetSurface;
+  surfacePoints: Float32Array;
+  surfaceNormals: Float32Array;
+  faces: PreparedFace[];
+  centroid: [number, number, number];
+  diagonal: number;
+  spacing: number;
+}
+
+export interface SamplingParameters {
+  /** Distance between samples (mm). */
+  spacing: number;
+  /** FPFH neighbourhood radius in sample spacings. */
+  fpfhRadiusSpacings: number;
+}
+
+export const DEFAULT_FPFH_RADIUS_SPACINGS = 5;
+
+export function prepareFragment(input: FragmentInput, params: SamplingParameters): PreparedFragment {
+  const { positions, triangles } = input;
+  const surface = new TargetSurface(positions, triangles);
+  const all = sampleTriangles(positions, triangles, params.spacing * 1.5);
+  const faces: PreparedFace[] = [];
+  input.faces.forEach((f, index) => {
+    const s = voxelResample(f.points, f.normals, params.spacing);
+    const tree = new KdTree(s.points, 3);
+    const fpfh = computeFpfh(s.points, s.normals, params.spacing * params.fpfhRadiusSpacings, tree);
+    const outline = f.outline && f.outline.length >= 3 ? thinPolyline(f.outline, params.spacing * 0.5) : new Float32Array(0);
+    const area = f.area ?? (s.points.length / 3) * params.spacing * params.spacing;
+    const c = centroidOf(s.points);
+    faces.push({ index, points: s.points, normals: s.normals, fpfh, tree, outline, area, centroid: c, descriptor: faceDescriptor(s.points, s.normals, outline, area, fpfh) });
+  });
+  const box = boundsOf(positions);
+  return {
+    surface,
+    surfacePoints: all.points,
+    surfaceNormals: all.normals,
+    faces,
+    centroid: centroidOf(positions),
+    diagonal: Math.hypot(box[3] - box[0], box[4] - box[1], box[5] - box[2]),
+    spacing: params.spacing,
+  };
+}
+
+export function centroidOf(p: ArrayLike<number>): [number, number, number] {
+  const n = p.length / 3;
+  let x = 0, y = 0, z = 0;
+  for (let i = 0; i < n; i++) {
+    x += p[3 * i]; y += p[3 * i + 1]; z += p[3 * i + 2];
+  }
+  return n ? [x / n, y / n, z / n] : [0, 0, 0];
+}
+
+export function boundsOf(p: ArrayLike<number>): [number, number, number, number, number, number] {
+  const b: [number, number, number, number, number, number] = [Infinity, Infinity, Infinity, -Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < p.length; i += 3) {
+    for (let k = 0; k < 3; k++) {
+      if (p[i + k] < b[k]) b[k] = p[i + k];
+      if (p[i + k] > b[k + 3]) b[k + 3] = p[i + k];
+    }
+  }
+  return b;
+}
+
+/** Keep outline points at least `gap` apart (in listed order). */
+function thinPolyline(p: Float32Array, gap: number): Float32Array {
+  const out: number[] = [p[0], p[1], p[2]];
+  for (let i = 3; i < p.length; i += 3) {
+    const o = out.length - 3;
+    if (Math.hypot(p[i] - out[o], p[i + 1] - out[o + 1], p[i + 2] - out[o + 2]) >= gap) out.push(p[i], p[i + 1], p[i + 2]);
+  }
+  return Float32Array.from(out);
+}
+
+/** A sample spacing that suits a pair (or set) of fragments: about 1/60 of the larger box diagonal. */
+export function defaultSpacing(diagonals: number[]): number {
+  const d = Math.max(...diagonals);
+  return Math.max(1e-6, d / 60);
+}

@@ -1,0 +1,165 @@
+/**
+ * Trimmed point-to-plane ICP (Chen & Medioni 1991; trimming after Chetverikov et al. 2002):
+ * move source samples (with normals) onto a target surface held in a BVH. Each round pairs every
+ * moved sample with its closest target point, keeps pairs whose normals are opposed (two sides
+ * of one break face each other) and the best `trim` share by distance, and solves the linearised
+ * point-to-plane least squares for a small rotation and translation.
+ */
+import { compose, transformFromTwist, type RigidTransform } from './rigid-transform';
+import type { ClosestPoint, TargetSurface } from './target-surface';
+
+export interface IcpOptions {
+  /** Pairs farther apart than this are ignored (mm). */
+  maxDistance: number;
+  /** Share of the closest pairs kept each round (0..1]. */
+  trim?: number;
+  /** Keep pairs whose normals meet at more than this angle (degrees); 180 means exactly opposed. */
+  minNormalAngleDeg?: number;
+  /** true (default): source and target normals must be opposed; false: aligned. */
+  opposedNormals?: boolean;
+  maxIterations?: number;
+  /** Stop when an update moves less than this (mm) and turns less than tolerance/extent. */
+  tolerance?: number;
+}
+
+export interface IcpResult {
+  transform: RigidTransform;
+  /** RMS of point-to-plane residuals of kept pairs at the end (mm). */
+  rms: number;
+  /** Pairs kept in the last round. */
+  inliers: number;
+  iterations: number;
+}
+
+export function icpPointToPlane(
+  sourcePoints: ArrayLike<number>,
+  sourceNormals: ArrayLike<number>,
+  target: TargetSurface,
+  initial: RigidTransform,
+  options: IcpOptions,
+): IcpResult {
+  const n = sourcePoints.length / 3;
+  const trim = options.trim ?? 0.8;
+  const cosLimit = Math.cos(((options.minNormalAngleDeg ?? 120) * Math.PI) / 180);
+  const opposed = options.opposedNormals ?? true;
+  const maxIter = options.maxIterations ?? 40;
+  const tol = options.tolerance ?? 1e-4;
+  let T = initial.slice();
+  let rms = Infinity;
+  let inliers = 0;
+  let iter = 0;
+  const px = new Float64Array(n), py = new Float64Array(n), pz = new Float64Array(n);
+  const qx = new Float64Array(n), qy = new Float64Array(n), qz = new Float64Array(n);
+  const nx = new Float64Array(n), ny = new Float64Array(n), nz = new Float64Array(n);
+  const dist = new Float64Array(n);
+  const order: number[] = [];
+  const cp = {} as ClosestPoint;
+  let maxD = options.maxDistance;
+  for (iter = 0; iter < maxIter; iter++) {
+    let m = 0;
+    for (let i = 0; i < n; i++) {
+      const x = sourcePoints[3 * i], y = sourcePoints[3 * i + 1], z = sourcePoints[3 * i + 2];
+      const X = T[0] * x + T[1] * y + T[2] * z + T[3];
+      const Y = T[4] * x + T[5] * y + T[6] * z + T[7];
+      const Z = T[8] * x + T[9] * y + T[10] * z + T[11];
+      const sx = sourceNormals[3 * i], sy = sourceNormals[3 * i + 1], sz = sourceNormals[3 * i + 2];
+      const SX = T[0] * sx + T[1] * sy + T[2] * sz;
+      const SY = T[4] * sx + T[5] * sy + T[6] * sz;
+      const SZ = T[8] * sx + T[9] * sy + T[10] * sz;
+      const hit = target.closest(X, Y, Z, maxD, cp);
+      if (!hit) continue;
+      let c = SX * hit.nx + SY * hit.ny + SZ * hit.nz;
+      if (!opposed) c = -c;
+      if (c > cosLimit) continue;
+      px[m] = X; py[m] = Y; pz[m] = Z;
+      qx[m] = hit.x; qy[m] = hit.y; qz[m] = hit.z;
+      nx[m] = hit.nx; ny[m] = hit.ny; nz[m] = hit.nz;
+      dist[m] = hit.distance;
+      m++;
+    }
+    if (m < 6) break;
+    order.length = 0;
+    for (let i = 0; i < m; i++) order.push(i);
+    const keep = Math.max(6, Math.floor(m * trim));
+    if (keep < m) order.sort((a, b) => dist[a] - dist[b]);
+    // Normal equations A^T A x = A^T b for x = (omega, t), row a = (p x n, n), b = -(p - q).n
+    const AtA = new Float64Array(36);
+    const Atb = new Float64Array(6);
+    // centre for conditioning
+    let cx = 0, cy = 0, cz = 0;
+    for (let k = 0; k < keep; k++) {
+      const i = order[k];
+      cx += px[i]; cy += py[i]; cz += pz[i];
+    }
+    cx /= keep; cy /= keep; cz /= keep;
+    let ss = 0;
+    const row = new Float64Array(6);
+    for (let k = 0; k < keep; k++) {
+      const i = order[k];
+      const X = px[i] - cx, Y = py[i] - cy, Z = pz[i] - cz;
+      row[0] = Y * nz[i] - Z * ny[i];
+      row[1] = Z * nx[i] - X * nz[i];
+      row[2] = X * ny[i] - Y * nx[i];
+      row[3] = nx[i]; row[4] = ny[i]; row[5] = nz[i];
+      const r = (px[i] - qx[i]) * nx[i] + (py[i] - qy[i]) * ny[i] + (pz[i] - qz[i]) * nz[i];
+      ss += r * r;
+      for (let a = 0; a < 6; a++) {
+        Atb[a] -= row[a] * r;
+        for (let b = a; b < 6; b++) AtA[a * 6 + b] += row[a] * row[b];
+      }
+    }
+    for (let a = 0; a < 6; a++) for (let b = 0; b < a; b++) AtA[a * 6 + b] = AtA[b * 6 + a];
+    rms = Math.sqrt(ss / keep);
+    inliers = keep;
+    // light damping keeps sliding directions of thin bands from running away
+    let trace = 0;
+    for (let a = 0; a < 6; a++) trace += AtA[a * 6 + a];
+    for (let a = 0; a < 6; a++) AtA[a * 6 + a] += 1e-9 * trace + 1e-12;
+    const x = solveSymmetric6(AtA, Atb);
+    if (!x) break;
+    // update about the centre c: p' = R (p - c) + c + t
+    const step = transformFromTwist([x[0], x[1], x[2]], [0, 0, 0]);
+    const R = step;
+    const tx = cx + x[3] - (R[0] * cx + R[1] * cy + R[2] * cz);
+    const ty = cy + x[4] - (R[4] * cx + R[5] * cy + R[6] * cz);
+    const tz = cz + x[5] - (R[8] * cx + R[9] * cy + R[10] * cz);
+    R[3] = tx; R[7] = ty; R[11] = tz;
+    T = compose(R, T);
+    const moved = Math.hypot(x[3], x[4], x[5]);
+    const turned = Math.hypot(x[0], x[1], x[2]);
+    // shrink the pairing distance as we converge (never below 3x the residual)
+    maxD = Math.max(Math.min(maxD, 3 * rms + 2 * moved), options.maxDistance * 0.25);
+    if (moved < tol && turned < tol * 1e-2) {
+      iter++;
+      break;
+    }
+  }
+  return { transform: T, rms, inliers, iterations: iter };
+}
+
+/** Solve a symmetric positive (semi)definite 6x6 system by Gaussian elimination with pivoting. */
+function solveSymmetric6(A: Float64Array, b: Float64Array): Float64Array | null {
+  const n = 6;
+  const M = new Float64Array(n * (n + 1));
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) M[i * 7 + j] = A[i * 6 + j];
+    M[i * 7 + 6] = b[i];
+  }
+  for (let c = 0; c < n; c++) {
+    let p = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(M[r * 7 + c]) > Math.abs(M[p * 7 + c])) p = r;
+    if (Math.abs(M[p * 7 + c]) < 1e-18) return null;
+    if (p !== c) for (let j = 0; j < 7; j++) { const t = M[c * 7 + j]; M[c * 7 + j] = M[p * 7 + j]; M[p * 7 + j] = t; }
+    for (let r = c + 1; r < n; r++) {
+      const f = M[r * 7 + c] / M[c * 7 + c];
+      for (let j = c; j < 7; j++) M[r * 7 + j] -= f * M[c * 7 + j];
+    }
+  }
+  const x = new Float64Array(n);
+  for (let r = n - 1; r >= 0; r--) {
+    let s = M[r * 7 + 6];
+    for (let j = r + 1; j < n; j++) s -= M[r * 7 + j] * x[j];
+    x[r] = s / M[r * 7 + r];
+  }
+  return x;
+}

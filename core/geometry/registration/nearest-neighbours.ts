@@ -1,0 +1,150 @@
+/**
+ * A k-d tree over points of any dimension (3 for surface samples, more for descriptors):
+ * k nearest neighbours and fixed-radius search (Friedman, Bentley & Finkel 1977).
+ * Built once over a packed array; nodes are implicit (median split over a permutation).
+ */
+export class KdTree {
+  readonly dim: number;
+  readonly count: number;
+  private readonly data: ArrayLike<number>;
+  private readonly order: Uint32Array;
+  /** For node covering order[lo, hi): split dimension stored at mid index. */
+  private readonly splitDim: Uint8Array;
+  private static readonly LEAF = 8;
+
+  constructor(data: ArrayLike<number>, dim: number) {
+    this.dim = dim;
+    this.data = data;
+    this.count = Math.floor(data.length / dim);
+    this.order = new Uint32Array(this.count);
+    for (let i = 0; i < this.count; i++) this.order[i] = i;
+    this.splitDim = new Uint8Array(this.count);
+    if (this.count > 0) this.build(0, this.count);
+  }
+
+  private build(lo: number, hi: number): void {
+    const stack: number[] = [lo, hi];
+    while (stack.length) {
+      const h = stack.pop()!, l = stack.pop()!;
+      if (h - l <= KdTree.LEAF) continue;
+      // split along the widest dimension of this node
+      let bestDim = 0, bestSpread = -1;
+      for (let d = 0; d < this.dim; d++) {
+        let mn = Infinity, mx = -Infinity;
+        for (let i = l; i < h; i++) {
+          const v = this.data[this.order[i] * this.dim + d];
+          if (v < mn) mn = v;
+          if (v > mx) mx = v;
+        }
+        if (mx - mn > bestSpread) {
+          bestSpread = mx - mn;
+          bestDim = d;
+        }
+      }
+      const mid = (l + h) >> 1;
+      this.select(l, h - 1, mid, bestDim);
+      this.splitDim[mid] = bestDim;
+      stack.push(l, mid, mid + 1, h);
+    }
+  }
+
+  /** Quickselect so that order[k] holds the k-th smallest along dimension d. */
+  private select(lo: number, hi: number, k: number, d: number): void {
+    const o = this.order, x = this.data, D = this.dim;
+    while (hi > lo) {
+      const pivot = x[o[(lo + hi) >> 1] * D + d];
+      let i = lo, j = hi;
+      while (i <= j) {
+        while (x[o[i] * D + d] < pivot) i++;
+        while (x[o[j] * D + d] > pivot) j--;
+        if (i <= j) {
+          const t = o[i]; o[i] = o[j]; o[j] = t;
+          i++; j--;
+        }
+      }
+      if (k <= j) hi = j;
+      else if (k >= i) lo = i;
+      else return;
+    }
+  }
+
+  private dist2(q: ArrayLike<number>, idx: number): number {
+    let s = 0;
+    const base = idx * this.dim;
+    for (let d = 0; d < this.dim; d++) {
+      const t = q[d] - this.data[base + d];
+      s += t * t;
+    }
+    return s;
+  }
+
+  /** The k nearest points to q: indices and squared distances, nearest first. */
+  nearest(q: ArrayLike<number>, k: number, maxDist2 = Infinity): { indices: number[]; dist2: number[] } {
+    const idx: number[] = [];
+    const dd: number[] = [];
+    if (this.count === 0 || k <= 0) return { indices: idx, dist2: dd };
+    let worst = maxDist2;
+    const consider = (i: number): void => {
+      const d2 = this.dist2(q, i);
+      if (d2 >= worst && idx.length >= k) return;
+      if (d2 > maxDist2) return;
+      let pos = dd.length;
+      while (pos > 0 && dd[pos - 1] > d2) pos--;
+      dd.splice(pos, 0, d2);
+      idx.splice(pos, 0, i);
+      if (dd.length > k) {
+        dd.pop();
+        idx.pop();
+      }
+      if (dd.length === k) worst = Math.min(maxDist2, dd[k - 1]);
+    };
+    const visit = (lo: number, hi: number): void => {
+      if (hi - lo <= KdTree.LEAF) {
+        for (let i = lo; i < hi; i++) consider(this.order[i]);
+        return;
+      }
+      const mid = (lo + hi) >> 1;
+      const d = this.splitDim[mid];
+      const p = this.order[mid];
+      const diff = q[d] - this.data[p * this.dim + d];
+      consider(p);
+      if (diff < 0) {
+        visit(lo, mid);
+        if (diff * diff < worst) visit(mid + 1, hi);
+      } else {
+        visit(mid + 1, hi);
+        if (diff * diff < worst) visit(lo, mid);
+      }
+    };
+    visit(0, this.count);
+    return { indices: idx, dist2: dd };
+  }
+
+  /** Index of the single nearest point (or -1) and its squared distance. */
+  nearestOne(q: ArrayLike<number>, maxDist2 = Infinity): { index: number; dist2: number } {
+    const r = this.nearest(q, 1, maxDist2);
+    return r.indices.length ? { index: r.indices[0], dist2: r.dist2[0] } : { index: -1, dist2: Infinity };
+  }
+
+  /** Every point within radius r of q (unordered). */
+  within(q: ArrayLike<number>, r: number, out: number[] = []): number[] {
+    out.length = 0;
+    if (this.count === 0) return out;
+    const r2 = r * r;
+    const visit = (lo: number, hi: number): void => {
+      if (hi - lo <= KdTree.LEAF) {
+        for (let i = lo; i < hi; i++) if (this.dist2(q, this.order[i]) <= r2) out.push(this.order[i]);
+        return;
+      }
+      const mid = (lo + hi) >> 1;
+      const d = this.splitDim[mid];
+      const p = this.order[mid];
+      const diff = q[d] - this.data[p * this.dim + d];
+      if (this.dist2(q, p) <= r2) out.push(p);
+      if (diff <= r) visit(lo, mid);
+      if (diff >= -r) visit(mid + 1, hi);
+    };
+    visit(0, this.count);
+    return out;
+  }
+}

@@ -1,0 +1,179 @@
+/**
+ * Coarse alignment of two break faces from local feature correspondences with RANSAC
+ * (Fischler & Bolles 1981): correspondences are nearest neighbours in FPFH space (Rusu et al.
+ * 2009), three at a time give a rigid motion by Horn's closed form (Horn 1987); a motion is
+ * kept when the three pairs keep their lengths, their normals end up opposed, and many moved
+ * samples land near the other face with opposed normals.
+ */
+import { absoluteOrientation } from './absolute-orientation';
+import { FPFH_BINS, FPFH_DIM } from './fpfh';
+import { KdTree } from './nearest-neighbours';
+import { rotationErrorDegrees, type RigidTransform } from './rigid-transform';
+
+export interface FaceSamples {
+  points: Float32Array;
+  normals: Float32Array;
+  /** FPFH per sample computed with the sample's own (outward) normals. */
+  fpfh: Float32Array;
+  tree?: KdTree;
+}
+
+export interface RansacOptions {
+  /** A moved sample counts as an inlier within this distance (mm). */
+  inlierDistance: number;
+  iterations?: number;
+  /** Keep this many distinct best motions. */
+  keep?: number;
+  /** Deterministic random numbers (tests and reproducible runs). */
+  seed?: number;
+  /** Cap on samples used to count inliers. */
+  maxCheckSamples?: number;
+}
+
+export interface Hypothesis {
+  transform: RigidTransform;
+  inliers: number;
+  /** inliers over samples checked */
+  inlierFraction: number;
+}
+
+/** Mirror an FPFH to describe the same surface with flipped normals (phi and theta change sign). */
+export function mirrorFpfh(f: Float32Array): Float32Array {
+  const out = new Float32Array(f.length);
+  const B = FPFH_BINS;
+  const n = f.length / FPFH_DIM;
+  for (let i = 0; i < n; i++) {
+    const o = i * FPFH_DIM;
+    for (let b = 0; b < B; b++) {
+      out[o + b] = f[o + b];
+      out[o + B + b] = f[o + B + (B - 1 - b)];
+      out[o + 2 * B + b] = f[o + 2 * B + (B - 1 - b)];
+    }
+  }
+  return out;
+}
+
+export function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Motions that carry `source` (B's face) onto `target` (A's face), best first. */
+export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, options: RansacOptions): Hypothesis[] {
+  const ns = source.points.length / 3, nt = target.points.length / 3;
+  if (ns < 3 || nt < 3) return [];
+  const rand = mulberry32(options.seed ?? 1);
+  const iterations = options.iterations ?? 4000;
+  const keep = options.keep ?? 4;
+  const eps = options.inlierDistance;
+  const targetTree = target.tree ?? new KdTree(target.points, 3);
+
+  // correspondences: each source sample's 2 nearest target samples in feature space (source
+  // described with flipped normals), plus each target sample's nearest source sample
+  const srcFeat = mirrorFpfh(source.fpfh);
+  const featTreeT = new KdTree(target.fpfh, FPFH_DIM);
+  const featTreeS = new KdTree(srcFeat, FPFH_DIM);
+  const corr: number[] = [];
+  const fq = new Float32Array(FPFH_DIM);
+  for (let i = 0; i < ns; i++) {
+    for (let d = 0; d < FPFH_DIM; d++) fq[d] = srcFeat[i * FPFH_DIM + d];
+    const r = featTreeT.nearest(fq, 2);
+    for (const j of r.indices) corr.push(i, j);
+  }
+  for (let j = 0; j < nt; j++) {
+    for (let d = 0; d < FPFH_DIM; d++) fq[d] = target.fpfh[j * FPFH_DIM + d];
+    const r = featTreeS.nearest(fq, 1);
+    for (const i of r.indices) corr.push(i, j);
+  }
+  const nc = corr.length / 2;
+  if (nc < 3) return [];
+
+  // samples used to count inliers
+  const checkCap = options.maxCheckSamples ?? 250;
+  const check: number[] = [];
+  const stride = Math.max(1, Math.floor(ns / checkCap));
+  for (let i = 0; i < ns; i += stride) check.push(i);
+
+  const S = source.points, Sn = source.normals, T = target.points, Tn = target.normals;
+  const best: Hypothesis[] = [];
+  const pairs = new Uint32Array(6);
+  const q = [0, 0, 0];
+  for (let it = 0; it < iterations; it++) {
+    const c0 = Math.floor(rand() * nc), c1 = Math.floor(rand() * nc), c2 = Math.floor(rand() * nc);
+    if (c0 === c1 || c1 === c2 || c0 === c2) continue;
+    const s = [corr[2 * c0], corr[2 * c1], corr[2 * c2]];
+    const t = [corr[2 * c0 + 1], corr[2 * c1 + 1], corr[2 * c2 + 1]];
+    // edge lengths must agree (rigid) and not be tiny
+    let ok = true;
+    for (let a = 0; a < 3 && ok; a++) {
+      const b = (a + 1) % 3;
+      const ls = dist(S, s[a], s[b]), lt = dist(T, t[a], t[b]);
+      if (ls < 2 * eps || lt < 2 * eps || Math.abs(ls - lt) > 0.1 * Math.max(ls, lt) + 0.5 * eps) ok = false;
+    }
+    if (!ok) continue;
+    for (let a = 0; a < 3; a++) {
+      pairs[2 * a] = s[a];
+      pairs[2 * a + 1] = t[a];
+    }
+    let fit;
+    try {
+      fit = absoluteOrientation(S, T, { pairs });
+    } catch {
+      continue;
+    }
+    const M = fit.transform;
+    if (fit.rms > eps * 2) continue;
+    // the three normals must end up opposed
+    for (let a = 0; a < 3 && ok; a++) {
+      const i = s[a], j = t[a];
+      const nx = M[0] * Sn[3 * i] + M[1] * Sn[3 * i + 1] + M[2] * Sn[3 * i + 2];
+      const ny = M[4] * Sn[3 * i] + M[5] * Sn[3 * i + 1] + M[6] * Sn[3 * i + 2];
+      const nz = M[8] * Sn[3 * i] + M[9] * Sn[3 * i + 1] + M[10] * Sn[3 * i + 2];
+      if (nx * Tn[3 * j] + ny * Tn[3 * j + 1] + nz * Tn[3 * j + 2] > -0.5) ok = false;
+    }
+    if (!ok) continue;
+    let inl = 0;
+    for (const i of check) {
+      const x = S[3 * i], y = S[3 * i + 1], z = S[3 * i + 2];
+      q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
+      q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
+      q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
+      const hit = targetTree.nearestOne(q, eps * eps);
+      if (hit.index < 0) continue;
+      const j = hit.index;
+      const nx = M[0] * Sn[3 * i] + M[1] * Sn[3 * i + 1] + M[2] * Sn[3 * i + 2];
+      const ny = M[4] * Sn[3 * i] + M[5] * Sn[3 * i + 1] + M[6] * Sn[3 * i + 2];
+      const nz = M[8] * Sn[3 * i] + M[9] * Sn[3 * i + 1] + M[10] * Sn[3 * i + 2];
+      if (nx * Tn[3 * j] + ny * Tn[3 * j + 1] + nz * Tn[3 * j + 2] < -0.5) inl++;
+    }
+    if (inl < 3) continue;
+    insertHypothesis(best, { transform: M, inliers: inl, inlierFraction: inl / check.length }, keep, 5 * eps);
+  }
+  return best;
+}
+
+function dist(P: ArrayLike<number>, i: number, j: number): number {
+  return Math.hypot(P[3 * i] - P[3 * j], P[3 * i + 1] - P[3 * j + 1], P[3 * i + 2] - P[3 * j + 2]);
+}
+
+/** Keep the best `keep` motions, merging near-duplicates (same rotation within 5 degrees). */
+function insertHypothesis(list: Hypothesis[], h: Hypothesis, keep: number, sameShift: number): void {
+  for (let k = 0; k < list.length; k++) {
+    const o = list[k];
+    const dt = Math.hypot(o.transform[3] - h.transform[3], o.transform[7] - h.transform[7], o.transform[11] - h.transform[11]);
+    if (rotationErrorDegrees(o.transform, h.transform) < 5 && dt < sameShift) {
+      if (h.inliers > o.inliers) list[k] = h;
+      list.sort((a, b) => b.inliers - a.inliers);
+      return;
+    }
+  }
+  list.push(h);
+  list.sort((a, b) => b.inliers - a.inliers);
+  if (list.length > keep) list.length = keep;
+}

@@ -1,0 +1,67 @@
+/**
+ * A fragment's triangle surface prepared for closest-point queries: a bounding volume
+ * hierarchy (three-mesh-bvh's MeshBVH) over its triangles, and each triangle's unit normal.
+ * Used by ICP and by the score.
+ */
+import { BufferAttribute, BufferGeometry, Vector3 } from 'three';
+import { MeshBVH } from 'three-mesh-bvh';
+
+export interface ClosestPoint {
+  x: number;
+  y: number;
+  z: number;
+  /** Unit normal of the triangle the closest point lies on (outward for a consistently wound mesh). */
+  nx: number;
+  ny: number;
+  nz: number;
+  distance: number;
+  triangle: number;
+}
+
+export class TargetSurface {
+  readonly bvh: MeshBVH;
+  readonly triangleNormals: Float32Array;
+  private readonly query = new Vector3();
+  private readonly hit: { point?: Vector3; distance?: number; faceIndex?: number } = {};
+
+  constructor(positions: Float32Array, triangles: Uint32Array) {
+    const geometry = new BufferGeometry();
+    geometry.setAttribute('position', new BufferAttribute(positions, 3));
+    geometry.setIndex(new BufferAttribute(triangles.slice(), 1));
+    // MeshBVH reorders the index buffer: triangle numbers below refer to that reordered index.
+    this.bvh = new MeshBVH(geometry, { targetLeafSize: 8 });
+    const index = geometry.index!.array as ArrayLike<number>;
+    const nt = index.length / 3;
+    this.triangleNormals = new Float32Array(nt * 3);
+    for (let t = 0; t < nt; t++) {
+      const a = index[3 * t] * 3, b = index[3 * t + 1] * 3, c = index[3 * t + 2] * 3;
+      const ux = positions[b] - positions[a], uy = positions[b + 1] - positions[a + 1], uz = positions[b + 2] - positions[a + 2];
+      const vx = positions[c] - positions[a], vy = positions[c + 1] - positions[a + 1], vz = positions[c + 2] - positions[a + 2];
+      const nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
+      const len = Math.hypot(nx, ny, nz) || 1;
+      this.triangleNormals[3 * t] = nx / len;
+      this.triangleNormals[3 * t + 1] = ny / len;
+      this.triangleNormals[3 * t + 2] = nz / len;
+    }
+  }
+
+  /** Closest surface point to (x, y, z) within maxDistance, or null. */
+  closest(x: number, y: number, z: number, maxDistance = Infinity, out?: ClosestPoint): ClosestPoint | null {
+    this.query.set(x, y, z);
+    const r = this.bvh.closestPointToPoint(this.query, this.hit as never, 0, maxDistance) as
+      | { point: Vector3; distance: number; faceIndex: number }
+      | null;
+    if (!r || !(r.distance <= maxDistance)) return null;
+    const t = r.faceIndex;
+    const res = out ?? ({} as ClosestPoint);
+    res.x = r.point.x;
+    res.y = r.point.y;
+    res.z = r.point.z;
+    res.nx = this.triangleNormals[3 * t];
+    res.ny = this.triangleNormals[3 * t + 1];
+    res.nz = this.triangleNormals[3 * t + 2];
+    res.distance = r.distance;
+    res.triangle = t;
+    return res;
+  }
+}

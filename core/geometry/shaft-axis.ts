@@ -1,0 +1,120 @@
+import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+
+/**
+ * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
+ * bone surface every normal is nearly perpendicular to the axis, so the axis is the
+ * eigenvector of the smallest eigenvalue of sum(w n n^T). Fracture faces, whose normals lean
+ * along the axis, are down-weighted by refitting on the triangles already perpendicular to
+ * the first estimate. The axis point is the least-squares meeting point of the normal lines
+ * projected onto the plane across the axis.
+ */
+export interface ShaftAxis {
+  direction: [number, number, number];
+  point: [number, number, number];
+  /** Area-weighted median distance of the outer surface from the axis. */
+  radius: number;
+  /** Share of the area whose normal is within 20 degrees of perpendicular to the axis. */
+  support: number;
+}
+
+export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, areas: Float64Array): ShaftAxis {
+  const nt = areas.length;
+  let dir = smallestEigen(normals, areas, () => true);
+  for (let pass = 0; pass < 3; pass++) {
+    const d = dir;
+    dir = smallestEigen(normals, areas, (f) => Math.abs(normals[3 * f] * d[0] + normals[3 * f + 1] * d[1] + normals[3 * f + 2] * d[2]) < 0.35);
+  }
+  // Axis point: minimise sum w ((c - q) . m_perp)^2 in the plane across the axis.
+  const [ax, ay, az] = dir;
+  let ux = 0, uy = 0, uz = 0;
+  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
+  const ul = Math.hypot(ux, uy, uz);
+  ux /= ul; uy /= ul; uz /= ul;
+  const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
+  let s11 = 0, s12 = 0, s22 = 0, b1 = 0, b2 = 0, total = 0, supported = 0;
+  for (let f = 0; f < nt; f++) {
+    const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+    const along = Math.abs(nx * ax + ny * ay + nz * az);
+    total += areas[f];
+    if (along > 0.342) continue; // 20 degrees from perpendicular
+    supported += areas[f];
+    const mu = nx * ux + ny * uy + nz * uz, mv = nx * vx + ny * vy + nz * vz;
+    const ml = Math.hypot(mu, mv) || 1;
+    // perpendicular of the projected normal
+    const pu = -mv / ml, pv = mu / ml;
+    const qu = centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz;
+    const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz;
+    const w = areas[f];
+    s11 += w * pu * pu; s12 += w * pu * pv; s22 += w * pv * pv;
+    const r = qu * pu + qv * pv;
+    b1 += w * pu * r; b2 += w * pv * r;
+  }
+  const det = s11 * s22 - s12 * s12;
+  let cu = 0, cv = 0;
+  if (Math.abs(det) > 1e-12) {
+    cu = (b1 * s22 - b2 * s12) / det;
+    cv = (s11 * b2 - s12 * b1) / det;
+  }
+  // Put the point at the middle of the fragment along the axis.
+  let mid = 0;
+  for (let f = 0; f < nt; f++) mid += areas[f] * (centroids[3 * f] * ax + centroids[3 * f + 1] * ay + centroids[3 * f + 2] * az);
+  mid /= total || 1;
+  const point: [number, number, number] = [cu * ux + cv * vx + mid * ax, cu * uy + cv * vy + mid * ay, cu * uz + cv * vz + mid * az];
+  // Radius: area-weighted median distance of outward-facing supported triangles.
+  const dists: Array<[number, number]> = [];
+  for (let f = 0; f < nt; f++) {
+    const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
+    const t = rx * ax + ry * ay + rz * az;
+    const px = rx - t * ax, py = ry - t * ay, pz = rz - t * az;
+    const d = Math.hypot(px, py, pz);
+    const outward = (px * normals[3 * f] + py * normals[3 * f + 1] + pz * normals[3 * f + 2]) / (d || 1);
+    if (outward > 0.8) dists.push([d, areas[f]]);
+  }
+  dists.sort((p, q) => p[0] - q[0]);
+  const half = dists.reduce((s, x) => s + x[1], 0) / 2;
+  let acc = 0, radius = 0;
+  for (const [d, w] of dists) {
+    acc += w;
+    if (acc >= half) { radius = d; break; }
+  }
+  return { direction: dir, point, radius, support: total ? supported / total : 0 };
+}
+
+function smallestEigen(normals: Float32Array, areas: Float64Array, use: (f: number) => boolean): [number, number, number] {
+  const m = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  for (let f = 0; f < areas.length; f++) {
+    if (!use(f)) continue;
+    const w = areas[f];
+    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) m[3 * i + j] += w * normals[3 * f + i] * normals[3 * f + j];
+  }
+  const e = new EigenvalueDecomposition(new Matrix([m.slice(0, 3), m.slice(3, 6), m.slice(6, 9)]), { assumeSymmetric: true });
+  const vals = e.realEigenvalues;
+  let k = 0;
+  for (let i = 1; i < 3; i++) if (vals[i] < vals[k]) k = i;
+  const V = e.eigenvectorMatrix;
+  const v: [number, number, number] = [V.get(0, k), V.get(1, k), V.get(2, k)];
+  const l = Math.hypot(...v) || 1;
+  return [v[0] / l, v[1] / l, v[2] / l];
+}
+
+/**
+ * Which way each triangle faces relative to the shaft axis: 1 outward (radial component of
+ * its normal at least radialMin), 2 inward (at most -radialMin), 0 neither. All 0 when the
+ * fragment has no clear shaft axis (support below one half).
+ */
+export function facingGroups(centroids: Float32Array, normals: Float32Array, axis: ShaftAxis, radialMin: number): Uint8Array {
+  const nt = centroids.length / 3;
+  const out = new Uint8Array(nt);
+  if (axis.support < 0.5) return out;
+  const [ax, ay, az] = axis.direction;
+  const [px, py, pz] = axis.point;
+  for (let f = 0; f < nt; f++) {
+    const rx = centroids[3 * f] - px, ry = centroids[3 * f + 1] - py, rz = centroids[3 * f + 2] - pz;
+    const t = rx * ax + ry * ay + rz * az;
+    const qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+    const ql = Math.hypot(qx, qy, qz) || 1;
+    const radial = (normals[3 * f] * qx + normals[3 * f + 1] * qy + normals[3 * f + 2] * qz) / ql;
+    out[f] = radial >= radialMin ? 1 : radial <= -radialMin ? 2 : 0;
+  }
+  return out;
+}

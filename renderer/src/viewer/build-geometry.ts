@@ -1,0 +1,93 @@
+import { BufferAttribute, BufferGeometry, Matrix4, Vector3 } from 'three';
+import { MeshBVH } from 'three-mesh-bvh';
+import { gapColour, SURFACE } from './colours';
+import type { MeshView } from './mesh-payload';
+
+/** A 4x4 row-major rigid transform (design convention) as a three.js matrix. */
+export function matrixFromRowMajor(m: readonly number[] | null | undefined): Matrix4 {
+  const out = new Matrix4();
+  if (m && m.length === 16) out.set(m[0], m[1], m[2], m[3], m[4], m[5], m[6], m[7], m[8], m[9], m[10], m[11], m[12], m[13], m[14], m[15]);
+  return out;
+}
+
+/** Smooth per-vertex normals of an indexed mesh. */
+function vertexNormals(mesh: MeshView): Float32Array {
+  const g = new BufferGeometry();
+  g.setAttribute('position', new BufferAttribute(mesh.positions, 3));
+  g.setIndex(new BufferAttribute(mesh.triangles, 1));
+  g.computeVertexNormals();
+  const n = (g.getAttribute('normal') as BufferAttribute).array as Float32Array;
+  g.dispose();
+  return n;
+}
+
+export interface Colouring {
+  base: readonly number[];
+  /** Fracture faces in their own colour. */
+  fractures: boolean;
+  selectedFace: number | null;
+  /** Per-vertex distance (mm) to the partner's surface, for the contact-gap map. */
+  gaps?: Float32Array | null;
+}
+
+/**
+ * A non-indexed geometry (one colour per triangle corner) with smooth normals, coloured by
+ * surface class, the selected face, or the contact gap.
+ */
+export function buildGeometry(mesh: MeshView, colouring: Colouring): BufferGeometry {
+  const tris = mesh.triangles.length / 3;
+  const normals = vertexNormals(mesh);
+  const pos = new Float32Array(tris * 9);
+  const nor = new Float32Array(tris * 9);
+  const col = new Float32Array(tris * 9);
+  const faceKinds = new Map(mesh.faces.map((f) => [f.id, f.kind]));
+  for (let t = 0; t < tris; t++) {
+    const face = mesh.triangleFaces ? mesh.triangleFaces[t] : -1;
+    let c: readonly number[] = colouring.base;
+    if (colouring.selectedFace !== null && face === colouring.selectedFace) c = SURFACE.selected;
+    else if (colouring.fractures && face >= 0 && faceKinds.get(face) === 'fracture') c = SURFACE.fracture;
+    for (let k = 0; k < 3; k++) {
+      const v = mesh.triangles[t * 3 + k];
+      const o = t * 9 + k * 3;
+      pos[o] = mesh.positions[v * 3];
+      pos[o + 1] = mesh.positions[v * 3 + 1];
+      pos[o + 2] = mesh.positions[v * 3 + 2];
+      nor[o] = normals[v * 3];
+      nor[o + 1] = normals[v * 3 + 1];
+      nor[o + 2] = normals[v * 3 + 2];
+      const cc = colouring.gaps ? gapColour(colouring.gaps[v], c) : c;
+      col[o] = cc[0];
+      col[o + 1] = cc[1];
+      col[o + 2] = cc[2];
+    }
+  }
+  const g = new BufferGeometry();
+  g.setAttribute('position', new BufferAttribute(pos, 3));
+  g.setAttribute('normal', new BufferAttribute(nor, 3));
+  g.setAttribute('color', new BufferAttribute(col, 3));
+  g.computeBoundingSphere();
+  return g;
+}
+
+/**
+ * For every vertex of `moving` (placed by `movingMatrix`), the distance in mm to the
+ * surface of `fixed` (placed by `fixedMatrix`), through a bounding-volume hierarchy.
+ * Distances beyond `limit` are reported as `limit`.
+ */
+export function contactGaps(fixed: MeshView, fixedMatrix: Matrix4, moving: MeshView, movingMatrix: Matrix4, limit = 5): Float32Array {
+  const g = new BufferGeometry();
+  g.setAttribute('position', new BufferAttribute(fixed.positions, 3));
+  g.setIndex(new BufferAttribute(fixed.triangles, 1));
+  const bvh = new MeshBVH(g);
+  const toFixed = new Matrix4().copy(fixedMatrix).invert().multiply(movingMatrix);
+  const out = new Float32Array(moving.positions.length / 3);
+  const p = new Vector3();
+  const target = { point: new Vector3(), distance: 0, faceIndex: 0 };
+  for (let i = 0; i < out.length; i++) {
+    p.set(moving.positions[i * 3], moving.positions[i * 3 + 1], moving.positions[i * 3 + 2]).applyMatrix4(toFixed);
+    const hit = bvh.closestPointToPoint(p, target as never, 0, limit);
+    out[i] = hit ? hit.distance : limit;
+  }
+  g.dispose();
+  return out;
+}

@@ -1,0 +1,30 @@
+/** Colours of the 3D views (linear-ish sRGB 0..1). Chosen to read on both themes. */
+export const SURFACE = {
+  bone: [0.86, 0.82, 0.72],
+  boneAlt: [0.74, 0.78, 0.84],
+  fracture: [0.85, 0.47, 0.16],
+  selected: [0.2, 0.55, 0.9],
+} as const;
+
+/**
+ * Contact-gap ramp: 0 mm (touching) deep teal, 1 mm yellow, 2.5 mm and more: no contact
+ * (the surface's own colour shows).
+ */
+export function gapColour(mm: number, base: readonly number[]): [number, number, number] {
+  const t = Math.min(1, Math.max(0, mm / 2.5));
+  if (t >= 1) return [base[0], base[1], base[2]];
+  const stops: Array<[number, [number, number, number]]> = [
+    [0, [0.05, 0.45, 0.45]],
+    [0.4, [0.95, 0.85, 0.25]],
+    [1, [base[0], base[1], base[2]]],
+  ];
+  for (let i = 1; i < stops.length; i++) {
+    const [t1, c1] = stops[i];
+    const [t0, c0] = stops[i - 1];
+    if (t <= t1) {
+      const u = (t - t0) / (t1 - t0);
+      return [c0[0] + (c1[0] - c0[0]) * u, c0[1] + (c1[1] - c0[1]) * u, c0[2] + (c1[2] - c0[2]) * u];
+    }
+  }
+  return [base[0], base[1], base[2]];
+}

@@ -1,0 +1,31 @@
+import { useEffect, useState } from 'react';
+import { callByName } from '../api/loose';
+import { useWorkspace } from '../app/workspace';
+import { decodeMesh, type MeshPayload, type MeshView } from './mesh-payload';
+
+/** The host request that sends a specimen's scan (with its faces) to the viewer. */
+export const MESH_REQUEST = 'scans.mesh';
+
+/** The scan of a specimen as the viewer needs it; null while loading or when there is none. */
+export function useScanMesh(specimenId: number | null): { mesh: MeshView | null; error: unknown; available: boolean; loading: boolean } {
+  const ws = useWorkspace();
+  const available = ws.has(MESH_REQUEST);
+  const [mesh, setMesh] = useState<MeshView | null>(null);
+  const [error, setError] = useState<unknown>(null);
+  const [loading, setLoading] = useState(false);
+  useEffect(() => {
+    setMesh(null);
+    setError(null);
+    if (!available || specimenId === null) return;
+    let live = true;
+    setLoading(true);
+    callByName<MeshPayload | null>(ws.client, MESH_REQUEST, { catalogue: ws.catalogue, specimenId })
+      .then((p) => live && setMesh(p ? decodeMesh(p) : null))
+      .catch((e) => live && setError(e))
+      .finally(() => live && setLoading(false));
+    return () => {
+      live = false;
+    };
+  }, [ws.client, ws.catalogue, specimenId, available]);
+  return { mesh, error, available, loading };
+}

@@ -1,0 +1,106 @@
+/**
+ * Test fixture from open data: the Stanford bunny (npm package `bunny`, Stanford 3D Scanning
+ * Repository), scaled to millimetres and cut in two by a rough surface with manifold-3d.
+ * The cut surface is known, so the test knows which triangles are break faces (the truth);
+ * the matcher only ever sees samples of those faces, never the cut itself.
+ */
+import { createRequire } from 'node:module';
+import Module from 'manifold-3d';
+
+export interface CutPiece {
+  positions: Float32Array;
+  triangles: Uint32Array;
+  /** 1 for triangles on the cut surface (truth from the set-up), else 0. */
+  onCut: Uint8Array;
+}
+
+/** Height of the rough cutting surface above the plane y = cutY at (x, z), in mm. */
+export function roughness(x: number, z: number, amplitude: number): number {
+  return (
+    amplitude *
+    (0.5 * Math.sin(x / 7.3 + 0.4) * Math.cos(z / 9.1 - 1.1) +
+      0.3 * Math.sin((x + z) / 4.1 + 2.0) +
+      0.2 * Math.cos((x - 2 * z) / 2.9 + 0.7) +
+      0.04 * x / amplitude)
+  );
+}
+
+export async function cutBunny(options: { scale?: number; cutY?: number; amplitude?: number; noise?: number; seed?: number } = {}): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
+  const scale = options.scale ?? 10;
+  const cutY = options.cutY ?? 45;
+  const amp = options.amplitude ?? 3;
+  const wasm = await Module();
+  wasm.setup();
+  const { Manifold, Mesh } = wasm;
+  const b = createRequire(import.meta.url)('bunny') as { positions: number[][]; cells: number[][] };
+  const vert = new Float32Array(b.positions.length * 3);
+  b.positions.forEach((p, i) => {
+    vert[3 * i] = p[0] * scale;
+    vert[3 * i + 1] = p[1] * scale;
+    vert[3 * i + 2] = p[2] * scale;
+  });
+  const tri = new Uint32Array(b.cells.length * 3);
+  b.cells.forEach((c, i) => tri.set(c, 3 * i));
+  const mesh = new Mesh({ numProp: 3, vertProperties: vert, triVerts: tri });
+  mesh.merge();
+  const solid = new Manifold(mesh);
+  // a slab below y = cutY whose top is rough; refine so the top can be displaced
+  const lo = -200, size = 400;
+  const cube = Manifold.cube([size, cutY - lo, size]).translate([-size / 2, lo, -size / 2]);
+  const refined = cube.refine(160);
+  const cutter = refined.warp((v) => {
+    if (Math.abs(v[1] - cutY) < 1e-6) v[1] = cutY + roughness(v[0], v[2], amp);
+  });
+  const [lowerSolid, upperSolid] = solid.split(cutter);
+  const lower = toPiece(lowerSolid.getMesh(), cutY, amp);
+  const upper = toPiece(upperSolid.getMesh(), cutY, amp);
+  for (const m of [mesh]) void m;
+  for (const o of [solid, cube, refined, cutter, lowerSolid, upperSolid]) o.delete();
+  let mn = [Infinity, Infinity, Infinity], mx = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < vert.length; i += 3) for (let k = 0; k < 3; k++) {
+    mn[k] = Math.min(mn[k], vert[i + k]);
+    mx[k] = Math.max(mx[k], vert[i + k]);
+  }
+  const diagonal = Math.hypot(mx[0] - mn[0], mx[1] - mn[1], mx[2] - mn[2]);
+  const rand = mulberry(options.seed ?? 5);
+  const noise = options.noise ?? 0.03;
+  // independent scanner-like noise on each piece, so the two sides of the cut share no vertex
+  for (const p of [lower, upper]) for (let i = 0; i < p.positions.length; i++) p.positions[i] += noise * gauss(rand);
+  return { lower, upper, diagonal };
+}
+
+function toPiece(m: { numProp: number; vertProperties: Float32Array; triVerts: Uint32Array }, cutY: number, amp: number): CutPiece {
+  const np = m.numProp;
+  const nv = m.vertProperties.length / np;
+  const positions = new Float32Array(nv * 3);
+  for (let i = 0; i < nv; i++) for (let k = 0; k < 3; k++) positions[3 * i + k] = m.vertProperties[i * np + k];
+  const triangles = Uint32Array.from(m.triVerts);
+  const nt = triangles.length / 3;
+  const onCut = new Uint8Array(nt);
+  const onSurface = (i: number): boolean => Math.abs(positions[3 * i + 1] - (cutY + roughness(positions[3 * i], positions[3 * i + 2], amp))) < 0.05;
+  for (let t = 0; t < nt; t++) {
+    const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
+    // centroid on the cut surface too (a triangle of the bunny with three vertices on the cut is rare)
+    const cx = (positions[3 * a] + positions[3 * b] + positions[3 * c]) / 3;
+    const cy = (positions[3 * a + 1] + positions[3 * b + 1] + positions[3 * c + 1]) / 3;
+    const cz = (positions[3 * a + 2] + positions[3 * b + 2] + positions[3 * c + 2]) / 3;
+    const centreOn = Math.abs(cy - (cutY + roughness(cx, cz, amp))) < 0.3;
+    onCut[t] = onSurface(a) && onSurface(b) && onSurface(c) && centreOn ? 1 : 0;
+  }
+  return { positions, triangles, onCut };
+}
+
+function mulberry(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function gauss(r: () => number): number {
+  return Math.sqrt(-2 * Math.log(1 - r())) * Math.cos(2 * Math.PI * r());
+}

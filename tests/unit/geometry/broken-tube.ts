@@ -1,0 +1,117 @@
+/**
+ * A shaft-like test piece with analytic truth: a tube (outer radius R, inner radius r) cut by
+ * planes with manifold-3d, the cut faces roughened by a smooth displacement along the plane
+ * normal. A triangle is a fracture triangle exactly when its three corners lay on a cut plane
+ * before roughening, so the truth comes from the construction, not from our code.
+ */
+import Module from 'manifold-3d';
+import type { TriangleMesh } from '../../../core/geometry/mesh';
+
+/** A plane cut: keeps the side the unit normal points into. */
+export interface PlaneCut {
+  normal: [number, number, number];
+  offset: number;
+}
+
+/**
+ * A conical cut: keeps the part of the tube inside a cone about the tube's axis whose radius
+ * shrinks from `baseRadius` at z = `baseZ` by tan(halfAngle) per mm of z, so the break meets
+ * the tube wall at a constant angle (90 degrees minus the half angle) all round.
+ */
+export interface ConeCut {
+  baseZ: number;
+  baseRadius: number;
+  halfAngleDeg: number;
+}
+
+export type Cut = PlaneCut | ConeCut;
+
+export interface BrokenTube {
+  mesh: TriangleMesh;
+  /** 1 = fracture, 0 = original surface, per triangle. */
+  truth: Uint8Array;
+}
+
+let wasm: Awaited<ReturnType<typeof Module>> | undefined;
+
+export async function brokenTube(options: {
+  outerRadius?: number;
+  innerRadius?: number;
+  length?: number;
+  cuts: Cut[];
+  edgeLength?: number;
+  roughness?: number;
+}): Promise<BrokenTube> {
+  if (!wasm) {
+    wasm = await Module();
+    wasm.setup();
+  }
+  const { Manifold } = wasm;
+  const R = options.outerRadius ?? 12, r = options.innerRadius ?? 7, L = options.length ?? 80;
+  const edge = options.edgeLength ?? 1;
+  const amp = options.roughness ?? 0.25;
+  const outer = Manifold.cylinder(L, R, R, 96, true);
+  const inner = Manifold.cylinder(L + 2, r, r, 96, true);
+  let solid = outer.subtract(inner);
+  outer.delete();
+  inner.delete();
+  for (const c of options.cuts) {
+    let next;
+    if ('normal' in c) {
+      next = solid.trimByPlane(c.normal, c.offset);
+    } else {
+      const ta = Math.tan((c.halfAngleDeg * Math.PI) / 180);
+      const h = (c.baseRadius - 0.01) / ta;
+      const cone = Manifold.cylinder(h, c.baseRadius, 0.01, 192, false).translate([0, 0, c.baseZ]);
+      next = solid.intersect(cone);
+      cone.delete();
+    }
+    solid.delete();
+    solid = next;
+  }
+  const refined = solid.refineToLength(edge);
+  solid.delete();
+  const m = refined.getMesh();
+  refined.delete();
+  const np = m.numProp;
+  const nv = m.vertProperties.length / np;
+  const positions = new Float32Array(nv * 3);
+  const onCut = new Int8Array(nv).fill(-1);
+  for (let v = 0; v < nv; v++) {
+    const x = m.vertProperties[v * np], y = m.vertProperties[v * np + 1], z = m.vertProperties[v * np + 2];
+    let px = x, py = y, pz = z;
+    options.cuts.forEach((c, i) => {
+      let d: number, n: [number, number, number];
+      if ('normal' in c) {
+        d = x * c.normal[0] + y * c.normal[1] + z * c.normal[2] - c.offset;
+        n = c.normal;
+      } else {
+        // distance to the cone's side, measured in the plane through the axis
+        const ta = Math.tan((c.halfAngleDeg * Math.PI) / 180);
+        const rho = Math.hypot(x, y);
+        const cos = Math.cos((c.halfAngleDeg * Math.PI) / 180);
+        d = (c.baseRadius - (z - c.baseZ) * ta - rho) * cos;
+        const sin = Math.sin((c.halfAngleDeg * Math.PI) / 180);
+        n = rho > 0 ? [(-x / rho) * cos, (-y / rho) * cos, -sin] : [0, 0, -1];
+      }
+      if (Math.abs(d) < 1e-3) {
+        onCut[v] = i;
+        const bump = amp * (Math.sin(1.7 * x + 0.3) * Math.cos(1.3 * y - 0.7) + 0.6 * Math.sin(2.9 * z + 1.1 * x));
+        px -= bump * n[0];
+        py -= bump * n[1];
+        pz -= bump * n[2];
+      }
+    });
+    positions[3 * v] = px;
+    positions[3 * v + 1] = py;
+    positions[3 * v + 2] = pz;
+  }
+  const triangles = Uint32Array.from(m.triVerts);
+  const nt = triangles.length / 3;
+  const truth = new Uint8Array(nt);
+  for (let f = 0; f < nt; f++) {
+    const a = onCut[triangles[3 * f]], b = onCut[triangles[3 * f + 1]], c = onCut[triangles[3 * f + 2]];
+    truth[f] = a >= 0 && a === b && b === c ? 1 : 0;
+  }
+  return { mesh: { positions, triangles }, truth };
+}

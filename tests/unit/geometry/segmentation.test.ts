@@ -1,0 +1,97 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { analyseFragment, fractureLabelsForInput, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
+import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
+import { brokenTube, type BrokenTube } from './broken-tube';
+
+/** Area-weighted share of triangles whose fracture/original label agrees with the truth. */
+function agreement(tube: BrokenTube, a: FragmentAnalysis): number {
+  const labels = fractureLabelsForInput(a);
+  const { areas } = triangleNormalsAndAreas(tube.mesh);
+  let agree = 0, total = 0;
+  for (let f = 0; f < labels.length; f++) {
+    total += areas[f];
+    if (labels[f] === tube.truth[f]) agree += areas[f];
+  }
+  return agree / total;
+}
+
+describe('segmentation of a tube broken by known surfaces (truth from the construction)', () => {
+  let planar: BrokenTube, conical: BrokenTube;
+  let a: FragmentAnalysis, b: FragmentAnalysis;
+  const tilt = (40 * Math.PI) / 180;
+  beforeAll(async () => {
+    // A transverse plane at one end, a plane tilted 40 degrees at the other.
+    planar = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -30 }, { normal: [-Math.sin(tilt), 0, -Math.cos(tilt)], offset: -25 }] });
+    // A cone meeting the wall at 45 degrees all round, and a transverse plane.
+    conical = await brokenTube({ cuts: [{ baseZ: -45, baseRadius: 50, halfAngleDeg: 45 }, { normal: [0, 0, 1], offset: -30 }] });
+    a = analyseFragment(planar.mesh);
+    b = analyseFragment(conical.mesh);
+  });
+
+  it('labels at least 97 % of the area as the construction does', () => {
+    expect(agreement(planar, a)).toBeGreaterThan(0.97);
+    expect(agreement(conical, b)).toBeGreaterThan(0.97);
+  });
+
+  it('finds the outer and medullary surfaces and two fracture faces, with no seed points', () => {
+    for (const r of [a, b]) {
+      const classes = new Set(r.regions.map((x) => x.surfaceClass));
+      expect(classes.has('outer-cortical')).toBe(true);
+      expect(classes.has('medullary')).toBe(true);
+      expect(r.fractureFaces.length).toBe(2);
+      // Each face is a ring through the wall: two outline loops.
+      for (const f of r.fractureFaces) expect(f.outlines.length).toBe(2);
+    }
+    // The shaft axis is the tube's axis (z).
+    expect(Math.abs(a.axis.direction[2])).toBeGreaterThan(0.999);
+    expect(a.axis.radius).toBeCloseTo(12, 0);
+  });
+
+  it('a transverse plane cut: area and width of the ring, right angle, transverse outline', () => {
+    // Analytic: ring between radii 7 and 12 has area pi (144 - 49) = 298.5 (before roughening,
+    // which adds a little) and width 5.
+    const face = a.fractureFaces.find((f) => f.outlineClass === 'transverse' && f.angleClass === 'right');
+    expect(face).toBeDefined();
+    expect(face!.area).toBeGreaterThan(298);
+    expect(face!.area).toBeLessThan(330);
+    expect(face!.meanWidth).toBeGreaterThan(4.5);
+    expect(face!.meanWidth).toBeLessThan(6.5);
+    expect(face!.meanAngleDeg).toBeGreaterThan(80);
+    expect(face!.breakAge.suggestion).toBe('dry');
+    expect(face!.points.length).toBeGreaterThan(0);
+    expect(face!.points.length).toBe(face!.normals.length);
+  });
+
+  it('a plane tilted 40 degrees: outline alignment with the axis as the cylinder-plane section predicts', () => {
+    // Analytic: the section of the cylinder x^2 + y^2 = R^2 by z = x tan(t) has tangent
+    // (-sin p, cos p, -sin p tan t); length-weighted mean |tangent . z| =
+    // integral |sin p| tan t dp / integral sqrt(1 + sin^2 p tan^2 t) dp.
+    const tt = Math.tan(tilt);
+    let num = 0, den = 0;
+    for (let i = 0; i < 10000; i++) {
+      const p = ((i + 0.5) / 10000) * 2 * Math.PI;
+      num += Math.abs(Math.sin(p)) * tt;
+      den += Math.sqrt(1 + Math.sin(p) ** 2 * tt * tt);
+    }
+    const face = a.fractureFaces.find((f) => f.outlineClass !== 'transverse');
+    expect(face).toBeDefined();
+    expect(Math.abs(face!.outlineAxisAlignment - num / den)).toBeLessThan(0.08);
+    // Round a tilted plane the angle to the wall runs from 50 to 90 degrees: not one class.
+    expect(face!.angleClass).toBe('mixed');
+  });
+
+  it('a conical cut meeting the wall at 45 degrees: oblique angle, suggests no dry break', () => {
+    const face = b.fractureFaces.find((f) => f.angleClass === 'oblique');
+    expect(face).toBeDefined();
+    expect(face!.meanAngleDeg).toBeGreaterThan(35);
+    expect(face!.meanAngleDeg).toBeLessThan(55);
+    expect(face!.breakAge.suggestion).not.toBe('dry');
+  });
+
+  it('an analyst correction of a region class is applied', () => {
+    const fractureRegion = a.regions.find((r) => r.surfaceClass === 'fracture')!;
+    const corrected = analyseFragment(planar.mesh, {}, new Map([[fractureRegion.id, 'articular']]));
+    expect(corrected.regions[fractureRegion.id].surfaceClass).toBe('articular');
+    expect(corrected.fractureFaces.length).toBe(1);
+  });
+});
