@@ -14,7 +14,7 @@ beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'knitbone-demo-truth-'));
   await generateAssemblage({ outDir: dir, fragments: 12, seed: 'truth-check', pointSpacing: 1.5, noiseSd: [0, 0], damage: false, losses: false, elements: [0, 1] });
   truth = loadTruth(dir);
-});
+}, 180_000);
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('demo assemblage truth', () => {

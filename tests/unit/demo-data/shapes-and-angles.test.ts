@@ -25,7 +25,7 @@ describe('bone shaft geometry', () => {
       proximal: end, distal: end,
     };
     const shape = new BoneShape(tube);
-    const res = 0.5;
+    const res = 1.0;
     const outer = solidFromMesh(wasm, boneOuterMesh(shape, res));
     const cavity = solidFromMesh(wasm, medullaryCavityMesh(shape, res));
     const bone = outer.subtract(cavity);
@@ -46,13 +46,13 @@ describe('fracture angles of green and dry breaks', () => {
   // those of dry breaks as mostly right angles. The numeric bands are our own convention:
   // "right" is 75-105 degrees, "oblique" anything outside it; a break type passes when at
   // least 60 % (green: oblique) or 65 % (dry: right) of its rim samples fall in its band.
-  it('green breaks are mostly oblique, dry breaks mostly near right angles', async () => {
+  it('green breaks are mostly oblique, dry breaks mostly near right angles', { timeout: 180_000 }, async () => {
     const wasm = await manifoldKernel();
     const pooled: Record<'fresh' | 'dry', number[]> = { fresh: [], dry: [] };
-    for (let s = 0; s < 6 && (pooled.fresh.length < 400 || pooled.dry.length < 400); s++) {
+    for (let s = 0; s < 8 && (pooled.fresh.length < 200 || pooled.dry.length < 200); s++) {
       const shape = new BoneShape(ELEMENTS[s % 5]);
       const plan = planBreaks(shape, new Random(`angles-${s}`));
-      const shattered = shatterBone(wasm, shape, plan, 1.0, 1.4);
+      const shattered = shatterBone(wasm, shape, plan, 1.2, 1.6);
       const age = new Map(shattered.breaks.map((b) => [b.id, b.age]));
       for (const p of shattered.pieces) {
         for (const [id, angles] of rimFractureAngles(labelledMesh(p.solid, shattered.labelOf), (_x, _y, z) => z > shape.diaphysisStart && z < shape.diaphysisEnd)) {
@@ -62,8 +62,8 @@ describe('fracture angles of green and dry breaks', () => {
         p.solid.delete();
       }
     }
-    expect(pooled.fresh.length).toBeGreaterThan(200);
-    expect(pooled.dry.length).toBeGreaterThan(200);
+    expect(pooled.fresh.length).toBeGreaterThan(150);
+    expect(pooled.dry.length).toBeGreaterThan(150);
     const rightShare = (xs: number[]) => xs.filter((x) => x >= 75 && x <= 105).length / xs.length;
     expect(1 - rightShare(pooled.fresh)).toBeGreaterThan(0.6);
     expect(rightShare(pooled.dry)).toBeGreaterThan(0.65);
@@ -74,14 +74,14 @@ describe('determinism', () => {
   it('the same seed gives byte-identical files', async () => {
     const dirs = [mkdtempSync(join(tmpdir(), 'knitbone-demo-a-')), mkdtempSync(join(tmpdir(), 'knitbone-demo-b-'))];
     try {
-      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 5, seed: 'same-seed', pointSpacing: 2, elements: [4] });
+      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 3, seed: 'same-seed', pointSpacing: 2, elements: [4] });
       const files = (d: string) => ['specimens.csv', 'truth.json', ...readdirSync(join(d, 'scans')).sort().map((f) => `scans/${f}`)];
       expect(files(dirs[1])).toEqual(files(dirs[0]));
       for (const f of files(dirs[0])) expect(readFileSync(join(dirs[1], f)).equals(readFileSync(join(dirs[0], f))), f).toBe(true);
       // and a different seed gives a different assemblage
       const other = mkdtempSync(join(tmpdir(), 'knitbone-demo-c-'));
       dirs.push(other);
-      await generateAssemblage({ outDir: other, fragments: 5, seed: 'other-seed', pointSpacing: 2, elements: [4] });
+      await generateAssemblage({ outDir: other, fragments: 3, seed: 'other-seed', pointSpacing: 2, elements: [4] });
       expect(readFileSync(join(other, 'truth.json')).equals(readFileSync(join(dirs[0], 'truth.json')))).toBe(false);
     } finally {
       for (const d of dirs) rmSync(d, { recursive: true, force: true });
