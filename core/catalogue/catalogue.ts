@@ -7,6 +7,7 @@ import { DerivedIdentificationRepository } from './derived';
 import { HistoryRepository } from './history';
 import { JoinRepository } from './joins';
 import { migrate, readMigrations, type MigrationFile, type MigrationOutcome } from './migrate';
+import { RegionClassRepository } from './region-classes';
 import { ScanRepository } from './scans';
 import { SettingsRepository } from './settings';
 import { SpecimenRepository } from './specimens';
@@ -38,6 +39,8 @@ export class Catalogue {
   readonly history: HistoryRepository;
   readonly specimens: SpecimenRepository;
   readonly scans: ScanRepository;
+  /** The analyst's corrections of scan region classes (scans area, migration 0020). */
+  readonly regionClasses: RegionClassRepository;
   readonly joins: JoinRepository;
   readonly derived: DerivedIdentificationRepository;
   readonly settings: SettingsRepository;
@@ -55,6 +58,7 @@ export class Catalogue {
     this.history = new HistoryRepository(db);
     this.specimens = new SpecimenRepository(db, this.history, who);
     this.scans = new ScanRepository(db, this.history, who);
+    this.regionClasses = new RegionClassRepository(db, this.history, who);
     this.joins = new JoinRepository(db, this.history, who);
     this.derived = new DerivedIdentificationRepository(db, this.history, who);
     this.settings = new SettingsRepository(db, this.history, who);

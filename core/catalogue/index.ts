@@ -3,6 +3,7 @@ export { Catalogue, openCatalogue, withCatalogue, defaultWho, KNITBONE_APPLICATI
 export * from './records';
 export type { NewJoin, JoinPatch, JoinFilter } from './joins';
 export type { NewScan } from './scans';
+export type { RegionClassCorrection, RegionSurfaceClass } from './region-classes';
 export type { SpecimenFilter, SpecimenUpdate } from './specimens';
 export type { NewHistoryEntry, HistoryFilter } from './history';
 export type { NewVocabularyTerm } from './vocabulary-terms';

@@ -16,7 +16,7 @@ export async function ensureDemoCatalogue(sampleDir: string, target: string, say
     say('no demo sample in demo-data/sample/ yet; open or create a catalogue from the first screen');
     return null;
   }
-  for (const name of ['catalogue.init', 'import.specimens']) {
+  for (const name of ['catalogue.init', 'specimens.import']) {
     if (!Host.has(name)) {
       say(`this knitbone cannot build the demo catalogue yet (no "${name}" request)`);
       return null;
@@ -27,7 +27,7 @@ export async function ensureDemoCatalogue(sampleDir: string, target: string, say
   say('building the demo catalogue from demo-data/sample/ ...');
   mkdirSync(dirname(target), { recursive: true });
   await call('catalogue.init', { catalogue: target });
-  await call('import.specimens', { catalogue: target, file: csv });
+  await call('specimens.import', { catalogue: target, file: csv });
   const scans = join(sampleDir, 'scans');
   if (Host.has('import.scans') && existsSync(scans) && readdirSync(scans).length > 0) {
     await call('import.scans', { catalogue: target, folder: scans });

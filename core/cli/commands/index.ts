@@ -1,7 +1,9 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
 import { registerDemo } from './demo';
+import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
+import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
 import { registerServe } from './serve';
@@ -23,6 +25,8 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerDemo,
   registerInit,
+  registerInspect,
+  registerImportScans,
   registerImportSpecimens,
   registerExport,
   registerServe,

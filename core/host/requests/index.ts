@@ -3,7 +3,9 @@ import { demoRequests } from './demo';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
+import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
 /**
@@ -16,8 +18,10 @@ export const requests = {
   ...joinsRequests,
   ...tallyRequests,
   ...catalogueRequests,
+  ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,
+  ...viewerRequests,
 };
 
 export type Requests = typeof requests;

@@ -23,7 +23,9 @@ export function niceStep(span: number, target: number): number {
   const raw = span / Math.max(1, target);
   const power = 10 ** Math.floor(Math.log10(raw));
   const m = raw / power;
-  const nice = m <= 1 ? 1 : m <= 2 ? 2 : m <= 5 ? 5 : 10;
+  // Round to the nearest of 1, 2, 5, 10 on a logarithmic scale (the cut points are the
+  // geometric means sqrt(2), sqrt(10), sqrt(50)), so the interval count stays near the target.
+  const nice = m >= Math.sqrt(50) ? 10 : m >= Math.sqrt(10) ? 5 : m >= Math.SQRT2 ? 2 : 1;
   return nice * power;
 }
 

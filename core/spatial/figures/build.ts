@@ -45,7 +45,7 @@ export function buildFigure(
   analysis: SpatialAnalysis,
   site: SiteDefinitions,
 ): string {
-  const base = { width: request.width, title: request.title };
+  const base = { width: request.width, title: request.title, note: filterNote(analysis.filter) };
   switch (request.kind) {
     case 'plan':
       return planFigure({ units: site.units, specimens: plottedSpecimens(specimens, analysis), joins: analysis.joins }, base);
@@ -66,4 +66,13 @@ export function buildFigure(
         { ...base, sectorDeg: request.sectorDeg, axial: request.axial },
       );
   }
+}
+
+/** "conjoin only; taxon Bos primigenius; layer C", or undefined when nothing was filtered. */
+export function filterNote(f: SpatialAnalysis['filter']): string | undefined {
+  const parts: string[] = [];
+  if (f.types?.length) parts.push(`${f.types.join(' or ')} only`);
+  if (f.taxa?.length) parts.push(`taxon ${f.taxa.join(' or ')}`);
+  if (f.layers?.length) parts.push(`layer ${f.layers.join(' or ')}`);
+  return parts.length ? parts.join('; ') : undefined;
 }

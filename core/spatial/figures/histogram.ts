@@ -4,6 +4,8 @@ import { heading, label, MUTED, px, svgOpen } from './svg';
 export type DistanceMeasure = 'horizontal' | 'vertical' | '3d';
 
 export interface HistogramOptions {
+  /** Added to the subtitle, e.g. which joins were selected. */
+  note?: string;
   width?: number;
   height?: number;
   title?: string;
@@ -44,7 +46,7 @@ export function distanceHistogram(values: readonly number[], measure: DistanceMe
   const sy = linearScale([0, yMax], [height - bottom, top]);
   const title = options.title ?? 'Refit distances';
   let out = svgOpen(width, height, title, `Histogram of ${values.length} joins in bins of ${label(binM, 3)} m.`);
-  out += heading(left, 24, title, `${values.length.toLocaleString('en-GB')} joins, bins of ${label(binM, 3)} m`);
+  out += heading(left, 24, title, `${values.length.toLocaleString('en-GB')} joins, bins of ${label(binM, 3)} m${options.note ? `; ${options.note}` : ''}`);
   out += `<g id="bars" fill="#4d7ab0" stroke="#1d3f6e" stroke-width=".8">`;
   counts.forEach((c, i) => {
     if (c === 0) return;

@@ -17,6 +17,8 @@ export interface PlanInput {
 }
 
 export interface PlanOptions {
+  /** Added to the subtitle, e.g. which joins were selected. */
+  note?: string;
   /** Width of the whole figure in pixels (height follows the site's shape). */
   width?: number;
   title?: string;
@@ -78,7 +80,7 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
     `Plan of ${input.units.length} excavation units, ${input.specimens.length} piece-plotted specimens and ${input.joins.length} refit lines; grid north up.`,
   );
   out += heading(left, 24, options.title ?? 'Plan of refits',
-    `${input.joins.length.toLocaleString('en-GB')} joins, ${input.specimens.length.toLocaleString('en-GB')} piece-plotted specimens`);
+    `${input.joins.length.toLocaleString('en-GB')} joins, ${input.specimens.length.toLocaleString('en-GB')} piece-plotted specimens${options.note ? `; ${options.note}` : ''}`);
 
   // Plot frame and units.
   out += `<rect x="${px(left)}" y="${px(top)}" width="${px(plotWUsed)}" height="${px(plotH)}" fill="none" stroke="${MUTED}"/>`;

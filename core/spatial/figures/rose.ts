@@ -3,6 +3,8 @@ import { niceStep, ticks } from './axis';
 import { esc, heading, INK, label, MUTED, px, svgOpen, text } from './svg';
 
 export interface RoseOptions {
+  /** Added to the subtitle, e.g. which joins were selected. */
+  note?: string;
   width?: number;
   title?: string;
   /** Sector width in degrees (must divide 180); default 15. */
@@ -53,7 +55,7 @@ export function roseDiagram(bearings: readonly number[], options: RoseOptions = 
   const title = options.title ?? 'Refit directions';
   const sub = `${bearings.length.toLocaleString('en-GB')} joins, ${label(sectorDeg, 1)}° sectors, ${axial ? 'axial (each join drawn both ways)' : 'from A to B'}; area ∝ joins`;
   let out = svgOpen(width, height, title, `Rose diagram of ${bearings.length} refit directions. ${sub}.`);
-  out += heading(20, 24, title, sub);
+  out += heading(20, 24, title, options.note ? `${sub}; ${options.note}` : sub);
 
   // Point at a bearing (clockwise from north, up) and radius.
   const at = (deg: number, radius: number) => {

@@ -24,6 +24,8 @@ export interface SectionInput {
 }
 
 export interface SectionOptions {
+  /** Added to the subtitle, e.g. which joins were selected. */
+  note?: string;
   width?: number;
   height?: number;
   title?: string;
@@ -114,7 +116,7 @@ export function sectionFigure(input: SectionInput, axis: SectionAxis, options: S
   let out = svgOpen(width, height, title,
     `Section along ${direction}: ${pts.length} specimens and ${lines.length} refit lines projected; vertical exaggeration ${label(exaggeration, 1)} times.`);
   out += heading(left, 24, title,
-    `Projected along ${direction}${axis.halfWidthM !== undefined ? `, within ${label(axis.halfWidthM, 2)} m of the line` : ''}; vertical exaggeration ×${label(exaggeration, 1)}`);
+    `Projected along ${direction}${axis.origin ? ` from (${label(axis.origin.x, 2)}, ${label(axis.origin.y, 2)})` : ''}${axis.halfWidthM !== undefined ? `, within ${label(axis.halfWidthM, 2)} m of the line` : ''}; vertical exaggeration ×${label(exaggeration, 1)}${options.note ? `; ${options.note}` : ''}`);
   out += `<rect x="${px(left)}" y="${px(top)}" width="${px(plotW)}" height="${px(plotH)}" fill="none" stroke="${MUTED}"/>`;
 
   // Layers: each drawn as a pale band from its top down to the plot's floor, the highest layer

@@ -4,7 +4,7 @@ import { useWorkspace } from '../app/workspace';
 import { decodeMesh, type MeshPayload, type MeshView } from './mesh-payload';
 
 /** The host request that sends a specimen's scan (with its faces) to the viewer. */
-export const MESH_REQUEST = 'scans.mesh';
+export const MESH_REQUEST = 'viewer.mesh';
 
 /** The scan of a specimen as the viewer needs it; null while loading or when there is none. */
 export function useScanMesh(specimenId: number | null): { mesh: MeshView | null; error: unknown; available: boolean; loading: boolean } {

@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { analyseRefits } from '../../../core/spatial/analyse';
 import { buildFigure, figureKinds } from '../../../core/spatial/figures/build';
+import fc from 'fast-check';
+import { niceStep } from '../../../core/spatial/figures/axis';
 import { binCounts } from '../../../core/spatial/figures/histogram';
 import { sectorCounts } from '../../../core/spatial/figures/rose';
 import { projectOnAxis } from '../../../core/spatial/figures/section';
@@ -133,6 +135,20 @@ describe('figures', () => {
 });
 
 describe('figure arithmetic', () => {
+  it('axis steps are 1, 2 or 5 times a power of ten, giving near the asked number of intervals', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 1e-3, max: 1e6, noNaN: true }), fc.integer({ min: 2, max: 30 }), (span, target) => {
+        const step = niceStep(span, target);
+        const mantissa = step / 10 ** Math.floor(Math.log10(step) + 1e-9);
+        expect([1, 2, 5].some((m) => Math.abs(mantissa - m) < 1e-6)).toBe(true);
+        // Rounding to the nearest of 1, 2, 5, 10 (log scale) is off by at most a factor sqrt(5) = 2.24.
+        const intervals = span / step;
+        expect(intervals).toBeGreaterThan(target / 2.24 - 1e-9);
+        expect(intervals).toBeLessThan(target * 2.24 + 1e-9);
+      }),
+    );
+  });
+
   it('hand-worked histogram bins of 1 m: 0.2, 0.9, 1.0, 2.5, 3.0 -> [2, 1, 2]', () => {
     // [0,1): 0.2, 0.9; [1,2): 1.0; [2,3]: 2.5 and the maximum 3.0 in the last bin.
     expect(binCounts([0.2, 0.9, 1.0, 2.5, 3.0], 1)).toEqual([2, 1, 2]);

@@ -9,28 +9,39 @@ export function CsvTransfer({ onImported }: { onImported: () => void }) {
   const fileInput = useRef<HTMLInputElement>(null);
   const [error, setError] = useState<unknown>(null);
   const [busy, setBusy] = useState(false);
+  const [progress, setProgress] = useState<string | null>(null);
+  const [exportOpen, setExportOpen] = useState(false);
+  const [exportDir, setExportDir] = useState(() => ws.catalogue.replace(/[^\\/]*$/, '') + 'export');
   const importName = ['import.specimens', 'specimens.import'].find((n) => ws.has(n));
-  const exportName = ['export.specimens', 'specimens.export'].find((n) => ws.has(n));
+  const exportName = ['catalogue.export', 'export.specimens'].find((n) => ws.has(n));
 
   async function importText(name: string, text: string, fileName: string): Promise<void> {
     setBusy(true);
     setError(null);
     try {
-      const r = await callByName<{ imported?: number; count?: number }>(ws.client, importName!, { catalogue: ws.catalogue, csv: text, fileName: name || fileName });
-      ws.say(`Imported ${r?.imported ?? r?.count ?? ''} specimens from ${fileName}.`);
+      const r = await callByName<{ inserted: number; updated: number; rows: number }>(
+        ws.client,
+        importName!,
+        { catalogue: ws.catalogue, csv: text, fileName: name || fileName },
+        { onProgress: (e) => setProgress(`${e.stage} ${e.done}/${e.total}`) },
+      );
+      ws.say(`Imported ${r.inserted} specimens from ${fileName} (${r.rows} rows read).`);
       onImported();
     } catch (err) {
       setError(err);
       ws.say(`Nothing imported from ${fileName}: see the problems listed.`, 'error');
     } finally {
       setBusy(false);
+      setProgress(null);
     }
   }
 
-  async function exportCsv(): Promise<void> {
+  async function exportTo(folder: string): Promise<void> {
     try {
-      const r = await callByName<{ csv: string }>(ws.client, exportName!, { catalogue: ws.catalogue });
-      download('specimens.csv', r.csv, 'text/csv');
+      const r = await callByName<{ files: string[] | Record<string, string> }>(ws.client, exportName!, { catalogue: ws.catalogue, out: folder });
+      const files = Array.isArray(r.files) ? r.files : Object.values(r.files ?? {});
+      ws.say(`Exported ${files.length} files to ${folder}.`);
+      setExportOpen(false);
     } catch (err) {
       setError(err);
     }
@@ -58,10 +69,26 @@ export function CsvTransfer({ onImported }: { onImported: () => void }) {
           />
         </>
       )}
+      {progress && <span className="hint" role="status">{progress}</span>}
       {exportName && (
-        <button type="button" onClick={() => void exportCsv()}>
-          Export CSV
+        <button type="button" aria-expanded={exportOpen} onClick={() => setExportOpen((o) => !o)}>
+          Export...
         </button>
+      )}
+      {exportOpen && (
+        <form
+          className="export-form panel"
+          onSubmit={(e) => {
+            e.preventDefault();
+            void exportTo(exportDir.trim());
+          }}
+        >
+          <label htmlFor="export-folder">Folder for specimens.csv, joins.csv and history.csv</label>
+          <input id="export-folder" value={exportDir} onChange={(e) => setExportDir(e.target.value)} autoFocus />
+          <button type="submit" className="primary" disabled={!exportDir.trim()}>
+            Export
+          </button>
+        </form>
       )}
       {error ? (
         <div className="import-problems panel">
