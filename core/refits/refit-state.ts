@@ -107,8 +107,11 @@ export class RefitState {
       this.taxonAt[i] = o.taxon;
       this.elementAt[i] = o.element;
       this.sideAt[i] = sideCode(o.side);
-      this.sizeMin[i] = o.sizeClass ?? Infinity;
-      this.sizeMax[i] = o.sizeClass ?? -Infinity;
+      // The recorded size class, else the typical one of the recorded taxon (a red deer
+      // bone is size 3 even when no size was written down).
+      const size = o.sizeClass ?? (o.taxon && vocab.typicalSizeClass ? vocab.typicalSizeClass(o.taxon) : null);
+      this.sizeMin[i] = size ?? Infinity;
+      this.sizeMax[i] = size ?? -Infinity;
       if (o.zones.length) this.zonesAt[i] = new Set(o.zones);
     });
   }

@@ -21,4 +21,6 @@ export interface RefitVocabulary {
   isPairedElement(element: string): boolean;
   /** An element (or category) of the fore- or hindlimb, whose side a joint carries. */
   isLimbElement(element: string): boolean;
+  /** Typical body-size class of an adult of the taxon, when known (a hint, not an observation). */
+  typicalSizeClass?(taxon: string): number | null;
 }

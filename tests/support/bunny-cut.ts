@@ -25,13 +25,10 @@ export function roughness(x: number, z: number, amplitude: number): number {
   );
 }
 
-export async function cutBunny(options: { scale?: number; cutY?: number; amplitude?: number; noise?: number; seed?: number } = {}): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
+type Options = { cutY?: number; amplitude?: number; noise?: number; seed?: number };
+
+export async function cutBunny(options: Options & { scale?: number } = {}): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
   const scale = options.scale ?? 10;
-  const cutY = options.cutY ?? 45;
-  const amp = options.amplitude ?? 3;
-  const wasm = await Module();
-  wasm.setup();
-  const { Manifold, Mesh } = wasm;
   const b = createRequire(import.meta.url)('bunny') as { positions: number[][]; cells: number[][] };
   const vert = new Float32Array(b.positions.length * 3);
   b.positions.forEach((p, i) => {
@@ -41,6 +38,45 @@ export async function cutBunny(options: { scale?: number; cutY?: number; amplitu
   });
   const tri = new Uint32Array(b.cells.length * 3);
   b.cells.forEach((c, i) => tri.set(c, 3 * i));
+  return cutSolid(vert, tri, { cutY: 45, ...options });
+}
+
+/**
+ * A shaft-like piece: a tube (outer radius R, inner r, length L along y, analytic solid of
+ * revolution built by manifold-3d) refined to about 1 mm edges, then cut like the bunny.
+ */
+export async function cutTube(options: Options & { outerRadius?: number; innerRadius?: number; length?: number } = {}): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
+  const wasm = await kernel();
+  const { Manifold } = wasm;
+  const R = options.outerRadius ?? 12, r = options.innerRadius ?? 7, L = options.length ?? 90;
+  const outer = Manifold.cylinder(L, R, R, 72, true);
+  const inner = Manifold.cylinder(L + 2, r, r, 48, true);
+  const tube = outer.subtract(inner);
+  const upright = tube.rotate([90, 0, 0]);
+  const fine = upright.refineToLength(2);
+  const m = fine.getMesh();
+  for (const o of [outer, inner, tube, upright, fine]) o.delete();
+  const np = m.numProp;
+  const nv = m.vertProperties.length / np;
+  const vert = new Float32Array(nv * 3);
+  for (let i = 0; i < nv; i++) for (let k = 0; k < 3; k++) vert[3 * i + k] = m.vertProperties[i * np + k];
+  return cutSolid(vert, Uint32Array.from(m.triVerts), { cutY: 0, amplitude: 1.5, ...options });
+}
+
+let wasmKernel: Awaited<ReturnType<typeof Module>> | undefined;
+async function kernel(): Promise<Awaited<ReturnType<typeof Module>>> {
+  if (!wasmKernel) {
+    wasmKernel = await Module();
+    wasmKernel.setup();
+  }
+  return wasmKernel;
+}
+
+async function cutSolid(vert: Float32Array, tri: Uint32Array, options: Options & { cutY: number }): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
+  const cutY = options.cutY;
+  const amp = options.amplitude ?? 3;
+  const wasm = await kernel();
+  const { Manifold, Mesh } = wasm;
   const mesh = new Mesh({ numProp: 3, vertProperties: vert, triVerts: tri });
   mesh.merge();
   const solid = new Manifold(mesh);
@@ -54,7 +90,6 @@ export async function cutBunny(options: { scale?: number; cutY?: number; amplitu
   const [lowerSolid, upperSolid] = solid.split(cutter);
   const lower = toPiece(lowerSolid.getMesh(), cutY, amp);
   const upper = toPiece(upperSolid.getMesh(), cutY, amp);
-  for (const m of [mesh]) void m;
   for (const o of [solid, cube, refined, cutter, lowerSolid, upperSolid]) o.delete();
   let mn = [Infinity, Infinity, Infinity], mx = [-Infinity, -Infinity, -Infinity];
   for (let i = 0; i < vert.length; i += 3) for (let k = 0; k < 3; k++) {

@@ -3,9 +3,12 @@ import { registerAbout } from './about';
 import { registerDemo } from './demo';
 import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
+import { registerMatch } from './match';
+import { registerPropose } from './propose';
 import { registerInspect } from './inspect';
 import { registerImportSpecimens } from './import-specimens';
 import { registerExport } from './export';
+import { registerVocabulary } from './vocabulary';
 import { registerServe } from './serve';
 import { registerLink } from './link';
 import { registerAccept } from './accept';
@@ -25,10 +28,13 @@ export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
   registerDemo,
   registerInit,
+  registerMatch,
+  registerPropose,
   registerInspect,
   registerImportScans,
   registerImportSpecimens,
   registerExport,
+  registerVocabulary,
   registerServe,
   registerLink,
   registerAccept,

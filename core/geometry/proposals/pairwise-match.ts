@@ -6,6 +6,7 @@
  */
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
 import { ransacAlignFaces } from '../registration/ransac-alignment';
+import { SampledSurface } from '../registration/target-surface';
 import { rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
@@ -24,9 +25,9 @@ export interface MatchParameters {
 
 export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   ransacIterations: 3000,
-  hypothesesPerPair: 4,
+  hypothesesPerPair: 3,
   icpTrim: 0.7,
-  contactToleranceSpacings: 0.75,
+  contactToleranceSpacings: 0.4,
   seed: 1,
 };
 
@@ -37,7 +38,7 @@ export interface FaceMatch extends JoinScore {
 }
 
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
-  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, outline: face.outline };
+  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
 }
 
 /** Refined, scored motions carrying B's face fb onto A's face fa, best first. */
@@ -51,17 +52,39 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
   );
   const out: FaceMatch[] = [];
   const tol = params.contactToleranceSpacings * spacing;
+  const coarse = subsample(FB.points, FB.normals, 150);
   for (const h of hyps) {
-    const icp = icpPointToPlane(FB.points, FB.normals, a.surface, h.transform, {
+    // coarse rounds on a subsample, then a few on every sample
+    const first = icpPointToPlane(coarse.points, coarse.normals, new SampledSurface(FA.points, FA.normals, FA.tree), h.transform, {
       maxDistance: 3 * spacing,
       trim: params.icpTrim,
-      maxIterations: 40,
+      maxIterations: 30,
+      tolerance: 1e-3 * spacing,
+    });
+    const icp = icpPointToPlane(FB.points, FB.normals, a.surface, first.transform, {
+      maxDistance: 1.5 * spacing,
+      trim: params.icpTrim,
+      maxIterations: 10,
       tolerance: 1e-4 * spacing,
     });
     const s = scoreJoin(side(a, FA), side(b, FB), icp.transform, { contactTolerance: tol });
     out.push({ ...s, transform: icp.transform, faceA: fa, faceB: fb });
   }
   return distinctBest(out, 2 * spacing);
+}
+
+/** At most `max` samples, evenly strided. */
+function subsample(points: Float32Array, normals: Float32Array, max: number): { points: Float32Array; normals: Float32Array } {
+  const n = points.length / 3;
+  if (n <= max) return { points, normals };
+  const step = n / max;
+  const P = new Float32Array(3 * max), N = new Float32Array(3 * max);
+  for (let k = 0; k < max; k++) {
+    const i = Math.floor(k * step);
+    P.set(points.subarray(3 * i, 3 * i + 3), 3 * k);
+    N.set(normals.subarray(3 * i, 3 * i + 3), 3 * k);
+  }
+  return { points: P, normals: N };
 }
 
 /** Every face pair (or the given ones) of A and B, merged, best first. */

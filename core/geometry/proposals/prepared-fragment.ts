@@ -17,6 +17,8 @@ export interface BreakFaceInput {
   outline?: Float32Array;
   /** Area in mm^2, if known. */
   area?: number;
+  /** The face's triangles (indices into the fragment's triangles): when given, the face is sampled from them. */
+  triangleIds?: Uint32Array;
 }
 
 export interface FragmentInput {
@@ -42,6 +44,7 @@ export interface PreparedFragment {
   surface: TargetSurface;
   surfacePoints: Float32Array;
   surfaceNormals: Float32Array;
+  surfaceTree: KdTree;
   faces: PreparedFace[];
   centroid: [number, number, number];
   diagonal: number;
@@ -60,10 +63,12 @@ export const DEFAULT_FPFH_RADIUS_SPACINGS = 5;
 export function prepareFragment(input: FragmentInput, params: SamplingParameters): PreparedFragment {
   const { positions, triangles } = input;
   const surface = new TargetSurface(positions, triangles);
-  const all = sampleTriangles(positions, triangles, params.spacing * 1.5);
+  const all = sampleTriangles(positions, triangles, params.spacing * 2.5);
   const faces: PreparedFace[] = [];
   input.faces.forEach((f, index) => {
-    const s = voxelResample(f.points, f.normals, params.spacing);
+    const s = f.triangleIds && f.triangleIds.length
+      ? sampleFaceTriangles(positions, triangles, f.triangleIds, params.spacing)
+      : voxelResample(f.points, f.normals, params.spacing);
     const tree = new KdTree(s.points, 3);
     const fpfh = computeFpfh(s.points, s.normals, params.spacing * params.fpfhRadiusSpacings, tree);
     const outline = f.outline && f.outline.length >= 3 ? thinPolyline(f.outline, params.spacing * 0.5) : new Float32Array(0);
@@ -76,11 +81,18 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
     surface,
     surfacePoints: all.points,
     surfaceNormals: all.normals,
+    surfaceTree: new KdTree(all.points, 3),
     faces,
     centroid: centroidOf(positions),
     diagonal: Math.hypot(box[3] - box[0], box[4] - box[1], box[5] - box[2]),
     spacing: params.spacing,
   };
+}
+
+function sampleFaceTriangles(positions: Float32Array, triangles: Uint32Array, ids: Uint32Array, spacing: number) {
+  const sub = new Uint32Array(ids.length * 3);
+  ids.forEach((t, i) => sub.set(triangles.subarray(3 * t, 3 * t + 3), 3 * i));
+  return sampleTriangles(positions, sub, spacing);
 }
 
 export function centroidOf(p: ArrayLike<number>): [number, number, number] {
@@ -117,4 +129,18 @@ function thinPolyline(p: Float32Array, gap: number): Float32Array {
 export function defaultSpacing(diagonals: number[]): number {
   const d = Math.max(...diagonals);
   return Math.max(1e-6, d / 60);
+}
+
+/** Samples wanted on a typical break face: enough for FPFH and RANSAC, few enough to be quick. */
+export const SAMPLES_PER_FACE = 300;
+
+/**
+ * One spacing for a set of break faces (all faces compared must share it, since FPFH depends on
+ * it): a typical (median) face gets about SAMPLES_PER_FACE samples; kept within 0.3-4 mm.
+ */
+export function spacingForFaces(areas: number[]): number {
+  if (areas.length === 0) return 1;
+  const s = [...areas].sort((p, q) => p - q);
+  const median = s[Math.floor(s.length / 2)];
+  return Math.min(4, Math.max(0.3, Math.sqrt(median / SAMPLES_PER_FACE)));
 }

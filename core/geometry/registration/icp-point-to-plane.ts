@@ -6,7 +6,7 @@
  * point-to-plane least squares for a small rotation and translation.
  */
 import { compose, transformFromTwist, type RigidTransform } from './rigid-transform';
-import type { ClosestPoint, TargetSurface } from './target-surface';
+import type { ClosestPoint, ClosestPointSource } from './target-surface';
 
 export interface IcpOptions {
   /** Pairs farther apart than this are ignored (mm). */
@@ -34,7 +34,7 @@ export interface IcpResult {
 export function icpPointToPlane(
   sourcePoints: ArrayLike<number>,
   sourceNormals: ArrayLike<number>,
-  target: TargetSurface,
+  target: ClosestPointSource,
   initial: RigidTransform,
   options: IcpOptions,
 ): IcpResult {

@@ -122,8 +122,42 @@ export class KdTree {
 
   /** Index of the single nearest point (or -1) and its squared distance. */
   nearestOne(q: ArrayLike<number>, maxDist2 = Infinity): { index: number; dist2: number } {
-    const r = this.nearest(q, 1, maxDist2);
-    return r.indices.length ? { index: r.indices[0], dist2: r.dist2[0] } : { index: -1, dist2: Infinity };
+    this.bestIndex = -1;
+    this.bestDist2 = maxDist2;
+    if (this.count > 0) this.visitOne(q, 0, this.count);
+    return { index: this.bestIndex, dist2: this.bestIndex < 0 ? Infinity : this.bestDist2 };
+  }
+
+  private bestIndex = -1;
+  private bestDist2 = Infinity;
+
+  private visitOne(q: ArrayLike<number>, lo: number, hi: number): void {
+    if (hi - lo <= KdTree.LEAF) {
+      for (let i = lo; i < hi; i++) {
+        const p = this.order[i];
+        const d2 = this.dist2(q, p);
+        if (d2 < this.bestDist2 || (d2 === this.bestDist2 && this.bestIndex < 0)) {
+          this.bestDist2 = d2;
+          this.bestIndex = p;
+        }
+      }
+      return;
+    }
+    const mid = (lo + hi) >> 1;
+    const p = this.order[mid];
+    const diff = q[this.splitDim[mid]] - this.data[p * this.dim + this.splitDim[mid]];
+    const d2 = this.dist2(q, p);
+    if (d2 < this.bestDist2 || (d2 === this.bestDist2 && this.bestIndex < 0)) {
+      this.bestDist2 = d2;
+      this.bestIndex = p;
+    }
+    if (diff < 0) {
+      this.visitOne(q, lo, mid);
+      if (diff * diff < this.bestDist2) this.visitOne(q, mid + 1, hi);
+    } else {
+      this.visitOne(q, mid + 1, hi);
+      if (diff * diff < this.bestDist2) this.visitOne(q, lo, mid);
+    }
   }
 
   /** Every point within radius r of q (unordered). */

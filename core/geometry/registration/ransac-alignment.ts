@@ -8,7 +8,7 @@
 import { absoluteOrientation } from './absolute-orientation';
 import { FPFH_BINS, FPFH_DIM } from './fpfh';
 import { KdTree } from './nearest-neighbours';
-import { rotationErrorDegrees, type RigidTransform } from './rigid-transform';
+import { displacementAt, rotationErrorDegrees, type RigidTransform } from './rigid-transform';
 
 export interface FaceSamples {
   points: Float32Array;
@@ -101,6 +101,8 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
   for (let i = 0; i < ns; i += stride) check.push(i);
 
   const S = source.points, Sn = source.normals, T = target.points, Tn = target.normals;
+  const centre = [0, 0, 0];
+  for (let i = 0; i < ns; i++) for (let d = 0; d < 3; d++) centre[d] += S[3 * i + d] / ns;
   const best: Hypothesis[] = [];
   const pairs = new Uint32Array(6);
   const q = [0, 0, 0];
@@ -139,7 +141,12 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
     }
     if (!ok) continue;
     let inl = 0;
-    for (const i of check) {
+    const worst = best.length >= keep ? best[best.length - 1].inliers : 0;
+    const preview = Math.min(check.length, 40);
+    for (let c = 0; c < check.length; c++) {
+      // after a preview, give up on motions that cannot reach the kept ones
+      if (c === preview && worst > 0 && (inl * check.length) / preview < 0.5 * worst) break;
+      const i = check[c];
       const x = S[3 * i], y = S[3 * i + 1], z = S[3 * i + 2];
       q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
       q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
@@ -153,7 +160,7 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
       if (nx * Tn[3 * j] + ny * Tn[3 * j + 1] + nz * Tn[3 * j + 2] < -0.5) inl++;
     }
     if (inl < 3) continue;
-    insertHypothesis(best, { transform: M, inliers: inl, inlierFraction: inl / check.length }, keep, 5 * eps);
+    insertHypothesis(best, { transform: M, inliers: inl, inlierFraction: inl / check.length }, keep, 3 * eps, centre);
   }
   return best;
 }
@@ -162,11 +169,11 @@ function dist(P: ArrayLike<number>, i: number, j: number): number {
   return Math.hypot(P[3 * i] - P[3 * j], P[3 * i + 1] - P[3 * j + 1], P[3 * i + 2] - P[3 * j + 2]);
 }
 
-/** Keep the best `keep` motions, merging near-duplicates (same rotation within 5 degrees). */
-function insertHypothesis(list: Hypothesis[], h: Hypothesis, keep: number, sameShift: number): void {
+/** Keep the best `keep` motions, merging near-duplicates (within 5 degrees, and moving the source centre to within sameShift). */
+function insertHypothesis(list: Hypothesis[], h: Hypothesis, keep: number, sameShift: number, centre: number[]): void {
   for (let k = 0; k < list.length; k++) {
     const o = list[k];
-    const dt = Math.hypot(o.transform[3] - h.transform[3], o.transform[7] - h.transform[7], o.transform[11] - h.transform[11]);
+    const dt = displacementAt(o.transform, h.transform, centre);
     if (rotationErrorDegrees(o.transform, h.transform) < 5 && dt < sameShift) {
       if (h.inliers > o.inliers) list[k] = h;
       list.sort((a, b) => b.inliers - a.inliers);

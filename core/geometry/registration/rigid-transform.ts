@@ -144,3 +144,26 @@ export function transformFromTwist(omega: ArrayLike<number>, t: ArrayLike<number
   const r = angle < 1e-15 ? [1, 0, 0, 0, 1, 0, 0, 0, 1] : rotationAboutAxis(omega, angle);
   return transformFrom(r, t);
 }
+
+/** Unit quaternion (w, x, y, z) of a rigid motion's rotation (Shepperd's method), w >= 0. */
+export function quaternionOf(m: RigidTransform): [number, number, number, number] {
+  const r00 = m[0], r01 = m[1], r02 = m[2], r10 = m[4], r11 = m[5], r12 = m[6], r20 = m[8], r21 = m[9], r22 = m[10];
+  const tr = r00 + r11 + r22;
+  let w: number, x: number, y: number, z: number;
+  if (tr > 0) {
+    const s = Math.sqrt(tr + 1) * 2;
+    w = s / 4; x = (r21 - r12) / s; y = (r02 - r20) / s; z = (r10 - r01) / s;
+  } else if (r00 > r11 && r00 > r22) {
+    const s = Math.sqrt(1 + r00 - r11 - r22) * 2;
+    w = (r21 - r12) / s; x = s / 4; y = (r01 + r10) / s; z = (r02 + r20) / s;
+  } else if (r11 > r22) {
+    const s = Math.sqrt(1 + r11 - r00 - r22) * 2;
+    w = (r02 - r20) / s; x = (r01 + r10) / s; y = s / 4; z = (r12 + r21) / s;
+  } else {
+    const s = Math.sqrt(1 + r22 - r00 - r11) * 2;
+    w = (r10 - r01) / s; x = (r02 + r20) / s; y = (r12 + r21) / s; z = s / 4;
+  }
+  const n = Math.hypot(w, x, y, z);
+  const sign = w < 0 ? -1 : 1;
+  return [(sign * w) / n, (sign * x) / n, (sign * y) / n, (sign * z) / n];
+}

@@ -6,6 +6,7 @@
  * generated assemblages with known truth; see SCORE_MODEL).
  */
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from './rigid-transform';
+import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { KdTree } from './nearest-neighbours';
 import type { ClosestPoint, TargetSurface } from './target-surface';
 
@@ -14,8 +15,11 @@ export interface ScoredSide {
   /** The break face's samples (points, outward normals). */
   facePoints: Float32Array;
   faceNormals: Float32Array;
-  /** Samples of the whole fragment surface (for interpenetration). */
+  /** Samples of the whole fragment surface with outward normals (for interpenetration). */
   surfacePoints: Float32Array;
+  surfaceNormals: Float32Array;
+  /** k-d tree over surfacePoints. */
+  surfaceTree: KdTree;
   /** Points along the face's outline(s), packed xyz (may be empty). */
   outline: Float32Array;
 }
@@ -33,6 +37,12 @@ export interface JoinScore {
   penetrationMm: number;
   /** Share of outline samples that meet the other face's outline within 2 tolerances (better side). */
   outlineAgreement: number;
+  /**
+   * How firmly the faces lock together, 0..1: sqrt of the smallest over the largest eigenvalue
+   * of the point-to-plane information matrix of the contact (rotations scaled by the contact's
+   * radius of gyration). Flat or cylindrical contacts that could slide or turn give about 0.
+   */
+  interlock: number;
 }
 
 export interface ScoreOptions {
@@ -41,11 +51,13 @@ export interface ScoreOptions {
 }
 
 /**
- * Logistic model over the components: logit = b0 + b1 contact + b2 contactOther + b3 outline
- * - b4 gap/tol - b5 penetration/tol. Coefficients fitted on generated truth (see
- * tests/bench/proposals.bench.ts); the starting values were chosen by hand.
+ * Logistic model over the components: logit = b0 + contact + contactOther + outline
+ * - gap/gapScale - penetration/gapScale - (1 - min(1, interlock/interlockFull)). Gaps are
+ * measured against an absolute scale (a true join's faces sit within scanner noise and light
+ * erosion of each other, a few tenths of a millimetre, from memory), not against the sampling.
+ * Coefficients fitted on generated truth (tests/bench/proposals.bench.ts); starting values by hand.
  */
-export const SCORE_MODEL = { b0: -7, contact: 7, contactOther: 3, outline: 3, gap: 1.2, penetration: 1.0 };
+export const SCORE_MODEL = { b0: -5, contact: 6, contactOther: 3, outline: 2, gap: 2.5, penetration: 1.5, gapScaleMm: 0.3, interlock: 8, interlockFull: 0.12 };
 
 export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): JoinScore {
   const tol = options.contactTolerance;
@@ -55,22 +67,58 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const aFaceInB = applyToPoints(inv, a.facePoints);
   const aFaceNormalsInB = applyToDirections(inv, a.faceNormals);
   const cb = contactShare(bFaceInA, bFaceNormalsInA, a.surface, tol);
+  const interlock = Math.min(interlockOf(bFaceInA, bFaceNormalsInA, a.surface, tol), interlockOf(aFaceInB, aFaceNormalsInB, b.surface, tol));
   const ca = contactShare(aFaceInB, aFaceNormalsInB, b.surface, tol);
   const contactFraction = Math.max(ca.share, cb.share);
   const contactFractionOther = Math.min(ca.share, cb.share);
   const gapSum = ca.gapSum + cb.gapSum, gapN = ca.gapN + cb.gapN;
   const gapRmsMm = gapN > 0 ? Math.sqrt(gapSum / gapN) : 3 * tol;
   const penetrationMm = Math.max(
-    penetration(applyToPoints(transform, b.surfacePoints), a.surface),
-    penetration(applyToPoints(inv, a.surfacePoints), b.surface),
+    penetration(applyToPoints(transform, b.surfacePoints), a),
+    penetration(applyToPoints(inv, a.surfacePoints), b),
   );
   const outlineAgreement = outlineMeeting(a.outline, applyToPoints(transform, b.outline), 2 * tol);
   const m = SCORE_MODEL;
   const logit =
     m.b0 + m.contact * contactFraction + m.contactOther * contactFractionOther + m.outline * outlineAgreement -
-    m.gap * (gapRmsMm / tol) - m.penetration * (penetrationMm / tol);
+    m.gap * (gapRmsMm / m.gapScaleMm) - m.penetration * (penetrationMm / m.gapScaleMm) - m.interlock * (1 - Math.min(1, interlock / m.interlockFull));
   const score = 1 / (1 + Math.exp(-logit));
-  return { score, contactFraction, contactFractionOther, gapRmsMm, penetrationMm, outlineAgreement };
+  return { score, contactFraction, contactFractionOther, gapRmsMm, penetrationMm, outlineAgreement, interlock };
+}
+
+/**
+ * Interlock of the face samples that touch the other surface, with the samples' own (voxel
+ * averaged, so less noisy) normals; the smaller of the two sides is what counts, since a flat
+ * face against a rough one can still slide.
+ */
+function interlockOf(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): number {
+  const n = points.length / 3;
+  const cp = {} as ClosestPoint;
+  const rows: number[][] = [];
+  let cx = 0, cy = 0, cz = 0;
+  const kept: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const hit = surface.closest(points[3 * i], points[3 * i + 1], points[3 * i + 2], tol, cp);
+    if (!hit) continue;
+    kept.push(i);
+    cx += points[3 * i]; cy += points[3 * i + 1]; cz += points[3 * i + 2];
+  }
+  if (kept.length < 12) return 0;
+  cx /= kept.length; cy /= kept.length; cz /= kept.length;
+  let rg = 0;
+  for (const i of kept) rg += (points[3 * i] - cx) ** 2 + (points[3 * i + 1] - cy) ** 2 + (points[3 * i + 2] - cz) ** 2;
+  rg = Math.sqrt(rg / kept.length) || 1;
+  const M = Array.from({ length: 6 }, () => new Array<number>(6).fill(0));
+  for (const i of kept) {
+    const x = points[3 * i] - cx, y = points[3 * i + 1] - cy, z = points[3 * i + 2] - cz;
+    const nx = normals[3 * i], ny = normals[3 * i + 1], nz = normals[3 * i + 2];
+    const r = [(y * nz - z * ny) / rg, (z * nx - x * nz) / rg, (x * ny - y * nx) / rg, nx, ny, nz];
+    for (let a = 0; a < 6; a++) for (let b = 0; b < 6; b++) M[a][b] += r[a] * r[b];
+  }
+  void rows;
+  const e = new EigenvalueDecomposition(new Matrix(M), { assumeSymmetric: true }).realEigenvalues;
+  const lo = Math.max(0, Math.min(...e)), hi = Math.max(...e);
+  return hi > 0 ? Math.sqrt(lo / hi) : 0;
 }
 
 function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): { share: number; gapSum: number; gapN: number } {
@@ -90,19 +138,35 @@ function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, sur
   return { share: inContact / n, gapSum, gapN };
 }
 
-/** 98th percentile of how deep samples sit inside the surface (0 when they are outside). */
-function penetration(points: ArrayLike<number>, surface: TargetSurface): number {
+/**
+ * 98th percentile of how deep samples sit inside the other piece (0 when outside). Depth is
+ * the distance to the closest surface point (BVH); inside or outside is decided by a vote of
+ * the nearest surface samples' normals, which a single sliver triangle with a flipped normal
+ * (common in scans) cannot swing.
+ */
+function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   const n = points.length / 3;
   if (n === 0) return 0;
   const depths: number[] = [];
   const cp = {} as ClosestPoint;
+  const q = [0, 0, 0];
+  const P = other.surfacePoints, N = other.surfaceNormals;
   for (let i = 0; i < n; i++) {
     const x = points[3 * i], y = points[3 * i + 1], z = points[3 * i + 2];
-    const hit = surface.closest(x, y, z, Infinity, cp);
-    if (!hit) continue;
-    const side = (x - hit.x) * hit.nx + (y - hit.y) * hit.ny + (z - hit.z) * hit.nz;
-    // inside: behind the closest triangle, and clearly so (not a grazing touch at an edge)
-    depths.push(side < 0 && -side > 0.5 * hit.distance ? hit.distance : 0);
+    q[0] = x; q[1] = y; q[2] = z;
+    const near = other.surfaceTree.nearest(q, 6);
+    let vote = 0;
+    for (let m = 0; m < near.indices.length; m++) {
+      const j = near.indices[m];
+      const side = (x - P[3 * j]) * N[3 * j] + (y - P[3 * j + 1]) * N[3 * j + 1] + (z - P[3 * j + 2]) * N[3 * j + 2];
+      vote += Math.sign(side) / (Math.sqrt(near.dist2[m]) + 1e-6);
+    }
+    if (vote >= 0) {
+      depths.push(0);
+      continue;
+    }
+    const hit = other.surface.closest(x, y, z, Infinity, cp);
+    depths.push(hit ? hit.distance : 0);
   }
   depths.sort((p, q) => p - q);
   return depths[Math.min(depths.length - 1, Math.floor(0.98 * depths.length))] ?? 0;

@@ -5,6 +5,7 @@
  */
 import { BufferAttribute, BufferGeometry, Vector3 } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
+import type { KdTree } from './nearest-neighbours';
 
 export interface ClosestPoint {
   x: number;
@@ -18,7 +19,35 @@ export interface ClosestPoint {
   triangle: number;
 }
 
-export class TargetSurface {
+/** Anything that answers closest-point queries with a unit normal (a mesh BVH, or oriented samples). */
+export interface ClosestPointSource {
+  closest(x: number, y: number, z: number, maxDistance?: number, out?: ClosestPoint): ClosestPoint | null;
+}
+
+/**
+ * Oriented samples as a stand-in surface: the closest sample and its normal. Point-to-plane
+ * residuals against sample tangent planes are as good as against the mesh while the samples
+ * are dense, and a k-d tree query is much cheaper than a BVH query.
+ */
+export class SampledSurface implements ClosestPointSource {
+  private readonly q = [0, 0, 0];
+  constructor(private readonly points: Float32Array, private readonly normals: Float32Array, private readonly tree: KdTree) {}
+
+  closest(x: number, y: number, z: number, maxDistance = Infinity, out?: ClosestPoint): ClosestPoint | null {
+    this.q[0] = x; this.q[1] = y; this.q[2] = z;
+    const hit = this.tree.nearestOne(this.q, maxDistance * maxDistance);
+    if (hit.index < 0) return null;
+    const i = hit.index;
+    const res = out ?? ({} as ClosestPoint);
+    res.x = this.points[3 * i]; res.y = this.points[3 * i + 1]; res.z = this.points[3 * i + 2];
+    res.nx = this.normals[3 * i]; res.ny = this.normals[3 * i + 1]; res.nz = this.normals[3 * i + 2];
+    res.distance = Math.sqrt(hit.dist2);
+    res.triangle = -1;
+    return res;
+  }
+}
+
+export class TargetSurface implements ClosestPointSource {
   readonly bvh: MeshBVH;
   readonly triangleNormals: Float32Array;
   private readonly query = new Vector3();

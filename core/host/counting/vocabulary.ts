@@ -1,6 +1,6 @@
 import type { CountingVocabulary } from '../../quant/vocabulary';
 import type { RefitVocabulary } from '../../refits/vocabulary';
-import { countPerSkeleton, isLimbElement, isPairedElement, isSpecificElement, zonesOf, type Vocabulary } from '../../vocab/index';
+import { countPerSkeleton, isLimbElement, isPairedElement, isSpecificElement, typicalSizeClass, zonesOf, type Vocabulary } from '../../vocab/index';
 
 /**
  * The catalogue's controlled vocabulary seen through what refits and counting read. An
@@ -13,6 +13,7 @@ export function countingVocabulary(vocab: Vocabulary): RefitVocabulary & Countin
     isSpecificElement: (e) => isSpecificElement(e, vocab),
     isPairedElement: (e) => isSpecificElement(e, vocab) && isPairedElement(e, vocab),
     isLimbElement: (e) => isLimbElement(e, vocab),
+    typicalSizeClass: (t) => typicalSizeClass(t, vocab) ?? null,
     rankOf: (t) => vocab.taxa.get(t)?.rank ?? null,
     zonesOf: (e) => zonesOf(e, vocab),
     countPerSkeleton: (e, t) => countPerSkeleton(e, t, vocab) ?? null,

@@ -3,6 +3,7 @@ import { demoRequests } from './demo';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
+import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
 import { viewerRequests } from './viewer';
@@ -18,6 +19,7 @@ export const requests = {
   ...joinsRequests,
   ...tallyRequests,
   ...catalogueRequests,
+  ...proposalRequests,
   ...scanRequests,
   ...spatialRequests,
   ...vocabularyRequests,

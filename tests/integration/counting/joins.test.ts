@@ -140,4 +140,18 @@ describe('joins through the host API', () => {
     const t = await host.call('tally.counts', { catalogue: path });
     expect(t.refitted.byTaxon).toEqual([{ taxon: 'Cervus elaphus', nisp: 4, mni: 2, lrp: 2 + 2 - 2 }]);
   });
+
+  it('the identification threshold is a catalogue setting (default family; Grayson 1984 counts at a chosen rank)', async () => {
+    const path = fresh([
+      { catalogueNo: 'G-1', taxon: 'Cervidae', element: 'femur' },
+      { catalogueNo: 'G-2', taxon: 'Cervus elaphus', element: 'femur' },
+    ]);
+    expect(await host.call('tally.identificationRank', { catalogue: path })).toEqual({ rank: 'family' });
+    expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(2);
+    expect(await host.call('tally.identificationRank', { catalogue: path, rank: 'genus' })).toEqual({ rank: 'genus' });
+    const t = await host.call('tally.counts', { catalogue: path });
+    expect(t.recorded.nisp).toBe(1);
+    expect(t.recorded.identifiedToTaxon).toBe(0.5);
+    await expect(host.call('tally.identificationRank', { catalogue: path, rank: 'kingdom' as never })).rejects.toMatchObject({ kind: 'bad-input' });
+  });
 });

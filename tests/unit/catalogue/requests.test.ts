@@ -44,4 +44,21 @@ describe('catalogue host requests', () => {
       .catch((e: unknown) => e as KnitboneError);
     expect((zone as KnitboneError).message).toMatch(/apply to long bones/);
   });
+
+  it('lets an analyst add a taxon and an element, then use them by name or synonym', async () => {
+    const host = new Host();
+    const catalogue = join(tempDir(), 'site.sqlite');
+    await host.call('catalogue.init', { catalogue });
+    await host.call('vocabulary.add', { catalogue, kind: 'taxon', term: 'Saiga', parent: 'bovid', rank: 'genus' });
+    await host.call('vocabulary.add', { catalogue, kind: 'taxon', term: 'Saiga tatarica', parent: 'Saiga', rank: 'species', synonyms: ['saiga antelope'] });
+    await host.call('vocabulary.add', { catalogue, kind: 'element', term: 'os penis', parent: 'bone', paired: false, synonyms: ['baculum'] });
+    const refused = await host.call('vocabulary.add', { catalogue, kind: 'taxon', term: 'Cervus elaphus', parent: 'Cervidae' }).catch((e: unknown) => e as KnitboneError);
+    expect((refused as KnitboneError).message).toMatch(/already means the taxon "Cervus elaphus"/);
+    const s = await host.call('specimens.create', { catalogue, specimen: { catalogueNo: 'S-1', taxon: 'Saiga Antelope', element: 'baculum' } });
+    expect(s).toMatchObject({ taxon: 'Saiga tatarica', element: 'os penis' });
+    const list = await host.call('vocabulary.list', { catalogue });
+    expect(list.taxa.find((t) => t.name === 'Saiga tatarica')).toMatchObject({ parent: 'Saiga', added: true });
+    const history = await host.call('history.list', { catalogue, entity: 'vocabulary_term' });
+    expect(history).toHaveLength(3);
+  });
 });

@@ -136,6 +136,15 @@ describe('conflicts', () => {
     expect(state.check(join('DF', 'Y'))).toEqual([]);
   });
 
+  it('a taxon gives its typical size class where none was recorded (typical sizes of the vocabulary, from memory there)', () => {
+    const state = new RefitState(
+      [obs('ROE', { taxon: 'Capreolus capreolus', element: 'femur' }), obs('BIG', { taxon: 'Mammalia', sizeClass: 4, element: 'long bone' }), obs('MID', { taxon: 'Mammalia', sizeClass: 2, element: 'long bone' })],
+      vocab,
+    );
+    expect(state.check(join('ROE', 'BIG')).map((x) => x.field)).toEqual(['size']);
+    expect(state.check(join('ROE', 'MID'))).toEqual([]);
+  });
+
   it('a conflict is seen at the level of the set, not only of the two pieces joined', () => {
     const state = RefitState.build(
       [deerFemur, obs('S', { element: 'long bone', zones: ['midshaft'] }), obs('BT', { taxon: 'Bovidae', element: 'tibia', zones: ['proximal-end'] })],

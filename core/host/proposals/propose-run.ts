@@ -1,0 +1,253 @@
+/**
+ * `proposals.run`: propose joins across every scanned specimen of a catalogue (issue 6, item 2).
+ *
+ *   1. read and analyse every scan in worker threads (break faces),
+ *   2. describe every break face at one sample spacing and index the descriptors,
+ *   3. align only the candidate face pairs the index suggests (or all, when exhaustive),
+ *   4. store each fragment pair's best motion as a proposed join, with its score components,
+ *      method version and parameters, and record the pair as done for these parameters.
+ *
+ * Pairs already done with the same parameters are skipped, so a later run does only what is
+ * new and a cancelled run resumes. Decided joins (accepted, rejected) are never touched and
+ * their pairs are not proposed again. Provenience is not used (design.md section 7).
+ */
+import { createHash } from 'node:crypto';
+import { availableParallelism } from 'node:os';
+import { dirname, isAbsolute, resolve } from 'node:path';
+import { withCatalogue, type Catalogue } from '../../catalogue/catalogue';
+import { ProposalPairRepository } from '../../catalogue/proposal-pairs';
+import type { Join } from '../../catalogue/records';
+import { byFragmentPair, candidateFacePairs, type IndexedFace } from '../../geometry/proposals/candidate-index';
+import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
+import { cycleAgreement, solvePoses, type PoseSolution } from '../../geometry/proposals/pose-graph';
+import { invert } from '../../geometry/registration/rigid-transform';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, spacingForFaces, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
+import { startTypeScriptWorker } from '../../jobs/typescript-worker';
+import { runPool, type PoolTask } from '../../jobs/affinity-pool';
+import { WORKER_CACHE_SIZE, type AnalyseResult, type DescribeResult, type MatchResult, type ProposalTask, type ScanRef } from '../../jobs/proposal-worker';
+import type { LengthUnit } from '../../jobs/fragment-loader';
+import type { RequestContext } from '../request';
+
+export interface ProposeOptions {
+  catalogue: string;
+  workers?: number;
+  /** Align every pair of break faces (the baseline the pruning is measured against). */
+  exhaustive?: boolean;
+  /** Partners asked of the index per face. */
+  k?: number;
+  /** Best motions scoring below this are not stored as proposals. */
+  minScore?: number;
+  ransacIterations?: number;
+}
+
+export interface ProposeOutcome {
+  proposals: Join[];
+  run: {
+    scans: number;
+    faces: number;
+    candidatePairs: number;
+    alignedPairs: number;
+    skippedDone: number;
+    skippedDecided: number;
+    stored: number;
+    cancelled: boolean;
+    problems: Array<{ scanId: number; file: string; message: string }>;
+    parameters: Record<string, unknown>;
+    parametersHash: string;
+    seconds: number;
+  };
+}
+
+/** Spacings the run chooses from, so that adding a few scans rarely changes the parameters. */
+const SPACING_LADDER = [0.3, 0.42, 0.6, 0.85, 1.2, 1.7, 2.4, 3.4];
+
+export async function proposeJoins(options: ProposeOptions, ctx: RequestContext): Promise<ProposeOutcome> {
+  const started = Date.now();
+  return withCatalogue(options.catalogue, async (cat) => {
+    const base = dirname(cat.path);
+    // latest scan of each specimen
+    const latest = new Map<number, { id: number; specimenId: number; path: string; units: string }>();
+    for (const s of cat.scans.list()) {
+      const old = latest.get(s.specimenId);
+      if (!old || s.id > old.id) latest.set(s.specimenId, s);
+    }
+    const scans: ScanRef[] = [...latest.values()].map((s) => ({ scanId: s.id, file: isAbsolute(s.path) ? s.path : resolve(base, s.path), units: s.units as LengthUnit }));
+    const specimenOfScan = new Map([...latest.values()].map((s) => [s.id, s.specimenId]));
+    const problems: ProposeOutcome['run']['problems'] = [];
+    const workerCount = Math.max(1, Math.min(options.workers ?? availableParallelism(), 64));
+    const workers = Array.from({ length: workerCount }, () => startTypeScriptWorker(new URL('../../jobs/proposal-worker.ts', import.meta.url)));
+    const stopWorkers = (): void => workers.forEach((w) => void w.terminate());
+    const outcome = (over: Partial<ProposeOutcome['run']>, parameters: Record<string, unknown> = {}, hash = ''): ProposeOutcome => ({
+      proposals: cat.joins.list({ status: 'proposed' }),
+      run: {
+        scans: scans.length, faces: 0, candidatePairs: 0, alignedPairs: 0, skippedDone: 0, skippedDecided: 0, stored: 0,
+        cancelled: false, problems, parameters, parametersHash: hash, seconds: (Date.now() - started) / 1000, ...over,
+      },
+    });
+    try {
+      // 1. analyse
+      const analysedOk = new Map<number, AnalyseResult>();
+      const analyseTasks: PoolTask<ProposalTask>[] = scans.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'analyse', scan } }));
+      const a1 = await runPool<ProposalTask, AnalyseResult>(analyseTasks, {
+        workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
+        onResult: (r) => {
+          if (r.problem) problems.push({ scanId: r.scanId, file: scans.find((s) => s.scanId === r.scanId)!.file, message: r.problem });
+          else analysedOk.set(r.scanId, r);
+        },
+        onError: (message, i) => problems.push({ scanId: scans[i].scanId, file: scans[i].file, message }),
+        onProgress: (done, total) => ctx.onProgress({ stage: 'reading scans', done, total }),
+      });
+      if (a1.cancelled) return outcome({ cancelled: true });
+      const usable = scans.filter((s) => analysedOk.has(s.scanId));
+      const spacingRaw = spacingForFaces(usable.flatMap((s) => analysedOk.get(s.scanId)!.faceAreas));
+      const spacing = SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / spacingRaw)) < Math.abs(Math.log(best / spacingRaw)) ? v : best), SPACING_LADDER[0]);
+      const sampling: SamplingParameters = { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS };
+      const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
+      const k = options.k ?? 6;
+      const parameters = { method: METHOD_VERSION, sampling, match: params, k, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      const parametersHash = createHash('sha256').update(JSON.stringify(parameters)).digest('hex').slice(0, 16);
+
+      // 2. describe and index
+      const faces: IndexedFace[] = [];
+      const fragIndex = new Map(usable.map((s, i) => [s.scanId, i]));
+      const d = await runPool<ProposalTask, DescribeResult>(
+        usable.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'describe', scan, sampling } })),
+        {
+          workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
+          onResult: (r) => r.descriptors.forEach((descriptor, face) => faces.push({ fragment: fragIndex.get(r.scanId)!, face, descriptor, area: r.areas[face] })),
+          onError: (message, i) => problems.push({ scanId: usable[i].scanId, file: usable[i].file, message }),
+          onProgress: (done, total) => ctx.onProgress({ stage: 'describing break faces', done, total }),
+        },
+      );
+      if (d.cancelled) return outcome({ cancelled: true }, parameters, parametersHash);
+      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive });
+      const grouped = byFragmentPair(candidates);
+
+      // 3. what is left to do
+      const pairsRepo = new ProposalPairRepository(cat);
+      const done = pairsRepo.doneKeys(parametersHash);
+      const decided = new Set<string>();
+      const accepted: Join[] = [];
+      for (const j of cat.joins.list()) {
+        if (j.status === 'proposed') continue;
+        decided.add(pairKey(j.specimenA, j.specimenB));
+        if (j.status === 'accepted' && j.transform && j.type === 'conjoin') accepted.push(j);
+      }
+      const poses = refitPoses(accepted);
+      let skippedDone = 0, skippedDecided = 0;
+      const tasks: PoolTask<ProposalTask>[] = [];
+      for (const list of grouped.values()) {
+        const A = usable[list[0].a], B = usable[list[0].b];
+        const [sa, sb] = A.scanId < B.scanId ? [A, B] : [B, A];
+        if (done.has(`${sa.scanId}:${sb.scanId}`)) { skippedDone++; continue; }
+        if (decided.has(pairKey(specimenOfScan.get(sa.scanId)!, specimenOfScan.get(sb.scanId)!))) { skippedDecided++; continue; }
+        const facePairs: Array<[number, number]> = list.map((c) => (sa === A ? [c.faceA, c.faceB] : [c.faceB, c.faceA]));
+        tasks.push({ keys: [String(sa.scanId), String(sb.scanId)], message: { kind: 'match', a: sa, b: sb, facePairs, sampling, params, keep: 3 } });
+      }
+      // keep pairs that share fragments near each other in the queue (worker caches)
+      tasks.sort((p, q) => Number(p.keys[0]) - Number(q.keys[0]) || Number(p.keys[1]) - Number(q.keys[1]));
+
+      // 4. align and store
+      let stored = 0;
+      const minScore = options.minScore ?? 0.05;
+      const m = await runPool<ProposalTask, MatchResult>(tasks, {
+        workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
+        onResult: (r) => {
+          if (storeResult(cat, pairsRepo, r, specimenOfScan, analysedOk, poses, { parametersHash, parameters, minScore })) stored++;
+        },
+        onError: (message, i) => {
+          const t = tasks[i].message as Extract<ProposalTask, { kind: 'match' }>;
+          problems.push({ scanId: t.b.scanId, file: t.b.file, message: `aligning with scan ${t.a.scanId}: ${message}` });
+        },
+        onProgress: (n, total) => ctx.onProgress({ stage: 'aligning candidate pairs', done: n, total }),
+      });
+      return outcome(
+        { faces: faces.length, candidatePairs: grouped.size, alignedPairs: m.done, skippedDone, skippedDecided, stored, cancelled: m.cancelled },
+        parameters,
+        parametersHash,
+      );
+    } finally {
+      stopWorkers();
+    }
+  });
+}
+
+function pairKey(a: number, b: number): string {
+  return a < b ? `${a}:${b}` : `${b}:${a}`;
+}
+
+/** Poses of the refit sets formed by accepted conjoins (for cycle agreement of new proposals). */
+function refitPoses(accepted: Join[]): PoseSolution[] {
+  const edges = accepted.map((j) => ({ a: String(j.specimenA), b: String(j.specimenB), transform: j.transform!, weight: j.score ?? 1 }));
+  const sets: PoseSolution[] = [];
+  const seen = new Set<string>();
+  for (const e of edges) {
+    if (seen.has(e.a)) continue;
+    const sol = solvePoses(edges, { root: e.a });
+    for (const k of sol.poses.keys()) seen.add(k);
+    sets.push(sol);
+  }
+  return sets;
+}
+
+/**
+ * Store one pair's outcome in one transaction: the best motion as a proposed join (updating an
+ * earlier undecided proposal for the same specimens) when it scores at least minScore, and the
+ * pair as done. A proposal that closes a cycle with accepted joins gains (consistent) or loses
+ * (inconsistent) rank: score' = 1 - (1 - score) / 2, or score / 2.
+ */
+function storeResult(
+  cat: Catalogue,
+  pairs: ProposalPairRepository,
+  r: MatchResult,
+  specimenOfScan: Map<number, number>,
+  analysed: Map<number, AnalyseResult>,
+  poses: PoseSolution[],
+  run: { parametersHash: string; parameters: Record<string, unknown>; minScore: number },
+): boolean {
+  const best = r.matches[0];
+  const specA = specimenOfScan.get(r.scanA)!, specB = specimenOfScan.get(r.scanB)!;
+  return cat.transaction(() => {
+    let joinId: number | null = null;
+    let stored = false;
+    if (best && best.score >= run.minScore) {
+      let score = best.score;
+      let cycle = 0;
+      for (const sol of poses) {
+        const agreement = cycleAgreement(sol, String(specA), String(specB), best.transform, analysed.get(r.scanB)?.centroid);
+        if (!agreement) continue;
+        const consistent = agreement.rotationDeg < 3 && agreement.translationMm < 2;
+        cycle = consistent ? 1 : -1;
+        score = consistent ? 1 - (1 - score) / 2 : score / 2;
+      }
+      const fields = {
+        scanA: r.scanA,
+        scanB: r.scanB,
+        transform: best.transform,
+        score,
+        scoreComponents: {
+          geometryScore: best.score,
+          contactFraction: best.contactFraction,
+          contactFractionOther: best.contactFractionOther,
+          gapRmsMm: best.gapRmsMm,
+          penetrationMm: best.penetrationMm,
+          outlineAgreement: best.outlineAgreement,
+          faceA: best.faceA,
+          faceB: best.faceB,
+          cycleWithAccepted: cycle,
+        },
+        methodVersion: METHOD_VERSION,
+        parameters: { ...run.parameters, parametersHash: run.parametersHash, alternatives: r.matches.slice(1).map((x) => ({ score: x.score, transform: x.transform, faceA: x.faceA, faceB: x.faceB })) },
+      };
+      const existing = cat.joins.list({ specimenId: specA }).find((j) => j.status === 'proposed' && ((j.specimenA === specA && j.specimenB === specB) || (j.specimenA === specB && j.specimenB === specA)));
+      if (existing && existing.specimenA === specA) joinId = cat.joins.update(existing.id, fields, undefined, 'proposal-update').id;
+      else if (existing) {
+        // stored the other way round: keep its orientation (transform maps its B into its A)
+        joinId = cat.joins.update(existing.id, { ...fields, scanA: r.scanB, scanB: r.scanA, transform: invert(best.transform) }, undefined, 'proposal-update').id;
+      } else joinId = cat.joins.insert({ specimenA: specA, specimenB: specB, status: 'proposed', ...fields }, undefined, 'propose').id;
+      stored = true;
+    }
+    pairs.record({ scanA: r.scanA, scanB: r.scanB, parametersHash: run.parametersHash, methodVersion: METHOD_VERSION, bestScore: best ? best.score : null, joinId });
+    return stored;
+  });
+}
