@@ -134,6 +134,32 @@ export class SpecimenRepository {
     return run();
   }
 
+  /**
+   * Remove a specimen entered by mistake. Refused ('conflict') while scans, joins or derived
+   * identifications refer to it; the full record goes to history, so it can be re-entered.
+   */
+  remove(id: number, who: string = this.defaultWho): Specimen {
+    const run = this.db.transaction((): Specimen => {
+      const current = this.require(id);
+      const refs = this.db
+        .prepare(
+          `SELECT (SELECT count(*) FROM scan WHERE specimen_id = ?) AS scans,
+                  (SELECT count(*) FROM specimen_join WHERE specimen_a = ? OR specimen_b = ?) AS joins,
+                  (SELECT count(*) FROM derived_identification WHERE specimen_id = ?) AS derived`,
+        )
+        .get(id, id, id, id) as { scans: number; joins: number; derived: number };
+      const held = [refs.scans && `${refs.scans} scan(s)`, refs.joins && `${refs.joins} join(s)`, refs.derived && `${refs.derived} derived identification(s)`].filter(Boolean);
+      if (held.length) {
+        throw new KnitboneError('conflict', [{ field: 'catalogueNo', message: `specimen "${current.catalogueNo}" still has ${held.join(', ')}; remove those first` }]);
+      }
+      this.db.prepare('DELETE FROM specimen WHERE id = ?').run(id);
+      const { id: _id, createdAt: _c, updatedAt: _u, ...before } = current;
+      this.history.record({ who, entity: 'specimen', entityId: id, action: 'delete', before });
+      return current;
+    });
+    return run();
+  }
+
   /** Change some fields of one specimen; records before/after of what changed. */
   update(id: number, patch: Partial<SpecimenFields>, who: string = this.defaultWho, action = 'update'): SpecimenUpdate {
     const run = this.db.transaction((): SpecimenUpdate => {

@@ -1,39 +1,34 @@
 import type { Tally } from './tally';
 
-/** One table for a spreadsheet: a header row and data rows. */
-export interface Table {
-  name: string;
-  header: string[];
-  rows: Array<Array<string | number | null>>;
-}
-
 /**
- * The counts of `knitbone tally` as three tables (summary, taxa, elements), each with a
- * `reading` column saying whether a row is as recorded or refitted, so both readings sit
- * side by side in one sheet.
+ * The counts of `knitbone tally` as one flat table for a spreadsheet: a row per reading
+ * (summary), per taxon and per taxon-element, each saying what it is (`level`) and whether
+ * it is as recorded or refitted (`reading`), so rows can be filtered and pivoted. Cells a
+ * level does not have are left empty (null).
  */
-export function tallyTables(counts: { nsp: number; recorded: Tally; refitted: Tally }): Table[] {
-  const readings = [
-    ['recorded', counts.recorded],
-    ['refitted', counts.refitted],
-  ] as const;
-  return [
-    {
-      name: 'summary',
-      header: ['reading', 'nsp', 'nisp', 'nisp_fragments', 'identified_to_element', 'identified_to_taxon'],
-      rows: readings.map(([r, t]) => [r, counts.nsp, t.nisp, t.nispFragments, t.identifiedToElement, t.identifiedToTaxon]),
-    },
-    {
-      name: 'taxa',
-      header: ['reading', 'taxon', 'nisp', 'mni', 'l_plus_r_minus_p'],
-      rows: readings.flatMap(([r, t]) => t.byTaxon.map((x) => [r, x.taxon, x.nisp, x.mni, x.lrp ?? null])),
-    },
-    {
-      name: 'elements',
-      header: ['reading', 'taxon', 'element', 'nisp', 'mne_left', 'mne_right', 'mne', 'mau', 'percent_mau', 'pairs'],
-      rows: readings.flatMap(([r, t]) =>
-        t.byElement.map((x) => [r, x.taxon, x.element, x.nisp, x.mneLeft, x.mneRight, x.mne, x.mau, x.percentMau, x.pairs ?? null]),
-      ),
-    },
-  ];
+export const TALLY_COLUMNS = [
+  'level', 'reading', 'taxon', 'element', 'nsp', 'nisp', 'nisp_fragments', 'identified_to_element', 'identified_to_taxon',
+  'mni', 'l_plus_r_minus_p', 'mne_left', 'mne_right', 'mne', 'mau', 'percent_mau', 'pairs',
+] as const;
+
+type Cell = string | number | null;
+
+export function tallyRows(counts: { nsp: number; recorded: Tally; refitted: Tally }): Cell[][] {
+  const rows: Cell[][] = [];
+  const row = (values: Partial<Record<(typeof TALLY_COLUMNS)[number], Cell | undefined>>) =>
+    rows.push(TALLY_COLUMNS.map((c) => values[c] ?? null));
+  for (const [reading, t] of [['recorded', counts.recorded], ['refitted', counts.refitted]] as const) {
+    row({
+      level: 'summary', reading, nsp: counts.nsp, nisp: t.nisp, nisp_fragments: t.nispFragments,
+      identified_to_element: t.identifiedToElement, identified_to_taxon: t.identifiedToTaxon,
+    });
+    for (const x of t.byTaxon) row({ level: 'taxon', reading, taxon: x.taxon, nisp: x.nisp, mni: x.mni, l_plus_r_minus_p: x.lrp });
+    for (const x of t.byElement) {
+      row({
+        level: 'element', reading, taxon: x.taxon, element: x.element, nisp: x.nisp, mne_left: x.mneLeft, mne_right: x.mneRight,
+        mne: x.mne, mau: x.mau, percent_mau: x.percentMau, pairs: x.pairs,
+      });
+    }
+  }
+  return rows;
 }

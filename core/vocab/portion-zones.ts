@@ -35,6 +35,14 @@ export function resolveZone(text: string): PortionZone | undefined {
   return byKey.get(termKey(text));
 }
 
+/**
+ * The zones a specimen covers, from the fraction of each zone present (0-1): those with
+ * more than half present (Dobney & Rielly 1988). Zones not given count as absent.
+ */
+export function zonesCovered(fractionPresent: Partial<Record<PortionZone, number>>): PortionZone[] {
+  return PORTION_ZONES.filter((z) => (fractionPresent[z] ?? 0) > ZONE_PRESENCE_THRESHOLD);
+}
+
 /** Words that mean every zone: a complete long bone. */
 export function meansComplete(text: string): boolean {
   return ['complete', 'whole', 'all', 'entire'].includes(termKey(text));

@@ -1,7 +1,7 @@
 import type { Command } from 'commander';
 import { stringify } from 'csv-stringify/sync';
 import { Host } from '../../host/host';
-import { tallyTables } from '../../quant/tally-tables';
+import { TALLY_COLUMNS, tallyRows } from '../../quant/tally-tables';
 import { KnitboneError } from '../../host/errors';
 import { printJson } from '../output';
 
@@ -12,14 +12,13 @@ export function registerTally(program: Command): void {
     .description('count the assemblage: NSP, NISP, MNE, MNI, MAU and %MAU, as recorded and after refits')
     .argument('<catalogue>', 'the catalogue file')
     .option('--json', 'print JSON')
-    .option('--csv', 'print CSV tables (summary, taxa, elements) for a spreadsheet')
+    .option('--csv', 'print the counts as one CSV table for a spreadsheet (a row per reading, taxon and element)')
     .action(async (catalogue: string, opts: { json?: boolean; csv?: boolean }) => {
       if (opts.json && opts.csv) throw new KnitboneError('usage', 'give --json or --csv, not both');
       const counts = await new Host().call('tally.counts', { catalogue });
       if (opts.json) return printJson(counts);
-      const tables = tallyTables(counts);
       if (opts.csv) {
-        process.stdout.write(tables.map((t) => stringify([t.header, ...t.rows.map((r) => r.map((v) => v ?? ''))])).join('\n'));
+        process.stdout.write(stringify([[...TALLY_COLUMNS], ...tallyRows(counts).map((r) => r.map((v) => v ?? ''))]));
         return;
       }
       const pct = (x: number) => `${(x * 100).toFixed(1)}%`;

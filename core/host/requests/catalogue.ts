@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import { z } from 'zod';
 import { exportCatalogue } from '../../catalogue/export';
+import { tallyExport } from '../counting/tally-export';
 import { importSpecimens } from '../../catalogue/import-specimens';
 import { openCatalogue, withCatalogue } from '../../catalogue/catalogue';
 import { checkSpecimenFields, checkSpecimenPatch } from '../../catalogue/specimen-input';
@@ -126,6 +127,17 @@ export const catalogueRequests = {
       ),
   }),
 
+  'specimens.delete': defineRequest({
+    summary: 'Remove a specimen entered by mistake (refused while scans or joins refer to it); history keeps the record',
+    input: z.object({ catalogue: cataloguePath, who }).strict().and(specimenRef),
+    run: (input) =>
+      withCatalogue(
+        input.catalogue,
+        (cat) => cat.specimens.remove(cat.specimens.require(input.id ?? input.catalogueNo!).id),
+        { who: input.who },
+      ),
+  }),
+
   'specimens.import': defineRequest({
     summary: 'Import specimens from a CSV file, all or nothing; with update, change existing ones (recorded in history)',
     input: z
@@ -160,9 +172,9 @@ export const catalogueRequests = {
   }),
 
   'catalogue.export': defineRequest({
-    summary: 'Write specimens.csv, joins.csv and history.csv of a catalogue into a folder',
+    summary: 'Write specimens.csv, joins.csv, history.csv and tally.csv of a catalogue into a folder',
     input: z.object({ catalogue: cataloguePath, out: z.string().trim().min(1, 'give the folder to write to') }).strict(),
-    run: (input) => withCatalogue(input.catalogue, (cat) => ({ files: exportCatalogue(cat, input.out) })),
+    run: (input) => withCatalogue(input.catalogue, (cat) => ({ files: exportCatalogue(cat, input.out, [tallyExport]) })),
   }),
 
   'history.list': defineRequest({

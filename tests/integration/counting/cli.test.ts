@@ -1,5 +1,6 @@
 import { spawnSync } from 'node:child_process';
-import { join } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli } from '../../../core/cli/main';
 import { catalogueWith, propose } from './helpers';
@@ -93,14 +94,16 @@ describe('knitbone link, accept, reject, unlink, joins, conflicts, tally', () =>
     expect((await run('unlink', c.path, String(p1))).status).toBe(0);
   });
 
-  it('tally --csv writes summary, taxa and element tables', async () => {
+  it('tally --csv writes one table with a row per reading, taxon and element; export writes the same as tally.csv', async () => {
     const r = await run('tally', c.path, '--csv');
     expect(r.status).toBe(0);
-    const tables = r.stdout.trim().split('\n\n');
-    expect(tables).toHaveLength(3);
-    expect(tables[0].split('\n')[0]).toBe('reading,nsp,nisp,nisp_fragments,identified_to_element,identified_to_taxon');
-    expect(tables[0].split('\n')).toHaveLength(3);
-    expect(tables[2].split('\n')[0]).toBe('reading,taxon,element,nisp,mne_left,mne_right,mne,mau,percent_mau,pairs');
-    expect(tables[2]).toMatch(/^recorded,Cervus elaphus,femur,1,1,0,1,0\.5,100,$/m);
+    const lines = r.stdout.trim().split('\n');
+    expect(lines[0]).toBe('level,reading,taxon,element,nsp,nisp,nisp_fragments,identified_to_element,identified_to_taxon,mni,l_plus_r_minus_p,mne_left,mne_right,mne,mau,percent_mau,pairs');
+    expect(lines).toContain('summary,recorded,,,3,2,2,0.6666666666666666,0.6666666666666666,,,,,,,,');
+    expect(lines).toContain('element,recorded,Cervus elaphus,femur,,1,,,,,,1,0,1,0.5,100,');
+    expect(lines).toContain('taxon,recorded,Bos taurus,,,1,,,,1,,,,,,,');
+    const out = join(dirname(c.path), 'export');
+    expect((await run('export', c.path, '--out', out)).status).toBe(0);
+    expect(readFileSync(join(out, 'tally.csv'), 'utf8')).toBe(r.stdout);
   });
 });

@@ -37,7 +37,8 @@ describe('knitbone init, import specimens, export', () => {
     const out = join(dir, 'out');
     const exp = run('export', cat, '--out', out, '--json');
     expect(exp.status).toBe(0);
-    expect(JSON.parse(exp.stdout).files).toHaveLength(3);
+    // specimens.csv, joins.csv, history.csv and the counting area's tally.csv
+    expect(JSON.parse(exp.stdout).files.map((f: { name: string }) => f.name).sort()).toEqual(['history.csv', 'joins.csv', 'specimens.csv', 'tally.csv']);
     expect(readFileSync(join(out, 'specimens.csv'), 'utf8')).toMatch(/^catalogue_no,unit,level,layer,x,y,z,taxon,element,side,portion/);
     expect(readFileSync(join(out, 'history.csv'), 'utf8')).toMatch(/cli tester/);
   });

@@ -72,6 +72,17 @@ describe('specimen repository and history', () => {
     cat.close();
   });
 
+  it('removes a mistaken specimen with its record kept in history, but not one that joins refer to', () => {
+    const cat = fresh();
+    const [a, b, c] = cat.specimens.insertMany([emptySpecimenFields('KB-1'), emptySpecimenFields('KB-2'), { ...emptySpecimenFields('KB-3'), unit: 'N1E1' }]);
+    cat.joins.insert({ specimenA: a.id, specimenB: b.id });
+    expect(() => cat.specimens.remove(a.id)).toThrow(/still has 1 join/);
+    cat.specimens.remove(c.id);
+    expect(cat.specimens.get(c.id)).toBeUndefined();
+    expect(cat.history.list({ entity: 'specimen', entityId: c.id }).at(-1)).toMatchObject({ action: 'delete', before: { catalogueNo: 'KB-3', unit: 'N1E1' } });
+    cat.close();
+  });
+
   it('rolls back every write of a failed transaction', () => {
     const cat = fresh();
     expect(() =>

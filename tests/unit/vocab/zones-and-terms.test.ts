@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { PORTION_ZONES, SIZE_CLASSES, ZONE_PRESENCE_THRESHOLD, builtInVocabulary as v, parseSizeClass, resolveZone, sidesCompatible, editDistance } from '../../../core/vocab';
+import { zonesCovered, PORTION_ZONES, SIZE_CLASSES, ZONE_PRESENCE_THRESHOLD, builtInVocabulary as v, parseSizeClass, resolveZone, sidesCompatible, editDistance } from '../../../core/vocab';
 
 describe('portion zones (Dobney & Rielly 1988 presence convention)', () => {
   it('has five long-bone zones from proximal to distal and the more-than-half rule', () => {
@@ -9,6 +9,12 @@ describe('portion zones (Dobney & Rielly 1988 presence convention)', () => {
     expect(resolveZone('MS')).toBe('midshaft');
     expect(resolveZone('distal epiphysis')).toBe('distal-end');
     expect(resolveZone('elbow')).toBeUndefined();
+  });
+
+  it('counts a zone only when more than half of it is present', () => {
+    // Dobney & Rielly 1988: a zone is recorded when more than 50% of it survives; exactly half does not count.
+    expect(zonesCovered({ 'proximal-shaft': 0.8, midshaft: 0.5, 'distal-shaft': 0.51, 'distal-end': 0.1 })).toEqual(['proximal-shaft', 'distal-shaft']);
+    expect(zonesCovered({})).toEqual([]);
   });
 });
 
