@@ -40,7 +40,7 @@ export function registerSpatial(program: Command): void {
     .option('--type <type>', 'only joins of this type (conjoin, conjoin-dry, articulation, pair...); repeatable', collect, [])
     .option('--taxon <taxon>', 'only joins with a specimen of this taxon; repeatable', collect, [])
     .option('--layer <layer>', 'only joins with a specimen in this layer; repeatable', collect, [])
-    .option('--figures <dir>', 'also write plan, section, histogram and rose figures as SVG into this folder')
+    .option('--figures <dir>', 'also write plan, section, histogram, rose and layer-matrix figures as SVG into this folder')
     .option('--png', 'with --figures, also write PNG copies (needs Chromium)')
     .option('--section-bearing <degrees>', 'direction of the section line, clockwise from grid north (default 90: along x)')
     .option('--section-width <metres>', 'project only what lies within this distance of the section line')
@@ -86,7 +86,7 @@ async function writeFigures(host: Host, catalogue: string, filter: { types: stri
     if (parts.length !== 2 || parts.some((p) => !Number.isFinite(p))) throw new KnitboneError('usage', `--section-origin needs x,y in metres, not "${opts.sectionOrigin}"`);
     origin = { x: parts[0], y: parts[1] };
   }
-  const kinds = ['plan', 'section', 'histogram', 'rose'] as const;
+  const kinds = ['plan', 'section', 'histogram', 'rose', 'layers'] as const;
   const svgs: string[] = [];
   for (const kind of kinds) {
     const r = await host.call('spatial.figure', {

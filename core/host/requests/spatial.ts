@@ -48,7 +48,7 @@ export const spatialRequests = {
   }),
 
   'spatial.figure': defineRequest({
-    summary: 'One figure of the refits as SVG text: plan, section, histogram of distances or rose of directions',
+    summary: 'One figure of the refits as SVG text: plan, section, histogram of distances, rose of directions or layer matrix',
     input: z
       .object({
         catalogue: cataloguePath,

@@ -1,12 +1,13 @@
 import type { SpatialAnalysis } from '../analyse';
 import type { SiteDefinitions, SpatialSpecimen } from '../types';
 import { distanceHistogram, type DistanceMeasure } from './histogram';
+import { layerMatrixFigure } from './layer-matrix';
 import { planFigure } from './plan';
 import { roseDiagram } from './rose';
 import { sectionFigure, type SectionAxis } from './section';
 
-export type FigureKind = 'plan' | 'section' | 'histogram' | 'rose';
-export const figureKinds: readonly FigureKind[] = ['plan', 'section', 'histogram', 'rose'];
+export type FigureKind = 'plan' | 'section' | 'histogram' | 'rose' | 'layers';
+export const figureKinds: readonly FigureKind[] = ['plan', 'section', 'histogram', 'rose', 'layers'];
 
 export interface FigureRequest {
   kind: FigureKind;
@@ -60,6 +61,8 @@ export function buildFigure(
       const pick = measure === 'horizontal' ? 'horizontalM' : measure === 'vertical' ? 'verticalM' : 'distance3dM';
       return distanceHistogram(analysis.joins.map((j) => j[pick]), measure, base);
     }
+    case 'layers':
+      return layerMatrixFigure(analysis.layerMatrix, analysis.perLayer, base);
     case 'rose':
       return roseDiagram(
         analysis.joins.flatMap((j) => (j.bearingDeg === null ? [] : [j.bearingDeg])),

@@ -135,7 +135,7 @@ describe('spatial analysis of a catalogue', () => {
     const doc = JSON.parse(r.stdout);
     expect(Object.keys(doc)).toEqual(expect.arrayContaining(['joins', 'summary', 'layerMatrix']));
     expect(doc.joins).toHaveLength(1);
-    expect(readdirSync(out).sort()).toEqual(['refits-histogram.svg', 'refits-plan.svg', 'refits-rose.svg', 'refits-section.svg']);
+    expect(readdirSync(out).sort()).toEqual(['refits-histogram.svg', 'refits-layers.svg', 'refits-plan.svg', 'refits-rose.svg', 'refits-section.svg']);
     const plan = readFileSync(join(out, 'refits-plan.svg'), 'utf8');
     expect(plan.match(/<line /g)?.length).toBe(1);
     expect(plan).toContain('conjoin only'); // the figure says which joins it shows

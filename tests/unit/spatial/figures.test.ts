@@ -134,6 +134,23 @@ describe('figures', () => {
   });
 });
 
+describe('layer matrix figure', () => {
+  it('shows the hand-worked matrix: one cell per pair of layers, with the count in it', () => {
+    // From the fixture joins: 1-2 A-B, 3-4 B-A, 1-3 A-B, 4-5 A-A (5 placed in layer A), 7-1 B-A;
+    // join 2-6 reaches layer B (S-2) but S-6 has no layer: not in the matrix, but it counts
+    // among the joins reaching B.
+    expect(analysis.layerMatrix).toEqual({ A: { A: 1, B: 4 }, B: { A: 4, B: 0 } });
+    const svg = buildFigure({ kind: 'layers' }, specimens, analysis, site);
+    const doc = parse(svg);
+    const matrix = doc.svg.g.find((g: { '@id'?: string }) => g['@id'] === 'matrix');
+    expect(matrix.rect).toHaveLength(4);
+    const cells = (matrix.text as { '#text': string | number }[]).map((t) => String(t['#text']));
+    // Row A: name, 1, 4, then joins 5 (1, 2, 3, 4, 6), leave 4 of 5 = 80 %, cross levels (none recorded) -;
+    // row B: name, 4, 0, then joins 5 (1, 2, 3, 5, 6), leave 4 of the 4 with a known other layer = 100 %, -.
+    expect(cells).toEqual(['A', '1', '4', '5', '80 %', '–', 'B', '4', '0', '5', '100 %', '–']);
+  });
+});
+
 describe('figure arithmetic', () => {
   it('axis steps are 1, 2 or 5 times a power of ten, giving near the asked number of intervals', () => {
     fc.assert(
