@@ -69,11 +69,6 @@ export class HistoryRepository {
     return (this.db.prepare(sql).all(...args) as HistoryRow[]).map(fromRow);
   }
 
-  /** Id of the newest entry (0 when empty): changes whenever anything is recorded. */
-  lastId(): number {
-    return (this.db.prepare('SELECT coalesce(max(id), 0) AS n FROM history').get() as { n: number }).n;
-  }
-
   count(): number {
     return (this.db.prepare('SELECT count(*) AS n FROM history').get() as { n: number }).n;
   }

@@ -1,3 +1,5 @@
+import { statSync } from 'node:fs';
+import { changeCount } from '../../catalogue/change-counter';
 import type { Catalogue } from '../../catalogue/index';
 import type { IdentificationRule } from '../../quant/identified';
 import { numberOfSpecimens } from '../../quant/nsp';
@@ -11,9 +13,10 @@ import { refitsOf, type CatalogueRefits } from './refits-of';
  * Keeps the last reading of each open catalogue (specimens, refit state, counts) in memory
  * so that accepting a join and recounting stays interactive in a long-running shell (the
  * app, the loopback server). An entry is valid while the catalogue's stamp is unchanged:
- * the newest history id (every write through the repositories records history) and the
- * number of specimens. Our own decisions update the entry in place and take the new stamp
- * after they commit; anything else that writes makes the next request read afresh.
+ * the file (its inode) and its change counter (migration 0010: triggers count every change
+ * to specimens, joins, vocabulary terms and settings, by any program). Our own decisions
+ * update the entry in place and take the new stamp after they commit; any other change
+ * makes the next request read afresh.
  */
 interface Entry {
   stamp: string;
@@ -28,7 +31,7 @@ const entries = new Map<string, Entry>();
 const MAX_ENTRIES = 4;
 
 function stampOf(cat: Catalogue): string {
-  return `${cat.history.lastId()}/${cat.specimens.count()}`;
+  return `${statSync(cat.path).ino}/${changeCount(cat)}`;
 }
 
 /** The catalogue's refits, read afresh only when something changed since the last call. */

@@ -1,3 +1,4 @@
+import Database from 'better-sqlite3';
 import { afterEach, describe, expect, it } from 'vitest';
 import { Host } from '../../../core/host/host';
 import { KnitboneError } from '../../../core/host/errors';
@@ -153,5 +154,14 @@ describe('joins through the host API', () => {
     expect(t.recorded.nisp).toBe(1);
     expect(t.recorded.identifiedToTaxon).toBe(0.5);
     await expect(host.call('tally.identificationRank', { catalogue: path, rank: 'kingdom' as never })).rejects.toMatchObject({ kind: 'bad-input' });
+  });
+
+  it('an edit made with another SQLite tool is counted at once (change counter, migration 0010)', async () => {
+    const path = fresh([{ catalogueNo: 'E-1', taxon: 'Mammalia', element: 'femur' }]);
+    expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(0);
+    const outside = new Database(path);
+    outside.prepare(`UPDATE specimen SET taxon = 'Cervus elaphus' WHERE catalogue_no = 'E-1'`).run();
+    outside.close();
+    expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(1);
   });
 });
