@@ -5,6 +5,7 @@ import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { reviewRequests } from './review';
 import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
@@ -22,6 +23,7 @@ export const requests = {
   ...spatialRequests,
   ...vocabularyRequests,
   ...viewerRequests,
+  ...reviewRequests,
 };
 
 export type Requests = typeof requests;
