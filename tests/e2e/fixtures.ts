@@ -63,3 +63,20 @@ export async function linkScan(catalogue: string, catalogueNo: string, path: str
     cat.close();
   }
 }
+
+/**
+ * Store a proposed join as the proposal run would (test setup only): B's scan placed on A's
+ * by a 4x4 row-major transform in mm, with a score and its parts.
+ */
+export async function proposeJoin(catalogue: string, a: string, b: string, transform: number[], score: number, parts: Record<string, number>): Promise<number> {
+  const { openCatalogue } = await import('../../core/catalogue/catalogue');
+  const cat = openCatalogue(catalogue);
+  try {
+    const sa = cat.specimens.require(a);
+    const sb = cat.specimens.require(b);
+    const j = cat.joins.insert({ specimenA: sa.id, specimenB: sb.id, status: 'proposed', transform, score, scoreComponents: parts, methodVersion: 'test' });
+    return j.id;
+  } finally {
+    cat.close();
+  }
+}

@@ -6,6 +6,7 @@ import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
 import { spatialRequests } from './spatial';
+import { reviewRequests } from './review';
 import { viewerRequests } from './viewer';
 import { vocabularyRequests } from './vocabulary';
 
@@ -24,6 +25,7 @@ export const requests = {
   ...spatialRequests,
   ...vocabularyRequests,
   ...viewerRequests,
+  ...reviewRequests,
 };
 
 export type Requests = typeof requests;

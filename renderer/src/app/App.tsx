@@ -8,7 +8,7 @@ import { ReviewScreen } from '../screens/review/ReviewScreen';
 import { SpecimenScreen } from '../screens/specimen/SpecimenScreen';
 import { Problems } from './Problems';
 import { applyTheme, initialTheme, type ThemeName } from './theme';
-import { WorkspaceContext, type ScreenName, type Workspace } from './workspace';
+import { WorkspaceContext, type ReviewDecision, type ScreenName, type Workspace } from './workspace';
 
 const SCREENS: Array<{ name: ScreenName; label: string; key: string }> = [
   { name: 'catalogue', label: 'Catalogue', key: '1' },
@@ -29,6 +29,7 @@ export function App({ client }: { client: ApiClient }) {
   const [screen, setScreen] = useState<ScreenName>('catalogue');
   const [specimen, setSpecimen] = useState<number | null>(null);
   const [revision, setRevision] = useState(0);
+  const [decisions, setDecisions] = useState<ReviewDecision[]>([]);
   const [status, setStatus] = useState<{ message: string; tone: 'info' | 'error' } | null>(null);
 
   useEffect(() => applyTheme(theme), [theme]);
@@ -72,8 +73,10 @@ export function App({ client }: { client: ApiClient }) {
       has: (name) => names.has(name),
       say: (message, tone = 'info') => setStatus({ message, tone }),
       open,
+      decisions,
+      setDecisions,
     };
-  }, [client, session, catalogue, revision, open]);
+  }, [client, session, catalogue, revision, open, decisions]);
 
   if (error) return <main className="fatal"><Problems error={error} /></main>;
   if (!session) return <main className="fatal" aria-busy="true">Opening knitbone...</main>;
@@ -86,6 +89,7 @@ export function App({ client }: { client: ApiClient }) {
         current={catalogue}
         onOpen={(path) => {
           localStorage.setItem(CAUTIONS_KEY, 'yes');
+          if (path !== catalogue) setDecisions([]);
           setCatalogue(path);
           setShowStart(false);
           setScreen('catalogue');

@@ -15,6 +15,14 @@ export interface Workspace {
   /** Show a short message in the status line. */
   say(message: string, tone?: 'info' | 'error'): void;
   open(screen: ScreenName, specimen?: number): void;
+  /** Review decisions taken in this session, newest last, kept across screens for undo. */
+  decisions: ReviewDecision[];
+  setDecisions(update: (d: ReviewDecision[]) => ReviewDecision[]): void;
+}
+
+export interface ReviewDecision {
+  kind: 'accept' | 'reject';
+  join: { id: number; a: string; b: string };
 }
 
 export type ScreenName = 'catalogue' | 'specimen' | 'review' | 'refits' | 'counts';

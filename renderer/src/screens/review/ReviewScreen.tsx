@@ -12,7 +12,6 @@ import type { SpecimenRecord } from '../catalogue/specimen-view';
 import { CountsPanel } from './CountsPanel';
 import { JOIN_TYPE_CHOICES, previewSentences, queueOrder, type Conflict, type JoinPreview, type JoinTypeChoice, type JoinView } from './review-model';
 
-type Decision = { kind: 'accept' | 'reject'; join: JoinView };
 
 /**
  * Join review: proposals best first; the two fragments in the proposed alignment with a
@@ -27,7 +26,7 @@ export function ReviewScreen() {
   const [position, setPosition] = useState(0);
   const [type, setType] = useState<JoinTypeChoice>('conjoin-green');
   const [error, setError] = useState<unknown>(null);
-  const [decisions, setDecisions] = useState<Decision[]>([]);
+  const { decisions, setDecisions } = ws;
   const [busy, setBusy] = useState(false);
   const [pull, setPull] = useState(0);
   const [showGaps, setShowGaps] = useState(true);

@@ -7,6 +7,7 @@ import { SURFACE } from '../../viewer/colours';
 import { ScanViewer, type ViewerPart } from '../../viewer/ScanViewer';
 import { useScanMesh } from '../../viewer/use-scan-mesh';
 import { cellText, type SpecimenRecord } from '../catalogue/specimen-view';
+import { useSpecimenIndex } from '../catalogue/use-specimen-index';
 
 interface Derived {
   field: 'taxon' | 'element' | 'side';
@@ -67,6 +68,8 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
   const [selectedFace, setSelectedFace] = useState<{ part: string; face: number } | null>(null);
   const { mesh, error: meshError, available: meshAvailable, loading } = useScanMesh(detail && detail.scans.length ? specimenId : null);
   const historyRequest = ['history.list', 'specimens.history'].find((n) => ws.has(n));
+  const index = useSpecimenIndex();
+  const numberOf = (id: number): string => [...(index?.values() ?? [])].find((x) => x.id === id)?.catalogueNo ?? `#${id}`;
 
   useEffect(() => {
     if (specimenId === null) return;
@@ -173,7 +176,7 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
                     <span className={`status-chip ${j.status}`}>{j.status}</span> #{j.id} {j.type ?? ''}
                     {j.breakAge ? ` (${j.breakAge} break)` : ''} with specimen{' '}
                     <button type="button" className="link" onClick={() => ws.open('specimen', j.specimenA === s.id ? j.specimenB : j.specimenA)}>
-                      {j.specimenA === s.id ? j.specimenB : j.specimenA}
+                      {numberOf(j.specimenA === s.id ? j.specimenB : j.specimenA)}
                     </button>
                     {j.score !== null && <span className="hint"> · score {j.score.toFixed(2)}</span>}
                     {j.decidedBy && <span className="hint"> · {j.decidedBy}, {j.decidedAt?.slice(0, 10)}</span>}
