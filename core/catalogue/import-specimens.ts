@@ -46,6 +46,9 @@ interface Row {
   ok: boolean;
 }
 
+/** Unknown terms in one file that get "closest known" suggestions; later ones are reported without. */
+export const SUGGESTION_BUDGET = 500;
+
 const utf8 = new TextDecoder('utf-8', { fatal: true });
 
 /** Decode bytes as UTF-8 (with or without a byte-order mark); refuse anything else. */
@@ -135,6 +138,7 @@ export function readSpecimenCsv(
 
   // Rows
   const rows: Row[] = [];
+  const budget = { remaining: SUGGESTION_BUDGET };
   const firstLineOf = new Map<string, number>();
   for (const r of records.slice(1)) {
     const line = startLine(r);
@@ -146,7 +150,7 @@ export function readSpecimenCsv(
     columns.forEach((field, i) => {
       if (field) values[field] = r.record[i] ?? '';
     });
-    const { fields, problems: fieldProblems } = normaliseSpecimenValues(values, vocab);
+    const { fields, problems: fieldProblems } = normaliseSpecimenValues(values, vocab, budget);
     for (const p of fieldProblems) problems.push({ file, line, column: columnOfField(p.field), message: p.message });
     if (!fieldProblems.some((p) => p.field === 'element' || p.field === 'portion')) {
       for (const p of checkSpecimenConsistency({ ...emptySpecimenFields(''), ...fields }, vocab)) {

@@ -56,8 +56,23 @@ function didYouMean(suggestions: string[]): string {
   return suggestions.length ? `; closest known: ${suggestions.map((s) => `"${s}"`).join(', ')}` : '';
 }
 
+/**
+ * How many "closest known" suggestions may still be computed. Suggestions cost an edit
+ * distance against every spelling; a 10,000-row file with a shifted column would
+ * otherwise spend seconds on them. Past the budget, problems are still reported, without
+ * suggestions.
+ */
+export interface SuggestionBudget {
+  remaining: number;
+}
+
 /** Normalise the fields present in `raw` (absent fields are left out of the result). */
-export function normaliseSpecimenValues(raw: RawSpecimen, vocab: Vocabulary): Normalised {
+export function normaliseSpecimenValues(raw: RawSpecimen, vocab: Vocabulary, budget: SuggestionBudget = { remaining: Infinity }): Normalised {
+  const suggest = (list: { suggest(typed: string): string[] }, typed: string): string[] => {
+    if (budget.remaining <= 0) return [];
+    budget.remaining--;
+    return list.suggest(typed);
+  };
   const fields: Partial<SpecimenFields> = {};
   const problems: FieldProblem[] = [];
   const has = (f: SpecimenField) => Object.prototype.hasOwnProperty.call(raw, f) && raw[f] !== undefined;
@@ -99,7 +114,7 @@ export function normaliseSpecimenValues(raw: RawSpecimen, vocab: Vocabulary): No
     else {
       const t = vocab.taxa.resolve(asText(raw.taxon));
       if (t) fields.taxon = t;
-      else problems.push({ field: 'taxon', message: `unknown taxon "${asText(raw.taxon).trim()}"${didYouMean(vocab.taxa.suggest(asText(raw.taxon)))} (add new taxa to the catalogue's vocabulary)` });
+      else problems.push({ field: 'taxon', message: `unknown taxon "${asText(raw.taxon).trim()}"${didYouMean(suggest(vocab.taxa, asText(raw.taxon)))} (add new taxa to the catalogue's vocabulary)` });
     }
   }
   if (has('element')) {
@@ -107,7 +122,7 @@ export function normaliseSpecimenValues(raw: RawSpecimen, vocab: Vocabulary): No
     else {
       const e = vocab.elements.resolve(asText(raw.element));
       if (e) fields.element = e;
-      else problems.push({ field: 'element', message: `unknown element "${asText(raw.element).trim()}"${didYouMean(vocab.elements.suggest(asText(raw.element)))} (add new elements to the catalogue's vocabulary)` });
+      else problems.push({ field: 'element', message: `unknown element "${asText(raw.element).trim()}"${didYouMean(suggest(vocab.elements, asText(raw.element)))} (add new elements to the catalogue's vocabulary)` });
     }
   }
   if (has('side')) {
@@ -139,7 +154,7 @@ export function normaliseSpecimenValues(raw: RawSpecimen, vocab: Vocabulary): No
     for (const item of listItems(raw.modifications)) {
       const m = vocab.modifications.resolve(item);
       if (m) { if (!out.includes(m)) out.push(m); }
-      else problems.push({ field: 'modifications', message: `unknown modification "${item}"${didYouMean(vocab.modifications.suggest(item))}` });
+      else problems.push({ field: 'modifications', message: `unknown modification "${item}"${didYouMean(suggest(vocab.modifications, item))}` });
     }
     fields.modifications = out;
   }

@@ -17,7 +17,8 @@ export function joinKind(type: string, breakAge: string | null | undefined): str
 export interface JoinFilter {
   /**
    * Join types to keep. A label keeps that type and its subtypes: "conjoin" keeps every
-   * conjoin; "conjoin-dry" keeps conjoins across dry breaks only (type plus break age).
+   * conjoin; "conjoin-dry" keeps conjoins across dry breaks only (type plus break age);
+   * "conjoin-green" is a synonym of "conjoin-fresh" (a green break is a fresh one).
    */
   types?: string[];
   /** Keep joins where either specimen has one of these taxa (exact labels). */
@@ -38,7 +39,8 @@ export function joinPasses(
 ): boolean {
   if (f.types?.length) {
     const full = joinKind(join.type, join.breakAge);
-    if (!f.types.some((t) => join.type === t || full === t || join.type.startsWith(`${t}-`))) return false;
+    const wanted = f.types.map((t) => (t === 'conjoin-green' ? 'conjoin-fresh' : t));
+    if (!wanted.some((t) => join.type === t || full === t || join.type.startsWith(`${t}-`))) return false;
   }
   const either = (pick: (s: SpatialSpecimen) => string | null, wanted: string[]) =>
     [a, b].some((s) => s !== undefined && pick(s) !== null && wanted.includes(pick(s) as string));

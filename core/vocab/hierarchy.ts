@@ -24,6 +24,7 @@ export class Hierarchy<N extends HierarchyNode = HierarchyNode> {
   private readonly byKey = new Map<string, string>();
   private readonly depthOf = new Map<string, number>();
   private readonly resolved = new Map<string, string | undefined>();
+  private readonly suggested = new Map<string, string[]>();
 
   constructor(nodes: readonly N[], readonly kind: string) {
     for (const n of nodes) {
@@ -80,7 +81,13 @@ export class Hierarchy<N extends HierarchyNode = HierarchyNode> {
 
   /** Closest canonical terms to an unknown spelling, for "did you mean" messages. */
   suggest(typed: string, limit = 3): string[] {
-    return closestTerms(typed, this.byKey.entries(), limit);
+    const key = `${limit}\u0000${typed}`;
+    let found = this.suggested.get(key);
+    if (!found) {
+      found = closestTerms(typed, this.byKey.entries(), limit);
+      if (this.suggested.size < 10_000) this.suggested.set(key, found);
+    }
+    return [...found];
   }
 
   parentOf(name: string): string | null {

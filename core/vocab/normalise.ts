@@ -46,13 +46,16 @@ export function closestTerms(typed: string, spellings: Iterable<[key: string, ca
   const key = termKey(typed);
   if (!key) return [];
   const best = new Map<string, number>();
+  const maxD = Math.max(2, Math.ceil(key.length / 3));
   for (const [k, canonical] of spellings) {
-    let d = editDistance(key, k);
-    if (k.startsWith(key) || key.startsWith(k)) d = Math.min(d, Math.abs(k.length - key.length) * 0.25 + 0.5);
+    const prefix = k.startsWith(key) || key.startsWith(k);
+    // The distance is at least the difference in length: skip what cannot come close.
+    if (!prefix && Math.abs(k.length - key.length) > maxD) continue;
+    let d = prefix ? Math.abs(k.length - key.length) : editDistance(key, k);
+    if (prefix) d = Math.min(d, Math.abs(k.length - key.length) * 0.25 + 0.5);
     const old = best.get(canonical);
     if (old === undefined || d < old) best.set(canonical, d);
   }
-  const maxD = Math.max(2, Math.ceil(key.length / 3));
   return [...best.entries()]
     .filter(([, d]) => d <= maxD)
     .sort((x, y) => x[1] - y[1] || x[0].localeCompare(y[0]))

@@ -26,6 +26,7 @@ export interface UserTerm {
 export class TermList {
   private readonly index: Map<string, string>;
   private readonly resolved = new Map<string, string | undefined>();
+  private readonly suggested = new Map<string, string[]>();
   readonly terms: readonly string[];
 
   constructor(readonly kind: string, list: readonly FlatTerm[]) {
@@ -41,7 +42,13 @@ export class TermList {
   }
 
   suggest(typed: string, limit = 3): string[] {
-    return closestTerms(typed, this.index.entries(), limit);
+    const key = `${limit}\u0000${typed}`;
+    let found = this.suggested.get(key);
+    if (!found) {
+      found = closestTerms(typed, this.index.entries(), limit);
+      if (this.suggested.size < 10_000) this.suggested.set(key, found);
+    }
+    return [...found];
   }
 
   has(term: string): boolean {

@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { openCatalogue, type Catalogue } from '../../../core/catalogue/catalogue';
 import { exportCatalogue, specimensCsv } from '../../../core/catalogue/export';
-import { detectDelimiter, importSpecimens } from '../../../core/catalogue/import-specimens';
+import { SUGGESTION_BUDGET, detectDelimiter, importSpecimens } from '../../../core/catalogue/import-specimens';
 import { KnitboneError } from '../../../core/host/errors';
 import { emptySpecimenFields } from '../../../core/catalogue/records';
 import { tempDir } from './helpers';
@@ -100,6 +100,16 @@ describe('specimen CSV import', () => {
     expect(problemsOf(cat, 'catalogue_no,unit\nA,N1,extra\n')[0]).toMatch(/line 2, .*3 cells but the header has 2/);
     expect(problemsOf(cat, new Uint8Array([0x63, 0x61, 0x74, 0xff, 0xfe, 0x0a]))[0]).toMatch(/not UTF-8/);
     expect(cat.specimens.count()).toBe(0);
+  });
+
+  it('reports every unknown term of a large bad file, with suggestions for the first ones', () => {
+    const cat = fresh();
+    const rows = Array.from({ length: SUGGESTION_BUDGET + 50 }, (_, i) => `Q-${i},Cervus elaphis ${i}`);
+    const problems = problemsOf(cat, ['catalogue_no,taxon', ...rows].join('\n'));
+    expect(problems).toHaveLength(SUGGESTION_BUDGET + 50);
+    expect(problems[0]).toMatch(/^line 2, column taxon: .*closest known: .*"Cervus elaphus"/);
+    expect(problems.at(-1)).toMatch(new RegExp(`^line ${SUGGESTION_BUDGET + 51}, column taxon: unknown taxon`));
+    expect(problems.at(-1)).not.toMatch(/closest known/);
   });
 
   it('counts lines from the start of a row even after a quoted cell with line breaks', () => {

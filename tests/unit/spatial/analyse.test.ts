@@ -150,6 +150,7 @@ describe('analyseRefits', () => {
     expect(ids({})).toEqual([1, 2, 3, 4]);
     expect(ids({ types: ['conjoin'] })).toEqual([1, 2]);
     expect(ids({ types: ['conjoin-dry'] })).toEqual([2]);
+    expect(ids({ types: ['conjoin-green'] })).toEqual([1]); // green break = fresh break (common practice)
     expect(ids({ types: ['conj'] })).toEqual([]);
     expect(ids({ taxa: ['Bos taurus'] })).toEqual([2, 3, 4]);
     expect(ids({ layers: ['C'] })).toEqual([2, 4]);

@@ -165,3 +165,24 @@ describe('knitbone import site', () => {
     expect(bad.stderr).toMatch(/missing\.csv/);
   });
 });
+
+describe('spatial analysis after joins recorded with knitbone link', () => {
+  it('measures a join linked by hand', () => {
+    const file = join(temp(), 'linked.sqlite');
+    const cat = openCatalogue(file, { create: true, who: 'test' });
+    cat.specimens.insertMany([
+      { ...emptySpecimenFields('KB-1'), x: 0, y: 0, z: 1.2, taxon: 'Cervus elaphus' },
+      { ...emptySpecimenFields('KB-2'), x: 3, y: 4, z: 1.05, taxon: 'Cervus elaphus' },
+    ]);
+    cat.close();
+    // KB-2 (3, 4, 1.05) -> KB-1 (0, 0, 1.20): 5 m, 0.15 m, bearing atan2(-3, -4) = 216.87 deg.
+    const linked = run('link', file, 'KB-2', 'KB-1', '--type', 'conjoin-green', '--json');
+    expect(linked.stderr).toBe('');
+    expect(linked.status).toBe(0);
+    const r = run('spatial', file, '--json', '--type', 'conjoin-green');
+    expect(r.status).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.joins).toHaveLength(1);
+    expect(doc.joins[0]).toMatchObject({ a: 'KB-2', b: 'KB-1', type: 'conjoin', breakAge: 'fresh', horizontalM: 5, verticalM: 0.15, bearingDeg: 216.87 });
+  });
+});
