@@ -119,8 +119,16 @@ export const joinsRequests = {
           const a = cat.specimens.require(input.a);
           const b = cat.specimens.require(input.b);
           if (a.id === b.id) throw new KnitboneError('bad-input', [{ field: 'b', message: 'a specimen cannot join itself; give two catalogue numbers' }]);
-          const already = cat.joins.list({ specimenId: a.id, status: 'accepted' }).find((j) => j.specimenA === b.id || j.specimenB === b.id);
+          const between = cat.joins.list({ specimenId: a.id }).filter((j) => j.specimenA === b.id || j.specimenB === b.id);
+          const already = between.find((j) => j.status === 'accepted');
           if (already) throw new KnitboneError('conflict', `${a.catalogueNo} and ${b.catalogueNo} are already joined (join ${already.id})`);
+          const proposed = between.find((j) => j.status === 'proposed');
+          if (proposed) {
+            throw new KnitboneError(
+              'conflict',
+              `join ${proposed.id} already proposes ${a.catalogueNo} + ${b.catalogueNo}; accept it instead (knitbone accept <catalogue> ${proposed.id} --type ${input.type})`,
+            );
+          }
           const who = input.by ?? cat.who;
           const conflicts = refits.state.check({ id: 0, a: a.catalogueNo, b: b.catalogueNo, type: input.type });
           if (conflicts.length && !input.force) refuseConflicts(conflicts, `the ${input.type} of ${a.catalogueNo} and ${b.catalogueNo}`);
@@ -237,6 +245,35 @@ export const joinsRequests = {
           return { result: { ...decision(join, after, [], syncDerived(cat, after, who, affected)), removed }, refits: after };
         }),
       ),
+  }),
+
+  'joins.check': defineRequest({
+    summary: 'The conflicts a join would raise if accepted now (by join id, or for two catalogue numbers and a type)',
+    input: z
+      .object({
+        catalogue: cataloguePath,
+        id: joinId.optional(),
+        a: z.string().trim().min(1).optional(),
+        b: z.string().trim().min(1).optional(),
+        type: joinType.optional(),
+      })
+      .strict()
+      .refine((x) => x.id !== undefined || (x.a !== undefined && x.b !== undefined && x.type !== undefined), {
+        message: 'give a join id, or two catalogue numbers and a type',
+      }),
+    run: (input) =>
+      withCatalogue(input.catalogue, (cat): { conflicts: Conflict[] } => {
+        const refits = refitsFor(cat);
+        if (input.id !== undefined) {
+          const j = cat.joins.require(input.id);
+          const join = { ...refitJoinOf(j, refits.byId), type: input.type ?? writtenKind(j) ?? 'conjoin' };
+          if (j.status === 'accepted') return { conflicts: [...refits.state.conflictsOf(j.id)] };
+          return { conflicts: refits.state.check(join) };
+        }
+        const a = cat.specimens.require(input.a!).catalogueNo;
+        const b = cat.specimens.require(input.b!).catalogueNo;
+        return { conflicts: refits.state.check({ id: 0, a, b, type: input.type! }) };
+      }),
   }),
 
   'joins.list': defineRequest({

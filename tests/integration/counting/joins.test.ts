@@ -122,6 +122,12 @@ describe('joins through the host API', () => {
     const conflicts = await host.call('joins.conflicts', { catalogue: path });
     expect(conflicts.map((c) => c.id)).toEqual([bad]);
     expect(conflicts[0].conflicts.map((c) => c.field).sort()).toEqual(['side', 'zones']);
+    // the review screen asks before deciding
+    expect((await host.call('joins.check', { catalogue: path, id: good })).conflicts).toEqual([]);
+    expect((await host.call('joins.check', { catalogue: path, id: bad })).conflicts.map((c) => c.field).sort()).toEqual(['side', 'zones']);
+    expect((await host.call('joins.check', { catalogue: path, a: 'K-2', b: 'K-4', type: 'pair' })).conflicts).toEqual([]);
+    // a proposal between the same two specimens is accepted, not linked a second time
+    await expect(host.call('joins.link', { catalogue: path, a: 'K-2', b: 'K-1', type: 'conjoin-green' })).rejects.toMatchObject({ kind: 'conflict' });
     const r = await host.call('joins.reject', { catalogue: path, id: good, by: 'A. Analyst' });
     expect(r.join.status).toBe('rejected');
     expect(readBack(path).derived).toEqual([]);
