@@ -1,5 +1,6 @@
 import type { Command } from 'commander';
 import { registerAbout } from './about';
+import { registerDemo } from './demo';
 import { registerImportScans } from './import-scans';
 import { registerInit } from './init';
 import { registerMatch } from './match';
@@ -25,6 +26,7 @@ import { registerSpatial } from './spatial';
  */
 export const commandRegistrations: Array<(program: Command) => void> = [
   registerAbout,
+  registerDemo,
   registerInit,
   registerMatch,
   registerPropose,

@@ -1,4 +1,5 @@
 import { appRequests } from './app';
+import { demoRequests } from './demo';
 import { joinsRequests } from './joins';
 import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
@@ -15,6 +16,7 @@ import { vocabularyRequests } from './vocabulary';
  */
 export const requests = {
   ...appRequests,
+  ...demoRequests,
   ...joinsRequests,
   ...tallyRequests,
   ...catalogueRequests,

@@ -1,0 +1,213 @@
+import type { BoneShape } from './bone-shape';
+import { smoothstep } from './bone-shape';
+import { orientOutwards, type TriangleMesh } from './mesh';
+import type { Roughness } from './noise';
+
+/**
+ * Cut bodies: closed meshes whose boundary, where it passes through bone, is a rough fracture
+ * surface. Splitting a piece of bone with a cut body (inside and outside) gives the two sides of
+ * one break, which are then the same surface seen from both sides.
+ */
+
+export type Vec3 = [number, number, number];
+
+/** A local frame on the shaft: origin on the axis, t along the axis, u and v across it. */
+export interface AxisFrame {
+  origin: Vec3;
+  t: Vec3;
+  u: Vec3;
+  v: Vec3;
+}
+
+export function axisFrame(origin: Vec3, t: Vec3): AxisFrame {
+  // u: the bone frame's x direction made perpendicular to t.
+  let u: Vec3 = [1 - t[0] * t[0], -t[0] * t[1], -t[0] * t[2]];
+  const n = Math.hypot(u[0], u[1], u[2]);
+  u = [u[0] / n, u[1] / n, u[2] / n];
+  const v: Vec3 = [t[1] * u[2] - t[2] * u[1], t[2] * u[0] - t[0] * u[2], t[0] * u[1] - t[1] * u[0]];
+  return { origin, t, u, v };
+}
+
+function place(f: AxisFrame, r: number, phi: number, h: number, out: Float32Array, o: number): void {
+  const c = r * Math.cos(phi);
+  const s = r * Math.sin(phi);
+  out[o] = f.origin[0] + c * f.u[0] + s * f.v[0] + h * f.t[0];
+  out[o + 1] = f.origin[1] + c * f.u[1] + s * f.v[1] + h * f.t[1];
+  out[o + 2] = f.origin[2] + c * f.u[2] + s * f.v[2] + h * f.t[2];
+}
+
+/**
+ * A break across the shaft. Its surface is a height field over the cross-section plane at
+ * `z`: height(r, θ) along the local axis. The body is everything distal of the surface.
+ */
+export interface RingBreakGeometry {
+  z: number;
+  /** Height (mm) of the fracture front at angle θ on the mid-cortex radius. */
+  outline: (theta: number) => number;
+  /** Planar-like surface through the axis (usable in solid bone) or a free one (hollow shaft only). */
+  planar: boolean;
+  /** Axial bevel dH/dr: tilts the face against the cortical surface (0: right angle). */
+  bevel: number;
+  /** Angular bevel (radians across one mean radius): turns the front with depth, for oblique faces on steep parts. */
+  twistBevel: number;
+  roughness: Roughness;
+  /** Range of outline(θ) values, for clearances. */
+  outlineMin: number;
+  outlineMax: number;
+}
+
+export function ringBreakBody(shape: BoneShape, g: RingBreakGeometry, resolution: number): TriangleMesh {
+  const c = shape.center(g.z);
+  const frame = axisFrame([c[0], c[1], g.z], shape.tangent(g.z));
+  const zlo = g.z + g.outlineMin - 8;
+  const zhi = g.z + g.outlineMax + 8;
+  const rMean = shape.shaftRadius(g.z) - shape.cortical(g.z) / 2;
+  const rClamp = shape.maxOuterRadius(Math.max(0, zlo), Math.min(shape.length, zhi)) + 3;
+  const rBig = shape.maxOuterRadius(0, shape.length) + 40;
+  const hTop = shape.length + 250;
+  const hollow = !g.planar;
+  const rInner = hollow ? shape.minInnerRadius(Math.max(shape.cavityStart, zlo), Math.min(shape.cavityEnd, zhi)) : 0;
+  const rBlend = hollow ? rInner * 0.75 : 0;
+  const outlineMean = hollow ? (g.outlineMin + g.outlineMax) / 2 : 0;
+
+  const height = (r: number, theta: number): number => {
+    const rc = Math.min(r, rClamp);
+    const th = theta + (g.twistBevel * (rc - rMean)) / rMean;
+    let h: number;
+    if (g.planar) h = (g.outline(th) * rc) / rMean + g.bevel * (rc - rMean);
+    else h = g.outline(th) + g.bevel * (rc - rMean);
+    h += g.roughness.at(rc * Math.cos(theta), rc * Math.sin(theta));
+    if (hollow && r < rBlend) {
+      const w = smoothstep(r / rBlend);
+      h = outlineMean * (1 - w) + h * w;
+    }
+    return h;
+  };
+
+  // Angles: spaced by arc length of the front on the mid-cortex, so steep parts get more samples.
+  const fine = 4096;
+  const arc = new Float64Array(fine + 1);
+  let prev = g.outline(0);
+  for (let i = 1; i <= fine; i++) {
+    const th = (2 * Math.PI * i) / fine;
+    const h = g.outline(th);
+    arc[i] = arc[i - 1] + Math.hypot((rClamp * 2 * Math.PI) / fine, h - prev);
+    prev = h;
+  }
+  const nTheta = Math.max(32, Math.ceil(arc[fine] / resolution));
+  const thetas = new Float64Array(nTheta);
+  for (let j = 0, i = 0; j < nTheta; j++) {
+    const target = (arc[fine] * j) / nTheta;
+    while (arc[i + 1] < target) i++;
+    const f = (target - arc[i]) / (arc[i + 1] - arc[i] || 1);
+    thetas[j] = (2 * Math.PI * (i + f)) / fine;
+  }
+
+  const radii: number[] = [];
+  const rDense0 = hollow ? rBlend : resolution;
+  if (hollow) radii.push(rBlend * 0.5);
+  const nDense = Math.ceil((rClamp + 2 - rDense0) / resolution);
+  for (let i = 0; i <= nDense; i++) radii.push(rDense0 + ((rClamp + 2 - rDense0) * i) / nDense);
+  radii.push(rClamp + 8, rBig);
+  const nR = radii.length;
+
+  // vertices: centre, nR rings of nTheta (bottom), a top ring of nTheta, a top centre
+  const nv = 1 + nR * nTheta + nTheta + 1;
+  const positions = new Float32Array(nv * 3);
+  place(frame, 0, 0, height(0, 0), positions, 0);
+  for (let k = 0; k < nR; k++) {
+    for (let j = 0; j < nTheta; j++) {
+      place(frame, radii[k], thetas[j], height(radii[k], thetas[j]), positions, (1 + k * nTheta + j) * 3);
+    }
+  }
+  const top0 = 1 + nR * nTheta;
+  for (let j = 0; j < nTheta; j++) place(frame, rBig, thetas[j], hTop, positions, (top0 + j) * 3);
+  const topC = top0 + nTheta;
+  place(frame, 0, 0, hTop, positions, topC * 3);
+
+  const tris: number[] = [];
+  const ring = (k: number, j: number) => 1 + k * nTheta + (j % nTheta);
+  for (let j = 0; j < nTheta; j++) tris.push(0, ring(0, j + 1), ring(0, j));
+  for (let k = 0; k < nR - 1; k++) {
+    for (let j = 0; j < nTheta; j++) {
+      const a = ring(k, j), b = ring(k, j + 1), cc = ring(k + 1, j + 1), d = ring(k + 1, j);
+      tris.push(a, b, cc, a, cc, d);
+    }
+  }
+  for (let j = 0; j < nTheta; j++) {
+    const a = ring(nR - 1, j), b = ring(nR - 1, j + 1);
+    const ta = top0 + j, tb = top0 + ((j + 1) % nTheta);
+    tris.push(a, b, tb, a, tb, ta);
+    tris.push(topC, ta, tb);
+  }
+  return orientOutwards({ positions, triangles: Uint32Array.from(tris) });
+}
+
+/**
+ * A wedge along a stretch of shaft, between two surfaces given as angle(r, ζ) about the
+ * segment's chord: cuts a splinter out of a hollow shaft segment. r runs from inside the
+ * medullary cavity to well outside the bone, ζ past both ends of the segment.
+ */
+export interface WedgeGeometry {
+  frame: AxisFrame;
+  zetaLo: number;
+  zetaHi: number;
+  rInside: number;
+  rBand: readonly [number, number];
+  rOutside: number;
+  lower: (r: number, zeta: number) => number;
+  upper: (r: number, zeta: number) => number;
+  /** Roughens the two ends of the wedge, where they cross bone. */
+  capRoughness?: { at(x: number, y: number): number };
+}
+
+export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
+  const width = Math.abs(g.upper(g.rBand[1], 0) - g.lower(g.rBand[1], 0));
+  const nA = Math.max(6, Math.ceil((width * g.rBand[1]) / resolution));
+  const radii: number[] = [g.rInside];
+  const nBand = Math.ceil((g.rBand[1] - g.rBand[0]) / resolution);
+  for (let i = 0; i <= nBand; i++) radii.push(g.rBand[0] + ((g.rBand[1] - g.rBand[0]) * i) / nBand);
+  radii.push(g.rOutside);
+  const nZ = Math.ceil((g.zetaHi - g.zetaLo) / resolution);
+  const K = radii.length - 1;
+  const index = new Map<number, number>();
+  const pos: number[] = [];
+  const tmp = new Float32Array(3);
+  const vid = (i: number, k: number, l: number): number => {
+    const key = (i * (K + 1) + k) * (nZ + 1) + l;
+    let id = index.get(key);
+    if (id === undefined) {
+      const r = radii[k];
+      let zeta = g.zetaLo + ((g.zetaHi - g.zetaLo) * l) / nZ;
+      const lo = g.lower(r, zeta);
+      const hi = g.upper(r, zeta);
+      const phi = lo + ((hi - lo) * i) / nA;
+      if (g.capRoughness && (l === 0 || l === nZ)) zeta += g.capRoughness.at(r * Math.cos(phi) + l, r * Math.sin(phi));
+      place(g.frame, r, phi, zeta, tmp, 0);
+      id = pos.length / 3;
+      pos.push(tmp[0], tmp[1], tmp[2]);
+      index.set(key, id);
+    }
+    return id;
+  };
+  const tris: number[] = [];
+  const quad = (p0: number, p1: number, p2: number, p3: number) => tris.push(p0, p1, p2, p0, p2, p3);
+  // param box (x = i along the angle, y = k along r, z = l along ζ), outward winding per face
+  for (let k = 0; k < K; k++) {
+    for (let l = 0; l < nZ; l++) {
+      quad(vid(0, k, l), vid(0, k, l + 1), vid(0, k + 1, l + 1), vid(0, k + 1, l));
+      quad(vid(nA, k, l), vid(nA, k + 1, l), vid(nA, k + 1, l + 1), vid(nA, k, l + 1));
+    }
+  }
+  for (let i = 0; i < nA; i++) {
+    for (let l = 0; l < nZ; l++) {
+      quad(vid(i, 0, l), vid(i + 1, 0, l), vid(i + 1, 0, l + 1), vid(i, 0, l + 1));
+      quad(vid(i, K, l), vid(i, K, l + 1), vid(i + 1, K, l + 1), vid(i + 1, K, l));
+    }
+    for (let k = 0; k < K; k++) {
+      quad(vid(i, k, 0), vid(i, k + 1, 0), vid(i + 1, k + 1, 0), vid(i + 1, k, 0));
+      quad(vid(i, k, nZ), vid(i + 1, k, nZ), vid(i + 1, k + 1, nZ), vid(i, k + 1, nZ));
+    }
+  }
+  return orientOutwards({ positions: Float32Array.from(pos), triangles: Uint32Array.from(tris) });
+}

@@ -1,0 +1,200 @@
+import type { Manifold, ManifoldToplevel } from 'manifold-3d';
+import type { BoneShape } from './bone-shape';
+import { boneOuterMesh, medullaryCavityMesh } from './bone-mesh';
+import { type BreakAge, type BreakPattern, type BreakPlan, type PlannedRingBreak, wrap } from './break-plan';
+import { axisFrame, ringBreakBody, wedgeBody } from './fracture-bodies';
+import { solidFromMesh } from './manifold-kernel';
+
+/** Per-triangle surface labels (truth.json legend). Fracture faces are FRACTURE_BASE + break id. */
+export const LABEL_ORIGINAL = 0;
+export const LABEL_MEDULLARY = 1;
+export const LABEL_DAMAGE = 2;
+export const FRACTURE_BASE = 10;
+
+export interface BreakRecord {
+  id: number;
+  age: BreakAge;
+  pattern: BreakPattern;
+  /** Nominal angle of the face to the cortical surface implied by the bevel (degrees). */
+  nominalBevelDeg: number;
+}
+
+export interface Piece {
+  solid: Manifold;
+  /** Which side of each break this piece lies on. */
+  sides: Map<number, 'in' | 'out'>;
+}
+
+export interface ShatteredBone {
+  pieces: Piece[];
+  breaks: BreakRecord[];
+  /** original id -> label */
+  labelOf: Map<number, number>;
+  /** Volume (mm³) of the unbroken bone. */
+  boneVolume: number;
+  /** Crumbs too small to keep (mm³ each). */
+  crumbs: number[];
+}
+
+const MIN_PIECE_VOLUME = 40;
+
+/**
+ * Build the bone and break it as planned: ring breaks across the shaft first, then splinters
+ * from hollow shaft segments, then a modern break. Every split uses one cut body, so both
+ * sides of a break carry the same surface; labels follow each triangle's original mesh.
+ */
+export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: BreakPlan, resolution: number, boneResolution: number): ShatteredBone {
+  const labelOf = new Map<number, number>();
+  const outer = solidFromMesh(wasm, boneOuterMesh(shape, boneResolution));
+  const cavity = solidFromMesh(wasm, medullaryCavityMesh(shape, boneResolution));
+  labelOf.set(outer.originalID(), LABEL_ORIGINAL);
+  labelOf.set(cavity.originalID(), LABEL_MEDULLARY);
+  const bone = outer.subtract(cavity);
+  outer.delete();
+  cavity.delete();
+  const boneVolume = bone.volume();
+  const breaks: BreakRecord[] = [];
+  const crumbs: number[] = [];
+  let pieces: Piece[] = [{ solid: bone, sides: new Map() }];
+
+  const ring = (b: PlannedRingBreak) => {
+    const body = solidFromMesh(wasm, ringBreakBody(shape, b.geometry, resolution));
+    labelOf.set(body.originalID(), FRACTURE_BASE + b.id);
+    breaks.push({ id: b.id, age: b.age, pattern: b.pattern, nominalBevelDeg: (Math.atan(Math.abs(b.geometry.bevel)) * 180) / Math.PI });
+    const lo = b.geometry.z + b.geometry.outlineMin - 12;
+    const hi = b.geometry.z + b.geometry.outlineMax + 12;
+    pieces = pieces.flatMap((p) => {
+      const box = p.solid.boundingBox();
+      if (box.max[2] < lo || box.min[2] > hi) return [p];
+      return splitPiece(p, body, b.id, crumbs);
+    });
+    body.delete();
+  };
+
+  for (const b of plan.rings) ring(b);
+
+  // splinters from each hollow segment of shaft
+  let nextId = plan.rings.length + (plan.modern ? 1 : 0);
+  const segments = pieces.slice();
+  segments.forEach((seg, index) => {
+    const sp = plan.splintering(index);
+    if (!sp) return;
+    const box = seg.solid.boundingBox();
+    // the hollow stretch of this segment; where the segment runs on into a solid end, the
+    // splinters end in a rough break across the shaft
+    const hollowLo = shape.cavityStart + 4;
+    const hollowHi = shape.cavityEnd - 4;
+    const openLo = box.min[2] < hollowLo;
+    const openHi = box.max[2] > hollowHi;
+    const z0 = Math.max(box.min[2], hollowLo);
+    const z1 = Math.min(box.max[2], hollowHi);
+    if (z1 - z0 < 30) return;
+    const zm = (z0 + z1) / 2;
+    const c = shape.center(zm);
+    const frame = axisFrame([c[0], c[1], zm], shape.tangent(zm));
+    const rIn = shape.minInnerRadius(z0, z1);
+    const rOut = shape.maxOuterRadius(z0, z1);
+    const rMean = (rIn + rOut) / 2;
+    const len = z1 - z0;
+    const base: number[] = [];
+    let acc = sp.startAngle;
+    for (const w of sp.widths) {
+      base.push(acc);
+      acc += w;
+    }
+    const smooth = (i: number) => (r: number, zeta: number) => base[i] + (sp.twist * zeta) / len + (sp.bevels[i] * (r - rMean)) / rMean;
+    const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, r) / rMean;
+    const common = {
+      frame,
+      zetaLo: z0 - zm - (openLo ? 0 : 6),
+      zetaHi: z1 - zm + (openHi ? 0 : 6),
+      capRoughness: sp.roughness[0],
+      rInside: rIn * 0.6,
+      rBand: [Math.max(rIn * 0.6 + 0.5, rIn - 1.5), rOut + 2] as const,
+      rOutside: rOut + 12,
+    };
+    const boundaryIds: number[] = [];
+    for (let i = 0; i < sp.sectors; i++) {
+      boundaryIds.push(nextId++);
+      const bevel = sp.bevels[i];
+      breaks.push({ id: boundaryIds[i], age: sp.age, pattern: 'longitudinal', nominalBevelDeg: (Math.atan(Math.abs(bevel)) * 180) / Math.PI });
+    }
+    let remainder: Piece[] = [seg];
+    pieces = pieces.filter((p) => p !== seg);
+    for (let cut = 0; cut < sp.cuts; cut++) {
+      const next = cut + 1;
+      const w = sp.widths;
+      let body: Manifold;
+      if (cut === 0) {
+        const a = solidFromMesh(wasm, wedgeBody({ ...common, lower: rough(0), upper: (r, z) => smooth(0)(r, z) + w[0] + 0.5 * w[1] }, resolution));
+        const bb = solidFromMesh(wasm, wedgeBody({ ...common, lower: (r, z) => smooth(1)(r, z) - w[0] - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
+        labelOf.set(a.originalID(), FRACTURE_BASE + boundaryIds[0]);
+        labelOf.set(bb.originalID(), FRACTURE_BASE + boundaryIds[1]);
+        body = a.intersect(bb);
+        a.delete();
+        bb.delete();
+      } else {
+        const upperIndex = next % sp.sectors;
+        const upper = upperIndex === 0 ? (r: number, z: number) => rough(0)(r, z) + 2 * Math.PI : rough(upperIndex);
+        body = solidFromMesh(wasm, wedgeBody({ ...common, lower: (r, z) => smooth(cut)(r, z) - 0.5 * w[cut - 1], upper }, resolution));
+        labelOf.set(body.originalID(), FRACTURE_BASE + boundaryIds[upperIndex]);
+      }
+      const cutId = boundaryIds[next % sp.sectors];
+      const freed: Piece[] = [];
+      const rest: Piece[] = [];
+      for (const p of remainder) {
+        for (const q of splitPiece(p, body, cut === 0 ? -1 : cutId, crumbs)) {
+          (q.sides.get(cut === 0 ? -1 : cutId) === 'in' ? freed : rest).push(q);
+        }
+      }
+      body.delete();
+      // the first body has two faces: record sides against each boundary
+      for (const q of [...freed, ...rest]) {
+        if (cut === 0 && q.sides.has(-1)) {
+          const side = q.sides.get(-1)!;
+          q.sides.delete(-1);
+          q.sides.set(boundaryIds[0], side);
+          q.sides.set(boundaryIds[1], side);
+        }
+      }
+      pieces.push(...freed);
+      remainder = rest;
+    }
+    pieces.push(...remainder);
+  });
+
+  if (plan.modern) ring(plan.modern);
+  return { pieces, breaks, labelOf, boneVolume, crumbs };
+}
+
+/** Split one piece by a cut body; both sides are kept as separate pieces (and components). */
+function splitPiece(p: Piece, body: Manifold, breakId: number, crumbs: number[]): Piece[] {
+  const [inside, outside] = p.solid.split(body);
+  const vin = inside.volume();
+  const vout = outside.volume();
+  if (vin < 1e-6 || vout < 1e-6) {
+    inside.delete();
+    outside.delete();
+    return [p];
+  }
+  p.solid.delete();
+  const result: Piece[] = [];
+  for (const [solid, side] of [[inside, 'in'], [outside, 'out']] as const) {
+    const parts = solid.decompose();
+    solid.delete();
+    for (const part of parts) {
+      const v = part.volume();
+      if (v < MIN_PIECE_VOLUME) {
+        crumbs.push(v);
+        part.delete();
+        continue;
+      }
+      const sides = new Map(p.sides);
+      sides.set(breakId, side);
+      result.push({ solid: part, sides });
+    }
+  }
+  return result;
+}
+
+export { wrap };

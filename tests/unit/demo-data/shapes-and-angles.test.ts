@@ -1,0 +1,90 @@
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { boneOuterMesh, medullaryCavityMesh } from '../../../demo-data/bone-mesh';
+import { BoneShape } from '../../../demo-data/bone-shape';
+import { planBreaks } from '../../../demo-data/break-plan';
+import { generateAssemblage } from '../../../demo-data/generate';
+import { labelledMesh } from '../../../demo-data/labelled-mesh';
+import { manifoldKernel, solidFromMesh } from '../../../demo-data/manifold-kernel';
+import { Random } from '../../../demo-data/random';
+import { shatterBone } from '../../../demo-data/shatter';
+import { ELEMENTS, type ElementSpec } from '../../../demo-data/skeleton';
+import { rimFractureAngles } from './fracture-angles';
+
+describe('bone shaft geometry', () => {
+  it('an unbroken straight tube section has the volume of a hollow cylinder, pi L (R^2 - r^2)', async () => {
+    const wasm = await manifoldKernel();
+    const R = 15;
+    const wall = 4;
+    const end = { length: 40, radius: 24, lobe2: 0, lobe4: 0, phase: 0, offset: [0, 0] as const, cap: 12 };
+    const tube: ElementSpec = {
+      taxon: 'test', family: 'test', sizeClass: 3, element: 'tube', length: 300,
+      shaft: [R, R, R], cortical: [wall, wall, wall], oval: 0, tri: 0, wobble: 0, bow: 0,
+      proximal: end, distal: end,
+    };
+    const shape = new BoneShape(tube);
+    const res = 1.0;
+    const outer = solidFromMesh(wasm, boneOuterMesh(shape, res));
+    const cavity = solidFromMesh(wasm, medullaryCavityMesh(shape, res));
+    const bone = outer.subtract(cavity);
+    const a = bone.trimByPlane([0, 0, 1], 100);
+    const section = a.trimByPlane([0, 0, -1], -160);
+    const L = 60;
+    const r = R - wall;
+    // analytic geometry: volume of a hollow cylinder
+    const expected = Math.PI * L * (R * R - r * r);
+    // the mesh is made of inscribed polygons: relative error about (2 pi / m)^2 / 6, well under 0.5 %
+    expect(Math.abs(section.volume() - expected) / expected).toBeLessThan(0.005);
+    for (const s of [outer, cavity, bone, a, section]) s.delete();
+  });
+});
+
+describe('fracture angles of green and dry breaks', () => {
+  // Villa & Mahieu (1991) score fracture angles of fresh (green) breaks as mostly oblique and
+  // those of dry breaks as mostly right angles. The numeric bands are our own convention:
+  // "right" is 75-105 degrees, "oblique" anything outside it; a break type passes when at
+  // least 60 % (green: oblique) or 65 % (dry: right) of its rim samples fall in its band.
+  it('green breaks are mostly oblique, dry breaks mostly near right angles', { timeout: 180_000 }, async () => {
+    const wasm = await manifoldKernel();
+    const pooled: Record<'fresh' | 'dry', number[]> = { fresh: [], dry: [] };
+    for (let s = 0; s < 8 && (pooled.fresh.length < 200 || pooled.dry.length < 200); s++) {
+      const shape = new BoneShape(ELEMENTS[s % 5]);
+      const plan = planBreaks(shape, new Random(`angles-${s}`));
+      const shattered = shatterBone(wasm, shape, plan, 1.2, 1.6);
+      const age = new Map(shattered.breaks.map((b) => [b.id, b.age]));
+      for (const p of shattered.pieces) {
+        for (const [id, angles] of rimFractureAngles(labelledMesh(p.solid, shattered.labelOf), (_x, _y, z) => z > shape.diaphysisStart && z < shape.diaphysisEnd)) {
+          const a = age.get(id);
+          if (a === 'fresh' || a === 'dry') pooled[a].push(...angles);
+        }
+        p.solid.delete();
+      }
+    }
+    expect(pooled.fresh.length).toBeGreaterThan(150);
+    expect(pooled.dry.length).toBeGreaterThan(150);
+    const rightShare = (xs: number[]) => xs.filter((x) => x >= 75 && x <= 105).length / xs.length;
+    expect(1 - rightShare(pooled.fresh)).toBeGreaterThan(0.6);
+    expect(rightShare(pooled.dry)).toBeGreaterThan(0.65);
+  });
+});
+
+describe('determinism', () => {
+  it('the same seed gives byte-identical files', async () => {
+    const dirs = [mkdtempSync(join(tmpdir(), 'knitbone-demo-a-')), mkdtempSync(join(tmpdir(), 'knitbone-demo-b-'))];
+    try {
+      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 3, seed: 'same-seed', pointSpacing: 2, elements: [4] });
+      const files = (d: string) => ['specimens.csv', 'truth.json', ...readdirSync(join(d, 'scans')).sort().map((f) => `scans/${f}`)];
+      expect(files(dirs[1])).toEqual(files(dirs[0]));
+      for (const f of files(dirs[0])) expect(readFileSync(join(dirs[1], f)).equals(readFileSync(join(dirs[0], f))), f).toBe(true);
+      // and a different seed gives a different assemblage
+      const other = mkdtempSync(join(tmpdir(), 'knitbone-demo-c-'));
+      dirs.push(other);
+      await generateAssemblage({ outDir: other, fragments: 3, seed: 'other-seed', pointSpacing: 2, elements: [4] });
+      expect(readFileSync(join(other, 'truth.json')).equals(readFileSync(join(dirs[0], 'truth.json')))).toBe(false);
+    } finally {
+      for (const d of dirs) rmSync(d, { recursive: true, force: true });
+    }
+  });
+});
