@@ -1,5 +1,5 @@
 import { vertexRings } from './adjacency';
-import { classifyRegion, regionFigures, type RegionFigures } from './classify-regions';
+import { classifyRegion, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
 import { fractureFaces, type FractureFace } from './fracture-faces';
 import { enclosedVolume, surfaceArea } from './measure';
@@ -9,6 +9,7 @@ import { growRegions, mergeSmallRegions } from './regions';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { facingGroups, fitShaftAxis, type ShaftAxis } from './shaft-axis';
+import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
 import { keepTriangles, weldVertices } from './weld';
@@ -103,9 +104,11 @@ export function analyseFragment(
   region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
   let regionCount = 0;
   for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
-  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, axis);
+  const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays);
+  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, axis, rays);
+  const wallDepth = typicalWallDepth(figures);
   const regions: SurfaceRegion[] = figures.map((fig, id) => {
-    const surfaceClass = regionClassOverrides.get(id) ?? classifyRegion(fig, axis, settings);
+    const surfaceClass = regionClassOverrides.get(id) ?? classifyRegion(fig, axis, settings, wallDepth);
     return { id, ...fig, surfaceClass, kind: surfaceClass === 'fracture' ? 'fracture' : 'original' };
   });
   const triangleClass = new Uint8Array(nt);

@@ -1,6 +1,12 @@
 import type { AnalysisSettings } from './settings';
 import type { ShaftAxis } from './shaft-axis';
 import type { SurfaceClass } from './surface-classes';
+import type { WallRays } from './wall-rays';
+
+function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
 
 /** Measured figures of one region that decide its class. */
 export interface RegionFigures {
@@ -10,10 +16,16 @@ export interface RegionFigures {
   radial: number;
   /** Area-weighted mean |filtered normal . shaft axis|. */
   axial: number;
-  /** Region roughness divided by the fragment's median roughness. */
+  /** Area-weighted mean of triangle roughness / the fragment's median roughness (each capped at 4). */
   roughnessRatio: number;
   /** Area-weighted mean curvature (k1 + k2) / 2, 1/mm. */
   meanCurvature: number;
+  /** Median depth (mm) of the inward rays from this region to where they leave the bone (wall-rays.ts). */
+  rayDepth: number;
+  /** Median cosine between those rays and the surface they leave by (1 = straight across a wall). */
+  rayExitCosine: number;
+  /** Rays from this region. */
+  rays: number;
 }
 
 export function regionFigures(
@@ -25,14 +37,33 @@ export function regionFigures(
   triRoughness: Float32Array,
   triMeanCurvature: Float32Array,
   axis: ShaftAxis,
+  rays: WallRays,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
-    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0,
+    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
   }));
-  const [ax, ay, az] = axis.direction;
-  const [px, py, pz] = axis.point;
   const roughSorted = Float32Array.from(triRoughness).sort();
   const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;
+  // Region roughness: area-weighted mean of each triangle's roughness relative to the
+  // fragment's median, each capped at 4 so that a few slivers cannot dominate a region.
+  const roughSum = new Float64Array(regionCount);
+  for (let f = 0; f < region.length; f++) roughSum[region[f]] += areas[f] * Math.min(4, triRoughness[f] / medianRough);
+  const depths: number[][] = Array.from({ length: regionCount }, () => []);
+  const cosines: number[][] = Array.from({ length: regionCount }, () => []);
+  for (let k = 0; k < rays.triangles.length; k++) {
+    const r = region[rays.triangles[k]];
+    depths[r].push(rays.distance[k]);
+    cosines[r].push(rays.exitCosine[k]);
+  }
+  depths.forEach((d, r) => {
+    out[r].rays = d.length;
+    if (d.length) {
+      out[r].rayDepth = median(d);
+      out[r].rayExitCosine = median(cosines[r]);
+    }
+  });
+  const [ax, ay, az] = axis.direction;
+  const [px, py, pz] = axis.point;
   for (let f = 0; f < region.length; f++) {
     const r = out[region[f]];
     const w = areas[f];
@@ -45,35 +76,54 @@ export function regionFigures(
     r.triangleCount++;
     r.radial += w * ((nx * qx + ny * qy + nz * qz) / ql);
     r.axial += w * Math.abs(nx * ax + ny * ay + nz * az);
-    r.roughnessRatio += w * triRoughness[f];
     r.meanCurvature += w * triMeanCurvature[f];
   }
-  for (const r of out) {
+  out.forEach((r, i) => {
     if (r.area > 0) {
       r.radial /= r.area;
       r.axial /= r.area;
-      r.roughnessRatio = r.roughnessRatio / r.area / medianRough;
       r.meanCurvature /= r.area;
+      r.roughnessRatio = roughSum[i] / r.area;
     }
-  }
+  });
   return out;
 }
 
 /**
- * Class of a region. On a shaft (most of the surface turned about one axis) original
- * surface faces straight out from the axis (outer cortical) or straight in (medullary);
- * a break surface runs through the wall, so its normal leans away from the radial
- * direction. Off the shaft, a smooth convex region is an articular end and a rough one a
- * break. The cut-offs are settings (settings.ts).
+ * Class of a region, from two published cues that need no shaft axis:
+ * - wall test: an inward ray from bone surface crosses the cortex and leaves through the
+ *   other wall face head-on (exit cosine near 1); from a break face it runs along inside the
+ *   wall and leaves obliquely (the shape diameter idea, Shapira et al. 2008; a break surface
+ *   cuts through the wall, design.md section 7 notes for long bones);
+ * - roughness: break surfaces are rougher than the fragment's typical surface.
+ * Evidence = exitCosineWeight (1 - exit cosine) + roughnessWeight (roughness ratio - 1);
+ * above fractureEvidenceMin the region is a fracture face. Original regions facing away
+ * from the shaft axis (or convex where there is no axis) are outer cortical, facing it (or
+ * concave) medullary; smooth regions whose rays run much deeper than the wall is thick are
+ * articular ends. The weights and cut-offs are settings (settings.ts), chosen on generated
+ * assemblages (tests/bench/segmentation.bench.ts).
  */
-export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings): SurfaceClass {
-  const isShaft = axis.support >= 0.5;
-  if (isShaft && Math.abs(r.radial) >= settings.corticalRadialMin) {
-    return r.radial > 0 ? 'outer-cortical' : 'medullary';
+export function fractureEvidence(r: RegionFigures, settings: AnalysisSettings): number {
+  const cos = Number.isFinite(r.rayExitCosine) ? r.rayExitCosine : 1;
+  return settings.exitCosineWeight * (1 - cos) + settings.roughnessWeight * (r.roughnessRatio - 1);
+}
+
+export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {
+  if (fractureEvidence(r, settings) > settings.fractureEvidenceMin) return 'fracture';
+  if (Number.isFinite(wallDepth) && r.rayDepth > settings.articularDepthRatio * wallDepth && r.meanCurvature >= 0) return 'articular';
+  if (axis.support >= 0.5 && Math.abs(r.radial) >= 0.5) return r.radial > 0 ? 'outer-cortical' : 'medullary';
+  return r.meanCurvature >= 0 ? 'outer-cortical' : 'medullary';
+}
+
+/** Typical wall thickness: area-weighted median ray depth of regions whose rays cross head-on. */
+export function typicalWallDepth(figures: RegionFigures[]): number {
+  const rows = figures.filter((r) => r.rays > 0 && r.rayExitCosine >= 0.9).map((r) => [r.rayDepth, r.area] as [number, number]);
+  rows.sort((a, b) => a[0] - b[0]);
+  const half = rows.reduce((s, x) => s + x[1], 0) / 2;
+  let acc = 0;
+  for (const [d, w] of rows) {
+    acc += w;
+    if (acc >= half) return d;
   }
-  const smooth = r.roughnessRatio < settings.roughnessRatioFracture;
-  const convex = r.meanCurvature > 0.5 / Math.max(axis.radius, 1);
-  if (smooth && convex && !isShaft) return 'articular';
-  if (smooth && convex && r.axial > 0.5 && r.radial > 0.3) return 'articular';
-  return 'fracture';
+  return NaN;
 }

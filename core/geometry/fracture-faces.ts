@@ -156,8 +156,8 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
   const rightShare = folded.length ? right / folded.length : NaN;
   let angleClass: AngleClass = 'indeterminate';
   if (folded.length >= 3) {
-    if (rightShare >= settings.angleClassShare) angleClass = 'right';
-    else if (1 - rightShare >= settings.angleClassShare) angleClass = 'oblique';
+    if (rightShare >= settings.rightShareMin) angleClass = 'right';
+    else if (rightShare <= settings.obliqueShareMax) angleClass = 'oblique';
     else angleClass = 'mixed';
   }
   const outlineAxisAlignment = alignLen > 0 ? alignSum / alignLen : NaN;
@@ -217,6 +217,7 @@ function hasOuter(ctx: FaceContext): boolean {
  */
 function edgeAngle(ctx: FaceContext, f: number, g: number, faceId: number, mx: number, my: number, mz: number): number | undefined {
   const r2 = ctx.settings.anglePlaneRadiusMm ** 2;
+  const skip2 = ctx.settings.anglePlaneSkipMm ** 2;
   const otherClass = ctx.triClass[g];
   const seen = new Set<number>([f, g]);
   const queue = [f, g];
@@ -225,7 +226,11 @@ function edgeAngle(ctx: FaceContext, f: number, g: number, faceId: number, mx: n
     const h = queue[k];
     const w = ctx.areas[h];
     const cls = ctx.triClass[h];
-    if (cls === FRACTURE) {
+    const hx = ctx.centroids[3 * h] - mx, hy = ctx.centroids[3 * h + 1] - my, hz = ctx.centroids[3 * h + 2] - mz;
+    // Leave out the worn crease itself: only triangles at least anglePlaneSkipMm from the edge.
+    if (hx * hx + hy * hy + hz * hz < skip2) {
+      // still walk through it
+    } else if (cls === FRACTURE) {
       fx += w * ctx.triNormals[3 * h]; fy += w * ctx.triNormals[3 * h + 1]; fz += w * ctx.triNormals[3 * h + 2]; fa += w;
     } else if (cls === otherClass) {
       ox += w * ctx.triNormals[3 * h]; oy += w * ctx.triNormals[3 * h + 1]; oz += w * ctx.triNormals[3 * h + 2]; oa += w;

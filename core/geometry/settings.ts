@@ -16,24 +16,36 @@ export const analysisSettingsSchema = z.object({
   /** Range width of the bilateral filter, as a distance between unit normals (0..2). */
   normalFilterRange: z.number().positive().default(0.45),
   /** Largest angle between the filtered normals of two adjacent triangles in one region. */
-  growAngleDeg: z.number().positive().max(90).default(18),
+  growAngleDeg: z.number().positive().max(90).default(10),
   /** An edge whose filtered normals differ by more than this is a ridge (a candidate break edge). */
   ridgeAngleDeg: z.number().positive().max(180).default(35),
   /** Regions smaller than this share of the fragment's area are merged into a neighbour. */
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**
-   * A region is original bone surface (outer cortical or medullary) when its area-weighted
-   * mean |normal . radial direction| about the fitted shaft axis is at least this.
+   * Region growing keeps apart triangles facing out from the fitted shaft axis (radial
+   * component of the normal at least this), facing in, and neither.
    */
   corticalRadialMin: z.number().min(0).max(1).default(0.82),
-  /** Roughness above this multiple of the fragment's median roughness marks a rough region. */
-  roughnessRatioFracture: z.number().positive().default(1.6),
+  /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
+  maxWallRays: z.number().int().positive().default(20000),
+  /** Weight of (1 - exit cosine of the inward rays) in a region's fracture evidence. */
+  exitCosineWeight: z.number().min(0).default(2),
+  /** Weight of (roughness / the fragment's median roughness - 1) in a region's fracture evidence. */
+  roughnessWeight: z.number().min(0).default(1),
+  /** A region whose fracture evidence exceeds this is a fracture face (classify-regions.ts). */
+  fractureEvidenceMin: z.number().default(0.8),
+  /** Original surface whose rays run this many times deeper than the typical wall: articular end. */
+  articularDepthRatio: z.number().positive().default(3),
   /** Fracture angle within this many degrees of 90 counts as a right angle (Villa & Mahieu 1991). */
-  rightAngleToleranceDeg: z.number().positive().max(45).default(12),
-  /** Share of a face's angle samples that must agree for "right" or "oblique"; else "mixed". */
-  angleClassShare: z.number().min(0.5).max(1).default(0.65),
-  /** Radius of the plane fits either side of a break edge. */
-  anglePlaneRadiusMm: z.number().positive().default(2.5),
+  rightAngleToleranceDeg: z.number().positive().max(45).default(8),
+  /** A face is "right" when at least this share of its angle samples is right-angled. */
+  rightShareMin: z.number().min(0).max(1).default(0.45),
+  /** A face is "oblique" when at most this share of its samples is right-angled; between the two, "mixed". */
+  obliqueShareMax: z.number().min(0).max(1).default(0.4),
+  /** Radius of the plane fits either side of a break edge (also the spacing of the samples). */
+  anglePlaneRadiusMm: z.number().positive().default(3.5),
+  /** Triangles closer than this to the edge are left out of the plane fits (worn, rounded crease). */
+  anglePlaneSkipMm: z.number().min(0).default(1),
   /** Mean |outline tangent . shaft axis| below this: a transverse outline. */
   outlineTransverseMax: z.number().min(0).max(1).default(0.3),
   /** Mean |outline tangent . shaft axis| above this: a curved / V-shaped outline. */

@@ -31,29 +31,44 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
   const ul = Math.hypot(ux, uy, uz);
   ux /= ul; uy /= ul; uz /= ul;
   const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
-  let s11 = 0, s12 = 0, s22 = 0, b1 = 0, b2 = 0, total = 0, supported = 0;
-  for (let f = 0; f < nt; f++) {
-    const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
-    const along = Math.abs(nx * ax + ny * ay + nz * az);
-    total += areas[f];
-    if (along > 0.342) continue; // 20 degrees from perpendicular
-    supported += areas[f];
-    const mu = nx * ux + ny * uy + nz * uz, mv = nx * vx + ny * vy + nz * vz;
-    const ml = Math.hypot(mu, mv) || 1;
-    // perpendicular of the projected normal
-    const pu = -mv / ml, pv = mu / ml;
-    const qu = centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz;
-    const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz;
-    const w = areas[f];
-    s11 += w * pu * pu; s12 += w * pu * pv; s22 += w * pv * pv;
-    const r = qu * pu + qv * pv;
-    b1 += w * pu * r; b2 += w * pv * r;
-  }
-  const det = s11 * s22 - s12 * s12;
-  let cu = 0, cv = 0;
-  if (Math.abs(det) > 1e-12) {
+  // Iteratively reweighted: normals of break faces along the shaft are tangential and miss
+  // the axis, so lines far from the current centre count less in the next pass.
+  let cu = 0, cv = 0, total = 0, supported = 0;
+  // Medians are taken over a regular sample of at most about 4000 triangles.
+  const stride = Math.max(1, Math.floor(nt / 4000));
+  let scale = Infinity;
+  for (let pass = 0; pass < 6; pass++) {
+    let s11 = 0, s12 = 0, s22 = 0, b1 = 0, b2 = 0;
+    total = 0; supported = 0;
+    for (let f = 0; f < nt; f++) {
+      const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+      const along = Math.abs(nx * ax + ny * ay + nz * az);
+      total += areas[f];
+      if (along > 0.342) continue; // 20 degrees from perpendicular
+      supported += areas[f];
+      const mu = nx * ux + ny * uy + nz * uz, mv = nx * vx + ny * vy + nz * vz;
+      const ml = Math.hypot(mu, mv) || 1;
+      const pu = -mv / ml, pv = mu / ml; // perpendicular of the projected normal
+      const qu = centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz;
+      const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz;
+      const r = qu * pu + qv * pv;
+      const miss = Math.abs(cu * pu + cv * pv - r);
+      const w = areas[f] / (1 + (pass === 0 ? 0 : (miss / scale) ** 2));
+      s11 += w * pu * pu; s12 += w * pu * pv; s22 += w * pv * pv;
+      b1 += w * pu * r; b2 += w * pv * r;
+    }
+    const det = s11 * s22 - s12 * s12;
+    if (Math.abs(det) <= 1e-12) break;
     cu = (b1 * s22 - b2 * s12) / det;
     cv = (s11 * b2 - s12 * b1) / det;
+    // Scale for the next pass: a fifth of the median distance of the surface from the centre.
+    const d: Array<[number, number]> = [];
+    for (let f = 0; f < nt; f += stride) {
+      const qu = centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz - cu;
+      const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz - cv;
+      d.push([Math.hypot(qu, qv), areas[f]]);
+    }
+    scale = Math.max(1e-6, weightedMedian(d) / 5);
   }
   // Put the point at the middle of the fragment along the axis.
   let mid = 0;
@@ -62,7 +77,7 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
   const point: [number, number, number] = [cu * ux + cv * vx + mid * ax, cu * uy + cv * vy + mid * ay, cu * uz + cv * vz + mid * az];
   // Radius: area-weighted median distance of outward-facing supported triangles.
   const dists: Array<[number, number]> = [];
-  for (let f = 0; f < nt; f++) {
+  for (let f = 0; f < nt; f += stride) {
     const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
     const t = rx * ax + ry * ay + rz * az;
     const px = rx - t * ax, py = ry - t * ay, pz = rz - t * az;
@@ -117,4 +132,15 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
     out[f] = radial >= radialMin ? 1 : radial <= -radialMin ? 2 : 0;
   }
   return out;
+}
+
+function weightedMedian(values: Array<[number, number]>): number {
+  values.sort((p, q) => p[0] - q[0]);
+  const half = values.reduce((s, x) => s + x[1], 0) / 2;
+  let acc = 0;
+  for (const [v, w] of values) {
+    acc += w;
+    if (acc >= half) return v;
+  }
+  return values.length ? values[values.length - 1][0] : 0;
 }

@@ -120,8 +120,11 @@ describe('importing a folder of scans', () => {
     const fracture = regions.find((r) => r.surfaceClass === 'fracture')!;
     const r = await host.call('scans.correctRegion', { catalogue, scanId: scan.id, regionId: fracture.id, surfaceClass: 'articular', who: 'tester' });
     expect(r.recomputed).toBe(true);
-    const faces = r.scan.stats.faces as Array<{ kind: string }>;
-    expect(faces.filter((f) => f.kind === 'fracture')).toHaveLength(1);
+    const fractureArea = (faces: Array<{ kind: string; area: number }>): number => faces.filter((f) => f.kind === 'fracture').reduce((s, f) => s + f.area, 0);
+    const before = fractureArea(scan.stats.faces as Array<{ kind: string; area: number }>);
+    const after = fractureArea(r.scan.stats.faces as Array<{ kind: string; area: number }>);
+    expect(before - after).toBeCloseTo((scan.stats.regions as Array<{ id: number; area: number }>)[fracture.id].area, 0);
+    expect((r.scan.stats.regions as Array<{ surfaceClass: string }>)[fracture.id].surfaceClass).toBe('articular');
     const got = await host.call('scans.get', { catalogue, scanId: scan.id });
     expect(got.corrections).toHaveLength(1);
     expect(got.corrections[0]).toMatchObject({ regionId: fracture.id, surfaceClass: 'articular', who: 'tester' });

@@ -68,7 +68,7 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
       tolerance: 1e-4 * spacing,
     });
     const s = scoreJoin(side(a, FA), side(b, FB), icp.transform, { contactTolerance: tol });
-    out.push({ ...s, transform: icp.transform, faceA: fa, faceB: fb });
+    out.push({ ...s, transform: icp.transform, faceA: FA.parent, faceB: FB.parent });
   }
   return distinctBest(out, 2 * spacing);
 }

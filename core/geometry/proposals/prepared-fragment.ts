@@ -3,7 +3,8 @@
  * surface and of each break face (with FPFH descriptors), the faces' outlines, and a small
  * descriptor per face for the candidate index. Pure: typed arrays in, typed arrays out.
  */
-import { computeFpfh } from '../registration/fpfh';
+import { computeFpfh, FPFH_DIM } from '../registration/fpfh';
+import { splitIntoPatches } from './face-patches';
 import { KdTree } from '../registration/nearest-neighbours';
 import { TargetSurface } from '../registration/target-surface';
 import { sampleTriangles, voxelResample } from '../registration/voxel-sampling';
@@ -29,6 +30,8 @@ export interface FragmentInput {
 
 export interface PreparedFace {
   index: number;
+  /** The segmentation's face this one is, or is a patch of. */
+  parent: number;
   points: Float32Array;
   normals: Float32Array;
   fpfh: Float32Array;
@@ -56,6 +59,8 @@ export interface SamplingParameters {
   spacing: number;
   /** FPFH neighbourhood radius in sample spacings. */
   fpfhRadiusSpacings: number;
+  /** Also match patches of faces that turn sharply (default true). */
+  patches?: boolean;
 }
 
 export const DEFAULT_FPFH_RADIUS_SPACINGS = 5;
@@ -65,16 +70,38 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
   const surface = new TargetSurface(positions, triangles);
   const all = sampleTriangles(positions, triangles, params.spacing * 2.5);
   const faces: PreparedFace[] = [];
-  input.faces.forEach((f, index) => {
+  input.faces.forEach((f, parent) => {
     const s = f.triangleIds && f.triangleIds.length
       ? sampleFaceTriangles(positions, triangles, f.triangleIds, params.spacing)
       : voxelResample(f.points, f.normals, params.spacing);
-    const tree = new KdTree(s.points, 3);
-    const fpfh = computeFpfh(s.points, s.normals, params.spacing * params.fpfhRadiusSpacings, tree);
+    if (s.points.length < 9) return;
+    const fpfh = computeFpfh(s.points, s.normals, params.spacing * params.fpfhRadiusSpacings);
     const outline = f.outline && f.outline.length >= 3 ? thinPolyline(f.outline, params.spacing * 0.5) : new Float32Array(0);
     const area = f.area ?? (s.points.length / 3) * params.spacing * params.spacing;
-    const c = centroidOf(s.points);
-    faces.push({ index, points: s.points, normals: s.normals, fpfh, tree, outline, area, centroid: c, descriptor: faceDescriptor(s.points, s.normals, outline, area, fpfh) });
+    const add = (points: Float32Array, normals: Float32Array, feats: Float32Array, line: Float32Array, a: number): void => {
+      const tree = new KdTree(points, 3);
+      faces.push({ index: faces.length, parent, points, normals, fpfh: feats, tree, outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
+    };
+    add(s.points, s.normals, fpfh, outline, area);
+    if (params.patches === false) return;
+    const patches = splitIntoPatches(s.points, s.normals, params.spacing, { angleDeg: 20, meanAngleDeg: 40 });
+    if (patches.length < 2) return;
+    const n = s.points.length / 3;
+    for (const p of patches) {
+      const P = new Float32Array(3 * p.indices.length), N = new Float32Array(3 * p.indices.length), F = new Float32Array(FPFH_DIM * p.indices.length);
+      p.indices.forEach((i, k) => {
+        P.set(s.points.subarray(3 * i, 3 * i + 3), 3 * k);
+        N.set(s.normals.subarray(3 * i, 3 * i + 3), 3 * k);
+        F.set(fpfh.subarray(FPFH_DIM * i, FPFH_DIM * i + FPFH_DIM), FPFH_DIM * k);
+      });
+      // outline points next to the patch
+      const pt = new KdTree(P, 3);
+      const line: number[] = [];
+      for (let i = 0; i < outline.length; i += 3) {
+        if (pt.nearestOne([outline[i], outline[i + 1], outline[i + 2]], (1.5 * params.spacing) ** 2).index >= 0) line.push(outline[i], outline[i + 1], outline[i + 2]);
+      }
+      add(P, N, F, Float32Array.from(line), (area * p.indices.length) / n);
+    }
   });
   const box = boundsOf(positions);
   return {

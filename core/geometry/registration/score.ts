@@ -57,7 +57,7 @@ export interface ScoreOptions {
  * erosion of each other, a few tenths of a millimetre, from memory), not against the sampling.
  * Coefficients fitted on generated truth (tests/bench/proposals.bench.ts); starting values by hand.
  */
-export const SCORE_MODEL = { b0: -5, contact: 6, contactOther: 3, outline: 2, gap: 2.5, penetration: 1.5, gapScaleMm: 0.3, interlock: 8, interlockFull: 0.12 };
+export const SCORE_MODEL = { b0: -5, contact: 6, contactOther: 3, outline: 2, gap: 2.5, penetration: 1.5, gapScaleMm: 0.3, interlock: 8, interlockFull: 0.08 };
 
 export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): JoinScore {
   const tol = options.contactTolerance;
@@ -91,6 +91,9 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
  * averaged, so less noisy) normals; the smaller of the two sides is what counts, since a flat
  * face against a rough one can still slide.
  */
+/** Samples farther than this from the other surface are not judged inside it (about a cortical wall's thickness; common practice). */
+const MAX_DEPTH_MM = 6;
+
 function interlockOf(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): number {
   const n = points.length / 3;
   const cp = {} as ClosestPoint;
@@ -153,20 +156,26 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   const P = other.surfacePoints, N = other.surfaceNormals;
   for (let i = 0; i < n; i++) {
     const x = points[3 * i], y = points[3 * i + 1], z = points[3 * i + 2];
-    q[0] = x; q[1] = y; q[2] = z;
-    const near = other.surfaceTree.nearest(q, 6);
-    let vote = 0;
-    for (let m = 0; m < near.indices.length; m++) {
-      const j = near.indices[m];
-      const side = (x - P[3 * j]) * N[3 * j] + (y - P[3 * j + 1]) * N[3 * j + 1] + (z - P[3 * j + 2]) * N[3 * j + 2];
-      vote += Math.sign(side) / (Math.sqrt(near.dist2[m]) + 1e-6);
-    }
-    if (vote >= 0) {
+    const hit = other.surface.closest(x, y, z, Infinity, cp);
+    if (!hit) continue;
+    // direction from the surface to the sample against the mean normal of the samples around
+    // the closest point (same side of a thin wall as the hit); rims, where that direction is
+    // ambiguous, and samples farther than a cortical wall is thick are not counted
+    if (hit.distance > MAX_DEPTH_MM || hit.distance < 1e-9) {
       depths.push(0);
       continue;
     }
-    const hit = other.surface.closest(x, y, z, Infinity, cp);
-    depths.push(hit ? hit.distance : 0);
+    q[0] = hit.x; q[1] = hit.y; q[2] = hit.z;
+    const near = other.surfaceTree.nearest(q, 4);
+    let mx = 0, my = 0, mz = 0;
+    for (let m = 0; m < near.indices.length; m++) {
+      const j = near.indices[m];
+      const w = 1 / (Math.sqrt(near.dist2[m]) + 1e-3);
+      mx += w * N[3 * j]; my += w * N[3 * j + 1]; mz += w * N[3 * j + 2];
+    }
+    const ml = Math.hypot(mx, my, mz) || 1;
+    const c = ((x - hit.x) * mx + (y - hit.y) * my + (z - hit.z) * mz) / (ml * hit.distance);
+    depths.push(c < -0.5 ? hit.distance : 0);
   }
   depths.sort((p, q) => p - q);
   return depths[Math.min(depths.length - 1, Math.floor(0.98 * depths.length))] ?? 0;

@@ -85,13 +85,14 @@ export function planFigure(input: PlanInput, options: PlanOptions = {}): string 
   // Plot frame and units.
   out += `<rect x="${px(left)}" y="${px(top)}" width="${px(plotWUsed)}" height="${px(plotH)}" fill="none" stroke="${MUTED}"/>`;
   if (input.units.length) {
-    out += `<g id="units" fill="#f2efe8" stroke="#9a9a9a" stroke-width="0.8">`;
+    // All units in one path (a site of thousands of 1 m squares stays small).
+    let d = '';
     for (const u of input.units) {
       const x = sx(u.xMin);
       const y = sy(u.yMax);
-      out += `<rect x="${px(x)}" y="${px(y)}" width="${px(sx(u.xMax) - x)}" height="${px(sy(u.yMin) - y)}"/>`;
+      d += `M${px(x)} ${px(y)}h${px(sx(u.xMax) - x)}v${px(sy(u.yMin) - y)}h${px(x - sx(u.xMax))}z`;
     }
-    out += `</g>`;
+    out += `<path id="units" d="${d}" fill="#f2efe8" stroke="#9a9a9a" stroke-width="0.8"/>`;
     // Unit names only where there is room for them.
     const roomy = input.units.filter((u) => (u.xMax - u.xMin) * k >= 34 && (u.yMax - u.yMin) * k >= 16);
     if (roomy.length) {
@@ -152,7 +153,7 @@ function scaleBar(x: number, y: number, pxPerM: number, spanM: number): string {
   const unit = lengthM < 1 ? `${label(lengthM * 100, 0)} cm` : `${label(lengthM, 2)} m`;
   return (
     `<g id="scale-bar">` +
-    `<rect x="${px(x - 6)}" y="${px(y - 22)}" width="${px(w + 12 + 8 * unit.length)}" height="30" fill="#ffffff" fill-opacity=".85"/>` +
+    `<rect x="${px(x - 6)}" y="${px(y - 22)}" width="${px(w + 10 + 6.5 * unit.length)}" height="30" fill="#ffffff" fill-opacity=".85"/>` +
     `<rect x="${px(x)}" y="${px(y - 5)}" width="${px(half)}" height="5" fill="${INK}" stroke="${INK}" stroke-width=".8"/>` +
     `<rect x="${px(x + half)}" y="${px(y - 5)}" width="${px(half)}" height="5" fill="#ffffff" stroke="${INK}" stroke-width=".8"/>` +
     text(x, y - 9, '0', 'text-anchor="middle" font-size="11"') +

@@ -76,8 +76,13 @@ describe('segmentation of a tube broken by known surfaces (truth from the constr
     const face = a.fractureFaces.find((f) => f.outlineClass !== 'transverse');
     expect(face).toBeDefined();
     expect(Math.abs(face!.outlineAxisAlignment - num / den)).toBeLessThan(0.08);
-    // Round a tilted plane the angle to the wall runs from 50 to 90 degrees: not one class.
-    expect(face!.angleClass).toBe('mixed');
+    // Round the tube the angle between the tilted plane and the wall is 90 - asin(sin(t) |cos p|)
+    // degrees, so the share within the right-angle tolerance d is (2 / pi) asin(sin(d) / sin(t)).
+    const d = (a.settings.rightAngleToleranceDeg * Math.PI) / 180;
+    const share = (2 / Math.PI) * Math.asin(Math.min(1, Math.sin(d) / Math.sin(tilt)));
+    expect(Math.abs(face!.rightShare - share)).toBeLessThan(0.12);
+    const expected = share >= a.settings.rightShareMin ? 'right' : share <= a.settings.obliqueShareMax ? 'oblique' : 'mixed';
+    expect(face!.angleClass).toBe(expected);
   });
 
   it('a conical cut meeting the wall at 45 degrees: oblique angle, suggests no dry break', () => {
@@ -89,9 +94,11 @@ describe('segmentation of a tube broken by known surfaces (truth from the constr
   });
 
   it('an analyst correction of a region class is applied', () => {
-    const fractureRegion = a.regions.find((r) => r.surfaceClass === 'fracture')!;
-    const corrected = analyseFragment(planar.mesh, {}, new Map([[fractureRegion.id, 'articular']]));
-    expect(corrected.regions[fractureRegion.id].surfaceClass).toBe('articular');
-    expect(corrected.fractureFaces.length).toBe(1);
+    // Every region of one fracture face called articular: that face is gone, the other stays.
+    const face = a.fractureFaces[0];
+    const ids = [...new Set(Array.from(face.triangleIds, (t) => a.regionOfTriangle[t]))];
+    const corrected = analyseFragment(planar.mesh, {}, new Map(ids.map((id) => [id, 'articular' as const])));
+    for (const id of ids) expect(corrected.regions[id].surfaceClass).toBe('articular');
+    expect(corrected.fractureFaces.length).toBe(a.fractureFaces.length - 1);
   });
 });

@@ -79,7 +79,8 @@ describe('figures', () => {
     const dashes = refits.g.map((g: { '@stroke-dasharray'?: string }) => g['@stroke-dasharray'] ?? 'solid');
     expect(new Set(dashes).size).toBe(5);
     // Units, a north arrow, a scale bar and both axis titles are there.
-    expect(countTag(svg, 'rect')).toBeGreaterThanOrEqual(3);
+    const units = /<path id="units" d="([^"]*)"/.exec(svg)?.[1] ?? '';
+    expect(units.match(/M/g)).toHaveLength(3); // one closed outline per unit
     expect(svg).toContain('id="north-arrow"');
     expect(svg).toContain('id="scale-bar"');
     expect(svg).toContain('Easting (m)');

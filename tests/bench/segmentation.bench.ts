@@ -1,0 +1,176 @@
+/**
+ * Segmentation benchmark (issue 5, point 7): on the generated sample assemblage
+ * (demo-data/sample: scans plus truth.json with per-triangle labels), per-triangle
+ * fracture/original agreement weighted by area, fracture-angle class agreement with the
+ * generator's break (Villa & Mahieu 1991: a bevelled fresh break is oblique, a dry or modern
+ * one is right-angled), and time and memory for ingest plus segmentation of a
+ * 200,000-triangle scan. Prints tables; not a pass/fail test.
+ *
+ * KNITBONE_SAMPLE_DIR points at another generated sample folder.
+ */
+import { readFileSync } from 'node:fs';
+import { availableParallelism, loadavg } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { analyseFragment, type FragmentAnalysis } from '../../core/geometry/analyse-fragment';
+import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
+import { parseMeshFile } from '../../core/geometry/parse/index';
+import { brokenTube } from '../unit/geometry/broken-tube';
+import { plyBinary } from '../unit/geometry/mesh-writers';
+
+interface TruthBreak { id: number; age: string; pattern: string; nominalBevelDeg: number }
+interface Truth {
+  fragments: Array<{ catalogueNo: string; scanFile: string; boneId: string; triangleLabels: string }>;
+  bones: Array<{ boneId: string; breaks: TruthBreak[] }>;
+}
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '../..');
+
+/** Expected Villa & Mahieu angle class of a generated break: bevel beyond the right-angle tolerance is oblique. */
+function expectedAngleClass(b: TruthBreak, toleranceDeg: number): 'oblique' | 'right' {
+  return Math.abs(b.nominalBevelDeg) > toleranceDeg ? 'oblique' : 'right';
+}
+
+export interface SampleScores {
+  fragments: number;
+  triangles: number;
+  areaAgreement: number;
+  areaAgreementWithoutDamage: number;
+  faces: number;
+  facesScored: number;
+  angleAgreement: number;
+  outlineCounts: Record<string, number>;
+  ms: number;
+  perFragment: Array<{ no: string; tris: number; agree: number; faces: number; ms: number }>;
+  confusion: Record<string, number>;
+}
+
+export function scoreSample(dir: string, settings = {}): SampleScores {
+  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
+  const breaks = new Map<string, Map<number, TruthBreak>>();
+  for (const b of truth.bones) breaks.set(b.boneId, new Map(b.breaks.map((x) => [x.id, x])));
+  let agreeArea = 0, totalArea = 0, agreeND = 0, totalND = 0, faces = 0, scored = 0, angleOk = 0, ms = 0, tris = 0;
+  const outlineCounts: Record<string, number> = {};
+  const confusion: Record<string, number> = {};
+  const perFragment: SampleScores['perFragment'] = [];
+  for (const frag of truth.fragments) {
+    const bytes = readFileSync(join(dir, frag.scanFile));
+    const labels = Buffer.from(frag.triangleLabels, 'base64');
+    const t0 = performance.now();
+    const parsed = parseMeshFile(bytes, frag.scanFile);
+    const a: FragmentAnalysis = analyseFragment(parsed.mesh, settings);
+    const dt = performance.now() - t0;
+    ms += dt;
+    tris += labels.length;
+    const predicted = new Uint8Array(labels.length);
+    for (let f = 0; f < a.triangleClass.length; f++) if (a.triangleClass[f] === 0) predicted[a.sourceTriangle[f]] = 1;
+    const { areas } = triangleNormalsAndAreas(parsed.mesh);
+    let fa = 0, ft = 0;
+    for (let f = 0; f < labels.length; f++) {
+      const isFracture = labels[f] >= 2 ? 1 : 0;
+      const ok = predicted[f] === isFracture;
+      totalArea += areas[f]; ft += areas[f];
+      if (ok) { agreeArea += areas[f]; fa += areas[f]; }
+      if (labels[f] !== 2) { totalND += areas[f]; if (ok) agreeND += areas[f]; }
+      const key = `truth ${labels[f] >= 10 ? 'fracture' : labels[f] === 2 ? 'damage' : labels[f] === 1 ? 'medullary' : 'outer/articular'} -> ${predicted[f] ? 'fracture' : 'original'}`;
+      confusion[key] = (confusion[key] ?? 0) + areas[f];
+    }
+    for (const face of a.fractureFaces) {
+      faces++;
+      outlineCounts[face.outlineClass] = (outlineCounts[face.outlineClass] ?? 0) + 1;
+      // The break this face belongs to: the truth label covering most of its area.
+      const byBreak = new Map<number, number>();
+      for (const t of face.triangleIds) {
+        const l = labels[a.sourceTriangle[t]];
+        if (l >= 10) byBreak.set(l - 10, (byBreak.get(l - 10) ?? 0) + 1);
+      }
+      if (byBreak.size === 0) continue;
+      const breakId = [...byBreak.entries()].sort((x, y) => y[1] - x[1])[0][0];
+      const br = breaks.get(frag.boneId)?.get(breakId);
+      if (!br) continue;
+      scored++;
+      if (face.angleClass === expectedAngleClass(br, a.settings.rightAngleToleranceDeg)) angleOk++;
+    }
+    perFragment.push({ no: frag.catalogueNo, tris: labels.length, agree: fa / ft, faces: a.fractureFaces.length, ms: dt });
+  }
+  for (const k of Object.keys(confusion)) confusion[k] = confusion[k] / totalArea;
+  return {
+    fragments: truth.fragments.length,
+    triangles: tris,
+    areaAgreement: agreeArea / totalArea,
+    areaAgreementWithoutDamage: agreeND / totalND,
+    faces,
+    facesScored: scored,
+    angleAgreement: scored ? angleOk / scored : NaN,
+    outlineCounts,
+    ms,
+    perFragment,
+    confusion,
+  };
+}
+
+async function largeScan(targetTriangles: number): Promise<{ bytes: Uint8Array; truth: Uint8Array; triangles: number }> {
+  // Edge length chosen so the tube has about the target number of triangles.
+  let edge = 0.28;
+  for (let i = 0; i < 4; i++) {
+    const t = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -30 }, { baseZ: -45, baseRadius: 50, halfAngleDeg: 45 }], edgeLength: edge });
+    const n = t.mesh.triangles.length / 3;
+    if (Math.abs(n / targetTriangles - 1) < 0.1) return { bytes: plyBinary(t.mesh, true), truth: t.truth, triangles: n };
+    edge *= Math.sqrt(n / targetTriangles);
+  }
+  const t = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -30 }, { baseZ: -45, baseRadius: 50, halfAngleDeg: 45 }], edgeLength: edge });
+  return { bytes: plyBinary(t.mesh, true), truth: t.truth, triangles: t.mesh.triangles.length / 3 };
+}
+
+const pct = (x: number): string => `${(100 * x).toFixed(1)} %`;
+
+export default async function main(): Promise<void> {
+  const dir = process.env.KNITBONE_SAMPLE_DIR ?? join(root, 'demo-data/sample');
+  let s: SampleScores | undefined;
+  try {
+    s = scoreSample(dir);
+  } catch (err) {
+    process.stdout.write(`(no generated sample at ${dir}: ${(err as Error).message})\n`);
+  }
+  if (s) {
+    process.stdout.write(`\nGenerated sample (${dir.replace(root + '/', '')}): ${s.fragments} fragments, ${s.triangles} triangles\n`);
+    console.table({
+      'per-triangle agreement, area-weighted (damage scars count as fracture)': pct(s.areaAgreement),
+      'per-triangle agreement, area-weighted, damage scars left out': pct(s.areaAgreementWithoutDamage),
+      'fracture faces found': s.faces,
+      'faces lying on a true break': s.facesScored,
+      'angle class agreement (Villa & Mahieu) of those faces': pct(s.angleAgreement),
+      'outline classes found': JSON.stringify(s.outlineCounts),
+      'ingest + segmentation, whole sample': `${s.ms.toFixed(0)} ms`,
+    });
+    console.table(Object.fromEntries(Object.entries(s.confusion).sort().map(([k, v]) => [k, pct(v)])));
+    console.table(s.perFragment.map((f) => ({ fragment: f.no, triangles: f.tris, agreement: pct(f.agree), faces: f.faces, ms: Math.round(f.ms) })));
+  }
+  const big = await largeScan(200_000);
+  const before = process.memoryUsage();
+  let peakRss = before.rss;
+  const timer = setInterval(() => { peakRss = Math.max(peakRss, process.memoryUsage().rss); }, 20);
+  const times: number[] = [];
+  let analysis: FragmentAnalysis | undefined;
+  for (let i = 0; i < 3; i++) {
+    const t0 = performance.now();
+    const parsed = parseMeshFile(big.bytes, 'large.ply');
+    analysis = analyseFragment(parsed.mesh);
+    times.push(performance.now() - t0);
+    peakRss = Math.max(peakRss, process.memoryUsage().rss);
+  }
+  clearInterval(timer);
+  let agree = 0, total = 0;
+  const { areas } = triangleNormalsAndAreas(analysis!.mesh);
+  for (let f = 0; f < analysis!.triangleClass.length; f++) {
+    total += areas[f];
+    if ((analysis!.triangleClass[f] === 0 ? 1 : 0) === big.truth[analysis!.sourceTriangle[f]]) agree += areas[f];
+  }
+  process.stdout.write(`\nLarge scan: broken tube with known truth, ${big.triangles} triangles, binary PLY ${(big.bytes.length / 1e6).toFixed(1)} MB (one thread; load average ${loadavg().map((x) => x.toFixed(1)).join(' ')} on ${availableParallelism()} cores)\n`);
+  console.table({
+    'ingest + segmentation, best of 3': `${Math.min(...times).toFixed(0)} ms`,
+    'ingest + segmentation, each run': times.map((t) => t.toFixed(0)).join(', ') + ' ms',
+    'peak resident memory of the process': `${(peakRss / 1e6).toFixed(0)} MB`,
+    'per-triangle agreement, area-weighted': pct(agree / total),
+  });
+}

@@ -1,0 +1,78 @@
+/**
+ * `knitbone propose` end to end on a small catalogue (issue 6, item 2): two tubes (analytic
+ * solids built with manifold-3d, a reference library), each cut in two by a rough surface,
+ * scanned pieces moved by known rigid motions. The true joins must be each piece's best
+ * proposal with the right motion; a second run must only skip; a decided join is never touched.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { openCatalogue } from '../../../core/catalogue/catalogue';
+import { applyToPoints, compose, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom, type RigidTransform } from '../../../core/geometry/registration/rigid-transform';
+import { cutTube } from '../../support/bunny-cut';
+import { writePly } from '../../support/write-ply';
+
+const bin = join(import.meta.dirname, '../../../bin/knitbone.js');
+const run = (...args: string[]) => spawnSync(process.execPath, [bin, ...args], { encoding: 'utf8' });
+const dir = mkdtempSync(join(tmpdir(), 'knitbone-propose-'));
+const catalogue = join(dir, 'site.sqlite');
+/** Pose of each scan file: file frame = pose * construction frame. */
+const poses = new Map<string, RigidTransform>();
+
+beforeAll(async () => {
+  mkdirSync(join(dir, 'scans'));
+  const tubes = [await cutTube(), await cutTube({ outerRadius: 10, innerRadius: 6, length: 70, cutY: 8, amplitude: 2, seed: 3 })];
+  let k = 0;
+  for (const [t, tube] of tubes.entries()) {
+    for (const [name, piece] of [['lower', tube.lower], ['upper', tube.upper]] as const) {
+      const no = `T-${t + 1}${name === 'lower' ? 'a' : 'b'}`;
+      const pose = transformFrom(rotationAboutAxis([1 + k, 2 - k, k - 1], 0.7 + 0.9 * k), [40 * k, -25 * k, 15]);
+      k++;
+      poses.set(no, pose);
+      writePly(join(dir, 'scans', `${no}.ply`), applyToPoints(pose, piece.positions), piece.triangles);
+    }
+  }
+  writeFileSync(join(dir, 'specimens.csv'), 'catalogue_no\n' + [...poses.keys()].join('\n') + '\n');
+  expect(run('init', catalogue).status).toBe(0);
+  expect(run('import', 'specimens', catalogue, join(dir, 'specimens.csv')).status).toBe(0);
+  expect(run('import', 'scans', catalogue, join(dir, 'scans')).status).toBe(0);
+}, 120_000);
+
+interface JoinOut { id: number; a: string; b: string; status: string; score: number; transform: number[] }
+
+describe('knitbone propose', () => {
+  it('proposes the true joins as each piece\'s best, with the motion that puts B on A', () => {
+    const r = run('propose', catalogue, '--workers', '2', '--json');
+    expect(r.status).toBe(0);
+    const list = JSON.parse(r.stdout) as JoinOut[];
+    for (const [a, b] of [['T-1a', 'T-1b'], ['T-2a', 'T-2b']]) {
+      const best = list.filter((j) => j.a === a || j.b === a).sort((p, q) => q.score - p.score)[0];
+      expect([best.a, best.b].sort()).toEqual([a, b]);
+      // B's file -> A's file = pose_A * pose_B^-1 (composition of rigid motions)
+      const truth = compose(poses.get(best.a)!, invert(poses.get(best.b)!));
+      expect(rotationErrorDegrees(best.transform, truth)).toBeLessThan(1);
+    }
+  }, 120_000);
+
+  it('a second run with the same parameters aligns nothing again', () => {
+    const r = run('propose', catalogue, '--workers', '1');
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/aligned 0,/);
+  }, 120_000);
+
+  it('never touches a decided join, even when parameters change', () => {
+    const cat = openCatalogue(catalogue);
+    const first = cat.joins.list({ status: 'proposed' })[0];
+    const rejected = cat.joins.update(first.id, { status: 'rejected', decidedBy: 'test', decidedAt: new Date().toISOString() });
+    cat.close();
+    const r = run('propose', catalogue, '--workers', '1', '--min-score', '0.01');
+    expect(r.status).toBe(0);
+    const again = openCatalogue(catalogue);
+    expect(again.joins.get(first.id)).toEqual(rejected);
+    const samePair = again.joins.list().filter((j) => j.id !== first.id && [j.specimenA, j.specimenB].sort().join() === [first.specimenA, first.specimenB].sort().join());
+    again.close();
+    expect(samePair).toEqual([]);
+  }, 120_000);
+});
