@@ -133,4 +133,17 @@ describe('join review', () => {
     expect(svg).toContain('femur');
     expect(b.pageErrors).toEqual([]);
   });
+
+  it('assembles the refit set in 3D with its members and provenience', async () => {
+    const { page } = b;
+    await page.keyboard.press('Alt+4');
+    await page.getByRole('heading', { name: 'Refit sets' }).waitFor();
+    await expect.poll(() => page.locator('.refits-screen h2').first().innerText()).toContain('KB-0001, KB-0002');
+    const members = await page.locator('.refits-screen table').innerText();
+    expect(members).toContain('A1');
+    expect(members).toContain('99.700');
+    await page.locator('.refits-screen .viewer canvas').waitFor({ timeout: 60_000 });
+    await page.waitForTimeout(300);
+    await b.shot('refit-set');
+  });
 });

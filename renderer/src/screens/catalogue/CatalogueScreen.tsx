@@ -5,7 +5,7 @@ import { useWorkspace } from '../../app/workspace';
 import { BenchEntry, type BenchEntryHandle } from './BenchEntry';
 import { CsvTransfer } from './CsvTransfer';
 import { SpecimenTable } from './SpecimenTable';
-import { distinctValues, EMPTY_QUERY, nextCatalogueNo, queryRows, type FieldName, type SpecimenRecord, type TableQuery } from './specimen-view';
+import { distinctValues, EMPTY_QUERY, nextCatalogueNo, PreparedRows, queryPrepared, type FieldName, type SpecimenRecord, type TableQuery } from './specimen-view';
 import { useVocabulary } from './use-vocabulary';
 
 type UndoStep =
@@ -40,7 +40,8 @@ export function CatalogueScreen() {
     void load();
   }, [load, ws.revision]);
 
-  const shown = useMemo(() => (rows ? queryRows(rows, query) : []), [rows, query]);
+  const prepared = useMemo(() => (rows ? new PreparedRows(rows) : null), [rows]);
+  const shown = useMemo(() => (prepared ? queryPrepared(prepared, query) : []), [prepared, query]);
   const units = useMemo(() => (rows ? distinctValues(rows, 'unit') : []), [rows]);
   const levels = useMemo(() => (rows ? distinctValues(rows, 'level') : []), [rows]);
   const layers = useMemo(() => (rows ? distinctValues(rows, 'layer') : []), [rows]);

@@ -1,5 +1,5 @@
 import { useVirtualizer } from '@tanstack/react-virtual';
-import { useEffect, useRef } from 'react';
+import { memo, useEffect, useRef } from 'react';
 import { cellText, COLUMNS, type FieldName, type SpecimenRecord, type TableQuery } from './specimen-view';
 
 const ROW_HEIGHT = 30;
@@ -99,26 +99,7 @@ export function SpecimenTable(props: {
         <div className="table-body" style={{ height: virtualizer.getTotalSize(), width: TOTAL_WIDTH }}>
           {virtualizer.getVirtualItems().map((v) => {
             const r = rows[v.index];
-            const isSel = r.id === selected;
-            return (
-              <div
-                key={r.id}
-                id={`specimen-row-${r.id}`}
-                role="row"
-                aria-rowindex={v.index + 2}
-                aria-selected={isSel}
-                className={`table-row${isSel ? ' selected' : ''}${v.index % 2 ? ' alt' : ''}`}
-                style={{ transform: `translateY(${v.start}px)`, height: ROW_HEIGHT }}
-                onClick={() => props.onSelect(r.id)}
-                onDoubleClick={() => props.onOpen(r.id)}
-              >
-                {COLUMNS.map((c) => (
-                  <div key={c.field} role="gridcell" style={{ width: c.width }} className={c.numeric ? 'num' : ''}>
-                    {cellText(r, c.field)}
-                  </div>
-                ))}
-              </div>
-            );
+            return <Row key={r.id} record={r} index={v.index} start={v.start} selected={r.id === selected} onSelect={props.onSelect} onOpen={props.onOpen} />;
           })}
         </div>
         {rows.length === 0 && <p className="empty">No specimen matches.</p>}
@@ -126,3 +107,33 @@ export function SpecimenTable(props: {
     </div>
   );
 }
+
+/** One row; memoised so scrolling renders only the rows that come into view. */
+const Row = memo(function Row(props: {
+  record: SpecimenRecord;
+  index: number;
+  start: number;
+  selected: boolean;
+  onSelect: (id: number) => void;
+  onOpen: (id: number) => void;
+}) {
+  const r = props.record;
+  return (
+    <div
+      id={`specimen-row-${r.id}`}
+      role="row"
+      aria-rowindex={props.index + 2}
+      aria-selected={props.selected}
+      className={`table-row${props.selected ? ' selected' : ''}${props.index % 2 ? ' alt' : ''}`}
+      style={{ transform: `translateY(${props.start}px)`, height: ROW_HEIGHT }}
+      onClick={() => props.onSelect(r.id)}
+      onDoubleClick={() => props.onOpen(r.id)}
+    >
+      {COLUMNS.map((c) => (
+        <div key={c.field} role="gridcell" style={{ width: c.width }} className={c.numeric ? 'num' : ''}>
+          {cellText(r, c.field)}
+        </div>
+      ))}
+    </div>
+  );
+});

@@ -69,40 +69,84 @@ export interface TableQuery {
 
 export const EMPTY_QUERY: TableQuery = { text: '', unit: '', level: '', layer: '', sort: { field: 'catalogueNo', descending: false } };
 
-/** Natural order: "B-2" before "B-10"; blanks last. */
-const collator = new Intl.Collator(undefined, { numeric: true, sensitivity: 'base' });
+/** A natural-order key: digit runs zero-padded ("B-2" before "B-10"), case folded. */
+export function naturalKey(text: string): string {
+  return text.toLowerCase().replace(/\d+/g, (d) => d.padStart(12, '0'));
+}
 
-function compare(a: SpecimenRecord, b: SpecimenRecord, field: FieldName): number {
-  const va = a[field];
-  const vb = b[field];
-  const blankA = va === null || (Array.isArray(va) && va.length === 0);
-  const blankB = vb === null || (Array.isArray(vb) && vb.length === 0);
-  if (blankA || blankB) return blankA === blankB ? 0 : blankA ? 1 : -1;
-  if (typeof va === 'number' && typeof vb === 'number') return va - vb;
-  return collator.compare(cellText(a, field), cellText(b, field));
+/**
+ * Rows made ready for fast queries: the text every word is searched in, and sort keys
+ * computed once per field (plain comparisons then; no locale-aware compare per pair).
+ */
+export class PreparedRows {
+  readonly hay: string[];
+  private readonly keys = new Map<FieldName, Array<string | number | null>>();
+  private readonly orders = new Map<string, number[]>();
+
+  constructor(readonly rows: readonly SpecimenRecord[]) {
+    this.hay = rows.map((r) => COLUMNS.map((c) => cellText(r, c.field)).join(' ').toLowerCase());
+  }
+
+  private keysOf(field: FieldName): Array<string | number | null> {
+    let k = this.keys.get(field);
+    if (!k) {
+      k = this.rows.map((r) => {
+        const v = r[field];
+        if (v === null || (Array.isArray(v) && v.length === 0)) return null;
+        return typeof v === 'number' ? v : naturalKey(cellText(r, field));
+      });
+      this.keys.set(field, k);
+    }
+    return k;
+  }
+
+  /** Row indices in the order of a field (blanks last), ties by catalogue number. */
+  order(field: FieldName, descending: boolean): number[] {
+    const id = `${field}:${descending}`;
+    const cached = this.orders.get(id);
+    if (cached) return cached;
+    const k = this.keysOf(field);
+    const tie = this.keysOf('catalogueNo');
+    const idx = this.rows.map((_, i) => i);
+    idx.sort((i, j) => {
+      const a = k[i];
+      const b = k[j];
+      if (a === null || b === null) return a === b ? cmp(tie[i], tie[j]) : a === null ? 1 : -1;
+      const c = cmp(a, b) || cmp(tie[i], tie[j]);
+      return descending ? -c : c;
+    });
+    this.orders.set(id, idx);
+    return idx;
+  }
+}
+
+function cmp(a: string | number | null, b: string | number | null): number {
+  return a === b ? 0 : (a as string | number) < (b as string | number) ? -1 : 1;
 }
 
 /**
  * Rows that match the query, in its order. The text matches any field (all words must
  * appear somewhere in the record); unit, level and layer match exactly.
  */
-export function queryRows(rows: readonly SpecimenRecord[], q: TableQuery): SpecimenRecord[] {
+export function queryPrepared(p: PreparedRows, q: TableQuery): SpecimenRecord[] {
   const words = q.text.toLowerCase().split(/\s+/).filter(Boolean);
-  const out = rows.filter((r) => {
-    if (q.unit && r.unit !== q.unit) return false;
-    if (q.level && r.level !== q.level) return false;
-    if (q.layer && r.layer !== q.layer) return false;
-    if (words.length === 0) return true;
-    const hay = COLUMNS.map((c) => cellText(r, c.field)).join(' ').toLowerCase();
-    return words.every((w) => hay.includes(w));
-  });
-  const { field, descending } = q.sort;
-  out.sort((a, b) => {
-    const c = compare(a, b, field) || collator.compare(a.catalogueNo, b.catalogueNo);
-    return descending && c !== 0 ? -c : c;
-  });
+  const out: SpecimenRecord[] = [];
+  for (const i of p.order(q.sort.field, q.sort.descending)) {
+    const r = p.rows[i];
+    if (q.unit && r.unit !== q.unit) continue;
+    if (q.level && r.level !== q.level) continue;
+    if (q.layer && r.layer !== q.layer) continue;
+    if (words.length && !words.every((w) => p.hay[i].includes(w))) continue;
+    out.push(r);
+  }
   return out;
 }
+
+export function queryRows(rows: readonly SpecimenRecord[], q: TableQuery): SpecimenRecord[] {
+  return queryPrepared(new PreparedRows(rows), q);
+}
+
+const collator = new Intl.Collator(undefined, { numeric: true, sensitivity: 'base' });
 
 /** Distinct non-blank values of a field, naturally sorted (for filters and type-ahead). */
 export function distinctValues(rows: readonly SpecimenRecord[], field: FieldName): string[] {

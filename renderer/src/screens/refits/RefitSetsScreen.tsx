@@ -30,6 +30,7 @@ export function RefitSetsScreen() {
   const [error, setError] = useState<unknown>(null);
   const [chosen, setChosen] = useState(0);
   const [meshes, setMeshes] = useState<Map<string, MeshView>>(new Map());
+  const [solved, setSolved] = useState<Array<{ members: Array<{ catalogueNo: string; pose: number[] }> }> | null>(null);
 
   useEffect(() => {
     if (!ws.has('joins.list')) return;
@@ -38,7 +39,22 @@ export function RefitSetsScreen() {
       .catch(setError);
   }, [ws.client, ws.catalogue, ws.revision]);
 
-  const sets = useMemo(() => (joins ? refitSetsFromJoins(joins) : []), [joins]);
+  // Poses refined over the whole pose graph (cycles reconciled), when the host computes them.
+  useEffect(() => {
+    if (!ws.has('proposals.poses')) return;
+    callByName<Array<{ members: Array<{ catalogueNo: string; pose: number[] }> }>>(ws.client, 'proposals.poses', { catalogue: ws.catalogue })
+      .then(setSolved)
+      .catch(() => setSolved(null));
+  }, [ws.client, ws.catalogue, ws.revision]);
+
+  const sets = useMemo(() => {
+    const chained = joins ? refitSetsFromJoins(joins) : [];
+    for (const set of chained) {
+      const found = solved?.find((x) => set.members.every((m) => x.members.some((y) => y.catalogueNo === m)));
+      if (found) for (const m of found.members) set.poses.set(m.catalogueNo, m.pose);
+    }
+    return chained;
+  }, [joins, solved]);
   const set = sets[Math.min(chosen, Math.max(0, sets.length - 1))];
 
   useEffect(() => {
@@ -75,7 +91,7 @@ export function RefitSetsScreen() {
     <section className="refits-screen" aria-labelledby="refits-title">
       <div className="screen-head">
         <h1 id="refits-title">Refit sets</h1>
-        <span className="count">{sets.length} sets from accepted conjoins</span>
+        <span className="count">{sets.length} {sets.length === 1 ? "set" : "sets"} from accepted conjoins</span>
       </div>
       {sets.length === 0 ? (
         <p className="empty">No accepted conjoins yet. Accept proposals in the review, or record joins found by hand.</p>

@@ -34,6 +34,25 @@ export function ReviewScreen() {
   const [details, setDetails] = useState<{ scoreComponents: Record<string, number>; breakAge?: string | null } | null>(null);
   const canPreview = ws.has('joins.preview');
   const canUndoReject = ws.has('joins.reopen');
+  const canPropose = ws.has('proposals.run');
+  const [proposing, setProposing] = useState<string | null>(null);
+
+  async function propose(): Promise<void> {
+    setProposing('starting...');
+    setError(null);
+    try {
+      const found = await callByName<unknown[]>(ws.client, 'proposals.run', { catalogue: ws.catalogue }, {
+        onProgress: (e) => setProposing(`${e.stage}: ${e.done} of ${e.total}`),
+      });
+      ws.say(`Proposal run finished${Array.isArray(found) ? `: ${found.length} proposals in the catalogue` : ''}.`);
+      ws.changed();
+      await load();
+    } catch (err) {
+      setError(err);
+    } finally {
+      setProposing(null);
+    }
+  }
 
   const load = useCallback(async () => {
     try {
@@ -179,6 +198,16 @@ export function ReviewScreen() {
       <div className="screen-head">
         <h1 id="review-title">Proposed joins</h1>
         <span className="count">{queue.length} waiting</span>
+        {canPropose && (
+          <button type="button" onClick={() => void propose()} disabled={proposing !== null}>
+            {proposing === null ? 'Find joins in the scans' : 'Finding joins...'}
+          </button>
+        )}
+        {proposing && (
+          <span className="hint" role="status">
+            {proposing}
+          </span>
+        )}
         <button type="button" onClick={() => void undo()} disabled={!canUndo || busy}>
           {last ? `Undo ${last.kind} of #${last.join.id}` : 'Undo'} <kbd>U</kbd>
         </button>
