@@ -38,9 +38,9 @@ export function specimenCsvRows(specimens: readonly Specimen[]): string[][] {
   return specimens.map((s) => SPECIMEN_CSV_COLUMNS.map(([, f]) => cell(s[f])));
 }
 
-/** The specimens.csv text (UTF-8, comma-separated, header row). */
-export function specimensCsv(cat: Catalogue): string {
-  return stringify([SPECIMEN_CSV_COLUMNS.map(([c]) => c), ...specimenCsvRows(cat.specimens.list())]);
+/** The specimens.csv text (UTF-8, comma-separated, header row) of all or some specimens. */
+export function specimensCsv(cat: Catalogue, specimens: readonly Specimen[] = cat.specimens.list()): string {
+  return stringify([SPECIMEN_CSV_COLUMNS.map(([c]) => c), ...specimenCsvRows(specimens)]);
 }
 
 export const JOIN_CSV_COLUMNS = [

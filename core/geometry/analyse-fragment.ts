@@ -6,6 +6,7 @@ import { enclosedVolume, surfaceArea } from './measure';
 import { boundingBox, triangleNormalsAndAreas, vertexNormals, type BoundingBox, type TriangleMesh } from './mesh';
 import { bilateralNormalFilter, triangleCentroids } from './normal-filter';
 import { growRegions, mergeSmallRegions } from './regions';
+import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { facingGroups, fitShaftAxis, type ShaftAxis } from './shaft-axis';
@@ -100,7 +101,8 @@ export function analyseFragment(
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
   const axis = fitShaftAxis(centroids, filtered, areas);
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
-  let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing);
+  const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
+  let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);
   region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
   let regionCount = 0;
   for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;

@@ -3,10 +3,10 @@
  * differ by less than a threshold angle belong to one region, so regions end at creases such
  * as the edge where a break meets the bone surface. Tiny regions (noise islands) are then
  * merged into the neighbour they share most edges with. When `group` is given, growth also
- * stays inside one group (e.g. triangles facing out from the shaft axis, facing in, or
+ * stays inside one group, and never crosses an edge flagged as a ridge (ridges.ts) (e.g. triangles facing out from the shaft axis, facing in, or
  * neither), which keeps a region from leaking across a worn or chipped break edge.
  */
-export function growRegions(neighbours: Int32Array, normals: Float32Array, growAngleDeg: number, group?: Uint8Array): Uint32Array {
+export function growRegions(neighbours: Int32Array, normals: Float32Array, growAngleDeg: number, group?: Uint8Array, ridge?: Uint8Array): Uint32Array {
   const nt = neighbours.length / 3;
   const region = new Uint32Array(nt).fill(0xffffffff);
   const cosMax = Math.cos((growAngleDeg * Math.PI) / 180);
@@ -24,6 +24,7 @@ export function growRegions(neighbours: Int32Array, normals: Float32Array, growA
         const g = neighbours[3 * f + j];
         if (g < 0 || region[g] !== 0xffffffff) continue;
         if (group && group[g] !== group[f]) continue;
+        if (ridge && ridge[3 * f + j]) continue;
         const dot = normals[3 * f] * normals[3 * g] + normals[3 * f + 1] * normals[3 * g + 1] + normals[3 * f + 2] * normals[3 * g + 2];
         if (dot < cosMax) continue;
         region[g] = id;

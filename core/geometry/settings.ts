@@ -19,6 +19,10 @@ export const analysisSettingsSchema = z.object({
   growAngleDeg: z.number().positive().max(90).default(10),
   /** An edge whose filtered normals differ by more than this is a ridge (a candidate break edge). */
   ridgeAngleDeg: z.number().positive().max(180).default(35),
+  /** Open ridge ends are joined to another ridge at most this far away (ridges.ts). */
+  ridgeGapMm: z.number().min(0).default(3),
+  /** How strongly closing paths prefer bent surface: edge cost = length / (1 + weight |k| mean edge). */
+  ridgeCurvatureWeight: z.number().min(0).default(4),
   /** Regions smaller than this share of the fragment's area are merged into a neighbour. */
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**

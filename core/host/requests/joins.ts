@@ -276,6 +276,26 @@ export const joinsRequests = {
       }),
   }),
 
+  'joins.reopen': defineRequest({
+    summary: 'Undo the rejection of a join: it returns to what it was before (usually proposed)',
+    input: z.object({ catalogue: cataloguePath, id: joinId, by }).strict(),
+    run: (input) =>
+      withCatalogue(input.catalogue, (cat) =>
+        decide(cat, (refits) => {
+          const current = cat.joins.require(input.id);
+          if (current.status !== 'rejected') throw new KnitboneError('conflict', `join ${input.id} is ${current.status}, not rejected; there is nothing to reopen`);
+          const made = cat.history
+            .list({ entity: 'join', entityId: current.id })
+            .filter((h) => h.action === 'reject')
+            .pop();
+          // The reject entry holds every field the rejection changed, as it was before.
+          const before = (made?.before ?? { status: 'proposed', decidedBy: null, decidedAt: null }) as JoinPatch;
+          const join = cat.joins.update(current.id, before, input.by ?? cat.who, 'reopen');
+          return { result: decision(join, refits, [], { set: [], removed: [] }), refits };
+        }),
+      ),
+  }),
+
   'joins.list': defineRequest({
     summary: 'Joins of a catalogue (optionally of one status), with catalogue numbers',
     input: z.object({ catalogue: cataloguePath, status: z.enum(['proposed', 'accepted', 'rejected']).optional() }).strict(),

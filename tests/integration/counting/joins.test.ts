@@ -170,4 +170,30 @@ describe('joins through the host API', () => {
     outside.close();
     expect((await host.call('tally.counts', { catalogue: path })).recorded.nisp).toBe(1);
   });
+
+  it('preview (the review screen\'s request) says what accepting would change, and accepting does exactly that; reopen undoes a rejection', async () => {
+    const path = fresh([shaft, deerFemur, { catalogueNo: 'K-3', taxon: 'Cervus elaphus', element: 'femur', side: 'left', portion: ['midshaft'] }]);
+    const id = propose(path, 'K-1', 'K-2', { breakAge: 'dry' });
+    const joinsBefore = await host.call('joins.list', { catalogue: path });
+    const p = await host.call('joins.preview', { catalogue: path, id });
+    expect(p.conflicts).toEqual([]);
+    expect(p.derived.sort((x, y) => x.field.localeCompare(y.field))).toEqual([
+      { specimen: 'K-1', field: 'element', before: null, after: 'femur' },
+      { specimen: 'K-1', field: 'side', before: null, after: 'left' },
+      { specimen: 'K-1', field: 'taxon', before: null, after: 'Cervus elaphus' },
+    ]);
+    expect(p.elements).toEqual([
+      { taxon: 'Cervus elaphus', element: 'femur', before: { nisp: 2, mneLeft: 1, mneRight: 0, mne: 1 }, after: { nisp: 2, mneLeft: 2, mneRight: 0, mne: 2 } },
+    ]);
+    expect(readBack(path).derived).toEqual([]); // nothing written
+    await host.call('joins.accept', { catalogue: path, id });
+    const t = await host.call('tally.counts', { catalogue: path });
+    expect(t.refitted.nisp).toBe(p.nisp.after);
+    expect(t.refitted.identifiedToElement).toBe(p.identifiedToElement.after);
+    expect(t.refitted.byElement[0]).toMatchObject(p.elements[0].after!);
+    await host.call('joins.unlink', { catalogue: path, id });
+    await host.call('joins.reject', { catalogue: path, id });
+    await host.call('joins.reopen', { catalogue: path, id });
+    expect(await host.call('joins.list', { catalogue: path })).toEqual(joinsBefore);
+  });
 });

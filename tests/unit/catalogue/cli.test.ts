@@ -1,7 +1,8 @@
 import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
+import { runCli } from '../../../core/cli/main';
 import { readMigrations } from '../../../core/catalogue/migrate';
 import { tempDir } from './helpers';
 
@@ -43,13 +44,17 @@ describe('knitbone init, import specimens, export', () => {
     expect(readFileSync(join(out, 'history.csv'), 'utf8')).toMatch(/cli tester/);
   });
 
-  it('exits 2 on usage errors and 1 for a missing catalogue', () => {
+  it('exits 2 on usage errors and 1 for a missing catalogue (in-process, same entry point)', async () => {
     const dir = tempDir();
-    expect(run('import', 'specimens', join(dir, 'x.sqlite')).status).toBe(2);
-    expect(run('export', join(dir, 'x.sqlite')).status).toBe(2);
-    const missing = run('export', join(dir, 'missing.sqlite'), '--out', join(dir, 'o'));
-    expect(missing.status).toBe(1);
-    expect(missing.stderr).toMatch(/no catalogue here/);
+    const quiet = vi.spyOn(process.stderr, 'write').mockImplementation(() => true);
+    try {
+      expect(await runCli(['import', 'specimens', join(dir, 'x.sqlite')])).toBe(2);
+      expect(await runCli(['export', join(dir, 'x.sqlite')])).toBe(2);
+      expect(await runCli(['export', join(dir, 'missing.sqlite'), '--out', join(dir, 'o')])).toBe(1);
+      expect(quiet.mock.calls.map((c) => String(c[0])).join('')).toMatch(/no catalogue here/);
+    } finally {
+      quiet.mockRestore();
+    }
     expect(existsSync(join(dir, 'missing.sqlite'))).toBe(false);
   });
 });
