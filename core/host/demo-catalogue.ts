@@ -1,5 +1,6 @@
-import { existsSync, mkdirSync, readdirSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, rmSync } from 'node:fs';
 import { dirname, join } from 'node:path';
+import { KnitboneError, formatProblem } from './errors';
 import { Host } from './host';
 
 type LooseCall = (name: string, input: unknown) => Promise<unknown>;
@@ -26,11 +27,28 @@ export async function ensureDemoCatalogue(sampleDir: string, target: string, say
   const call = host.callUnchecked.bind(host) as LooseCall;
   say('building the demo catalogue from demo-data/sample/ ...');
   mkdirSync(dirname(target), { recursive: true });
-  await call('catalogue.init', { catalogue: target });
-  await call('specimens.import', { catalogue: target, file: csv });
+  try {
+    await call('catalogue.init', { catalogue: target });
+    await call('specimens.import', { catalogue: target, file: csv });
+  } catch (err) {
+    say('the demo catalogue could not be built from the sample:');
+    for (const line of problemLines(err)) say(`  ${line}`);
+    for (const suffix of ['', '-wal', '-shm']) rmSync(target + suffix, { force: true });
+    return null;
+  }
   const scans = join(sampleDir, 'scans');
-  if (Host.has('import.scans') && existsSync(scans) && readdirSync(scans).length > 0) {
-    await call('import.scans', { catalogue: target, folder: scans });
+  if (Host.has('scans.import') && existsSync(scans) && readdirSync(scans).length > 0) {
+    try {
+      await call('scans.import', { catalogue: target, folder: scans, skipBad: true });
+    } catch (err) {
+      say('the demo scans could not be linked (the specimens are in):');
+      for (const line of problemLines(err)) say(`  ${line}`);
+    }
   }
   return target;
+}
+
+function problemLines(err: unknown): string[] {
+  if (err instanceof KnitboneError) return err.problems.slice(0, 10).map(formatProblem);
+  return [err instanceof Error ? err.message : String(err)];
 }
