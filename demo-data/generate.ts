@@ -47,7 +47,8 @@ export interface ProgressLike {
   (e: { stage: string; done: number; total: number; detail?: string }): void;
 }
 
-export const DEFAULT_POINT_SPACING = 0.5;
+export const DEFAULT_POINT_SPACING = 1.0;
+export const DEMO_TRUTH_FORMAT = 'knitbone demo truth 1';
 export const DEFAULT_NOISE: readonly [number, number] = [0.02, 0.1];
 
 const LABEL_LEGEND = {
@@ -90,7 +91,7 @@ export async function generateAssemblage(options: GenerateOptions, onProgress: P
   put(
     truth,
     '{\n' +
-      `"format": "knitbone demo truth 1",\n"seed": ${JSON.stringify(String(options.seed))},\n` +
+      `"format": "${DEMO_TRUTH_FORMAT}",\n"seed": ${JSON.stringify(String(options.seed))},\n` +
       `"site": ${JSON.stringify(SITE)},\n` +
       `"units": "millimetres in scans and transforms; metres for x, y, z provenience",\n` +
       `"transformConvention": "4x4 row-major rigid matrices; poseBoneToScan maps the bone frame to the fragment's scan frame; a join's transformBToA maps points of B's scan file into A's scan file frame",\n` +

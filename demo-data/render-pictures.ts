@@ -3,7 +3,7 @@
  * broken long bone: a row of single fragments as scanned, and one bone put back together from
  * its fragments with the true poses. three.js in headless Chromium (software WebGL).
  *
- *   npx tsx demo-data/render-pictures.ts <assemblage-dir> <out.png> [bone-id]
+ *   npx tsx demo-data/render-pictures.ts <assemblage-dir> <out.png> [bone-id] [explode factor, 0 = closed]
  *
  * Fracture faces are drawn in a darker, warmer tone than the original bone surface; damage
  * scars in grey.
@@ -24,7 +24,8 @@ interface TruthFragment {
   triangleLabels: string;
 }
 
-const [dir, out, wantBone] = process.argv.slice(2);
+const [dir, out, wantBone, explode] = process.argv.slice(2);
+const explodeFactor = explode === undefined ? 1 : Number(explode);
 if (!dir || !out) {
   process.stderr.write('usage: tsx demo-data/render-pictures.ts <assemblage-dir> <out.png> [bone-id]\n');
   process.exit(2);
@@ -90,6 +91,8 @@ const page = `<!doctype html><html><body style="margin:0;background:#f4f1ea">
 <script type="importmap">{"imports":{"three":"http://render.local/three.module.js"}}</script>
 <script type="module">
 import * as THREE from 'three';
+const EXPLODE_SIDE = ${0.9 * explodeFactor};
+const EXPLODE_ALONG = ${0.12 * explodeFactor};
 const index = await (await fetch('http://render.local/scene.json')).json();
 const blob = await (await fetch('http://render.local/scene.bin')).arrayBuffer();
 const unpack = (e) => ({ soup: new Float32Array(blob, e.soupAt, e.triangles * 9), labels: new Uint8Array(blob, e.labelsAt, e.triangles) });
@@ -116,7 +119,16 @@ function meshOf(item, fractureTone) {
 // the reassembled bone, lying along x at the top
 const boneGroup = new THREE.Group();
 const tones = [[0.74, 0.45, 0.30], [0.66, 0.38, 0.26], [0.78, 0.52, 0.34]];
-data.bone.forEach((item, i) => boneGroup.add(meshOf(item, tones[i % tones.length])));
+const boneMeshes = data.bone.map((item, i) => meshOf(item, tones[i % tones.length]));
+// pull the pieces a little apart (sideways from the shaft axis, a little along it) so the breaks show
+const all = new THREE.Box3();
+boneMeshes.forEach((m) => all.expandByObject(m));
+const mid = all.getCenter(new THREE.Vector3());
+for (const m of boneMeshes) {
+  const c = new THREE.Box3().setFromObject(m).getCenter(new THREE.Vector3()).sub(mid);
+  m.position.set(c.x * EXPLODE_SIDE, c.y * EXPLODE_SIDE, c.z * EXPLODE_ALONG);
+  boneGroup.add(m);
+}
 boneGroup.rotation.set(0, Math.PI / 2, 0);
 boneGroup.rotateX(-0.35);
 scene.add(boneGroup);

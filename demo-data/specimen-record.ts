@@ -60,10 +60,12 @@ export function specimenRow(f: FragmentFacts, random: Random): SpecimenRow {
   const largest = [...f.faceAges].sort((a, b) => b.area - a.area)[0];
   const mods: string[] = [];
   const fresh = f.faceAges.some((a) => a.age === 'fresh');
-  if (fresh && random.chance(0.2)) mods.push('percussion notch');
-  if (random.chance(0.07)) mods.push('cut marks');
-  if (random.chance(0.04)) mods.push('carnivore tooth pits');
-  if (random.chance(0.15)) mods.push('root etching');
+  // terms of the catalogue's modification vocabulary (core/vocab/terms.ts)
+  if (fresh && random.chance(0.2)) mods.push('percussion-notch');
+  if (random.chance(0.07)) mods.push('cut-mark');
+  if (random.chance(0.04)) mods.push('carnivore-tooth-mark');
+  if (random.chance(0.15)) mods.push('root-etching');
+  if (!fresh && random.chance(0.3)) mods.push('weathering-1');
   const notes: string[] = [];
   if (f.faceAges.some((a) => a.age === 'modern') && largest?.age !== 'modern') notes.push('also a modern break');
   if (f.damaged) notes.push('edges chipped or worn');

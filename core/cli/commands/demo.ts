@@ -1,3 +1,4 @@
+import { join } from 'node:path';
 import type { Command } from 'commander';
 import { KnitboneError } from '../../host/errors';
 import { Host } from '../../host/host';
@@ -11,32 +12,62 @@ function positiveInt(name: string) {
   };
 }
 
+/**
+ * `knitbone demo <dir>`: generate the invented assemblage, then load it into a catalogue
+ * `<dir>/demo.sqlite` (specimens, then scans) through the same host requests as
+ * `knitbone init`, `import specimens` and `import scans`.
+ */
 export function registerDemo(program: Command): void {
   program
     .command('demo')
-    .description('generate the invented demo assemblage (scans, specimens.csv, truth.json) in <dir>')
-    .argument('<dir>', 'folder to write into (created if missing)')
+    .description('generate the invented demo assemblage in <dir> (scans, specimens.csv, truth.json) and load it into <dir>/demo.sqlite')
+    .argument('<dir>', 'new or empty folder to write into (an earlier demo without its catalogue is replaced)')
     .option('--fragments <N>', 'number of fragments', positiveInt('fragments'), 60)
     .option('--seed <S>', 'seed: the same seed gives the same files', 'quarnel')
-    .option('--spacing <mm>', 'scanner point spacing in mm (default 0.5)', (v: string) => {
+    .option('--spacing <mm>', 'scanner point spacing in mm, 0.1-3 (default 1; a structured-light scanner is 0.1-0.5)', (v: string) => {
       const n = Number(v);
       if (!Number.isFinite(n) || n < 0.1 || n > 3) throw new KnitboneError('usage', `--spacing must be between 0.1 and 3 mm, not "${v}"`);
       return n;
     })
+    .option('--no-catalogue', 'write the files only; do not build demo.sqlite')
     .option('--json', 'print a JSON summary')
-    .action(async (dir: string, opts: { fragments: number; seed: string; spacing?: number; json?: boolean }) => {
+    .action(async (dir: string, opts: { fragments: number; seed: string; spacing?: number; catalogue: boolean; json?: boolean }) => {
+      const host = new Host();
       const progress = terminalProgress();
-      const summary = await new Host().call(
-        'demo.generate',
-        { dir, fragments: opts.fragments, seed: opts.seed, pointSpacing: opts.spacing },
-        { onProgress: progress.onProgress },
-      );
-      progress.finish();
-      if (opts.json) printJson(summary);
-      else
-        process.stderr.write(
-          `wrote ${summary.fragments} fragments of ${summary.bones} bones (${summary.joins} true joins) to ${dir} ` +
-            `in ${summary.seconds.toFixed(1)} s, ${(summary.bytesWritten / 1e6).toFixed(1)} MB\n`,
+      try {
+        const generated = await host.call(
+          'demo.generate',
+          { dir, fragments: opts.fragments, seed: opts.seed, pointSpacing: opts.spacing },
+          { onProgress: progress.onProgress },
         );
+        let catalogue: { path: string; specimens: unknown; scans: { imported: number; unmatched: number } } | undefined;
+        if (opts.catalogue) {
+          const path = join(dir, 'demo.sqlite');
+          await host.call('catalogue.init', { catalogue: path, who: 'knitbone demo' });
+          const specimens = await host.call(
+            'specimens.import',
+            { catalogue: path, file: generated.specimensCsv, who: 'knitbone demo' },
+            { onProgress: progress.onProgress },
+          );
+          const scans = await host.call(
+            'scans.import',
+            { catalogue: path, folder: generated.scansFolder, units: 'mm', who: 'knitbone demo' },
+            { onProgress: progress.onProgress },
+          );
+          catalogue = { path, specimens, scans: { imported: scans.imported.length, unmatched: scans.unmatched.length } };
+        }
+        progress.finish();
+        const summary = { ...generated, catalogue };
+        if (opts.json) printJson(summary);
+        else
+          process.stderr.write(
+            `wrote ${generated.fragments} fragments of ${generated.bones} bones (${generated.joins} true joins) to ${dir} ` +
+              `in ${generated.seconds.toFixed(1)} s, ${(generated.bytesWritten / 1e6).toFixed(1)} MB` +
+              (catalogue ? `; catalogue ${catalogue.path} with ${catalogue.scans.imported} scans linked` : '') +
+              '\n',
+          );
+      } finally {
+        progress.finish();
+      }
     });
 }

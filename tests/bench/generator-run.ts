@@ -1,0 +1,13 @@
+/** One generator run for generator.bench.ts: prints its summary and peak memory as JSON. */
+import { DEFAULT_POINT_SPACING, generateAssemblage } from '../../demo-data/generate';
+
+const [dir, n, spacingArg] = process.argv.slice(2);
+const spacing = spacingArg ? Number(spacingArg) : DEFAULT_POINT_SPACING;
+let peak = 0;
+const timer = setInterval(() => (peak = Math.max(peak, process.memoryUsage().rss)), 50);
+const summary = await generateAssemblage({ outDir: dir, fragments: Number(n), seed: `bench-${n}`, pointSpacing: spacing }, () => {
+  peak = Math.max(peak, process.memoryUsage().rss);
+});
+clearInterval(timer);
+peak = Math.max(peak, process.memoryUsage().rss);
+process.stdout.write(JSON.stringify({ ...summary, spacing, peakRssMb: peak / 1e6 }) + '\n');
