@@ -73,6 +73,11 @@ export interface SpatialAnalysis {
    */
   layerMatrix: Record<string, Record<string, number>>;
   perLayer: Record<string, LayerCrossing>;
+  /**
+   * The layers in reading order (numbers numerically, then text: 2, 3a, 3b, 4). JSON objects
+   * put integer-like keys first whatever their order, so readers go by this list, not by keys.
+   */
+  layers: string[];
 }
 
 const differs = (p: string | null, q: string | null): boolean | null =>
@@ -219,5 +224,5 @@ export function analyseRefits(
     };
   }
 
-  return { filter, joins: placed, excluded, summary, layerMatrix, perLayer: perLayerOut };
+  return { filter, joins: placed, excluded, summary, layerMatrix, perLayer: perLayerOut, layers };
 }

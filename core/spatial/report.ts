@@ -14,6 +14,8 @@ export interface SpatialReport {
   summary: SpatialSummary;
   layerMatrix: Record<string, Record<string, number>>;
   perLayer: Record<string, LayerCrossing>;
+  /** Layers in reading order (see SpatialAnalysis.layers). */
+  layers: string[];
   excluded: ExcludedJoin[];
 }
 
@@ -60,6 +62,7 @@ export function spatialReport(analysis: SpatialAnalysis): SpatialReport {
       shareCrossingLayer: roundOrNull(s.shareCrossingLayer, SHARE),
     },
     layerMatrix: analysis.layerMatrix,
+    layers: analysis.layers,
     perLayer: Object.fromEntries(
       Object.entries(analysis.perLayer).map(([k, v]) => [
         k,

@@ -59,13 +59,15 @@ export function registerSpatial(program: Command): void {
         `vertical displacement: mean ${metres(s.meanVerticalM)}, median ${metres(s.medianVerticalM)}, max ${metres(s.maxVerticalM)}`,
         `crossing units ${share(s.shareCrossingUnit)}, levels ${share(s.shareCrossingLevel)}, layers ${share(s.shareCrossingLayer)}`,
       ];
-      const layers = Object.keys(report.layerMatrix);
+      const layers = report.layers.filter((l) => report.layerMatrix[l] !== undefined);
       if (layers.length) {
         const w = Math.max(5, ...layers.map((l) => l.length));
         lines.push('', 'joins between layers:', ['layer'.padEnd(w), ...layers.map((l) => l.padStart(w))].join('  '));
         for (const p of layers) lines.push([p.padEnd(w), ...layers.map((q) => String(report.layerMatrix[p][q]).padStart(w))].join('  '));
         lines.push('', 'per layer: joins, share leaving the layer, share crossing levels');
-        for (const [layer, c] of Object.entries(report.perLayer)) {
+        for (const layer of report.layers) {
+          const c = report.perLayer[layer];
+          if (!c) continue;
           lines.push(`${layer.padEnd(w)}  ${String(c.joins).padStart(5)}  ${share(c.shareCrossingLayer).padStart(8)}  ${share(c.shareCrossingLevel).padStart(8)}`);
         }
       }

@@ -62,7 +62,7 @@ export function buildFigure(
       return distanceHistogram(analysis.joins.map((j) => j[pick]), measure, base);
     }
     case 'layers':
-      return layerMatrixFigure(analysis.layerMatrix, analysis.perLayer, base);
+      return layerMatrixFigure(analysis.layerMatrix, analysis.perLayer, analysis.layers, base);
     case 'rose':
       return roseDiagram(
         analysis.joins.flatMap((j) => (j.bearingDeg === null ? [] : [j.bearingDeg])),

@@ -25,9 +25,11 @@ const percent = (v: number | null) => (v === null ? '–' : `${Math.round(v * 10
 export function layerMatrixFigure(
   matrix: Record<string, Record<string, number>>,
   perLayer: Record<string, LayerCrossing>,
+  order: readonly string[],
   options: LayerMatrixOptions = {},
 ): string {
-  const layers = Object.keys(matrix);
+  // Rows and columns in reading order; only layers that have a row in the matrix.
+  const layers = order.filter((l) => matrix[l] !== undefined);
   const cell = 44;
   const left = 20;
   const labelW = Math.max(60, 8 * Math.max(0, ...layers.map((l) => l.length)) + 16);

@@ -138,6 +138,15 @@ describe('analyseRefits', () => {
     expect(a.summary.shareCrossingLayer).toBeCloseTo(3 / 5, 10);
   });
 
+  it('keeps layers in reading order, numbers numerically: 2, 3a, 3b, 4, 10', () => {
+    const names = ['10', '3b', '4', '2', '3a'];
+    const s = names.map((layer, i) => specimen(i + 1, { x: i, y: 0, z: 0, layer }));
+    const joins = names.map((_, i) => join(i + 1, ((i + 1) % names.length) + 1));
+    const a = analyseRefits(s, joins, noSiteDefinitions);
+    expect(a.layers).toEqual(['2', '3a', '3b', '4', '10']);
+    expect(spatialReport(a).layers).toEqual(['2', '3a', '3b', '4', '10']);
+  });
+
   it('filters by join type family, taxon and layer (either end matches)', () => {
     const s = [
       specimen(1, { x: 0, y: 0, z: 0, layer: 'A', taxon: 'Cervus elaphus' }),
