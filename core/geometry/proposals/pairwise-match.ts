@@ -24,8 +24,8 @@ export interface MatchParameters {
 }
 
 export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
-  ransacIterations: 3000,
-  hypothesesPerPair: 3,
+  ransacIterations: 5000,
+  hypothesesPerPair: 5,
   icpTrim: 0.7,
   contactToleranceSpacings: 0.4,
   seed: 1,
@@ -64,7 +64,7 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
     const icp = icpPointToPlane(FB.points, FB.normals, a.surface, first.transform, {
       maxDistance: 1.5 * spacing,
       trim: params.icpTrim,
-      maxIterations: 10,
+      maxIterations: 25,
       tolerance: 1e-4 * spacing,
     });
     const s = scoreJoin(side(a, FA), side(b, FB), icp.transform, { contactTolerance: tol });
