@@ -145,5 +145,10 @@ describe('join review', () => {
     await page.locator('.refits-screen .viewer canvas').waitFor({ timeout: 60_000 });
     await page.waitForTimeout(300);
     await b.shot('refit-set');
+    await page.getByRole('button', { name: 'Dark theme' }).click();
+    await page.keyboard.press('Alt+3');
+    await page.getByRole('heading', { name: 'Proposed joins' }).waitFor();
+    await page.waitForTimeout(500);
+    await b.shot('review-dark');
   });
 });

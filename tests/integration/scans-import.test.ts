@@ -19,14 +19,14 @@ beforeAll(async () => {
   mkdirSync(folder);
   catalogue = join(dir, 'site.sqlite');
   // A small broken tube (truth from its construction: see broken-tube.ts).
-  tube = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -20 }, { normal: [0, 0, -1], offset: -20 }], edgeLength: 1.5, length: 60 });
+  tube = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -20 }, { normal: [0, 0, -1], offset: -20 }], edgeLength: 2, length: 60 });
   writeFileSync(join(folder, 'KB-1.ply'), plyBinary(tube.mesh, false));
   writeFileSync(join(folder, 'KB-2.stl'), stlAscii(tube.mesh));
   writeFileSync(join(folder, 'KB-3.obj'), obj(tube.mesh));
   writeFileSync(join(folder, 'NOT-CATALOGUED.ply'), plyBinary(tube.mesh, true));
   writeFileSync(join(folder, 'notes.txt'), 'not a scan');
   await host.call('catalogue.init', { catalogue });
-  for (const no of ['KB-1', 'KB-2', 'KB-3', 'KB-4']) await host.call('specimens.create', { catalogue, specimen: { catalogueNo: no } });
+  for (const no of ['KB-0', 'KB-1', 'KB-2', 'KB-3']) await host.call('specimens.create', { catalogue, specimen: { catalogueNo: no } });
 });
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -70,7 +70,8 @@ describe('knitbone inspect', () => {
 
 describe('importing a folder of scans', () => {
   it('refuses the whole import when a file is bad, unless asked to skip bad files', async () => {
-    writeFileSync(join(folder, 'KB-4.ply'), new TextEncoder().encode('ply\nformat ascii 1.0\nelement vertex 3\nproperty float x\nproperty float y\nproperty float z\nelement face 1\nproperty list uchar int vertex_indices\nend_header\n0 0 0\n1 0 0\n0 1 0\n3 0 1 7\n'));
+    // First in name order, so the refused run stops before reading the others.
+    writeFileSync(join(folder, 'KB-0.ply'), new TextEncoder().encode('ply\nformat ascii 1.0\nelement vertex 3\nproperty float x\nproperty float y\nproperty float z\nelement face 1\nproperty list uchar int vertex_indices\nend_header\n0 0 0\n1 0 0\n0 1 0\n3 0 1 7\n'));
     let caught: unknown;
     try {
       await host.call('scans.import', { catalogue, folder, workers: 1 });
@@ -78,7 +79,7 @@ describe('importing a folder of scans', () => {
       caught = e;
     }
     expect(caught).toBeInstanceOf(KnitboneError);
-    expect((caught as KnitboneError).problems[0]).toMatchObject({ file: 'KB-4.ply' });
+    expect((caught as KnitboneError).problems[0]).toMatchObject({ file: 'KB-0.ply' });
     expect((caught as KnitboneError).problems[0].message).toMatch(/refers to vertex 7/);
     const cat = openCatalogue(catalogue);
     expect(cat.scans.list()).toHaveLength(0);
@@ -93,11 +94,11 @@ describe('importing a folder of scans', () => {
     expect(first.imported).toHaveLength(0);
     expect(first.remaining.length).toBeGreaterThan(0);
     const events: string[] = [];
-    const second = await host.call('scans.import', { catalogue, folder, workers: 2, skipBad: true }, { onProgress: (e) => events.push(`${e.stage} ${e.done}/${e.total}`) });
+    const second = await host.call('scans.import', { catalogue, folder, workers: 1, skipBad: true }, { onProgress: (e) => events.push(`${e.stage} ${e.done}/${e.total}`) });
     expect(second.cancelled).toBe(false);
     expect(second.imported.map((s) => s.catalogueNo).sort()).toEqual(['KB-1', 'KB-2', 'KB-3']);
     expect(second.unmatched).toEqual(['NOT-CATALOGUED.ply']);
-    expect(second.bad.map((b) => b.file)).toEqual(['KB-4.ply']);
+    expect(second.bad.map((b) => b.file)).toEqual(['KB-0.ply']);
     expect(events).toContain('reading scans 4/4');
     for (const s of second.imported) expect(s.fractureFaces).toBe(2);
     const third = await host.call('scans.import', { catalogue, folder, workers: 1, skipBad: true });

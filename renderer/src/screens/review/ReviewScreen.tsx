@@ -214,8 +214,8 @@ export function ReviewScreen() {
       </div>
       <Problems error={error} />
       {queue.length === 0 ? (
-        <div className="review-layout">
-          <p className="empty">No proposals wait for a decision. Run proposals on scanned specimens to fill this queue.</p>
+        <div className="review-empty">
+          <p className="empty panel">No proposals wait for a decision. Run proposals on scanned specimens to fill this queue.</p>
           <CountsPanel />
         </div>
       ) : (
