@@ -10,4 +10,5 @@ const summary = await generateAssemblage({ outDir: dir, fragments: Number(n), se
 });
 clearInterval(timer);
 peak = Math.max(peak, process.memoryUsage().rss);
-process.stdout.write(JSON.stringify({ ...summary, spacing, peakRssMb: peak / 1e6 }) + '\n');
+const cpu = process.cpuUsage();
+process.stdout.write(JSON.stringify({ ...summary, spacing, peakRssMb: peak / 1e6, cpuSeconds: (cpu.user + cpu.system) / 1e6 }) + '\n');

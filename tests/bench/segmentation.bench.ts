@@ -115,7 +115,7 @@ async function largeScan(targetTriangles: number): Promise<{ bytes: Uint8Array; 
   for (let i = 0; i < 4; i++) {
     const t = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -30 }, { baseZ: -45, baseRadius: 50, halfAngleDeg: 45 }], edgeLength: edge });
     const n = t.mesh.triangles.length / 3;
-    if (Math.abs(n / targetTriangles - 1) < 0.1) return { bytes: plyBinary(t.mesh, true), truth: t.truth, triangles: n };
+    if (Math.abs(n / targetTriangles - 1) < 0.04) return { bytes: plyBinary(t.mesh, true), truth: t.truth, triangles: n };
     edge *= Math.sqrt(n / targetTriangles);
   }
   const t = await brokenTube({ cuts: [{ normal: [0, 0, 1], offset: -30 }, { baseZ: -45, baseRadius: 50, halfAngleDeg: 45 }], edgeLength: edge });

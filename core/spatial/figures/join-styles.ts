@@ -13,11 +13,11 @@ export interface JoinStyle {
 }
 
 const known: Record<string, JoinStyle> = {
-  'conjoin-fresh': { label: 'Conjoin, fresh (green) break', colour: '#1d4f91', dash: '', width: 1.5 },
-  'conjoin-green': { label: 'Conjoin, fresh (green) break', colour: '#1d4f91', dash: '', width: 1.5 },
+  'conjoin-fresh': { label: 'Conjoin, fresh break', colour: '#1d4f91', dash: '', width: 1.5 },
+  'conjoin-green': { label: 'Conjoin, fresh break', colour: '#1d4f91', dash: '', width: 1.5 },
   'conjoin-dry': { label: 'Conjoin, dry break', colour: '#4a86c5', dash: '7 3', width: 1.5 },
   'conjoin-modern': { label: 'Conjoin, modern break', colour: '#7ea6cf', dash: '1.5 2.5', width: 1.6 },
-  conjoin: { label: 'Conjoin, break age not recorded', colour: '#0f2f5c', dash: '3 2', width: 1.5 },
+  conjoin: { label: 'Conjoin, break age unknown', colour: '#0f2f5c', dash: '3 2', width: 1.5 },
   articulation: { label: 'Articulation', colour: '#d0701c', dash: '9 3 2 3', width: 1.5 },
   pair: { label: 'Pair (left and right)', colour: '#6b2a1f', dash: '12 4', width: 1.5 },
 };

@@ -26,7 +26,7 @@ export interface PlanOptions {
   cellPx?: number;
 }
 
-const LEGEND_W = 230;
+const LEGEND_W = 250;
 
 /**
  * Plan of the excavation: units, piece-plotted specimens (aggregated into dots), and one

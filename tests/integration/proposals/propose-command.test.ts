@@ -1,7 +1,7 @@
 /**
- * `knitbone propose` end to end on a small catalogue (issue 6, item 2): two tubes (analytic
- * solids built with manifold-3d, a reference library), each cut in two by a rough surface,
- * scanned pieces moved by known rigid motions. The true joins must be each piece's best
+ * `knitbone propose` end to end on a small catalogue (issue 6, item 2): a tube (analytic solid
+ * built with manifold-3d, a reference library) cut in two by a rough surface, plus one piece of
+ * another cut tube with no partner present; scanned pieces moved by known rigid motions. The true joins must be each piece's best
  * proposal with the right motion; a second run must only skip; a decided join is never touched.
  */
 import { spawnSync } from 'node:child_process';
@@ -26,7 +26,9 @@ beforeAll(async () => {
   const tubes = [await cutTube(), await cutTube({ outerRadius: 10, innerRadius: 6, length: 70, cutY: 8, amplitude: 2, seed: 3 })];
   let k = 0;
   for (const [t, tube] of tubes.entries()) {
-    for (const [name, piece] of [['lower', tube.lower], ['upper', tube.upper]] as const) {
+    // the second tube contributes only its lower piece: a fragment with no partner present
+    const pieces = t === 0 ? ([['lower', tube.lower], ['upper', tube.upper]] as const) : ([['lower', tube.lower]] as const);
+    for (const [name, piece] of pieces) {
       const no = `T-${t + 1}${name === 'lower' ? 'a' : 'b'}`;
       const pose = transformFrom(rotationAboutAxis([1 + k, 2 - k, k - 1], 0.7 + 0.9 * k), [40 * k, -25 * k, 15]);
       k++;
@@ -38,7 +40,7 @@ beforeAll(async () => {
   expect(run('init', catalogue).status).toBe(0);
   expect(run('import', 'specimens', catalogue, join(dir, 'specimens.csv')).status).toBe(0);
   expect(run('import', 'scans', catalogue, join(dir, 'scans')).status).toBe(0);
-}, 120_000);
+}, 400_000);
 
 interface JoinOut { id: number; a: string; b: string; status: string; score: number; transform: number[] }
 
@@ -47,20 +49,20 @@ describe('knitbone propose', () => {
     const r = run('propose', catalogue, '--workers', '2', '--json');
     expect(r.status).toBe(0);
     const list = JSON.parse(r.stdout) as JoinOut[];
-    for (const [a, b] of [['T-1a', 'T-1b'], ['T-2a', 'T-2b']]) {
+    for (const [a, b] of [['T-1a', 'T-1b'], ['T-1b', 'T-1a']]) {
       const best = list.filter((j) => j.a === a || j.b === a).sort((p, q) => q.score - p.score)[0];
-      expect([best.a, best.b].sort()).toEqual([a, b]);
+      expect([best.a, best.b].sort()).toEqual([a, b].sort());
       // B's file -> A's file = pose_A * pose_B^-1 (composition of rigid motions)
       const truth = compose(poses.get(best.a)!, invert(poses.get(best.b)!));
       expect(rotationErrorDegrees(best.transform, truth)).toBeLessThan(1);
     }
-  }, 120_000);
+  }, 400_000);
 
   it('a second run with the same parameters aligns nothing again', () => {
     const r = run('propose', catalogue, '--workers', '1');
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/aligned 0,/);
-  }, 120_000);
+  }, 400_000);
 
   it('never touches a decided join, even when parameters change', () => {
     const cat = openCatalogue(catalogue);
@@ -74,5 +76,5 @@ describe('knitbone propose', () => {
     const samePair = again.joins.list().filter((j) => j.id !== first.id && [j.specimenA, j.specimenB].sort().join() === [first.specimenA, first.specimenB].sort().join());
     again.close();
     expect(samePair).toEqual([]);
-  }, 120_000);
+  }, 400_000);
 });
