@@ -15,7 +15,7 @@ export interface CallOptions {
 export function problemsFromZod(error: z.ZodError): Problem[] {
   return error.issues.map((issue) => ({
     field: issue.path.length ? issue.path.join('.') : undefined,
-    message: issue.path.length ? `${issue.path.join('.')}: ${issue.message}` : issue.message,
+    message: issue.message,
   }));
 }
 
