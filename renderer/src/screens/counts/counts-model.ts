@@ -3,33 +3,9 @@
  * MNE, MNI, MAU and %MAU as recorded and as refitted), and pure helpers to set the two
  * readings side by side and write them out.
  */
-export interface TaxonTally {
-  taxon: string;
-  nisp: number;
-  mni: number;
-  lrp?: number;
-}
+import type { ElementTally, Tally, TaxonTally } from '../../../../core/quant/tally';
 
-export interface ElementTally {
-  taxon: string;
-  element: string;
-  nisp: number;
-  mneLeft: number;
-  mneRight: number;
-  mne: number;
-  mau: number | null;
-  percentMau: number | null;
-  pairs?: number;
-}
-
-export interface Tally {
-  nisp: number;
-  nispFragments: number;
-  identifiedToElement: number;
-  identifiedToTaxon: number;
-  byTaxon: TaxonTally[];
-  byElement: ElementTally[];
-}
+export type { ElementTally, Tally, TaxonTally };
 
 export interface Counts {
   nsp: number;
