@@ -5,6 +5,7 @@ import { CountsScreen } from '../screens/counts/CountsScreen';
 import { FirstRun } from '../screens/FirstRun';
 import { RefitSetsScreen } from '../screens/refits/RefitSetsScreen';
 import { ReviewScreen } from '../screens/review/ReviewScreen';
+import { SiteMapScreen } from '../screens/site/SiteMapScreen';
 import { SpecimenScreen } from '../screens/specimen/SpecimenScreen';
 import { Problems } from './Problems';
 import { applyTheme, initialTheme, type ThemeName } from './theme';
@@ -16,6 +17,7 @@ const SCREENS: Array<{ name: ScreenName; label: string; key: string }> = [
   { name: 'review', label: 'Proposed joins', key: '3' },
   { name: 'refits', label: 'Refit sets', key: '4' },
   { name: 'counts', label: 'Counts', key: '5' },
+  { name: 'site', label: 'Site map', key: '6' },
 ];
 
 const CAUTIONS_KEY = 'knitbone.cautions-read';
@@ -145,6 +147,7 @@ export function App({ client }: { client: ApiClient }) {
           {screen === 'review' && <ReviewScreen />}
           {screen === 'refits' && <RefitSetsScreen />}
           {screen === 'counts' && <CountsScreen />}
+          {screen === 'site' && <SiteMapScreen />}
         </main>
         <footer className={`status ${status?.tone ?? ''}`} role="status" aria-live="polite">
           {status?.message ?? ''}

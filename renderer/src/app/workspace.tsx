@@ -25,7 +25,7 @@ export interface ReviewDecision {
   join: { id: number; a: string; b: string };
 }
 
-export type ScreenName = 'catalogue' | 'specimen' | 'review' | 'refits' | 'counts';
+export type ScreenName = 'catalogue' | 'specimen' | 'review' | 'refits' | 'counts' | 'site';
 
 export const WorkspaceContext = createContext<Workspace | null>(null);
 
