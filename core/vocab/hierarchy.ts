@@ -1,4 +1,5 @@
-import { closestTerms, termKey } from './normalise';
+import { termKey } from './normalise';
+import { TermLookup } from './term-lookup';
 
 /** One term of a hierarchy (a taxon or a skeletal element). */
 export interface HierarchyNode {
@@ -23,8 +24,7 @@ export class Hierarchy<N extends HierarchyNode = HierarchyNode> {
   private readonly nodes = new Map<string, N>();
   private readonly byKey = new Map<string, string>();
   private readonly depthOf = new Map<string, number>();
-  private readonly resolved = new Map<string, string | undefined>();
-  private readonly suggested = new Map<string, string[]>();
+  private readonly lookup = new TermLookup(this.byKey);
 
   constructor(nodes: readonly N[], readonly kind: string) {
     for (const n of nodes) {
@@ -72,22 +72,12 @@ export class Hierarchy<N extends HierarchyNode = HierarchyNode> {
 
   /** The canonical term for what someone typed (any case, spacing, synonym), or undefined. */
   resolve(typed: string): string | undefined {
-    // Imports repeat the same few spellings thousands of times: remember what each meant.
-    if (this.resolved.has(typed)) return this.resolved.get(typed);
-    const found = this.byKey.get(termKey(typed));
-    if (this.resolved.size < 50_000) this.resolved.set(typed, found);
-    return found;
+    return this.lookup.resolve(typed);
   }
 
   /** Closest canonical terms to an unknown spelling, for "did you mean" messages. */
   suggest(typed: string, limit = 3): string[] {
-    const key = `${limit}\u0000${typed}`;
-    let found = this.suggested.get(key);
-    if (!found) {
-      found = closestTerms(typed, this.byKey.entries(), limit);
-      if (this.suggested.size < 10_000) this.suggested.set(key, found);
-    }
-    return [...found];
+    return this.lookup.suggest(typed, limit);
   }
 
   parentOf(name: string): string | null {

@@ -1,6 +1,6 @@
 import { BUILT_IN_ELEMENTS, LONG_BONE, type ElementNode } from './elements';
 import { Hierarchy } from './hierarchy';
-import { closestTerms, termKey } from './normalise';
+import { TermLookup } from './term-lookup';
 import { PORTION_ZONES, type PortionZone } from './portion-zones';
 import { SKELETON_COUNTS } from './skeleton-counts';
 import { BUILT_IN_TAXA, SKELETON_GROUPS, TAXON_RANKS, type SkeletonGroup, type TaxonNode, type TaxonRank } from './taxa';
@@ -24,31 +24,20 @@ export interface UserTerm {
 
 /** A flat controlled list (sides, break ages, fusion states, modifications). */
 export class TermList {
-  private readonly index: Map<string, string>;
-  private readonly resolved = new Map<string, string | undefined>();
-  private readonly suggested = new Map<string, string[]>();
+  private readonly lookup: TermLookup;
   readonly terms: readonly string[];
 
   constructor(readonly kind: string, list: readonly FlatTerm[]) {
-    this.index = flatIndex(list);
+    this.lookup = new TermLookup(flatIndex(list));
     this.terms = list.map((t) => t.term);
   }
 
   resolve(typed: string): string | undefined {
-    if (this.resolved.has(typed)) return this.resolved.get(typed);
-    const found = this.index.get(termKey(typed));
-    if (this.resolved.size < 50_000) this.resolved.set(typed, found);
-    return found;
+    return this.lookup.resolve(typed);
   }
 
   suggest(typed: string, limit = 3): string[] {
-    const key = `${limit}\u0000${typed}`;
-    let found = this.suggested.get(key);
-    if (!found) {
-      found = closestTerms(typed, this.index.entries(), limit);
-      if (this.suggested.size < 10_000) this.suggested.set(key, found);
-    }
-    return [...found];
+    return this.lookup.suggest(typed, limit);
   }
 
   has(term: string): boolean {

@@ -2,25 +2,11 @@
  * The specimen table's model: the record as the host sends it, the columns the analyst
  * sees, and pure helpers for filtering, sorting and formatting.
  */
-export interface SpecimenRecord {
+import type { SpecimenFields } from '../../../../core/catalogue/records';
+
+/** A specimen as the host's specimens.list / specimens.get answer it (the analyst's own fields). */
+export interface SpecimenRecord extends SpecimenFields {
   id: number;
-  catalogueNo: string;
-  unit: string | null;
-  level: string | null;
-  layer: string | null;
-  x: number | null;
-  y: number | null;
-  z: number | null;
-  taxon: string | null;
-  element: string | null;
-  side: string | null;
-  portion: string[];
-  fusion: string | null;
-  sizeClass: number | null;
-  breakAge: string | null;
-  modifications: string[];
-  weightG: number | null;
-  notes: string | null;
 }
 
 export type FieldName = Exclude<keyof SpecimenRecord, 'id'>;
