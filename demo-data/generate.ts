@@ -1,12 +1,12 @@
 import { closeSync, mkdirSync, openSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Manifold } from 'manifold-3d';
 import { BoneShape } from './bone-shape';
 import { type BreakAge, planBreaks } from './break-plan';
 import { contactArea, labelArea } from './contact';
 import { type DamageRecord, damageEdges } from './damage';
 import { type LabelledMesh, labelledMesh } from './labelled-mesh';
 import { manifoldKernel } from './manifold-kernel';
+import { slabVolume } from './mesh';
 import { writeBinaryPly } from './ply-writer';
 import { invertRigid, type Matrix4, multiply, randomPose } from './pose';
 import { Random } from './random';
@@ -118,7 +118,7 @@ export async function generateAssemblage(options: GenerateOptions, onProgress: P
       const ageOf = new Map(breaks.map((b) => [b.id, b]));
       const before = pieces.map((p) => labelledMesh(p.solid, labelOf));
       const zones = zoneBounds(shape);
-      const coverage = pieces.map((p) => zoneVolumes(p.solid, zones));
+      const coverage = before.map((m) => zoneVolumes(m, zones));
       const zoneTotals = ZONES.map((_, z) => coverage.reduce((s, c) => s + c[z], 0) || 1);
 
       // which fragments are lost
@@ -293,18 +293,8 @@ export function zoneBounds(shape: BoneShape): Array<[number, number]> {
   ];
 }
 
-function zoneVolumes(solid: Manifold, zones: Array<[number, number]>): number[] {
-  const box = solid.boundingBox();
-  return zones.map(([lo, hi]) => {
-    if (box.max[2] <= lo || box.min[2] >= hi) return 0;
-    if (box.min[2] >= lo && box.max[2] <= hi) return solid.volume();
-    const a = solid.trimByPlane([0, 0, 1], lo);
-    const b = a.trimByPlane([0, 0, -1], -hi);
-    const v = b.volume();
-    a.delete();
-    b.delete();
-    return v;
-  });
+function zoneVolumes(mesh: LabelledMesh, zones: Array<[number, number]>): number[] {
+  return zones.map(([lo, hi]) => Math.max(0, slabVolume(mesh.positions, mesh.triangles, lo, hi)));
 }
 
 export type { ElementSpec, Piece };

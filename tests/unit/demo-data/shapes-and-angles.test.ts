@@ -8,6 +8,7 @@ import { planBreaks } from '../../../demo-data/break-plan';
 import { generateAssemblage } from '../../../demo-data/generate';
 import { labelledMesh } from '../../../demo-data/labelled-mesh';
 import { manifoldKernel, solidFromMesh } from '../../../demo-data/manifold-kernel';
+import { slabVolume } from '../../../demo-data/mesh';
 import { Random } from '../../../demo-data/random';
 import { shatterBone } from '../../../demo-data/shatter';
 import { ELEMENTS, type ElementSpec } from '../../../demo-data/skeleton';
@@ -37,6 +38,10 @@ describe('bone shaft geometry', () => {
     const expected = Math.PI * L * (R * R - r * r);
     // the mesh is made of inscribed polygons: relative error about (2 pi / m)^2 / 6, well under 0.5 %
     expect(Math.abs(section.volume() - expected) / expected).toBeLessThan(0.005);
+    // the same slab measured on the mesh by the divergence theorem (mesh.ts, slabVolume)
+    const m = bone.getMesh();
+    expect(Math.abs(slabVolume(m.vertProperties, m.triVerts, 100, 160) - expected) / expected).toBeLessThan(0.005);
+    expect(Math.abs(slabVolume(m.vertProperties, m.triVerts, 100, 160) - section.volume())).toBeLessThan(0.5);
     for (const s of [outer, cavity, bone, a, section]) s.delete();
   });
 });
