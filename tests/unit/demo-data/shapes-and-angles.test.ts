@@ -79,14 +79,14 @@ describe('determinism', () => {
   it('the same seed gives byte-identical files', async () => {
     const dirs = [mkdtempSync(join(tmpdir(), 'knitbone-demo-a-')), mkdtempSync(join(tmpdir(), 'knitbone-demo-b-'))];
     try {
-      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 3, seed: 'same-seed', pointSpacing: 2, elements: [4] });
+      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 3, seed: 'same-seed', pointSpacing: 2, elements: [4], workers: 1 });
       const files = (d: string) => ['specimens.csv', 'truth.json', ...readdirSync(join(d, 'scans')).sort().map((f) => `scans/${f}`)];
       expect(files(dirs[1])).toEqual(files(dirs[0]));
       for (const f of files(dirs[0])) expect(readFileSync(join(dirs[1], f)).equals(readFileSync(join(dirs[0], f))), f).toBe(true);
       // and a different seed gives a different assemblage
       const other = mkdtempSync(join(tmpdir(), 'knitbone-demo-c-'));
       dirs.push(other);
-      await generateAssemblage({ outDir: other, fragments: 3, seed: 'other-seed', pointSpacing: 2, elements: [4] });
+      await generateAssemblage({ outDir: other, fragments: 3, seed: 'other-seed', pointSpacing: 2, elements: [4], workers: 1 });
       expect(readFileSync(join(other, 'truth.json')).equals(readFileSync(join(dirs[0], 'truth.json')))).toBe(false);
     } finally {
       for (const d of dirs) rmSync(d, { recursive: true, force: true });
