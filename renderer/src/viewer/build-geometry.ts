@@ -1,6 +1,6 @@
 import { BufferAttribute, BufferGeometry, Matrix4, Vector3 } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
-import { gapColour, SURFACE } from './colours';
+import { classColour, gapColour, SURFACE } from './colours';
 import type { MeshView } from './mesh-payload';
 
 /** A 4x4 row-major rigid transform (design convention) as a three.js matrix. */
@@ -25,7 +25,10 @@ export interface Colouring {
   base: readonly number[];
   /** Fracture faces in their own colour. */
   fractures: boolean;
-  selectedFace: number | null;
+  /** Every region in the colour of its surface class (needs the mesh's region labels). */
+  byClass?: boolean;
+  /** The region drawn in the selection colour. */
+  selectedRegion?: number | null;
   /** Per-vertex distance (mm) to the partner's surface, for the contact-gap map. */
   gaps?: Float32Array | null;
 }
@@ -41,10 +44,15 @@ export function buildGeometry(mesh: MeshView, colouring: Colouring): BufferGeome
   const nor = new Float32Array(tris * 9);
   const col = new Float32Array(tris * 9);
   const faceKinds = new Map(mesh.faces.map((f) => [f.id, f.kind]));
+  const regionColours = new Map(mesh.regions.map((r) => [r.id, classColour(r.surfaceClass, colouring.base)]));
+  const byClass = colouring.byClass === true && mesh.triangleRegions !== null;
+  const selectedRegion = colouring.selectedRegion ?? null;
   for (let t = 0; t < tris; t++) {
     const face = mesh.triangleFaces ? mesh.triangleFaces[t] : -1;
+    const region = mesh.triangleRegions ? mesh.triangleRegions[t] : -1;
     let c: readonly number[] = colouring.base;
-    if (colouring.selectedFace !== null && face === colouring.selectedFace) c = SURFACE.selected;
+    if (selectedRegion !== null && region === selectedRegion) c = SURFACE.selected;
+    else if (byClass) c = regionColours.get(region) ?? colouring.base;
     else if (colouring.fractures && face >= 0 && faceKinds.get(face) === 'fracture') c = SURFACE.fracture;
     for (let k = 0; k < 3; k++) {
       const v = mesh.triangles[t * 3 + k];
