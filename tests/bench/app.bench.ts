@@ -208,9 +208,10 @@ async function scanFigures(page: Page, cdp: CDPSession, profile: string, host: H
     return performance.now() - t0;
   });
   // (Page functions as strings: the TypeScript runner adds helpers the page does not have.)
-  const marks = await page.evaluate<{ received: number; drawn: number }>(`(() => {
+  const marks = await page.evaluate<{ received: number; drawn: number; moving: number }>(`(() => {
     const at = (n) => performance.getEntriesByName(n)[0]?.startTime ?? NaN;
-    return { received: at('knitbone:scan-received'), drawn: at('knitbone:scan-drawn') };
+    const drawn = performance.getEntriesByName('knitbone:scan-drawn')[0];
+    return { received: at('knitbone:scan-received'), drawn: at('knitbone:scan-drawn'), moving: drawn?.detail?.movingTriangles ?? NaN };
   })()`);
   const gpu1 = chromiumCpu(profile).get('gpu-process') ?? NaN;
   const canvas = page.locator('.viewer canvas');
@@ -243,7 +244,7 @@ async function scanFigures(page: Page, cdp: CDPSession, profile: string, host: H
     `scan sent again (cached)      ${warmMs.toFixed(0)} ms, ${(payload.length / 1e6).toFixed(1)} MB of JSON`,
     `time to first frame           ${first.value.toFixed(0)} ms wall, ${first.cpuMs.toFixed(0)} ms page CPU, ${((gpu1 - gpu0) * 1000).toFixed(0)} ms GPU-process CPU (Enter on the row to the frame finished)`,
     `  of which scan arrived->drawn ${(marks.drawn - marks.received).toFixed(0)} ms (decode, colour, upload, first draw)`,
-    `orbit frame, drawn            ${stats(orbit.value.draw)}   (${frames} frames, each read back)`,
+    `orbit frame, drawn            ${stats(orbit.value.draw)}   (${frames} frames, each read back; ${marks.moving.toLocaleString('en-US')} triangles drawn while turning, the full scan once it stops)`,
     `orbit frame, on screen        ${stats(orbit.value.shown)}; ${(orbit.cpuMs / frames).toFixed(1)} ms page CPU, ${(((gpu2 - gpu1) * 1000) / frames).toFixed(0)} ms GPU-process CPU each`,
   ];
 }

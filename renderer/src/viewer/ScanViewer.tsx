@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import {
   AmbientLight,
   Box3,
+  BufferGeometry,
   Color,
   DirectionalLight,
   Group,
@@ -19,6 +20,7 @@ import {
 } from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { buildGeometry, matrixFromRowMajor } from './build-geometry';
+import { coarseGeometry } from './coarse-geometry';
 import type { MeshView } from './mesh-payload';
 
 /** A surface region of one part of the view. */
@@ -42,10 +44,16 @@ export interface ViewerPart {
   pulls?: boolean;
 }
 
+/** Triangles of the lighter copy drawn while a large scan turns (the whole view's budget). */
+const MOVING_TRIANGLES = 60_000;
+/** The full scan is drawn again this long after the view stops turning. */
+const SETTLE_MS = 180;
+
 /**
  * The 3D view of one or more scans, drawn by three.js (software WebGL is enough). Drag or
  * use the arrow keys to turn, + and - to zoom, 0 to reset; click a surface region to select it.
- * Draws only when something changes.
+ * Draws only when something changes; while the view turns, large scans are drawn from a
+ * lighter copy and in full once it stops.
  */
 export function ScanViewer(props: {
   parts: ViewerPart[];
@@ -63,11 +71,15 @@ export function ScanViewer(props: {
     camera: PerspectiveCamera;
     controls: OrbitControls;
     group: Group;
-    meshes: Map<string, { mesh: Mesh; part: ViewerPart; base: Matrix4; direction: Vector3 }>;
+    meshes: Map<string, { mesh: Mesh; part: ViewerPart; base: Matrix4; direction: Vector3; fine: BufferGeometry; coarse: BufferGeometry | null }>;
     home: { position: Vector3; target: Vector3 };
     /** What the camera was last framed on. */
     framing: string;
     draw: () => void;
+    /** Draw from the lighter copies now, and in full once the view has stopped. */
+    drawMoving: () => void;
+    /** Put the full geometry back (before picking, or when the view stops). */
+    settle: () => void;
   } | null>(null);
   const [failed, setFailed] = useState<string | null>(null);
 
@@ -95,7 +107,33 @@ export function ScanViewer(props: {
     const controls = new OrbitControls(camera, el);
     controls.enableDamping = false;
     const draw = (): void => renderer.render(scene, camera);
-    controls.addEventListener('change', draw);
+    let settleTimer: ReturnType<typeof setTimeout> | null = null;
+    const settle = (): void => {
+      if (settleTimer !== null) clearTimeout(settleTimer);
+      settleTimer = null;
+      let changed = false;
+      for (const m of state.current?.meshes.values() ?? []) {
+        if (m.mesh.geometry !== m.fine) {
+          m.mesh.geometry = m.fine;
+          changed = true;
+        }
+      }
+      if (changed) draw();
+    };
+    const drawMoving = (): void => {
+      let coarse = false;
+      for (const m of state.current?.meshes.values() ?? []) {
+        if (m.coarse) {
+          m.mesh.geometry = m.coarse;
+          coarse = true;
+        }
+      }
+      draw();
+      if (!coarse) return;
+      if (settleTimer !== null) clearTimeout(settleTimer);
+      settleTimer = setTimeout(settle, SETTLE_MS);
+    };
+    controls.addEventListener('change', drawMoving);
     const resize = (): void => {
       const w = el.clientWidth || 300;
       const h = el.clientHeight || 300;
@@ -106,13 +144,15 @@ export function ScanViewer(props: {
     };
     const observer = new ResizeObserver(resize);
     observer.observe(el);
-    state.current = { renderer, scene, camera, controls, group, meshes: new Map(), home: { position: new Vector3(), target: new Vector3() }, framing: '', draw };
+    state.current = { renderer, scene, camera, controls, group, meshes: new Map(), home: { position: new Vector3(), target: new Vector3() }, framing: '', draw, drawMoving, settle };
     resize();
     return () => {
       observer.disconnect();
       controls.dispose();
+      if (settleTimer !== null) clearTimeout(settleTimer);
       for (const m of state.current?.meshes.values() ?? []) {
-        m.mesh.geometry.dispose();
+        m.fine.dispose();
+        m.coarse?.dispose();
         (m.mesh.material as MeshLambertMaterial).dispose();
       }
       renderer.dispose();
@@ -132,17 +172,21 @@ export function ScanViewer(props: {
     if (!s) return;
     for (const m of s.meshes.values()) {
       s.group.remove(m.mesh);
-      m.mesh.geometry.dispose();
+      m.fine.dispose();
+      m.coarse?.dispose();
       (m.mesh.material as MeshLambertMaterial).dispose();
     }
     s.meshes.clear();
     const box = new Box3();
     const centres: Vector3[] = [];
+    const totalTriangles = props.parts.reduce((n, p) => n + p.mesh.triangles.length / 3, 0);
     for (const part of props.parts) {
       const selected = props.selectedRegion && props.selectedRegion.part === part.key ? props.selectedRegion.region : null;
       const geometry = buildGeometry(part.mesh, { base: part.base, fractures: part.fractures ?? true, byClass: part.byClass, selectedRegion: selected, gaps: part.gaps });
       const material = new MeshLambertMaterial({ vertexColors: true });
       const mesh = new Mesh(geometry, material);
+      const budget = Math.floor((MOVING_TRIANGLES * (part.mesh.triangles.length / 3)) / Math.max(1, totalTriangles));
+      const coarse = coarseGeometry(geometry, budget);
       const base = matrixFromRowMajor(part.transform);
       mesh.matrixAutoUpdate = false;
       mesh.matrix.copy(base);
@@ -152,7 +196,7 @@ export function ScanViewer(props: {
       const partBox = new Box3().setFromObject(mesh);
       box.union(partBox);
       centres.push(partBox.getCenter(new Vector3()));
-      s.meshes.set(part.key, { mesh, part, base, direction: new Vector3() });
+      s.meshes.set(part.key, { mesh, part, base, direction: new Vector3(), fine: geometry, coarse });
     }
     // Pull-apart direction: from the first part's centre towards each pulled part's centre.
     let i = 0;
@@ -181,7 +225,10 @@ export function ScanViewer(props: {
     applyPull(props.pullApart ?? 0);
     s.draw();
     // For the app benchmark: when a new set of parts was first drawn.
-    if (props.parts.length) performance.mark('knitbone:scan-drawn', { detail: { triangles: props.parts.reduce((n, p) => n + p.mesh.triangles.length / 3, 0) } });
+    if (props.parts.length) {
+      const moving = [...s.meshes.values()].reduce((n, m) => n + (m.coarse ?? m.fine).getIndex()!.count / 3, 0);
+      performance.mark('knitbone:scan-drawn', { detail: { triangles: totalTriangles, movingTriangles: moving } });
+    }
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [props.parts, selKey]);
 
@@ -214,21 +261,24 @@ export function ScanViewer(props: {
     else if (e.key === '0') {
       s.camera.position.copy(s.home.position);
       s.controls.target.copy(s.home.target);
-      s.controls.update();
-      s.draw();
+      // update() announces the move (one drawing); settle() draws in full if that was light.
+      if (!s.controls.update()) s.draw();
+      s.settle();
       e.preventDefault();
       return;
     } else return;
     e.preventDefault();
     s.camera.position.copy(s.controls.target).add(offset);
     s.camera.lookAt(s.controls.target);
-    s.controls.update();
-    s.draw();
+    // update() announces the move, which draws it (from the lighter copy for large scans).
+    if (!s.controls.update()) s.drawMoving();
   }
 
   function onClick(e: React.MouseEvent): void {
     const s = state.current;
     if (!s || !props.onSelectRegion) return;
+    // Pick on the full scan: its triangle numbers are the segmentation's.
+    s.settle();
     const rect = canvas.current!.getBoundingClientRect();
     const ndc = new Vector2(((e.clientX - rect.left) / rect.width) * 2 - 1, -((e.clientY - rect.top) / rect.height) * 2 + 1);
     const ray = new Raycaster();
