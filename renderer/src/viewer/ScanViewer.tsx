@@ -8,7 +8,7 @@ import {
   HemisphereLight,
   Matrix4,
   Mesh,
-  MeshStandardMaterial,
+  MeshLambertMaterial,
   PerspectiveCamera,
   Raycaster,
   Scene,
@@ -76,7 +76,7 @@ export function ScanViewer(props: {
     const el = canvas.current!;
     let renderer: WebGLRenderer;
     try {
-      renderer = new WebGLRenderer({ canvas: el, antialias: true, preserveDrawingBuffer: true });
+      renderer = new WebGLRenderer({ canvas: el, antialias: false, preserveDrawingBuffer: true });
     } catch (err) {
       setFailed('This computer could not start 3D drawing (WebGL).');
       return;
@@ -113,7 +113,7 @@ export function ScanViewer(props: {
       controls.dispose();
       for (const m of state.current?.meshes.values() ?? []) {
         m.mesh.geometry.dispose();
-        (m.mesh.material as MeshStandardMaterial).dispose();
+        (m.mesh.material as MeshLambertMaterial).dispose();
       }
       renderer.dispose();
       state.current = null;
@@ -133,7 +133,7 @@ export function ScanViewer(props: {
     for (const m of s.meshes.values()) {
       s.group.remove(m.mesh);
       m.mesh.geometry.dispose();
-      (m.mesh.material as MeshStandardMaterial).dispose();
+      (m.mesh.material as MeshLambertMaterial).dispose();
     }
     s.meshes.clear();
     const box = new Box3();
@@ -141,7 +141,7 @@ export function ScanViewer(props: {
     for (const part of props.parts) {
       const selected = props.selectedRegion && props.selectedRegion.part === part.key ? props.selectedRegion.region : null;
       const geometry = buildGeometry(part.mesh, { base: part.base, fractures: part.fractures ?? true, byClass: part.byClass, selectedRegion: selected, gaps: part.gaps });
-      const material = new MeshStandardMaterial({ vertexColors: true, roughness: 0.85, metalness: 0 });
+      const material = new MeshLambertMaterial({ vertexColors: true });
       const mesh = new Mesh(geometry, material);
       const base = matrixFromRowMajor(part.transform);
       mesh.matrixAutoUpdate = false;
@@ -180,6 +180,8 @@ export function ScanViewer(props: {
     }
     applyPull(props.pullApart ?? 0);
     s.draw();
+    // For the app benchmark: when a new set of parts was first drawn.
+    if (props.parts.length) performance.mark('knitbone:scan-drawn', { detail: { triangles: props.parts.reduce((n, p) => n + p.mesh.triangles.length / 3, 0) } });
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [props.parts, selKey]);
 

@@ -27,6 +27,7 @@ export function useScanMesh(specimenId: number | null, refresh = 0): { mesh: Mes
     callByName<MeshPayload | null>(ws.client, MESH_REQUEST, { catalogue: ws.catalogue, specimenId })
       .then((p) => {
         if (!live) return;
+        performance.mark('knitbone:scan-received');
         setMesh(p ? decodeMesh(p) : null);
         setShownFor(specimenId);
       })
