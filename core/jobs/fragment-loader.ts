@@ -10,6 +10,9 @@ import { analyseFragment } from '../geometry/analyse-fragment';
 import { MeshFileError, parseMeshFile } from '../geometry/parse/index';
 import { fragmentFromAnalysis } from '../geometry/proposals/fragment-from-analysis';
 import type { FragmentInput } from '../geometry/proposals/prepared-fragment';
+import type { ShaftAxis } from '../geometry/shaft-axis';
+import type { AnalysisSettings } from '../geometry/settings';
+import type { SurfaceClass } from '../geometry/surface-classes';
 import { KnitboneError } from '../host/errors';
 
 export type LengthUnit = 'mm' | 'cm' | 'm';
@@ -27,7 +30,15 @@ export interface LoadedFragment {
   input: FragmentInput;
   diagonalMm: number;
   centroid: [number, number, number];
+  /** The fitted shaft axis (support < 0.5: not a shaft piece). */
+  axis: ShaftAxis;
   warnings: string[];
+}
+
+/** How the scan was analysed when imported: its settings and the analyst's region class corrections. */
+export interface AnalysisChoices {
+  settings?: Partial<AnalysisSettings>;
+  corrections?: Array<[number, SurfaceClass]>;
 }
 
 export function readScanBytes(file: string): Uint8Array {
@@ -44,7 +55,7 @@ export function contentHashOf(bytes: Uint8Array): string {
   return createHash('sha256').update(bytes).digest('hex');
 }
 
-export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint8Array = readScanBytes(file)): LoadedFragment {
+export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint8Array = readScanBytes(file), choices: AnalysisChoices = {}): LoadedFragment {
   let parsed;
   try {
     parsed = parseMeshFile(bytes, file);
@@ -70,7 +81,7 @@ export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint
   if (diag > LARGEST_FRAGMENT_MM) {
     throw new KnitboneError('bad-input', [{ file, message: `is ${Math.round(diag)} mm across, larger than any bone (${LARGEST_FRAGMENT_MM} mm); the file's units are probably not ${units}: give its units (--units mm, cm or m)` }]);
   }
-  const analysis = analyseFragment(mesh);
+  const analysis = analyseFragment(mesh, choices.settings ?? {}, new Map(choices.corrections ?? []));
   const input = fragmentFromAnalysis(analysis);
   if (input.faces.length === 0) {
     throw new KnitboneError('bad-input', [{ file, message: 'no break face was found on this fragment, so it cannot be joined by its surfaces; check the scan covers the broken ends' }]);
@@ -81,6 +92,7 @@ export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint
     input,
     diagonalMm: diagonalOf(input.positions),
     centroid: centroid(input.positions),
+    axis: analysis.axis,
     warnings: parsed.warnings,
   };
 }
