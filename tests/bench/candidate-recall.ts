@@ -10,16 +10,19 @@ import { join } from 'node:path';
 import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import type { StudyFragment } from './candidate-study';
 
-interface TruthJoin { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number }
+export interface TruthJoin { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number }
 
 export interface RecallRow { k: number | 'all'; facePairs: number; perFace: number; reachable: number; found: number; recall: number; ms: number }
 
-export function candidateRecall(dir: string, ks: number[]): { fragments: number; faces: number; eligible: number; rows: RecallRow[] } {
-  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: TruthJoin[] };
-  const study = readdirSync(join(dir, 'candidate-study'))
+export function readStudy(dir: string): StudyFragment[] {
+  return readdirSync(join(dir, 'candidate-study'))
     .filter((f) => f.endsWith('.json'))
-    .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment)
-    .filter((f) => f.faces.length > 0);
+    .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment);
+}
+
+export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks: number[]): { fragments: number; faces: number; eligible: number; rows: RecallRow[] } {
+  const truth = { joins };
+  const study = studied.filter((f) => f.faces.length > 0);
   const fragOf = new Map(study.map((f, i) => [f.no, i]));
   const faces: IndexedFace[] = [];
   const breaksOf: Array<Record<string, number>> = [];
@@ -60,7 +63,8 @@ export function candidateRecall(dir: string, ks: number[]): { fragments: number;
 
 if (process.argv[1]?.endsWith('candidate-recall.ts')) {
   const [dir, ks = '10,20,30,40,60'] = process.argv.slice(2);
-  const r = candidateRecall(dir, ks.split(',').map(Number));
+  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: TruthJoin[] };
+  const r = candidateRecall(readStudy(dir), truth.joins, ks.split(',').map(Number));
   console.log(`${r.fragments} fragments, ${r.faces} faces, ${r.eligible} true joins`);
   for (const x of r.rows) console.log(`k ${String(x.k).padStart(3)}  face pairs ${String(x.facePairs).padStart(7)} (${x.perFace.toFixed(1)}/face)  reached ${x.found}/${x.reachable} = ${(100 * x.recall).toFixed(1)}%  ${x.ms.toFixed(0)} ms`);
 }
