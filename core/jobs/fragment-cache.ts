@@ -11,8 +11,11 @@
 import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
+import type { FragmentAnalysis } from '../geometry/analyse-fragment';
 import type { FaceTraits, ShaftAxisLike } from '../geometry/proposals/face-traits';
 import type { FragmentInput, SamplingParameters } from '../geometry/proposals/prepared-fragment';
+import { KnitboneError } from '../host/errors';
+import { checkMatchableMesh, matchableFragment, type LengthUnit, type LoadedFragment } from './fragment-loader';
 
 /** Bump when what is stored, or how the analysis that produced it works, changes. */
 export const FRAGMENT_CACHE_VERSION = 'fragment-cache/1';
@@ -39,6 +42,39 @@ export function cacheDirFor(cataloguePath: string): string {
 export function fragmentKey(contentHash: string, units: string, settings: unknown, corrections: Array<[number, string]>): string {
   const sorted = [...corrections].sort((a, b) => a[0] - b[0]);
   return createHash('sha256').update(JSON.stringify([FRAGMENT_CACHE_VERSION, contentHash, units, settings ?? {}, sorted])).digest('hex').slice(0, 32);
+}
+
+/** The cache entry of a fragment read for matching. */
+export function cachedFromLoaded(loaded: Omit<LoadedFragment, 'contentHash' | 'warnings'>): CachedFragment {
+  const a = loaded.axis;
+  return {
+    input: loaded.input,
+    summary: { faceAreas: loaded.input.faces.map((f) => f.area ?? 0), diagonalMm: loaded.diagonalMm, centroid: loaded.centroid, axis: { direction: a.direction, point: a.point, support: a.support } },
+  };
+}
+
+/**
+ * Store an analysis made elsewhere (importing scans) so a proposal run need not read the scan
+ * again: the fragment, or why it cannot be matched. Never fails the caller: a cache that cannot
+ * be written only costs the later run its time.
+ */
+export function storeAnalysisForMatching(
+  dir: string,
+  scan: { file: string; contentHash: string; units: LengthUnit; corrections?: Array<[number, string]> },
+  mesh: { positions: Float32Array; triangles: Uint32Array },
+  analysis: FragmentAnalysis,
+): void {
+  const key = fragmentKey(scan.contentHash, scan.units, analysis.settings, scan.corrections ?? []);
+  try {
+    checkMatchableMesh(scan.file, mesh, scan.units);
+    writeFragment(dir, key, cachedFromLoaded(matchableFragment(scan.file, analysis)));
+  } catch (err) {
+    try {
+      if (err instanceof KnitboneError && err.kind === 'bad-input') writeProblem(dir, key, err.message);
+    } catch {
+      // the cache is an optimisation only
+    }
+  }
 }
 
 function samplingKey(s: SamplingParameters): string {

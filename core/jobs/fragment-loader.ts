@@ -6,7 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 import { readFileSync, statSync } from 'node:fs';
-import { analyseFragment } from '../geometry/analyse-fragment';
+import { analyseFragment, type FragmentAnalysis } from '../geometry/analyse-fragment';
 import { MeshFileError, parseMeshFile } from '../geometry/parse/index';
 import { fragmentFromAnalysis } from '../geometry/proposals/fragment-from-analysis';
 import type { FragmentInput } from '../geometry/proposals/prepared-fragment';
@@ -70,6 +70,13 @@ export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint
     for (let i = 0; i < p.length; i++) p[i] = mesh.positions[i] * scale;
     mesh.positions = p;
   }
+  checkMatchableMesh(file, mesh, units);
+  const analysis = analyseFragment(mesh, choices.settings ?? {}, new Map(choices.corrections ?? []));
+  return { ...matchableFragment(file, analysis), contentHash: contentHashOf(bytes), warnings: parsed.warnings };
+}
+
+/** Refuse a mesh (already in mm) too small, too coarse or too large to be a bone fragment worth matching. */
+export function checkMatchableMesh(file: string, mesh: { positions: Float32Array; triangles: Uint32Array }, units: LengthUnit): void {
   const nt = mesh.triangles.length / 3;
   const diag = diagonalOf(mesh.positions);
   if (nt < FEWEST_TRIANGLES || !(diag > 0)) {
@@ -81,20 +88,15 @@ export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint
   if (diag > LARGEST_FRAGMENT_MM) {
     throw new KnitboneError('bad-input', [{ file, message: `is ${Math.round(diag)} mm across, larger than any bone (${LARGEST_FRAGMENT_MM} mm); the file's units are probably not ${units}: give its units (--units mm, cm or m)` }]);
   }
-  const analysis = analyseFragment(mesh, choices.settings ?? {}, new Map(choices.corrections ?? []));
+}
+
+/** What matching takes from an analysis; refused when the fragment has no break face. */
+export function matchableFragment(file: string, analysis: FragmentAnalysis): Omit<LoadedFragment, 'contentHash' | 'warnings'> {
   const input = fragmentFromAnalysis(analysis);
   if (input.faces.length === 0) {
     throw new KnitboneError('bad-input', [{ file, message: 'no break face was found on this fragment, so it cannot be joined by its surfaces; check the scan covers the broken ends' }]);
   }
-  return {
-    file,
-    contentHash: contentHashOf(bytes),
-    input,
-    diagonalMm: diagonalOf(input.positions),
-    centroid: centroid(input.positions),
-    axis: analysis.axis,
-    warnings: parsed.warnings,
-  };
+  return { file, input, diagonalMm: diagonalOf(input.positions), centroid: centroid(input.positions), axis: analysis.axis };
 }
 
 function diagonalOf(p: Float32Array): number {

@@ -12,7 +12,7 @@ import { KnitboneError } from '../host/errors';
 import { faceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
 import { matchFragments, type FaceMatch, type MatchParameters } from '../geometry/proposals/pairwise-match';
 import { prepareFragment, type FragmentInput, type PreparedFragment, type SamplingParameters } from '../geometry/proposals/prepared-fragment';
-import { readFragment, writeFragment, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
+import { cachedFromLoaded, readFragment, writeFragment, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
 import { loadFragment, readScanBytes, type AnalysisChoices, type LengthUnit } from './fragment-loader';
 
 export interface ScanRef {
@@ -67,12 +67,7 @@ function analysedFragment(scan: ScanRef): { input: FragmentInput; summary: Fragm
   if (hit) return remember(analysed, scan.scanId, hit);
   const cached = scan.cache ? readFragment(scan.cache.dir, scan.cache.key) : undefined;
   if (cached) return remember(analysed, scan.scanId, cached);
-  const loaded = loadFragment(scan.file, scan.units, readScanBytes(scan.file), scan.choices);
-  const a = loaded.axis;
-  const entry = {
-    input: loaded.input,
-    summary: { faceAreas: loaded.input.faces.map((f) => f.area ?? 0), diagonalMm: loaded.diagonalMm, centroid: loaded.centroid, axis: { direction: a.direction, point: a.point, support: a.support } },
-  };
+  const entry = cachedFromLoaded(loadFragment(scan.file, scan.units, readScanBytes(scan.file), scan.choices));
   if (scan.cache) writeFragment(scan.cache.dir, scan.cache.key, entry);
   return remember(analysed, scan.scanId, entry);
 }
