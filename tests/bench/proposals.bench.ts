@@ -119,7 +119,7 @@ async function assemblage(n: number, seed: string): Promise<{ dir: string; truth
   if (!existsSync(join(dir, 'truth.json')) || !existsSync(join(dir, 'catalogue.ready'))) {
     rmSync(dir, { recursive: true, force: true });
     mkdirSync(dir, { recursive: true });
-    await generateAssemblage({ outDir: dir, fragments: n, seed });
+    await generateAssemblage({ outDir: dir, fragments: n, seed, workers: 2 });
   }
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
   let importRow: Record<string, string | number> = { fragments: n, seed, step: 'import scans', note: 'reused from an earlier run' };
