@@ -118,14 +118,14 @@ export function analyseFragment(
     r.inwardBorderShare = borders[i].inwardShare;
   });
   const wallDepth = typicalWallDepth(figures);
+  // The program's classes (small fracture patches absorbed), then the analyst's corrections on top.
   const classes = absorbSmallFractureRegions(
     region,
     topo.neighbours,
     areas,
-    figures.map((fig, id) => regionClassOverrides.get(id) ?? classifyRegion(fig, axis, settings, wallDepth)),
+    figures.map((fig) => classifyRegion(fig, axis, settings, wallDepth)),
     settings.minFaceAreaMm2,
-    new Set(regionClassOverrides.keys()),
-  );
+  ).map((c, id) => regionClassOverrides.get(id) ?? c);
   const regions: SurfaceRegion[] = figures.map((fig, id) => {
     const surfaceClass = classes[id];
     return { id, ...fig, surfaceClass, kind: surfaceClass === 'fracture' ? 'fracture' : 'original' };

@@ -5,7 +5,8 @@ import type { SurfaceClass } from './surface-classes';
  * area is under `minArea` (mm²) are given the original class they share most border with.
  * They are scanner noise, a rough spot, or a sliver of crease: too small to measure a
  * fracture angle on or to match, and they would otherwise be reported as faces of their own.
- * Regions whose class the analyst set (`fixed`) keep it. Returns the new class of each region.
+ * Works on the program's own classes (the analyst's corrections go on top afterwards, so a
+ * correction changes only the region corrected). Returns the new class of each region.
  */
 export function absorbSmallFractureRegions(
   region: Uint32Array,
@@ -13,7 +14,6 @@ export function absorbSmallFractureRegions(
   areas: Float64Array,
   classes: SurfaceClass[],
   minArea: number,
-  fixed: ReadonlySet<number>,
 ): SurfaceClass[] {
   const out = [...classes];
   const n = classes.length;
@@ -42,7 +42,7 @@ export function absorbSmallFractureRegions(
       }
     }
     const area = group.reduce((sum, r) => sum + regionArea[r], 0);
-    if (area >= minArea || group.some((r) => fixed.has(r))) continue;
+    if (area >= minArea) continue;
     const votes = new Map<SurfaceClass, number>();
     for (const r of group) {
       for (const [o, c] of shared[r]) if (classes[o] !== 'fracture') votes.set(classes[o], (votes.get(classes[o]) ?? 0) + c);
