@@ -1,0 +1,55 @@
+/**
+ * The join score as a probability: a logistic model over the score's components (what a
+ * person checks on a refit: contact, gaps, one piece running into the other, outlines that
+ * meet, faces that lock). Coefficients are fitted on motions with known truth from generated
+ * assemblages of development seeds only (tests/bench/fit-score-model.ts) and belong to the
+ * matcher's method version: a new method version needs a new fit. The held-out calibration is
+ * printed by `npm run bench -- pairwise`.
+ */
+export interface ScoreComponents {
+  contactFraction: number;
+  contactFractionOther: number;
+  contactAreaMm2: number;
+  gapRmsMm: number;
+  penetrationMm: number;
+  outlineAgreement: number;
+  interlock: number;
+}
+
+export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'logContactArea', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock'] as const;
+
+/** The model's inputs, in FEATURE_NAMES order (penetration and interlock capped where they stop telling anything). */
+export function scoreFeatures(c: ScoreComponents): number[] {
+  return [
+    c.contactFraction,
+    c.contactFractionOther,
+    Math.log1p(Math.max(0, c.contactAreaMm2)),
+    Math.min(c.gapRmsMm, 3),
+    Math.min(c.penetrationMm, 3),
+    c.outlineAgreement,
+    Math.min(c.interlock, 0.3),
+  ];
+}
+
+export interface ScoreModel {
+  /** The matcher's method version the coefficients were fitted for. */
+  methodVersion: string;
+  /** What the fit saw (seeds, counts), for the record. */
+  fittedOn: string;
+  intercept: number;
+  slopes: Record<(typeof FEATURE_NAMES)[number], number>;
+}
+
+export const SCORE_MODEL: ScoreModel = {
+  methodVersion: 'axis-fpfh-ransac-icp/2',
+  fittedOn: 'starting values by hand (not yet fitted)',
+  intercept: -6,
+  slopes: { contactFraction: 4, contactFractionOther: 3, logContactArea: 0.8, gapRmsMm: -6, penetrationMm: -4, outlineAgreement: 2, interlock: 10 },
+};
+
+export function scoreProbability(c: ScoreComponents, model: ScoreModel = SCORE_MODEL): number {
+  const x = scoreFeatures(c);
+  let logit = model.intercept;
+  FEATURE_NAMES.forEach((n, k) => (logit += model.slopes[n] * x[k]));
+  return 1 / (1 + Math.exp(-logit));
+}
