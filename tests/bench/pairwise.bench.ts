@@ -14,6 +14,8 @@
  * Assemblages: KNITBONE_PAIRWISE_DIRS (comma separated folders written by `knitbone demo`), or
  * else generated here from seeds KNITBONE_PAIRWISE_SEEDS (default "4242,777"; these seeds are
  * never used to fit the score) with KNITBONE_PAIRWISE_FRAGMENTS fragments (default 30).
+ * KNITBONE_PAIRWISE_PARAMS='{"axisPeaks": 3}' overrides matching parameters; KNITBONE_PAIRWISE_LIMIT caps
+ * the face pairs aligned per assemblage (true joins first).
  * KNITBONE_PAIRWISE_DUMP=<file.json> writes every scored motion with its components and whether
  * it is correct (the input of tests/bench/fit-score-model.ts).
  */
@@ -23,7 +25,7 @@ import { join } from 'node:path';
 import { deserialize, serialize } from 'node:v8';
 import { generateAssemblage } from '../../demo-data/generate';
 import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { matchFacePair, distinctBest, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
+import { matchFacePair, distinctBest, DEFAULT_MATCH_PARAMETERS, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
 import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
 import { loadFragment } from '../../core/jobs/fragment-loader';
@@ -83,6 +85,7 @@ async function assemblageDirs(): Promise<string[]> {
 export default async function main(): Promise<void> {
   const dirs = await assemblageDirs();
   const limit = Number(process.env.KNITBONE_PAIRWISE_LIMIT ?? Infinity);
+  const params = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PAIRWISE_PARAMS ?? '{}') as object) };
   const motions: ScoredMotion[] = [];
   const cpuMs: number[] = [];
   const summary: Array<Record<string, string | number>> = [];
@@ -136,7 +139,7 @@ export default async function main(): Promise<void> {
       for (const p of w.pairs) {
         const [fa, fb] = p.split(',').map(Number);
         const c0 = process.cpuUsage();
-        all.push(...matchFacePair(A, fa, B, fb));
+        all.push(...matchFacePair(A, fa, B, fb, params));
         const c1 = process.cpuUsage(c0);
         cpuMs.push((c1.user + c1.system) / 1000);
         done++;

@@ -5,7 +5,8 @@
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
-import { ransacAlignFaces } from '../registration/ransac-alignment';
+import { mirrorFpfh, ransacAlignFaces } from '../registration/ransac-alignment';
+import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
@@ -20,6 +21,8 @@ export interface MatchParameters {
   hypothesesPerPair: number;
   /** Peaks of the shared-axis vote tried per flip. */
   axisPeaks: number;
+  /** Weight each vote of the shared-axis search by how alike the two samples' FPFH are. */
+  axisFeatureWeights: boolean;
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
@@ -44,6 +47,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   ransacIterations: 1500,
   hypothesesPerPair: 4,
   axisPeaks: 2,
+  axisFeatureWeights: false,
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
@@ -74,7 +78,7 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
   const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
   if (shafts) {
-    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples })) starts.push(h.transform);
+    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: mirrorFpfh(FB.fpfh), featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
   const coarse = subsample(FB.points, FB.normals, params.icpSamples);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);

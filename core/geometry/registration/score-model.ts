@@ -27,7 +27,7 @@ export function scoreFeatures(c: ScoreComponents): number[] {
     Math.min(c.gapRmsMm, 3),
     Math.min(c.penetrationMm, 3),
     c.outlineAgreement,
-    Math.min(c.interlock, 0.3),
+    Math.min(c.interlock, 0.1),
   ];
 }
 
@@ -42,9 +42,9 @@ export interface ScoreModel {
 
 export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-fpfh-ransac-icp/2',
-  fittedOn: 'starting values by hand (not yet fitted)',
-  intercept: -6,
-  slopes: { contactFraction: 4, contactFractionOther: 3, logContactArea: 0.8, gapRmsMm: -6, penetrationMm: -4, outlineAgreement: 2, interlock: 10 },
+  fittedOn: 'knitbone demo, 30 fragments each, seeds 11, 12, 13: 1633 motions (ranks 1-5 of every candidate and true fragment pair), 53 correct (within 5 degrees and 5 mm)',
+  intercept: -3.5779,
+  slopes: { contactFraction: 2.9135, contactFractionOther: -1.2669, logContactArea: 0.052, gapRmsMm: -17.6381, penetrationMm: -2.3877, outlineAgreement: 4.1392, interlock: 17.6938 },
 };
 
 export function scoreProbability(c: ScoreComponents, model: ScoreModel = SCORE_MODEL): number {

@@ -34,9 +34,18 @@ export interface AxisSearchOptions {
   peaks?: number;
   /** Opposed normals: cosine between one normal and the other reversed, at least. */
   minNormalCos?: number;
+  /**
+   * FPFH of each face's samples (B's described with flipped normals, see mirrorFpfh), FPFH_DIM
+   * numbers per sample: when given, a pair's vote is weighted by how alike the two histograms
+   * are, so pairs of the same local shape count more than pairs that merely face each other.
+   */
+  featuresA?: Float32Array;
+  featuresB?: Float32Array;
+  featureDim?: number;
 }
 
 interface Cyl {
+  index: Uint32Array;
   r: Float64Array;
   th: Float64Array;
   z: Float64Array;
@@ -60,11 +69,12 @@ function cylinder(points: ArrayLike<number>, normals: ArrayLike<number>, frame: 
   const total = points.length / 3;
   const step = Math.max(1, total / max);
   const n = Math.min(total, Math.ceil(total / step));
-  const out: Cyl = { r: new Float64Array(n), th: new Float64Array(n), z: new Float64Array(n), nr: new Float64Array(n), nt: new Float64Array(n), nz: new Float64Array(n), n };
+  const out: Cyl = { index: new Uint32Array(n), r: new Float64Array(n), th: new Float64Array(n), z: new Float64Array(n), nr: new Float64Array(n), nt: new Float64Array(n), nz: new Float64Array(n), n };
   const [x, y] = basis(frame.direction);
   const z = frame.direction, o = frame.point;
   for (let k = 0; k < n; k++) {
     const i = Math.min(total - 1, Math.floor(k * step));
+    out.index[k] = i;
     const px = points[3 * i] - o[0], py = points[3 * i + 1] - o[1], pz = points[3 * i + 2] - o[2];
     const u = px * x[0] + py * x[1] + pz * x[2], v = px * y[0] + py * y[1] + pz * y[2], w = px * z[0] + py * z[1] + pz * z[2];
     const r = Math.hypot(u, v) || 1e-9;
@@ -108,6 +118,27 @@ export function searchAboutSharedAxis(
   for (let i = 0; i < B.n; i++) { zbMin = Math.min(zbMin, B.z[i]); zbMax = Math.max(zbMax, B.z[i]); }
   const rTol = Math.max(2 * s, 0.12 * rMean);
   const minCos = options.minNormalCos ?? 0.6;
+  // feature likeness per (B sample, A sample): 1 / (1 + (d / d0)^2), d0 the median distance
+  let like: Float32Array | null = null;
+  const FD = options.featureDim ?? 0;
+  if (options.featuresA && options.featuresB && FD > 0) {
+    like = new Float32Array(B.n * A.n);
+    const fa = options.featuresA, fb = options.featuresB;
+    for (let i = 0; i < B.n; i++) {
+      const bi = B.index[i] * FD;
+      for (let j = 0; j < A.n; j++) {
+        const aj = A.index[j] * FD;
+        let d = 0;
+        for (let k = 0; k < FD; k++) { const t = fb[bi + k] - fa[aj + k]; d += t * t; }
+        like[i * A.n + j] = d;
+      }
+    }
+    const probe: number[] = [];
+    for (let k = 0; k < like.length; k += Math.max(1, Math.floor(like.length / 2000))) probe.push(like[k]);
+    probe.sort((x, y) => x - y);
+    const d0 = Math.max(1e-9, probe[Math.floor(probe.length / 2)]);
+    for (let k = 0; k < like.length; k++) like[k] = 1 / (1 + (like[k] / d0) ** 2);
+  }
   const out: AxisHypothesis[] = [];
   for (const flip of [false, true]) {
     const zLo = flip ? zaMin + zbMin : zaMin - zbMax;
@@ -129,7 +160,7 @@ export function searchAboutSharedAxis(
         const bt = Math.floor(dth / dTh) % nTh;
         const bz = Math.round((A.z[j] - z - zLo) / s);
         if (bz < 0 || bz >= nZ) continue;
-        acc[bt * nZ + bz] += c;
+        acc[bt * nZ + bz] += like ? c * like[i * A.n + j] : c;
       }
     }
     // smooth over 3x3 (turn wraps round)
