@@ -47,9 +47,17 @@ export const SCORE_MODEL: ScoreModel = {
   slopes: { contactFraction: 2.9135, contactFractionOther: -1.2669, logContactArea: 0.052, gapRmsMm: -17.6381, penetrationMm: -2.3877, outlineAgreement: 4.1392, interlock: 17.6938 },
 };
 
+/**
+ * Below this interlock the contact could slide or turn (flat or cylindrical faces): the motion
+ * is not fixed by the faces, whatever the contact, so the probability is scaled down in
+ * proportion. A rule, not fitted: generated breaks are rough and never this flat (the
+ * correct motions the model was fitted on all have interlock above 0.04).
+ */
+export const LOCKED_INTERLOCK = 0.03;
+
 export function scoreProbability(c: ScoreComponents, model: ScoreModel = SCORE_MODEL): number {
   const x = scoreFeatures(c);
   let logit = model.intercept;
   FEATURE_NAMES.forEach((n, k) => (logit += model.slopes[n] * x[k]));
-  return 1 / (1 + Math.exp(-logit));
+  return Math.min(1, c.interlock / LOCKED_INTERLOCK) / (1 + Math.exp(-logit));
 }
