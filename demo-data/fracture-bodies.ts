@@ -170,13 +170,17 @@ export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
   radii.push(g.rOutside);
   const nZ = Math.ceil((g.zetaHi - g.zetaLo) / resolution);
   const K = radii.length - 1;
-  const index = new Map<number, number>();
+  // The inner and outer walls (k = 0 and k = K) lie in the cavity and outside the bone: they
+  // take every eighth angle column only, joined to the full columns of the ends by fans.
+  const nC = nZ >= 2 ? Math.min(nA, Math.max(6, Math.ceil(nA / 8))) : nA;
+  const columns = Array.from({ length: nC + 1 }, (_, c) => Math.round((c * nA) / nC));
+  const index = new Int32Array((nA + 1) * (K + 1) * (nZ + 1)).fill(-1);
   const pos: number[] = [];
   const tmp = new Float32Array(3);
   const vid = (i: number, k: number, l: number): number => {
     const key = (i * (K + 1) + k) * (nZ + 1) + l;
-    let id = index.get(key);
-    if (id === undefined) {
+    let id = index[key];
+    if (id < 0) {
       const r = radii[k];
       let zeta = g.zetaLo + ((g.zetaHi - g.zetaLo) * l) / nZ;
       const lo = g.lower(r, zeta);
@@ -186,7 +190,7 @@ export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
       place(g.frame, r, phi, zeta, tmp, 0);
       id = pos.length / 3;
       pos.push(tmp[0], tmp[1], tmp[2]);
-      index.set(key, id);
+      index[key] = id;
     }
     return id;
   };
@@ -200,13 +204,33 @@ export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
     }
   }
   for (let i = 0; i < nA; i++) {
-    for (let l = 0; l < nZ; l++) {
-      quad(vid(i, 0, l), vid(i + 1, 0, l), vid(i + 1, 0, l + 1), vid(i, 0, l + 1));
-      quad(vid(i, K, l), vid(i, K, l + 1), vid(i + 1, K, l + 1), vid(i + 1, K, l));
-    }
     for (let k = 0; k < K; k++) {
       quad(vid(i, k, 0), vid(i, k + 1, 0), vid(i + 1, k + 1, 0), vid(i + 1, k, 0));
       quad(vid(i, k, nZ), vid(i + 1, k, nZ), vid(i + 1, k + 1, nZ), vid(i, k + 1, nZ));
+    }
+  }
+  for (const [k, flip] of [[0, false], [K, true]] as const) {
+    const tri = (a: number, b: number, c: number) => (flip ? tris.push(a, c, b) : tris.push(a, b, c));
+    const v = (i: number, l: number) => vid(i, k, l);
+    if (nC === nA) {
+      for (let i = 0; i < nA; i++) for (let l = 0; l < nZ; l++) {
+        tri(v(i, l), v(i + 1, l), v(i + 1, l + 1));
+        tri(v(i, l), v(i + 1, l + 1), v(i, l + 1));
+      }
+      continue;
+    }
+    for (let c = 0; c < nC; c++) {
+      const i0 = columns[c], i1 = columns[c + 1];
+      // fine row l = 0 up to the coarse row l = 1: a fan from (i0, 1)
+      for (let j = i0; j < i1; j++) tri(v(j, 0), v(j + 1, 0), v(i0, 1));
+      tri(v(i1, 0), v(i1, 1), v(i0, 1));
+      for (let l = 1; l < nZ - 1; l++) {
+        tri(v(i0, l), v(i1, l), v(i1, l + 1));
+        tri(v(i0, l), v(i1, l + 1), v(i0, l + 1));
+      }
+      // coarse row nZ - 1 up to the fine row nZ: a fan from (i0, nZ - 1)
+      tri(v(i0, nZ - 1), v(i1, nZ - 1), v(i1, nZ));
+      for (let j = i1; j > i0; j--) tri(v(i0, nZ - 1), v(j, nZ), v(j - 1, nZ));
     }
   }
   return orientOutwards({ positions: Float32Array.from(pos), triangles: Uint32Array.from(tris) });

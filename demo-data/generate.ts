@@ -1,20 +1,16 @@
 import { closeSync, mkdirSync, openSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Manifold } from 'manifold-3d';
-import { BoneShape } from './bone-shape';
-import { type BreakAge, planBreaks } from './break-plan';
-import { contactArea, labelArea } from './contact';
-import { type DamageRecord, damageEdges } from './damage';
-import { type LabelledMesh, labelledMesh } from './labelled-mesh';
+import { runInOrder } from '../core/jobs/ordered-pool';
+import { defaultWorkerCount } from '../core/jobs/worker-pool';
+import { type BoneResult, type BoneTask, makeBone } from './bone-job';
 import { manifoldKernel } from './manifold-kernel';
 import { writeBinaryPly } from './ply-writer';
-import { invertRigid, type Matrix4, multiply, randomPose } from './pose';
+import { invertRigid, multiply } from './pose';
 import { Random } from './random';
-import { simulateScan } from './scan-simulation';
-import { FRACTURE_BASE, type Piece, shatterBone } from './shatter';
-import { depositionPoint, fragmentFind, round, SITE } from './site';
+import { round, SITE } from './site';
+import { writeSiteDefinitions } from './site-definitions';
 import { ELEMENTS, type ElementSpec } from './skeleton';
-import { csvLine, SPECIMEN_COLUMNS, specimenRow, ZONES, type Zone } from './specimen-record';
+import { csvLine, SPECIMEN_COLUMNS } from './specimen-record';
 
 export interface GenerateOptions {
   outDir: string;
@@ -33,6 +29,9 @@ export interface GenerateOptions {
   bones?: number;
   /** Restrict the bones to these elements (by index into ELEMENTS), e.g. for tests. */
   elements?: readonly number[];
+  /** Worker threads making bones (default: one per core). The files do not depend on it. */
+  workers?: number;
+  signal?: AbortSignal;
 }
 
 export interface GenerateSummary {
@@ -41,6 +40,7 @@ export interface GenerateSummary {
   joins: number;
   bytesWritten: number;
   seconds: number;
+  workers: number;
 }
 
 export interface ProgressLike {
@@ -60,30 +60,32 @@ const LABEL_LEGEND = {
 
 /**
  * Generate an assemblage of broken long bones with known truth and write it to outDir:
- * scans/<catalogue-no>.ply, specimens.csv and truth.json. Bones are made, broken, damaged
- * and scanned one at a time and written as they are done, so memory stays bounded.
+ * scans/<catalogue-no>.ply, specimens.csv, truth.json and site.json. Bones are made on
+ * `workers` threads (bone-job.ts: each from its own seed), then numbered and written in bone
+ * order as they arrive, so the files are the same whatever the number of workers and memory
+ * stays bounded by a few bones.
  */
 export async function generateAssemblage(options: GenerateOptions, onProgress: ProgressLike = () => {}): Promise<GenerateSummary> {
   const started = performance.now();
-  const wasm = await manifoldKernel();
   const spacing = options.pointSpacing ?? DEFAULT_POINT_SPACING;
   const noise = options.noiseSd ?? DEFAULT_NOISE;
-  const damage = options.damage ?? true;
-  const losses = options.losses ?? true;
-  // meshes are built near the scanner's spacing; long edges left by the booleans (on the wide
-  // ends) are split afterwards
-  const cutResolution = Math.max(0.3, spacing);
-  const boneResolution = Math.max(0.4, spacing * 1.3);
   const root = new Random(options.seed);
   const total = options.fragments;
   const numberPool = root.fork('catalogue').permutation(Math.max(total * 3, 1000));
   const catalogueNo = (k: number) => `QS-${String(10000 + numberPool[k]).padStart(5, '0')}`;
-  const elementChoices = (options.elements ?? ELEMENTS.map((_, i) => i)).map((i) => ELEMENTS[i]);
+  const elements = options.elements ?? ELEMENTS.map((_, i) => i);
+  // bone seeds, derived from the assemblage seed one after the other
+  const seeds: string[] = [];
+  const taskOf = (k: number): BoneTask | undefined => {
+    if (options.bones !== undefined && k >= options.bones) return undefined;
+    while (seeds.length <= k) seeds.push(root.forkSeed(`bone-${seeds.length}`));
+    return { boneIndex: k, seed: seeds[k], pointSpacing: spacing, noiseSd: noise, damage: options.damage ?? true, losses: options.losses ?? true, elements };
+  };
 
   mkdirSync(join(options.outDir, 'scans'), { recursive: true });
+  let bytes = writeSiteDefinitions(options.outDir);
   const csv = openSync(join(options.outDir, 'specimens.csv'), 'w');
   const truth = openSync(join(options.outDir, 'truth.json'), 'w');
-  let bytes = 0;
   const put = (fd: number, s: string) => {
     bytes += writeSync(fd, s);
   };
@@ -103,208 +105,109 @@ export async function generateAssemblage(options: GenerateOptions, onProgress: P
   const bones: unknown[] = [];
   const joins: unknown[] = [];
   let produced = 0;
+  let bonesWritten = 0;
   let firstFragment = true;
-  let boneIndex = 0;
-  try {
-    while (produced < total && (options.bones === undefined || boneIndex < options.bones)) {
-      const rng = root.fork(`bone-${boneIndex}`);
-      const boneId = `bone-${String(boneIndex + 1).padStart(4, '0')}`;
-      const spec = rng.pick(elementChoices);
-      const side = rng.chance(0.5) ? 'left' : 'right';
-      const shape = new BoneShape(spec, side);
-      const plan = planBreaks(shape, rng.fork('plan'));
-      const shattered = shatterBone(wasm, shape, plan, cutResolution, boneResolution);
-      const { pieces, breaks, labelOf } = shattered;
-      const ageOf = new Map(breaks.map((b) => [b.id, b]));
-      const before = pieces.map((p) => labelledMesh(p.solid, labelOf));
-      const zones = zoneBounds(shape);
-      const coverage = pieces.map((p) => zoneVolumes(p.solid, zones));
-      const zoneTotals = ZONES.map((_, z) => coverage.reduce((s, c) => s + c[z], 0) || 1);
 
-      // which fragments are lost
-      const lossRng = rng.fork('losses');
-      const lost = pieces.map(() => false);
-      if (losses) {
-        pieces.forEach((p, i) => {
-          const box = p.solid.boundingBox();
-          const tipP = box.min[2] < 1;
-          const tipD = box.max[2] > shape.length - 1;
-          lost[i] = lossRng.chance(tipP ? 0.25 : tipD ? 0.2 : 0.1);
-        });
-        if (lost.every(Boolean)) lost[lossRng.int(0, lost.length - 1)] = false;
-      }
-      let present = pieces.map((_, i) => i).filter((i) => !lost[i]);
-      if (produced + present.length > total) {
-        for (const i of present.slice(total - produced)) lost[i] = true;
-        present = present.slice(0, total - produced);
-      }
-
-      // damage, then the surviving contact of every true join
-      const damageRng = rng.fork('damage');
-      const damageRecords: DamageRecord[][] = pieces.map(() => []);
-      const after: LabelledMesh[] = before.slice();
-      for (const i of present) {
-        if (!damage) continue;
-        const res = damageEdges(wasm, pieces[i].solid, before[i], labelOf, damageRng, plan.boneAge === 'fresh' ? 0.25 : 0.45);
-        pieces[i].solid = res.solid;
-        damageRecords[i] = res.records;
-        if (res.records.length) after[i] = labelledMesh(res.solid, labelOf);
-      }
-
-      const numbers = new Map<number, string>();
-      for (const i of present) numbers.set(i, catalogueNo(produced + numbers.size));
-      const poses = new Map<number, Matrix4>();
-      const scanRng = rng.fork('scans');
-      const findRng = rng.fork('finds');
-      const idRng = rng.fork('identification');
-      const origin = depositionPoint(rng.fork('deposition'));
-      for (const i of present) {
-        const no = numbers.get(i)!;
-        const refined = pieces[i].solid.refineToLength(spacing * 1.5);
-        const mesh = labelledMesh(refined, labelOf);
-        refined.delete();
-        const volume = pieces[i].solid.volume();
-        const centroid = meshCentroid(mesh);
-        const pose = randomPose(scanRng, centroid, 40);
-        poses.set(i, pose);
-        const sd = noise[0] + (noise[1] - noise[0]) * scanRng.next();
-        const scan = simulateScan(mesh, pose, sd, scanRng);
-        bytes += writeBinaryPly(join(options.outDir, 'scans', `${no}.ply`), scan.positions, scan.triangles, [
-          `knitbone demo scan of specimen ${no}`,
-          'units millimetres',
-        ]);
-        const faceLabels = [...new Set(after[i].labels)].filter((l) => l >= FRACTURE_BASE);
-        const faceAges = faceLabels.map((l) => ({ age: ageOf.get(l - FRACTURE_BASE)!.age as BreakAge, area: labelArea(after[i], l) }));
-        const cov = Object.fromEntries(ZONES.map((z, k) => [z, round(coverage[i][k] / zoneTotals[k], 3)])) as Record<Zone, number>;
-        const longitudinal = faceLabels.some((l) => ageOf.get(l - FRACTURE_BASE)!.pattern === 'longitudinal');
-        const row = specimenRow(
-          {
-            catalogueNo: no,
-            spec,
-            side,
-            coverage: cov,
-            faceAges,
-            volumeMm3: volume,
-            completeCircumference: !longitudinal,
-            damaged: damageRecords[i].length > 0,
-            provenience: fragmentFind(findRng, origin),
-          },
-          idRng,
-        );
-        put(csv, csvLine(SPECIMEN_COLUMNS.map((c) => row[c])));
-        const entry = {
-          catalogueNo: no,
-          scanFile: `scans/${no}.ply`,
-          boneId,
-          taxon: spec.taxon,
-          element: spec.element,
-          side,
-          poseBoneToScan: pose.map((v) => round(v, 9)),
-          noiseSdMm: round(sd, 4),
-          vertexCount: scan.positions.length / 3,
-          triangleCount: scan.labels.length,
-          volumeMm3: round(volume, 1),
-          zoneCoverage: cov,
-          breaks: faceLabels.map((l) => l - FRACTURE_BASE),
-          damage: damageRecords[i],
-          triangleLabels: Buffer.from(scan.labels.buffer, scan.labels.byteOffset, scan.labels.byteLength).toString('base64'),
-        };
-        put(truth, (firstFragment ? '' : ',\n') + JSON.stringify(entry));
-        firstFragment = false;
-        onProgress({ stage: 'generating fragments', done: produced + numbers.size, total, detail: no });
-      }
-
-      // true joins between present fragments: the two sides of one break in contact
-      for (const b of breaks) {
-        const label = FRACTURE_BASE + b.id;
-        const holders = present.filter((i) => before[i].labels.includes(label));
-        for (const ia of holders) {
-          for (const ib of holders) {
-            if (pieces[ia].sides.get(b.id) !== 'in' || pieces[ib].sides.get(b.id) !== 'out') continue;
-            const area0 = contactArea(before[ia], before[ib], label);
-            if (area0 < 2) continue;
-            const area1 = contactArea(after[ia], after[ib], label);
-            const [a, bb] = numbers.get(ia)! < numbers.get(ib)! ? [ia, ib] : [ib, ia];
-            joins.push({
-              a: numbers.get(a),
-              b: numbers.get(bb),
-              boneId,
-              breakId: b.id,
-              type: 'conjoin',
-              breakAge: b.age,
-              pattern: b.pattern,
-              transformBToA: multiply(poses.get(a)!, invertRigid(poses.get(bb)!)).map((v) => round(v, 9)),
-              contactAreaMm2: round(area0, 1),
-              survivingFraction: round(area1 / area0, 3),
-              damaged: damageRecords[ia].some((d) => d.breakId === b.id) || damageRecords[ib].some((d) => d.breakId === b.id),
-            });
-          }
-        }
-      }
-      bones.push({
+  /** Number and write one finished bone; 'stop' once the assemblage is complete. */
+  const write = (bone: BoneResult): 'stop' | undefined => {
+    const boneId = `bone-${String(bone.boneIndex + 1).padStart(4, '0')}`;
+    const keep = Math.min(bone.fragments.length, total - produced);
+    const numbers = bone.fragments.slice(0, keep).map((_, k) => catalogueNo(produced + k));
+    for (let k = 0; k < keep; k++) {
+      const f = bone.fragments[k];
+      const no = numbers[k];
+      bytes += writeBinaryPly(join(options.outDir, 'scans', `${no}.ply`), f.scan.positions, f.scan.triangles, [
+        `knitbone demo scan of specimen ${no}`,
+        'units millimetres',
+      ]);
+      put(csv, csvLine(SPECIMEN_COLUMNS.map((c) => (c === 'catalogue_no' ? no : f.row[c]))));
+      const entry = {
+        catalogueNo: no,
+        scanFile: `scans/${no}.ply`,
         boneId,
-        taxon: spec.taxon,
-        element: spec.element,
-        side,
-        sizeClass: spec.sizeClass,
-        lengthMm: spec.length,
-        state: plan.boneAge,
-        breaks: breaks.map((b) => ({ ...b, nominalBevelDeg: round(b.nominalBevelDeg, 1) })),
-        fragments: present.map((i) => numbers.get(i)),
-        lostFragments: pieces.length - present.length,
-        lostVolumeMm3: round(pieces.reduce((s, p, i) => s + (lost[i] ? p.solid.volume() : 0), 0) + shattered.crumbs.reduce((s, v) => s + v, 0), 1),
-        boneVolumeMm3: round(shattered.boneVolume, 1),
+        taxon: bone.taxon,
+        element: bone.element,
+        side: bone.side,
+        poseBoneToScan: f.pose.map((v) => round(v, 9)),
+        noiseSdMm: round(f.noiseSd, 4),
+        vertexCount: f.scan.positions.length / 3,
+        triangleCount: f.scan.labels.length,
+        volumeMm3: round(f.volumeMm3, 1),
+        zoneCoverage: f.zoneCoverage,
+        breaks: f.breaks,
+        damage: f.damage,
+        triangleLabels: Buffer.from(f.scan.labels.buffer, f.scan.labels.byteOffset, f.scan.labels.byteLength).toString('base64'),
+      };
+      put(truth, (firstFragment ? '' : ',\n') + JSON.stringify(entry));
+      firstFragment = false;
+      onProgress({ stage: 'generating fragments', done: produced + k + 1, total, detail: no });
+    }
+    for (const j of bone.joins) {
+      if (j.a >= keep || j.b >= keep) continue;
+      const [a, b] = numbers[j.a] < numbers[j.b] ? [j.a, j.b] : [j.b, j.a];
+      const poseA = bone.fragments[a].pose;
+      const poseB = bone.fragments[b].pose;
+      joins.push({
+        a: numbers[a],
+        b: numbers[b],
+        boneId,
+        breakId: j.breakId,
+        type: 'conjoin',
+        breakAge: j.breakAge,
+        pattern: j.pattern,
+        transformBToA: multiply(poseA, invertRigid(poseB)).map((v) => round(v, 9)),
+        contactAreaMm2: round(j.contactAreaMm2, 1),
+        survivingFraction: round(j.survivingFraction, 3),
+        damaged: j.damaged,
       });
-      for (const p of pieces) p.solid.delete();
-      produced += present.length;
-      boneIndex++;
+    }
+    const dropped = bone.fragments.slice(keep).reduce((s, f) => s + f.volumeBeforeDamageMm3, 0);
+    bones.push({
+      boneId,
+      taxon: bone.taxon,
+      element: bone.element,
+      side: bone.side,
+      sizeClass: bone.sizeClass,
+      lengthMm: bone.lengthMm,
+      state: bone.state,
+      breaks: bone.breaks.map((b) => ({ ...b, nominalBevelDeg: round(b.nominalBevelDeg, 1) })),
+      fragments: numbers,
+      lostFragments: bone.pieceCount - keep,
+      lostVolumeMm3: round(bone.lostVolumeMm3 + dropped, 1),
+      boneVolumeMm3: round(bone.boneVolumeMm3, 1),
+    });
+    produced += keep;
+    bonesWritten++;
+    return produced >= total ? 'stop' : undefined;
+  };
+
+  const workers = Math.max(1, Math.floor(options.workers ?? defaultWorkerCount()));
+  try {
+    if (total > 0) {
+      if (workers === 1) {
+        const wasm = await manifoldKernel();
+        for (let k = 0; ; k++) {
+          const task = taskOf(k);
+          if (!task || write(makeBone(wasm, task)) === 'stop') break;
+        }
+      } else {
+        await runInOrder<BoneTask, BoneResult>({
+          moduleUrl: new URL('./bone-worker.ts', import.meta.url),
+          workers,
+          // Bones give 2-15 fragments; near the end, start no more than are likely needed
+          // (the rest would be thrown away) until the bones in hand are counted.
+          task: (k) => (k > bonesWritten && produced + 3 * (k - bonesWritten) >= total ? null : taskOf(k)),
+          onResult: (_, bone) => write(bone),
+          signal: options.signal,
+        });
+      }
     }
     put(truth, '\n],\n"bones": [\n' + bones.map((b) => JSON.stringify(b)).join(',\n') + '\n],\n"joins": [\n' + joins.map((j) => JSON.stringify(j)).join(',\n') + '\n]\n}\n');
   } finally {
     closeSync(csv);
     closeSync(truth);
   }
-  return { fragments: produced, bones: boneIndex, joins: joins.length, bytesWritten: bytes, seconds: (performance.now() - started) / 1000 };
+  return { fragments: produced, bones: bones.length, joins: joins.length, bytesWritten: bytes, seconds: (performance.now() - started) / 1000, workers };
 }
 
-function meshCentroid(m: LabelledMesh): [number, number, number] {
-  const p = m.positions;
-  const n = p.length / 3;
-  let x = 0, y = 0, z = 0;
-  for (let i = 0; i < n; i++) {
-    x += p[i * 3];
-    y += p[i * 3 + 1];
-    z += p[i * 3 + 2];
-  }
-  return [x / n, y / n, z / n];
-}
-
-/** z limits of the five portion zones: the ends, and the shaft in thirds. */
-export function zoneBounds(shape: BoneShape): Array<[number, number]> {
-  const a = shape.diaphysisStart;
-  const b = shape.diaphysisEnd;
-  const third = (b - a) / 3;
-  return [
-    [-1000, a],
-    [a, a + third],
-    [a + third, a + 2 * third],
-    [a + 2 * third, b],
-    [b, 1000],
-  ];
-}
-
-function zoneVolumes(solid: Manifold, zones: Array<[number, number]>): number[] {
-  const box = solid.boundingBox();
-  return zones.map(([lo, hi]) => {
-    if (box.max[2] <= lo || box.min[2] >= hi) return 0;
-    if (box.min[2] >= lo && box.max[2] <= hi) return solid.volume();
-    const a = solid.trimByPlane([0, 0, 1], lo);
-    const b = a.trimByPlane([0, 0, -1], -hi);
-    const v = b.volume();
-    a.delete();
-    b.delete();
-    return v;
-  });
-}
-
-export type { ElementSpec, Piece };
+export type { ElementSpec };

@@ -85,7 +85,12 @@ export class Random {
 
   /** An independent stream derived from this one's state and a label. */
   fork(label: string | number): Random {
-    return new Random(`${this.nextUint32()}:${label}`);
+    return new Random(this.forkSeed(label));
+  }
+
+  /** The seed fork(label) would use, for a stream made elsewhere (another thread). */
+  forkSeed(label: string | number): string {
+    return `${this.nextUint32()}:${label}`;
   }
 }
 

@@ -127,7 +127,18 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       let body: Manifold;
       if (cut === 0) {
         const a = solidFromMesh(wasm, wedgeBody({ ...common, lower: rough(0), upper: (r, z) => smooth(0)(r, z) + w[0] + 0.5 * w[1] }, resolution));
-        const bb = solidFromMesh(wasm, wedgeBody({ ...common, lower: (r, z) => smooth(1)(r, z) - w[0] - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
+        // The second wedge reaches past the first one's inner and outer walls and its ends, so
+        // the two bodies share no surface: only their rough sides cross. (Coincident walls and
+        // ends make the intersection cut every triangle against every neighbour: slow.)
+        const wider = {
+          ...common,
+          zetaLo: common.zetaLo - 2,
+          zetaHi: common.zetaHi + 2,
+          capRoughness: undefined,
+          rInside: common.rInside * 0.8,
+          rOutside: common.rOutside + 4,
+        };
+        const bb = solidFromMesh(wasm, wedgeBody({ ...wider, lower: (r, z) => smooth(1)(r, z) - w[0] - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
         labelOf.set(a.originalID(), FRACTURE_BASE + boundaryIds[0]);
         labelOf.set(bb.originalID(), FRACTURE_BASE + boundaryIds[1]);
         body = a.intersect(bb);

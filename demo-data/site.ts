@@ -10,7 +10,7 @@ export const SITE = {
   name: 'Quarnel Shelter',
   setting: 'An invented limestone rock-shelter above the invented river Lirn; a hunting camp with butchery and marrow-cracking debris.',
   grid: 'Squares of 1 m: columns A-H from x = 0 to 8 m, rows 1-6 from y = 0 to 6 m; unit = column letter + row number.',
-  levels: '5 cm spits numbered from the top of each square (spit 1 starts at the surface).',
+  levels: '5 cm spits dug level in each square, numbered down from the highest point of its surface (its west edge; spit 1 starts there).',
   datum: 'Elevations in metres above the site datum (100.000 m).',
   catalogue: 'QS-<five digits>',
 } as const;
@@ -32,6 +32,7 @@ export const LAYERS: readonly LayerDef[] = [
 ];
 const BASE = 98.8;
 const DIP = 0.02;
+const SPIT_MM = 50;
 
 export function surfaceAt(x: number): number {
   return LAYERS[0].top - DIP * x;
@@ -49,8 +50,36 @@ export function unitAt(x: number, y: number): string {
   return `${COLUMNS[c]}${r}`;
 }
 
-export function levelAt(x: number, z: number): string {
-  return String(1 + Math.floor((surfaceAt(x) - z) / 0.05));
+/** The units of the grid: 1 m squares, columns A-H (x 0-8 m), rows 1-6 (y 0-6 m). */
+export function siteUnits(): Array<{ unit: string; xMin: number; yMin: number; xMax: number; yMax: number }> {
+  const out = [];
+  for (let c = 0; c < COLUMNS.length; c++) for (let r = 1; r <= 6; r++) out.push({ unit: `${COLUMNS[c]}${r}`, xMin: c, yMin: r - 1, xMax: c + 1, yMax: r });
+  return out;
+}
+
+/** Elevation (whole millimetres) where spit 1 of a unit starts: the surface at its west edge. */
+function spitDatumMm(unit: string): number {
+  return Math.round(LAYERS[0].top * 1000) - Math.round(DIP * 1000) * COLUMNS.indexOf(unit[0]);
+}
+
+/** Spit of an elevation z (m) in a unit: 5 cm spits dug level down from the unit's datum. */
+export function levelAt(unit: string, z: number): string {
+  return String(1 + Math.floor((spitDatumMm(unit) - Math.round(z * 1000)) / SPIT_MM));
+}
+
+/** Top and bottom (m) of every spit of a unit down to the base of the deposit. */
+export function unitLevels(unit: string): Array<{ unit: string; level: string; topZ: number; bottomZ: number }> {
+  const out = [];
+  const base = Math.round(BASE * 1000);
+  for (let n = 1, top = spitDatumMm(unit); top > base; n++, top -= SPIT_MM) out.push({ unit, level: String(n), topZ: top / 1000, bottomZ: (top - SPIT_MM) / 1000 });
+  return out;
+}
+
+/** Points on the top of each layer: every metre of the grid (the tops are planes dipping east). */
+export function layerTopPoints(): Array<{ layer: string; x: number; y: number; z: number }> {
+  const out = [];
+  for (const l of LAYERS) for (let x = 0; x <= COLUMNS.length; x++) for (let y = 0; y <= 6; y++) out.push({ layer: l.name, x, y, z: round(l.top - DIP * x, 3) });
+  return out;
 }
 
 export interface Provenience {
@@ -83,7 +112,10 @@ export function fragmentFind(random: Random, origin: readonly [number, number, n
   const x = clamp(origin[0] + random.normal(0, h), 0.02, 7.98);
   const y = clamp(origin[1] + random.normal(0, h), 0.02, 5.98);
   const z = clamp(origin[2] + random.normal(0, deep ? 0.15 : 0.03), BASE + 0.01, surfaceAt(x) - 0.01);
-  return { unit: unitAt(x, y), level: levelAt(x, z), layer: layerAt(x, z), x: round(x, 3), y: round(y, 3), z: round(z, 3) };
+  // unit, spit and layer from the coordinates as recorded (to the millimetre)
+  const [rx, ry, rz] = [round(x, 3), round(y, 3), round(z, 3)];
+  const unit = unitAt(rx, ry);
+  return { unit, level: levelAt(unit, rz), layer: layerAt(rx, rz), x: rx, y: ry, z: rz };
 }
 
 function clamp(v: number, lo: number, hi: number): number {

@@ -30,8 +30,18 @@ export class RegionClassRepository {
     private readonly defaultWho: string,
   ) {}
 
-  /** Record a correction (or, with null, withdraw one). */
-  correct(scanId: number, regionId: number, surfaceClass: RegionSurfaceClass | null, who: string = this.defaultWho): RegionClassCorrection {
+  /**
+   * Record a correction (or, with null, withdraw one). `shown` is the class the region had on
+   * screen before and has after (the program's class where no correction is in force), so the
+   * history reads "fracture -> medullary" rather than "no correction -> medullary".
+   */
+  correct(
+    scanId: number,
+    regionId: number,
+    surfaceClass: RegionSurfaceClass | null,
+    who: string = this.defaultWho,
+    shown: { before?: string; after?: string } = {},
+  ): RegionClassCorrection {
     const run = this.db.transaction((): RegionClassCorrection => {
       const at = new Date().toISOString();
       const before = this.inForce(scanId).get(regionId) ?? null;
@@ -41,7 +51,8 @@ export class RegionClassRepository {
       const row = this.db.prepare('SELECT * FROM scan_region_class WHERE id = ?').get(Number(info.lastInsertRowid)) as Row;
       this.history.record({
         at, who, entity: 'scan', entityId: scanId, action: 'correct-region-class',
-        before: { regionId, surfaceClass: before }, after: { regionId, surfaceClass },
+        before: { regionId, surfaceClass: before, ...(shown.before ? { shownClass: shown.before } : {}) },
+        after: { regionId, surfaceClass, ...(shown.after ? { shownClass: shown.after } : {}) },
       });
       return fromRow(row);
     });

@@ -7,8 +7,8 @@ type LooseCall = (name: string, input: unknown) => Promise<unknown>;
 
 /**
  * The demo catalogue, built on first use from the committed sample (demo-data/sample/)
- * through the host API, as an analyst would: create, import the specimen list, import the
- * scans. Returns its path, or null (after saying why) when it cannot be built here.
+ * through the host API, as an analyst would: create, import the specimen list, the site's
+ * units, spits and layer tops, and the scans. Returns its path, or null (after saying why) when it cannot be built here.
  */
 export async function ensureDemoCatalogue(sampleDir: string, target: string, say: (line: string) => void): Promise<string | null> {
   if (existsSync(target)) return target;
@@ -35,6 +35,15 @@ export async function ensureDemoCatalogue(sampleDir: string, target: string, say
     for (const line of problemLines(err)) say(`  ${line}`);
     for (const suffix of ['', '-wal', '-shm']) rmSync(target + suffix, { force: true });
     return null;
+  }
+  const site = join(sampleDir, 'site.json');
+  if (Host.has('spatial.definitions.import') && existsSync(site)) {
+    try {
+      await call('spatial.definitions.import', { catalogue: target, file: site });
+    } catch (err) {
+      say('the demo site definitions could not be read (the specimens are in):');
+      for (const line of problemLines(err)) say(`  ${line}`);
+    }
   }
   const scans = join(sampleDir, 'scans');
   if (Host.has('scans.import') && existsSync(scans) && readdirSync(scans).length > 0) {

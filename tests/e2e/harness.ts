@@ -16,6 +16,8 @@ export interface Browsing {
   page: Page;
   /** Console errors and CSP violations seen by the page. */
   pageErrors: string[];
+  /** Chromium's profile folder (its processes name it on their command lines). */
+  profile: string;
   shot(name: string): Promise<string>;
   close(): Promise<void>;
 }
@@ -50,6 +52,7 @@ export async function browse(session: Omit<ShellSession, 'requests'>, options: {
     context,
     page,
     pageErrors,
+    profile,
     async shot(name) {
       const file = join(screenshotDir, `${name}.png`);
       await page.screenshot({ path: file });

@@ -20,7 +20,7 @@ function positiveInt(name: string) {
 export function registerDemo(program: Command): void {
   program
     .command('demo')
-    .description('generate the invented demo assemblage in <dir> (scans, specimens.csv, truth.json) and load it into <dir>/demo.sqlite')
+    .description('generate the invented demo assemblage in <dir> (scans, specimens.csv, site.json, truth.json) and load it into <dir>/demo.sqlite')
     .argument('<dir>', 'new or empty folder to write into (an earlier demo without its catalogue is replaced)')
     .option('--fragments <N>', 'number of fragments', positiveInt('fragments'), 60)
     .option('--seed <S>', 'seed: the same seed gives the same files', 'quarnel')
@@ -29,18 +29,19 @@ export function registerDemo(program: Command): void {
       if (!Number.isFinite(n) || n < 0.1 || n > 3) throw new KnitboneError('usage', `--spacing must be between 0.1 and 3 mm, not "${v}"`);
       return n;
     })
+    .option('--workers <N>', 'worker threads making bones (default: one per core); the files do not depend on it', positiveInt('workers'))
     .option('--no-catalogue', 'write the files only; do not build demo.sqlite')
     .option('--json', 'print a JSON summary')
-    .action(async (dir: string, opts: { fragments: number; seed: string; spacing?: number; catalogue: boolean; json?: boolean }) => {
+    .action(async (dir: string, opts: { fragments: number; seed: string; spacing?: number; workers?: number; catalogue: boolean; json?: boolean }) => {
       const host = new Host();
       const progress = terminalProgress();
       try {
         const generated = await host.call(
           'demo.generate',
-          { dir, fragments: opts.fragments, seed: opts.seed, pointSpacing: opts.spacing },
+          { dir, fragments: opts.fragments, seed: opts.seed, pointSpacing: opts.spacing, workers: opts.workers },
           { onProgress: progress.onProgress },
         );
-        let catalogue: { path: string; specimens: unknown; scans: { imported: number; unmatched: number } } | undefined;
+        let catalogue: { path: string; specimens: unknown; site: unknown; scans: { imported: number; unmatched: number } } | undefined;
         if (opts.catalogue) {
           const path = join(dir, 'demo.sqlite');
           await host.call('catalogue.init', { catalogue: path, who: 'knitbone demo' });
@@ -49,12 +50,14 @@ export function registerDemo(program: Command): void {
             { catalogue: path, file: generated.specimensCsv, who: 'knitbone demo' },
             { onProgress: progress.onProgress },
           );
+          // the invented site's units, spits and layer tops, for the spatial figures
+          const site = await host.call('spatial.definitions.import', { catalogue: path, file: generated.siteJson, who: 'knitbone demo' });
           const scans = await host.call(
             'scans.import',
-            { catalogue: path, folder: generated.scansFolder, units: 'mm', who: 'knitbone demo' },
+            { catalogue: path, folder: generated.scansFolder, units: 'mm', workers: opts.workers, who: 'knitbone demo' },
             { onProgress: progress.onProgress },
           );
-          catalogue = { path, specimens, scans: { imported: scans.imported.length, unmatched: scans.unmatched.length } };
+          catalogue = { path, specimens, site, scans: { imported: scans.imported.length, unmatched: scans.unmatched.length } };
         }
         progress.finish();
         const summary = { ...generated, catalogue };

@@ -2,11 +2,12 @@ import { existsSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs
 import { join } from 'node:path';
 import { z } from 'zod';
 import { DEMO_TRUTH_FORMAT, generateAssemblage } from '../../../demo-data/generate';
+import { SITE_DEFINITIONS_FILE } from '../../../demo-data/site-definitions';
 import { KnitboneError } from '../errors';
 import { defineRequest } from '../request';
 
 /** What a previous demo leaves in its folder (and nothing else may be there). */
-const DEMO_FILES = new Set(['scans', 'specimens.csv', 'truth.json']);
+const DEMO_FILES = new Set(['scans', 'specimens.csv', 'truth.json', SITE_DEFINITIONS_FILE]);
 
 /**
  * Refuse a folder that holds anything but a previous demo, and a previous demo whose
@@ -43,12 +44,14 @@ export const demoRequests = {
         fragments: z.number().int().min(1).max(100_000).default(60),
         seed: z.union([z.string().min(1), z.number()]).default('quarnel'),
         pointSpacing: z.number().min(0.1).max(3).optional(),
+        /** Worker threads (default: one per core); the files are the same whatever the number. */
+        workers: z.number().int().min(1).max(64).optional(),
       })
       .strict(),
     run: async (input, ctx) => {
       prepareFolder(input.dir);
       const summary = await generateAssemblage(
-        { outDir: input.dir, fragments: input.fragments, seed: input.seed, pointSpacing: input.pointSpacing },
+        { outDir: input.dir, fragments: input.fragments, seed: input.seed, pointSpacing: input.pointSpacing, workers: input.workers, signal: ctx.signal },
         (e) => ctx.onProgress(e),
       );
       return {
@@ -56,6 +59,7 @@ export const demoRequests = {
         specimensCsv: join(input.dir, 'specimens.csv'),
         scansFolder: join(input.dir, 'scans'),
         truthJson: join(input.dir, 'truth.json'),
+        siteJson: join(input.dir, SITE_DEFINITIONS_FILE),
         ...summary,
       };
     },

@@ -5,6 +5,7 @@ import { tallyRequests } from './tally';
 import { catalogueRequests } from './catalogue';
 import { proposalRequests } from './proposals';
 import { scanRequests } from './scans';
+import { specimenTableRequests } from './specimen-table';
 import { spatialRequests } from './spatial';
 import { reviewRequests } from './review';
 import { viewerRequests } from './viewer';
@@ -26,6 +27,7 @@ export const requests = {
   ...vocabularyRequests,
   ...viewerRequests,
   ...reviewRequests,
+  ...specimenTableRequests,
 };
 
 export type Requests = typeof requests;

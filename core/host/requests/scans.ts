@@ -224,8 +224,13 @@ export const scanRequests = {
           });
           stats = storedStats(r);
         }
+        const classOf = (st: Record<string, unknown> | undefined): string | undefined =>
+          ((st?.regions ?? []) as Array<{ id: number; surfaceClass?: string }>).find((r) => r.id === input.regionId)?.surfaceClass;
         return cat.transaction(() => {
-          const correction = cat.regionClasses.correct(scan.id, input.regionId, input.surfaceClass, input.who);
+          const correction = cat.regionClasses.correct(scan.id, input.regionId, input.surfaceClass, input.who, {
+            before: classOf(scan.stats),
+            after: input.surfaceClass ?? classOf(stats),
+          });
           const updated = stats ? cat.scans.updateStats(scan.id, stats, input.who) : scan;
           return { correction, scan: updated, recomputed: stats !== undefined };
         });

@@ -8,7 +8,7 @@ import {
   HemisphereLight,
   Matrix4,
   Mesh,
-  MeshStandardMaterial,
+  MeshLambertMaterial,
   PerspectiveCamera,
   Raycaster,
   Scene,
@@ -21,6 +21,12 @@ import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { buildGeometry, matrixFromRowMajor } from './build-geometry';
 import type { MeshView } from './mesh-payload';
 
+/** A surface region of one part of the view. */
+export interface RegionSelection {
+  part: string;
+  region: number;
+}
+
 export interface ViewerPart {
   key: string;
   label: string;
@@ -29,6 +35,8 @@ export interface ViewerPart {
   transform?: readonly number[] | null;
   base: readonly number[];
   fractures?: boolean;
+  /** Every region in the colour of its surface class. */
+  byClass?: boolean;
   gaps?: Float32Array | null;
   /** Moved by `pullApart` mm along the line from the first part's centre to this one's. */
   pulls?: boolean;
@@ -36,15 +44,15 @@ export interface ViewerPart {
 
 /**
  * The 3D view of one or more scans, drawn by three.js (software WebGL is enough). Drag or
- * use the arrow keys to turn, + and - to zoom, 0 to reset; click a face to select it.
+ * use the arrow keys to turn, + and - to zoom, 0 to reset; click a surface region to select it.
  * Draws only when something changes.
  */
 export function ScanViewer(props: {
   parts: ViewerPart[];
   label: string;
   pullApart?: number;
-  selectedFace?: { part: string; face: number } | null;
-  onSelectFace?: (sel: { part: string; face: number } | null) => void;
+  selectedRegion?: RegionSelection | null;
+  onSelectRegion?: (sel: RegionSelection | null) => void;
   background: string;
   height?: number;
 }) {
@@ -57,6 +65,8 @@ export function ScanViewer(props: {
     group: Group;
     meshes: Map<string, { mesh: Mesh; part: ViewerPart; base: Matrix4; direction: Vector3 }>;
     home: { position: Vector3; target: Vector3 };
+    /** What the camera was last framed on. */
+    framing: string;
     draw: () => void;
   } | null>(null);
   const [failed, setFailed] = useState<string | null>(null);
@@ -66,7 +76,7 @@ export function ScanViewer(props: {
     const el = canvas.current!;
     let renderer: WebGLRenderer;
     try {
-      renderer = new WebGLRenderer({ canvas: el, antialias: true, preserveDrawingBuffer: true });
+      renderer = new WebGLRenderer({ canvas: el, antialias: false, preserveDrawingBuffer: true });
     } catch (err) {
       setFailed('This computer could not start 3D drawing (WebGL).');
       return;
@@ -96,14 +106,14 @@ export function ScanViewer(props: {
     };
     const observer = new ResizeObserver(resize);
     observer.observe(el);
-    state.current = { renderer, scene, camera, controls, group, meshes: new Map(), home: { position: new Vector3(), target: new Vector3() }, draw };
+    state.current = { renderer, scene, camera, controls, group, meshes: new Map(), home: { position: new Vector3(), target: new Vector3() }, framing: '', draw };
     resize();
     return () => {
       observer.disconnect();
       controls.dispose();
       for (const m of state.current?.meshes.values() ?? []) {
         m.mesh.geometry.dispose();
-        (m.mesh.material as MeshStandardMaterial).dispose();
+        (m.mesh.material as MeshLambertMaterial).dispose();
       }
       renderer.dispose();
       state.current = null;
@@ -116,22 +126,22 @@ export function ScanViewer(props: {
   }, [props.background]);
 
   // Parts: rebuilt when the parts or the selection change.
-  const selKey = props.selectedFace ? `${props.selectedFace.part}:${props.selectedFace.face}` : '';
+  const selKey = props.selectedRegion ? `${props.selectedRegion.part}:${props.selectedRegion.region}` : '';
   useEffect(() => {
     const s = state.current;
     if (!s) return;
     for (const m of s.meshes.values()) {
       s.group.remove(m.mesh);
       m.mesh.geometry.dispose();
-      (m.mesh.material as MeshStandardMaterial).dispose();
+      (m.mesh.material as MeshLambertMaterial).dispose();
     }
     s.meshes.clear();
     const box = new Box3();
     const centres: Vector3[] = [];
     for (const part of props.parts) {
-      const selected = props.selectedFace && props.selectedFace.part === part.key ? props.selectedFace.face : null;
-      const geometry = buildGeometry(part.mesh, { base: part.base, fractures: part.fractures ?? true, selectedFace: selected, gaps: part.gaps });
-      const material = new MeshStandardMaterial({ vertexColors: true, roughness: 0.85, metalness: 0 });
+      const selected = props.selectedRegion && props.selectedRegion.part === part.key ? props.selectedRegion.region : null;
+      const geometry = buildGeometry(part.mesh, { base: part.base, fractures: part.fractures ?? true, byClass: part.byClass, selectedRegion: selected, gaps: part.gaps });
+      const material = new MeshLambertMaterial({ vertexColors: true });
       const mesh = new Mesh(geometry, material);
       const base = matrixFromRowMajor(part.transform);
       mesh.matrixAutoUpdate = false;
@@ -152,7 +162,11 @@ export function ScanViewer(props: {
       m.direction.normalize();
       i++;
     }
-    if (!box.isEmpty() && (s.home.position.lengthSq() === 0 || !selKey)) {
+    // Frame the parts when they are new to the view; a new selection or a recoloured scan
+    // (after a correction) keeps the analyst's camera.
+    const framing = props.parts.map((p) => `${p.key}:${p.mesh.positions.length}:${p.mesh.triangles.length}:${p.transform?.join(',') ?? ''}`).join('|');
+    if (!box.isEmpty() && framing !== s.framing) {
+      s.framing = framing;
       const sphere = box.getBoundingSphere(new Sphere());
       const dist = sphere.radius / Math.sin((s.camera.fov * Math.PI) / 360) * 1.15;
       s.camera.near = Math.max(0.01, dist / 100);
@@ -166,6 +180,8 @@ export function ScanViewer(props: {
     }
     applyPull(props.pullApart ?? 0);
     s.draw();
+    // For the app benchmark: when a new set of parts was first drawn.
+    if (props.parts.length) performance.mark('knitbone:scan-drawn', { detail: { triangles: props.parts.reduce((n, p) => n + p.mesh.triangles.length / 3, 0) } });
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [props.parts, selKey]);
 
@@ -212,17 +228,17 @@ export function ScanViewer(props: {
 
   function onClick(e: React.MouseEvent): void {
     const s = state.current;
-    if (!s || !props.onSelectFace) return;
+    if (!s || !props.onSelectRegion) return;
     const rect = canvas.current!.getBoundingClientRect();
     const ndc = new Vector2(((e.clientX - rect.left) / rect.width) * 2 - 1, -((e.clientY - rect.top) / rect.height) * 2 + 1);
     const ray = new Raycaster();
     ray.setFromCamera(ndc, s.camera);
     const hit = ray.intersectObjects([...s.meshes.values()].map((m) => m.mesh), false)[0];
-    if (!hit || hit.faceIndex === undefined || hit.faceIndex === null) return props.onSelectFace(null);
+    if (!hit || hit.faceIndex === undefined || hit.faceIndex === null) return props.onSelectRegion(null);
     const key = hit.object.userData.part as string;
     const part = s.meshes.get(key)?.part;
-    const face = part?.mesh.triangleFaces?.[hit.faceIndex] ?? -1;
-    props.onSelectFace(face >= 0 ? { part: key, face } : null);
+    const region = part?.mesh.triangleRegions?.[hit.faceIndex] ?? -1;
+    props.onSelectRegion(region >= 0 ? { part: key, region } : null);
   }
 
   if (failed) return <p className="empty">{failed}</p>;

@@ -1,6 +1,6 @@
 import { BufferAttribute, BufferGeometry, Matrix4, Vector3 } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
-import { gapColour, SURFACE } from './colours';
+import { classColour, gapColour, SURFACE } from './colours';
 import type { MeshView } from './mesh-payload';
 
 /** A 4x4 row-major rigid transform (design convention) as a three.js matrix. */
@@ -25,46 +25,88 @@ export interface Colouring {
   base: readonly number[];
   /** Fracture faces in their own colour. */
   fractures: boolean;
-  selectedFace: number | null;
+  /** Every region in the colour of its surface class (needs the mesh's region labels). */
+  byClass?: boolean;
+  /** The region drawn in the selection colour. */
+  selectedRegion?: number | null;
   /** Per-vertex distance (mm) to the partner's surface, for the contact-gap map. */
   gaps?: Float32Array | null;
 }
 
 /**
- * A non-indexed geometry (one colour per triangle corner) with smooth normals, coloured by
- * surface class, the selected face, or the contact gap.
+ * An indexed geometry with smooth normals, coloured by surface class, the selected region,
+ * or the contact gap. A vertex is shared by every triangle of the same colour around it and
+ * copied only where colours meet, so colours stay exact while the GPU (software WebGL on
+ * most test machines) transforms about one vertex per two triangles instead of three per
+ * triangle. Triangle order is kept: a picked triangle index is a triangle of `mesh`.
  */
 export function buildGeometry(mesh: MeshView, colouring: Colouring): BufferGeometry {
   const tris = mesh.triangles.length / 3;
+  const vertices = mesh.positions.length / 3;
   const normals = vertexNormals(mesh);
+  const faceKinds = new Map(mesh.faces.map((f) => [f.id, f.kind]));
+  const regionColours = new Map(mesh.regions.map((r) => [r.id, classColour(r.surfaceClass, colouring.base)]));
+  const byClass = colouring.byClass === true && mesh.triangleRegions !== null;
+  const selectedRegion = colouring.selectedRegion ?? null;
+  // Palette of triangle colours (a handful), so a corner is known by (vertex, palette entry).
+  const palette: Array<readonly number[]> = [];
+  const paletteIndex = new Map<readonly number[], number>();
+  const colourOf = (c: readonly number[]): number => {
+    let i = paletteIndex.get(c);
+    if (i === undefined) {
+      i = palette.length;
+      palette.push(c);
+      paletteIndex.set(c, i);
+    }
+    return i;
+  };
+  const firstCopy = new Int32Array(vertices).fill(-1);
+  const firstColour = new Int32Array(vertices);
+  const otherCopies = new Map<number, number>();
   const pos = new Float32Array(tris * 9);
   const nor = new Float32Array(tris * 9);
   const col = new Float32Array(tris * 9);
-  const faceKinds = new Map(mesh.faces.map((f) => [f.id, f.kind]));
+  const index = new Uint32Array(tris * 3);
+  let used = 0;
   for (let t = 0; t < tris; t++) {
     const face = mesh.triangleFaces ? mesh.triangleFaces[t] : -1;
+    const region = mesh.triangleRegions ? mesh.triangleRegions[t] : -1;
     let c: readonly number[] = colouring.base;
-    if (colouring.selectedFace !== null && face === colouring.selectedFace) c = SURFACE.selected;
+    if (selectedRegion !== null && region === selectedRegion) c = SURFACE.selected;
+    else if (byClass) c = regionColours.get(region) ?? colouring.base;
     else if (colouring.fractures && face >= 0 && faceKinds.get(face) === 'fracture') c = SURFACE.fracture;
+    const p = colourOf(c);
     for (let k = 0; k < 3; k++) {
       const v = mesh.triangles[t * 3 + k];
-      const o = t * 9 + k * 3;
-      pos[o] = mesh.positions[v * 3];
-      pos[o + 1] = mesh.positions[v * 3 + 1];
-      pos[o + 2] = mesh.positions[v * 3 + 2];
-      nor[o] = normals[v * 3];
-      nor[o + 1] = normals[v * 3 + 1];
-      nor[o + 2] = normals[v * 3 + 2];
-      const cc = colouring.gaps ? gapColour(colouring.gaps[v], c) : c;
-      col[o] = cc[0];
-      col[o + 1] = cc[1];
-      col[o + 2] = cc[2];
+      let copy: number | undefined;
+      if (firstCopy[v] >= 0 && firstColour[v] === p) copy = firstCopy[v];
+      else if (firstCopy[v] >= 0) copy = otherCopies.get(v * 64 + p);
+      if (copy === undefined) {
+        copy = used++;
+        if (firstCopy[v] < 0) {
+          firstCopy[v] = copy;
+          firstColour[v] = p;
+        } else otherCopies.set(v * 64 + p, copy);
+        const o = copy * 3;
+        pos[o] = mesh.positions[v * 3];
+        pos[o + 1] = mesh.positions[v * 3 + 1];
+        pos[o + 2] = mesh.positions[v * 3 + 2];
+        nor[o] = normals[v * 3];
+        nor[o + 1] = normals[v * 3 + 1];
+        nor[o + 2] = normals[v * 3 + 2];
+        const cc = colouring.gaps ? gapColour(colouring.gaps[v], c) : c;
+        col[o] = cc[0];
+        col[o + 1] = cc[1];
+        col[o + 2] = cc[2];
+      }
+      index[t * 3 + k] = copy;
     }
   }
   const g = new BufferGeometry();
-  g.setAttribute('position', new BufferAttribute(pos, 3));
-  g.setAttribute('normal', new BufferAttribute(nor, 3));
-  g.setAttribute('color', new BufferAttribute(col, 3));
+  g.setAttribute('position', new BufferAttribute(pos.slice(0, used * 3), 3));
+  g.setAttribute('normal', new BufferAttribute(nor.slice(0, used * 3), 3));
+  g.setAttribute('color', new BufferAttribute(col.slice(0, used * 3), 3));
+  g.setIndex(new BufferAttribute(index, 1));
   g.computeBoundingSphere();
   return g;
 }

@@ -4,7 +4,18 @@ export const SURFACE = {
   boneAlt: [0.74, 0.78, 0.84],
   fracture: [0.85, 0.47, 0.16],
   selected: [0.2, 0.55, 0.9],
+  /** Original surface classes, when a view colours every region by its class. */
+  medullary: [0.55, 0.4, 0.34],
+  articular: [0.66, 0.79, 0.62],
 } as const;
+
+/** The colour of a region by its surface class (outer cortical surface keeps the part's own colour). */
+export function classColour(surfaceClass: string, base: readonly number[]): readonly number[] {
+  if (surfaceClass === 'fracture') return SURFACE.fracture;
+  if (surfaceClass === 'medullary') return SURFACE.medullary;
+  if (surfaceClass === 'articular') return SURFACE.articular;
+  return base;
+}
 
 /**
  * Contact-gap ramp: 0 mm (touching) deep teal, 1 mm yellow, 2.5 mm and more: no contact

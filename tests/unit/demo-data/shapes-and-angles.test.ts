@@ -8,6 +8,7 @@ import { planBreaks } from '../../../demo-data/break-plan';
 import { generateAssemblage } from '../../../demo-data/generate';
 import { labelledMesh } from '../../../demo-data/labelled-mesh';
 import { manifoldKernel, solidFromMesh } from '../../../demo-data/manifold-kernel';
+import { slabVolume } from '../../../demo-data/mesh';
 import { Random } from '../../../demo-data/random';
 import { shatterBone } from '../../../demo-data/shatter';
 import { ELEMENTS, type ElementSpec } from '../../../demo-data/skeleton';
@@ -37,6 +38,10 @@ describe('bone shaft geometry', () => {
     const expected = Math.PI * L * (R * R - r * r);
     // the mesh is made of inscribed polygons: relative error about (2 pi / m)^2 / 6, well under 0.5 %
     expect(Math.abs(section.volume() - expected) / expected).toBeLessThan(0.005);
+    // the same slab measured on the mesh by the divergence theorem (mesh.ts, slabVolume)
+    const m = bone.getMesh();
+    expect(Math.abs(slabVolume(m.vertProperties, m.triVerts, 100, 160) - expected) / expected).toBeLessThan(0.005);
+    expect(Math.abs(slabVolume(m.vertProperties, m.triVerts, 100, 160) - section.volume())).toBeLessThan(0.5);
     for (const s of [outer, cavity, bone, a, section]) s.delete();
   });
 });
@@ -74,14 +79,14 @@ describe('determinism', () => {
   it('the same seed gives byte-identical files', async () => {
     const dirs = [mkdtempSync(join(tmpdir(), 'knitbone-demo-a-')), mkdtempSync(join(tmpdir(), 'knitbone-demo-b-'))];
     try {
-      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 3, seed: 'same-seed', pointSpacing: 2, elements: [4] });
+      for (const d of dirs) await generateAssemblage({ outDir: d, fragments: 3, seed: 'same-seed', pointSpacing: 2, elements: [4], workers: 1 });
       const files = (d: string) => ['specimens.csv', 'truth.json', ...readdirSync(join(d, 'scans')).sort().map((f) => `scans/${f}`)];
       expect(files(dirs[1])).toEqual(files(dirs[0]));
       for (const f of files(dirs[0])) expect(readFileSync(join(dirs[1], f)).equals(readFileSync(join(dirs[0], f))), f).toBe(true);
       // and a different seed gives a different assemblage
       const other = mkdtempSync(join(tmpdir(), 'knitbone-demo-c-'));
       dirs.push(other);
-      await generateAssemblage({ outDir: other, fragments: 3, seed: 'other-seed', pointSpacing: 2, elements: [4] });
+      await generateAssemblage({ outDir: other, fragments: 3, seed: 'other-seed', pointSpacing: 2, elements: [4], workers: 1 });
       expect(readFileSync(join(other, 'truth.json')).equals(readFileSync(join(dirs[0], 'truth.json')))).toBe(false);
     } finally {
       for (const d of dirs) rmSync(d, { recursive: true, force: true });

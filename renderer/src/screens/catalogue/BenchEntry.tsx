@@ -1,4 +1,4 @@
-import { forwardRef, useEffect, useImperativeHandle, useRef, useState } from 'react';
+import { forwardRef, memo, useEffect, useImperativeHandle, useRef, useState } from 'react';
 import { ApiError } from '../../api/client';
 import type { FieldName, SpecimenRecord } from './specimen-view';
 import { nextCatalogueNo } from './specimen-view';
@@ -67,7 +67,7 @@ function draftFrom(r: SpecimenRecord): Draft {
  * provenience (unit, level, layer) is carried over to the next record and the catalogue
  * number steps on by one. Type-ahead lists come from the vocabularies.
  */
-export const BenchEntry = forwardRef<BenchEntryHandle, {
+export const BenchEntry = memo(forwardRef<BenchEntryHandle, {
   suggestions: Partial<Record<FieldName, string[]>>;
   nextNumber: string;
   onSave: (values: Record<string, unknown>, editing: SpecimenRecord | null) => Promise<void>;
@@ -212,4 +212,4 @@ export const BenchEntry = forwardRef<BenchEntryHandle, {
       )}
     </form>
   );
-});
+}));

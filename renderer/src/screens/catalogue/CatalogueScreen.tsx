@@ -1,5 +1,6 @@
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
 import { callByName } from '../../api/loose';
+import { loadSpecimens } from '../../app/specimen-list';
 import { Problems } from '../../app/Problems';
 import { useWorkspace } from '../../app/workspace';
 import { BenchEntry, type BenchEntryHandle } from './BenchEntry';
@@ -27,21 +28,25 @@ export function CatalogueScreen() {
   const load = useCallback(async () => {
     const t0 = performance.now();
     try {
-      const list = await callByName<SpecimenRecord[]>(ws.client, 'specimens.list', { catalogue: ws.catalogue });
+      const list = await loadSpecimens(ws);
       setRows(list);
       setError(null);
       setLoadMs(performance.now() - t0);
     } catch (err) {
       setError(err);
     }
-  }, [ws.client, ws.catalogue]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [ws.client, ws.catalogue, ws.revision]);
 
   useEffect(() => {
     void load();
-  }, [load, ws.revision]);
+  }, [load]);
 
   const prepared = useMemo(() => (rows ? new PreparedRows(rows) : null), [rows]);
-  const shown = useMemo(() => (prepared ? queryPrepared(prepared, query) : []), [prepared, query]);
+  // The field shows every keystroke at once; the table follows in a render React may
+  // interrupt for the next keystroke, so typing never waits for 10,000 rows.
+  const shownQuery = useDeferredValue(query);
+  const shown = useMemo(() => (prepared ? queryPrepared(prepared, shownQuery) : []), [prepared, shownQuery]);
   const units = useMemo(() => (rows ? distinctValues(rows, 'unit') : []), [rows]);
   const levels = useMemo(() => (rows ? distinctValues(rows, 'level') : []), [rows]);
   const layers = useMemo(() => (rows ? distinctValues(rows, 'layer') : []), [rows]);
@@ -56,6 +61,12 @@ export function CatalogueScreen() {
     const last = rows.reduce((a, b) => (b.id > a.id ? b : a));
     return nextCatalogueNo(last.catalogueNo);
   }, [rows]);
+
+  const openSpecimen = useCallback((id: number) => ws.open('specimen', id), [ws.open]);
+  // The entry strip keeps one onSave for its life (it is memoised); it calls the newest save.
+  const saveRef = useRef<typeof save>(null as never);
+  const onSave = useCallback((values: Record<string, unknown>, editing: SpecimenRecord | null) => saveRef.current(values, editing), []);
+  saveRef.current = save;
 
   async function save(values: Record<string, unknown>, editing: SpecimenRecord | null): Promise<void> {
     if (editing) {
@@ -141,7 +152,7 @@ export function CatalogueScreen() {
         </button>
         <CsvTransfer onImported={() => ws.changed()} />
       </div>
-      <BenchEntry ref={bench} suggestions={suggestions} nextNumber={nextNumber} onSave={save} />
+      <BenchEntry ref={bench} suggestions={suggestions} nextNumber={nextNumber} onSave={onSave} />
       <div className="filters" role="search" aria-label="Find specimens">
         <label htmlFor="find-specimens">Find</label>
         <input
@@ -166,13 +177,13 @@ export function CatalogueScreen() {
         <SpecimenTable
           rows={shown}
           total={rows.length}
-          query={query}
+          query={shownQuery}
           onSort={(field) =>
             setQuery((q) => ({ ...q, sort: { field, descending: q.sort.field === field ? !q.sort.descending : false } }))
           }
           selected={selected}
           onSelect={setSelected}
-          onOpen={(id) => ws.open('specimen', id)}
+          onOpen={openSpecimen}
           onEdit={(id) => {
             const r = rows.find((x) => x.id === id);
             if (r) bench.current?.edit(r);

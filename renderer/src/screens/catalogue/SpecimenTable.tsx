@@ -4,6 +4,16 @@ import { cellText, COLUMNS, type FieldName, type SpecimenRecord, type TableQuery
 
 const ROW_HEIGHT = 30;
 const TOTAL_WIDTH = COLUMNS.reduce((s, c) => s + c.width, 0);
+/** Rows drawn beyond the visible ones on each side. */
+const OVERSCAN = 5;
+/**
+ * Row keys cycle through this many slots: the rows in the page always cover fewer indices
+ * than this, so keys stay unique, and a row scrolled out hands its DOM nodes to the row
+ * scrolled in (text changes instead of elements removed and created).
+ */
+const KEY_SLOTS = 512;
+/** One style object per column, made once, so React never compares or rewrites them. */
+const CELL_STYLES = COLUMNS.map((c) => ({ width: c.width }));
 
 /**
  * The specimen table: only the rows in view are in the page, so 10,000 records scroll as
@@ -26,7 +36,7 @@ export function SpecimenTable(props: {
     count: rows.length,
     getScrollElement: () => scroller.current,
     estimateSize: () => ROW_HEIGHT,
-    overscan: 12,
+    overscan: OVERSCAN,
   });
   const selectedIndex = selected === null ? -1 : rows.findIndex((r) => r.id === selected);
 
@@ -70,6 +80,7 @@ export function SpecimenTable(props: {
         aria-rowcount={rows.length + 1}
         aria-colcount={COLUMNS.length}
         aria-activedescendant={selectedIndex >= 0 ? activeId : undefined}
+        data-shown-query={props.query.text}
         onKeyDown={onKeyDown}
         onFocus={() => {
           if (selectedIndex < 0 && rows.length > 0) props.onSelect(rows[0].id);
@@ -99,7 +110,7 @@ export function SpecimenTable(props: {
         <div className="table-body" style={{ height: virtualizer.getTotalSize(), width: TOTAL_WIDTH }}>
           {virtualizer.getVirtualItems().map((v) => {
             const r = rows[v.index];
-            return <Row key={r.id} record={r} index={v.index} start={v.start} selected={r.id === selected} onSelect={props.onSelect} onOpen={props.onOpen} />;
+            return <Row key={v.index % KEY_SLOTS} record={r} index={v.index} start={v.start} selected={r.id === selected} onSelect={props.onSelect} onOpen={props.onOpen} />;
           })}
         </div>
         {rows.length === 0 && <p className="empty">No specimen matches.</p>}
@@ -129,8 +140,8 @@ const Row = memo(function Row(props: {
       onClick={() => props.onSelect(r.id)}
       onDoubleClick={() => props.onOpen(r.id)}
     >
-      {COLUMNS.map((c) => (
-        <div key={c.field} role="gridcell" style={{ width: c.width }} className={c.numeric ? 'num' : ''}>
+      {COLUMNS.map((c, i) => (
+        <div key={c.field} role="gridcell" style={CELL_STYLES[i]} className={c.numeric ? 'num' : undefined}>
           {cellText(r, c.field)}
         </div>
       ))}

@@ -65,12 +65,16 @@ export function naturalKey(text: string): string {
  * computed once per field (plain comparisons then; no locale-aware compare per pair).
  */
 export class PreparedRows {
-  readonly hay: string[];
+  private haystack: string[] | null = null;
   private readonly keys = new Map<FieldName, Array<string | number | null>>();
   private readonly orders = new Map<string, number[]>();
 
-  constructor(readonly rows: readonly SpecimenRecord[]) {
-    this.hay = rows.map((r) => COLUMNS.map((c) => cellText(r, c.field)).join(' ').toLowerCase());
+  constructor(readonly rows: readonly SpecimenRecord[]) {}
+
+  /** The text of each row that words are found in; made at the first search, not at opening. */
+  get hay(): string[] {
+    this.haystack ??= this.rows.map((r) => COLUMNS.map((c) => cellText(r, c.field)).join(' ').toLowerCase());
+    return this.haystack;
   }
 
   private keysOf(field: FieldName): Array<string | number | null> {
@@ -116,13 +120,14 @@ function cmp(a: string | number | null, b: string | number | null): number {
  */
 export function queryPrepared(p: PreparedRows, q: TableQuery): SpecimenRecord[] {
   const words = q.text.toLowerCase().split(/\s+/).filter(Boolean);
+  const hay = words.length ? p.hay : [];
   const out: SpecimenRecord[] = [];
   for (const i of p.order(q.sort.field, q.sort.descending)) {
     const r = p.rows[i];
     if (q.unit && r.unit !== q.unit) continue;
     if (q.level && r.level !== q.level) continue;
     if (q.layer && r.layer !== q.layer) continue;
-    if (words.length && !words.every((w) => p.hay[i].includes(w))) continue;
+    if (words.length && !words.every((w) => hay[i].includes(w))) continue;
     out.push(r);
   }
   return out;

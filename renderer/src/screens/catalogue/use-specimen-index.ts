@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { callByName } from '../../api/loose';
+import { loadSpecimens } from '../../app/specimen-list';
 import { useWorkspace } from '../../app/workspace';
 import type { SpecimenRecord } from './specimen-view';
 
@@ -8,9 +8,14 @@ export function useSpecimenIndex(): Map<string, SpecimenRecord> | null {
   const ws = useWorkspace();
   const [index, setIndex] = useState<Map<string, SpecimenRecord> | null>(null);
   useEffect(() => {
-    callByName<SpecimenRecord[]>(ws.client, 'specimens.list', { catalogue: ws.catalogue })
-      .then((list) => setIndex(new Map(list.map((s) => [s.catalogueNo, s]))))
-      .catch(() => setIndex(new Map()));
+    let live = true;
+    loadSpecimens(ws)
+      .then((list) => live && setIndex(new Map(list.map((s) => [s.catalogueNo, s]))))
+      .catch(() => live && setIndex(new Map()));
+    return () => {
+      live = false;
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [ws.client, ws.catalogue, ws.revision]);
   return index;
 }

@@ -4,10 +4,12 @@ import { Problems } from '../../app/Problems';
 import { themeColour } from '../../app/theme-colours';
 import { useWorkspace } from '../../app/workspace';
 import { SURFACE } from '../../viewer/colours';
-import { ScanViewer, type ViewerPart } from '../../viewer/ScanViewer';
+import type { SurfaceClassName } from '../../viewer/mesh-payload';
+import { ScanViewer, type RegionSelection, type ViewerPart } from '../../viewer/ScanViewer';
 import { useScanMesh } from '../../viewer/use-scan-mesh';
 import { cellText, type SpecimenRecord } from '../catalogue/specimen-view';
 import { useSpecimenIndex } from '../catalogue/use-specimen-index';
+import { RegionClassEditor, surfaceClassLabel } from './RegionClassEditor';
 
 interface Derived {
   field: 'taxon' | 'element' | 'side';
@@ -45,6 +47,8 @@ interface HistoryEntry {
   id: number;
   at: string;
   who: string;
+  entity?: string;
+  entityId?: string | number | null;
   action: string;
   before?: unknown;
   after?: unknown;
@@ -58,35 +62,67 @@ const IDENTIFICATION: Array<{ field: 'taxon' | 'element' | 'side'; label: string
 
 /**
  * One specimen: its record, what the analyst observed beside what the program derived from
- * accepted joins (marked, with the join), its scan with fracture faces, its joins and history.
+ * accepted joins (marked, with the join), its scan with its surface regions coloured by class
+ * (select one in the view or the list and correct its class), its joins and history.
  */
 export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
   const ws = useWorkspace();
   const [detail, setDetail] = useState<SpecimenDetail | null>(null);
   const [history, setHistory] = useState<HistoryEntry[] | null>(null);
   const [error, setError] = useState<unknown>(null);
-  const [selectedFace, setSelectedFace] = useState<{ part: string; face: number } | null>(null);
-  const { mesh, error: meshError, available: meshAvailable, loading } = useScanMesh(detail && detail.scans.length ? specimenId : null);
+  const [selected, setSelected] = useState<RegionSelection | null>(null);
+  const [meshRefresh, setMeshRefresh] = useState(0);
+  const [correcting, setCorrecting] = useState(false);
+  const [correctionError, setCorrectionError] = useState<unknown>(null);
+  const { mesh, error: meshError, available: meshAvailable, loading } = useScanMesh(detail && detail.scans.length ? specimenId : null, meshRefresh);
   const historyRequest = ['history.list', 'specimens.history'].find((n) => ws.has(n));
   const index = useSpecimenIndex();
   const numberOf = (id: number): string => [...(index?.values() ?? [])].find((x) => x.id === id)?.catalogueNo ?? `#${id}`;
+  const canCorrect = ws.has('scans.correctRegion');
+
+  useEffect(() => {
+    setSelected(null);
+  }, [specimenId]);
 
   useEffect(() => {
     if (specimenId === null) return;
+    let live = true;
     callByName<SpecimenDetail>(ws.client, 'specimens.get', { catalogue: ws.catalogue, id: specimenId })
-      .then((d) => {
+      .then(async (d) => {
+        if (!live) return;
         setDetail(d);
         setError(null);
+        if (!historyRequest) return;
+        // The specimen's own history and that of its scans (region class corrections).
+        const lists = await Promise.all([
+          callByName<HistoryEntry[]>(ws.client, historyRequest, { catalogue: ws.catalogue, entity: 'specimen', entityId: specimenId }),
+          ...d.scans.map((sc) => callByName<HistoryEntry[]>(ws.client, historyRequest, { catalogue: ws.catalogue, entity: 'scan', entityId: sc.id })),
+        ]);
+        if (live) setHistory(lists.flat().sort((a, b) => a.id - b.id));
       })
-      .catch(setError);
-    if (historyRequest) {
-      callByName<HistoryEntry[]>(ws.client, historyRequest, { catalogue: ws.catalogue, entity: 'specimen', entityId: specimenId })
-        .then(setHistory)
-        .catch(() => setHistory(null));
-    }
+      .catch((e) => live && setError(e));
+    return () => {
+      live = false;
+    };
   }, [ws.client, ws.catalogue, specimenId, ws.revision, historyRequest]);
 
-  const parts = useMemo<ViewerPart[]>(() => (mesh ? [{ key: 'scan', label: 'scan', mesh, base: SURFACE.bone, fractures: true }] : []), [mesh]);
+  async function correct(regionId: number, surfaceClass: SurfaceClassName | null): Promise<void> {
+    if (!mesh?.scanId) return;
+    setCorrecting(true);
+    setCorrectionError(null);
+    try {
+      await callByName(ws.client, 'scans.correctRegion', { catalogue: ws.catalogue, scanId: mesh.scanId, regionId, surfaceClass });
+      ws.say(surfaceClass ? `Region ${regionId} recorded as ${surfaceClassLabel(surfaceClass)}.` : `Correction of region ${regionId} withdrawn.`);
+      setMeshRefresh((r) => r + 1);
+      ws.changed();
+    } catch (err) {
+      setCorrectionError(err);
+    } finally {
+      setCorrecting(false);
+    }
+  }
+
+  const parts = useMemo<ViewerPart[]>(() => (mesh ? [{ key: 'scan', label: 'scan', mesh, base: SURFACE.bone, fractures: true, byClass: true }] : []), [mesh]);
 
   if (specimenId === null) return <p className="empty">Choose a specimen in the catalogue (Enter on a row opens it).</p>;
   if (error) return <Problems error={error} />;
@@ -94,7 +130,15 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
   const s = detail.specimen;
   const derivedOf = (f: string): Derived | undefined => detail.derived.find((d) => d.field === f);
   const fractureFaces = mesh?.faces.filter((f) => f.kind === 'fracture') ?? [];
-  const chosen = selectedFace ? mesh?.faces.find((f) => f.id === selectedFace.face) : undefined;
+  const region = selected && mesh ? mesh.regions.find((r) => r.id === selected.region) : undefined;
+  // The fracture face the selected region belongs to (its first triangle tells).
+  const chosen = (() => {
+    if (!region || !mesh?.triangleRegions || !mesh.triangleFaces) return undefined;
+    const t = mesh.triangleRegions.indexOf(region.id);
+    const face = t >= 0 ? mesh.triangleFaces[t] : -1;
+    return face >= 0 ? mesh.faces.find((f) => f.id === face) : undefined;
+  })();
+  const regionsByArea = mesh ? [...mesh.regions].filter((r) => r.triangles > 0).sort((x, y) => y.area - x.area) : [];
 
   return (
     <section className="specimen-screen" aria-labelledby="specimen-title">
@@ -192,43 +236,52 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
             {detail.scans.length === 0 && <p className="hint">No scan linked to this specimen.</p>}
             {detail.scans.length > 0 && !meshAvailable && <p className="hint">Scan {detail.scans[0].path} is linked; this knitbone cannot draw scans yet.</p>}
             <Problems error={meshError} />
-            {loading && <p className="hint" aria-busy="true">Reading the scan...</p>}
+            {loading && !mesh && <p className="hint" aria-busy="true">Reading the scan...</p>}
             {mesh && (
               <>
                 <ScanViewer
                   parts={parts}
-                  label={`Scan of ${s.catalogueNo}${fractureFaces.length ? `, ${fractureFaces.length} fracture faces coloured` : ''}`}
-                  selectedFace={selectedFace}
-                  onSelectFace={setSelectedFace}
+                  label={`Scan of ${s.catalogueNo}, ${mesh.regions.length} surface regions coloured by class${fractureFaces.length ? `, ${fractureFaces.length} fracture faces` : ''}; click a region to select it`}
+                  selectedRegion={selected}
+                  onSelectRegion={setSelected}
                   background={themeColour('panel-2')}
                   height={380}
                 />
                 <p className="legend">
-                  <span className="swatch bone" /> original surface <span className="swatch fracture" /> fracture face{' '}
-                  <span className="swatch selected" /> selected · {(mesh.triangles.length / 3).toLocaleString()} triangles
+                  <span className="swatch bone" /> outer cortical <span className="swatch medullary" /> medullary <span className="swatch articular" /> articular{' '}
+                  <span className="swatch fracture" /> fracture face <span className="swatch selected" /> selected · {(mesh.triangles.length / 3).toLocaleString()} triangles
+                  {loading && <span aria-busy="true"> · redrawing...</span>}
                 </p>
-                {fractureFaces.length > 0 && (
-                  <div className="faces" role="group" aria-label="Fracture faces">
-                    {fractureFaces.map((f) => (
+                {regionsByArea.length > 0 && (
+                  <div className="regions" role="group" aria-label="Surface regions, largest first">
+                    {regionsByArea.map((r) => (
                       <button
-                        key={f.id}
+                        key={r.id}
                         type="button"
-                        aria-pressed={selectedFace?.face === f.id}
-                        onClick={() => setSelectedFace(selectedFace?.face === f.id ? null : { part: 'scan', face: f.id })}
+                        data-region={r.id}
+                        data-class={r.surfaceClass}
+                        aria-pressed={selected?.region === r.id}
+                        onClick={() => setSelected(selected?.region === r.id ? null : { part: 'scan', region: r.id })}
                       >
-                        Face {f.id}
-                        {f.angleClass ? ` · ${f.angleClass}` : ''}
+                        <span className={`swatch ${swatchOf(r.surfaceClass)}`} aria-hidden="true" /> Region {r.id} · {surfaceClassLabel(r.surfaceClass)}
+                        {r.corrected ? ' · corrected' : ''}
                       </button>
                     ))}
                   </div>
                 )}
-                {chosen && (
-                  <dl className="record face-detail" aria-live="polite">
-                    <div><dt>Face</dt><dd>{chosen.id} ({chosen.kind})</dd></div>
-                    {chosen.area !== undefined && <div><dt>Area</dt><dd>{chosen.area.toFixed(1)} mm²</dd></div>}
-                    {chosen.meanAngleDeg != null && <div><dt>Fracture angle</dt><dd>{chosen.meanAngleDeg.toFixed(0)}° ({chosen.angleClass ?? '—'})</dd></div>}
-                    {chosen.outlineClass && <div><dt>Outline</dt><dd>{chosen.outlineClass}</dd></div>}
-                  </dl>
+                {region && (
+                  <div className="region-detail">
+                    {canCorrect && <RegionClassEditor region={region} correctable={mesh.correctable} busy={correcting} onCorrect={(c) => void correct(region.id, c)} />}
+                    <Problems error={correctionError} />
+                    {chosen && (
+                      <dl className="record face-detail" aria-live="polite">
+                        <div><dt>Fracture face</dt><dd>{chosen.id}</dd></div>
+                        {chosen.area !== undefined && <div><dt>Face area</dt><dd>{chosen.area.toFixed(1)} mm²</dd></div>}
+                        {chosen.meanAngleDeg != null && <div><dt>Fracture angle</dt><dd>{chosen.meanAngleDeg.toFixed(0)}° ({chosen.angleClass ?? '—'})</dd></div>}
+                        {chosen.outlineClass && <div><dt>Outline</dt><dd>{chosen.outlineClass}</dd></div>}
+                      </dl>
+                    )}
+                  </div>
                 )}
               </>
             )}
@@ -242,8 +295,12 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
                 <ol className="history">
                   {history.map((h) => (
                     <li key={h.id}>
-                      <time dateTime={h.at}>{h.at.replace('T', ' ').slice(0, 16)}</time> {h.who}: {h.action}
-                      {h.after && typeof h.after === 'object' ? <span className="hint"> {summarise(h.after as Record<string, unknown>)}</span> : null}
+                      <time dateTime={h.at}>{h.at.replace('T', ' ').slice(0, 16)}</time> {h.who}: {actionWords(h)}
+                      {h.action === 'correct-region-class' ? (
+                        <span className="hint"> {regionCorrectionText(h)}</span>
+                      ) : h.after && typeof h.after === 'object' ? (
+                        <span className="hint"> {summarise(h.after as Record<string, unknown>)}</span>
+                      ) : null}
                     </li>
                   ))}
                 </ol>
@@ -256,10 +313,46 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
   );
 }
 
+/** A history entry's action in words: what happened to what. */
+function actionWords(h: HistoryEntry): string {
+  const what = h.entity === 'scan' ? `scan ${h.entityId ?? ''}`.trim() : 'record';
+  switch (h.action) {
+    case 'insert':
+      return h.entity === 'scan' ? `${what} linked` : 'record added';
+    case 'import':
+      return 'record imported';
+    case 'import-update':
+      return 'record changed by import';
+    case 'update':
+      return h.entity === 'scan' ? `${what} figures recomputed` : 'record changed';
+    case 'delete':
+      return `${what} removed`;
+    case 'correct-region-class':
+      return 'surface class corrected';
+    default:
+      return h.action;
+  }
+}
+
+/** The first few fields of a history entry; nested figures (a scan's stats) are named, not printed. */
 function summarise(o: Record<string, unknown>): string {
   return Object.entries(o)
-    .filter(([, v]) => v !== null && !(Array.isArray(v) && v.length === 0))
+    .filter(([k, v]) => v !== null && !(Array.isArray(v) && v.length === 0) && !['id', 'specimenId', 'contentHash'].includes(k))
+    .filter(([, v]) => typeof v !== 'object' || Array.isArray(v))
     .slice(0, 5)
     .map(([k, v]) => `${k} ${Array.isArray(v) ? v.join(';') : String(v)}`)
     .join(', ');
+}
+
+function swatchOf(surfaceClass: string): string {
+  return surfaceClass === 'outer-cortical' ? 'bone' : surfaceClass;
+}
+
+/** "region 3 of scan 2: fracture face -> medullary surface" from a correction's history entry. */
+function regionCorrectionText(h: HistoryEntry): string {
+  type Side = { regionId?: number; surfaceClass?: string | null; shownClass?: string };
+  const before = (h.before ?? {}) as Side;
+  const after = (h.after ?? {}) as Side;
+  const withdrawn = after.surfaceClass === null ? ' (correction withdrawn)' : '';
+  return `region ${after.regionId ?? before.regionId} of scan ${h.entityId ?? '?'}: ${surfaceClassLabel(before.shownClass ?? before.surfaceClass)} → ${surfaceClassLabel(after.shownClass ?? after.surfaceClass)}${withdrawn}`;
 }
