@@ -187,6 +187,7 @@ export async function generateAssemblage(options: GenerateOptions, onProgress: P
       if (workers === 1) {
         const wasm = await manifoldKernel();
         for (let k = 0; ; k++) {
+          if (options.signal?.aborted) throw new Error('cancelled');
           const task = taskOf(k);
           if (!task || write(makeBone(wasm, task)) === 'stop') break;
         }

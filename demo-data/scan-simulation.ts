@@ -1,16 +1,18 @@
+import { flipEdges } from './edge-flips';
 import type { LabelledMesh } from './labelled-mesh';
 import { applyToPoint, type Matrix4 } from './pose';
 import type { Random } from './random';
 
 /**
  * What a structured-light scan of a fragment gives: the surface resampled at the scanner's
- * point spacing with its own triangulation, the vertices jittered along the surface so that no
- * vertex sits where the partner fragment's does, noise on every point, the fragment in the
+ * point spacing with its own triangulation (edges flipped at random, edge-flips.ts), the
+ * vertices jittered along the surface so that no vertex sits where the partner fragment's does, noise on every point, the fragment in the
  * pose it lay on the turntable, and vertex and triangle order of its own.
  *
  * `mesh` must already be refined to about the point spacing.
  */
 export function simulateScan(mesh: LabelledMesh, pose: Matrix4, noiseSd: number, random: Random): LabelledMesh {
+  for (let pass = 0; pass < 2; pass++) flipEdges(mesh.positions, mesh.triangles, mesh.labels, random);
   const { positions: p, triangles: t } = mesh;
   const nv = p.length / 3;
   const nt = t.length / 3;

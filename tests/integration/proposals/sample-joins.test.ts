@@ -27,7 +27,7 @@ beforeAll(() => {
 });
 
 describe('joins of the generated sample', () => {
-  it('gives a low score to two fragments of different bones', () => {
+  it('gives a low score to two fragments of different bones', { timeout: 180_000 }, () => {
     const first = truth.fragments.find((f) => f.catalogueNo === pair[0])!;
     const other = truth.fragments.find((f) => f.boneId !== first.boneId)!;
     expect(truth.joins.some((x) => [x.a, x.b].includes(other.catalogueNo) && [x.a, x.b].includes(first.catalogueNo))).toBe(false);

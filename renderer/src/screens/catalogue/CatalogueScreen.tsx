@@ -6,7 +6,7 @@ import { useWorkspace } from '../../app/workspace';
 import { BenchEntry, type BenchEntryHandle } from './BenchEntry';
 import { CsvTransfer } from './CsvTransfer';
 import { SpecimenTable } from './SpecimenTable';
-import { distinctValues, EMPTY_QUERY, nextCatalogueNo, PreparedRows, queryPrepared, type FieldName, type SpecimenRecord, type TableQuery } from './specimen-view';
+import { COLUMNS, distinctValues, EMPTY_QUERY, nextCatalogueNo, PreparedRows, queryPrepared, type FieldName, type SpecimenRecord, type TableQuery } from './specimen-view';
 import { useVocabulary } from './use-vocabulary';
 
 type UndoStep =
@@ -165,6 +165,18 @@ export function CatalogueScreen() {
         <ProvenienceFilter id="filter-unit" label="Unit" values={units} value={query.unit} onChange={(unit) => setQuery((q) => ({ ...q, unit }))} />
         <ProvenienceFilter id="filter-level" label="Level" values={levels} value={query.level} onChange={(level) => setQuery((q) => ({ ...q, level }))} />
         <ProvenienceFilter id="filter-layer" label="Layer" values={layers} value={query.layer} onChange={(layer) => setQuery((q) => ({ ...q, layer }))} />
+        <label htmlFor="sort-by">Sort by</label>
+        <select id="sort-by" value={query.sort.field} onChange={(e) => setQuery((q) => ({ ...q, sort: { field: e.target.value as FieldName, descending: q.sort.descending } }))}>
+          {COLUMNS.map((c) => (
+            <option key={c.field} value={c.field}>
+              {c.label}
+            </option>
+          ))}
+        </select>
+        <label className="check">
+          <input type="checkbox" checked={query.sort.descending} onChange={(e) => setQuery((q) => ({ ...q, sort: { ...q.sort, descending: e.target.checked } }))} />
+          reversed
+        </label>
         {(query.text || query.unit || query.level || query.layer) && (
           <button type="button" className="quiet" onClick={() => setQuery((q) => ({ ...EMPTY_QUERY, sort: q.sort }))}>
             Clear
