@@ -7,6 +7,7 @@ import { DEFAULT_MAX_MESH_BYTES, MeshFileError, parseMeshFile, type MeshFileForm
 import type { AnalysisSettings } from '../geometry/settings';
 import type { SurfaceClass } from '../geometry/surface-classes';
 import { toMillimetres, type LengthUnit } from '../geometry/units';
+import { storeAnalysisForMatching } from './fragment-cache';
 
 export interface ScanFileJob {
   path: string;
@@ -17,6 +18,8 @@ export interface ScanFileJob {
   corrections?: Array<[number, SurfaceClass]>;
   /** Also return one byte per input triangle (1 fracture). */
   withLabels?: boolean;
+  /** Also keep what join proposals need in this cache folder (fragment-cache.ts), so `propose` does not read the scan again. */
+  matchCacheDir?: string;
 }
 
 export interface ScanFileResult {
@@ -67,6 +70,7 @@ export function analyseScanFile(job: ScanFileJob): ScanFileResult {
   }
   const mesh = toMillimetres(parsed.mesh, job.units);
   const analysis = analyseFragment(mesh, job.settings ?? {}, new Map(job.corrections ?? []));
+  if (job.matchCacheDir) storeAnalysisForMatching(job.matchCacheDir, { file: job.path, contentHash, units: job.units, corrections: job.corrections }, mesh, analysis);
   return {
     path: job.path,
     contentHash,

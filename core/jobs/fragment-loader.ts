@@ -6,10 +6,13 @@
  */
 import { createHash } from 'node:crypto';
 import { readFileSync, statSync } from 'node:fs';
-import { analyseFragment } from '../geometry/analyse-fragment';
+import { analyseFragment, type FragmentAnalysis } from '../geometry/analyse-fragment';
 import { MeshFileError, parseMeshFile } from '../geometry/parse/index';
 import { fragmentFromAnalysis } from '../geometry/proposals/fragment-from-analysis';
 import type { FragmentInput } from '../geometry/proposals/prepared-fragment';
+import type { ShaftAxis } from '../geometry/shaft-axis';
+import type { AnalysisSettings } from '../geometry/settings';
+import type { SurfaceClass } from '../geometry/surface-classes';
 import { KnitboneError } from '../host/errors';
 
 export type LengthUnit = 'mm' | 'cm' | 'm';
@@ -27,7 +30,15 @@ export interface LoadedFragment {
   input: FragmentInput;
   diagonalMm: number;
   centroid: [number, number, number];
+  /** The fitted shaft axis (support < 0.5: not a shaft piece). */
+  axis: ShaftAxis;
   warnings: string[];
+}
+
+/** How the scan was analysed when imported: its settings and the analyst's region class corrections. */
+export interface AnalysisChoices {
+  settings?: Partial<AnalysisSettings>;
+  corrections?: Array<[number, SurfaceClass]>;
 }
 
 export function readScanBytes(file: string): Uint8Array {
@@ -44,7 +55,7 @@ export function contentHashOf(bytes: Uint8Array): string {
   return createHash('sha256').update(bytes).digest('hex');
 }
 
-export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint8Array = readScanBytes(file)): LoadedFragment {
+export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint8Array = readScanBytes(file), choices: AnalysisChoices = {}): LoadedFragment {
   let parsed;
   try {
     parsed = parseMeshFile(bytes, file);
@@ -59,6 +70,13 @@ export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint
     for (let i = 0; i < p.length; i++) p[i] = mesh.positions[i] * scale;
     mesh.positions = p;
   }
+  checkMatchableMesh(file, mesh, units);
+  const analysis = analyseFragment(mesh, choices.settings ?? {}, new Map(choices.corrections ?? []));
+  return { ...matchableFragment(file, analysis), contentHash: contentHashOf(bytes), warnings: parsed.warnings };
+}
+
+/** Refuse a mesh (already in mm) too small, too coarse or too large to be a bone fragment worth matching. */
+export function checkMatchableMesh(file: string, mesh: { positions: Float32Array; triangles: Uint32Array }, units: LengthUnit): void {
   const nt = mesh.triangles.length / 3;
   const diag = diagonalOf(mesh.positions);
   if (nt < FEWEST_TRIANGLES || !(diag > 0)) {
@@ -70,19 +88,15 @@ export function loadFragment(file: string, units: LengthUnit = 'mm', bytes: Uint
   if (diag > LARGEST_FRAGMENT_MM) {
     throw new KnitboneError('bad-input', [{ file, message: `is ${Math.round(diag)} mm across, larger than any bone (${LARGEST_FRAGMENT_MM} mm); the file's units are probably not ${units}: give its units (--units mm, cm or m)` }]);
   }
-  const analysis = analyseFragment(mesh);
+}
+
+/** What matching takes from an analysis; refused when the fragment has no break face. */
+export function matchableFragment(file: string, analysis: FragmentAnalysis): Omit<LoadedFragment, 'contentHash' | 'warnings'> {
   const input = fragmentFromAnalysis(analysis);
   if (input.faces.length === 0) {
     throw new KnitboneError('bad-input', [{ file, message: 'no break face was found on this fragment, so it cannot be joined by its surfaces; check the scan covers the broken ends' }]);
   }
-  return {
-    file,
-    contentHash: contentHashOf(bytes),
-    input,
-    diagonalMm: diagonalOf(input.positions),
-    centroid: centroid(input.positions),
-    warnings: parsed.warnings,
-  };
+  return { file, input, diagonalMm: diagonalOf(input.positions), centroid: centroid(input.positions), axis: analysis.axis };
 }
 
 function diagonalOf(p: Float32Array): number {

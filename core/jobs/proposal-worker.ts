@@ -1,20 +1,28 @@
 /**
  * Worker thread of a proposal run. Holds recently used fragments (analysed and prepared) and
  * answers three kinds of task, each `{ taskId, kind, ... }` -> `{ taskId, ok, result | error }`:
- *   analyse:  read and analyse a scan; result: its break faces' areas (for the run's spacing)
- *   describe: prepare the fragment at the run's spacing; result: face descriptors for the index
+ *   analyse:  read and analyse a scan (or take it from the run's cache); result: its summary
+ *             (break face areas for the run's spacing, size, shaft axis) or the problem
+ *   describe: prepare the fragment at the run's spacing; result: its faces' traits for the index
  *   match:    align two fragments through the given face pairs; result: best motions, scored
+ * What is analysed and described is written to the cache (fragment-cache.ts) for later runs.
  */
 import { parentPort } from 'node:worker_threads';
 import { KnitboneError } from '../host/errors';
+import { faceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
 import { matchFragments, type FaceMatch, type MatchParameters } from '../geometry/proposals/pairwise-match';
 import { prepareFragment, type FragmentInput, type PreparedFragment, type SamplingParameters } from '../geometry/proposals/prepared-fragment';
-import { loadFragment, type LengthUnit } from './fragment-loader';
+import { cachedFromLoaded, readFragment, writeFragment, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
+import { loadFragment, readScanBytes, type AnalysisChoices, type LengthUnit } from './fragment-loader';
 
 export interface ScanRef {
   scanId: number;
   file: string;
   units: LengthUnit;
+  /** Cache folder and this scan's key in it (fragment-cache.ts); no cache when absent. */
+  cache?: { dir: string; key: string };
+  /** Settings and region corrections the scan was analysed with when imported. */
+  choices?: AnalysisChoices;
 }
 
 export type ProposalTask =
@@ -22,18 +30,16 @@ export type ProposalTask =
   | { kind: 'describe'; scan: ScanRef; sampling: SamplingParameters }
   | { kind: 'match'; a: ScanRef; b: ScanRef; facePairs: Array<[number, number]>; sampling: SamplingParameters; params: MatchParameters; keep: number };
 
-export interface AnalyseResult {
+export interface AnalyseResult extends FragmentSummary {
   scanId: number;
-  faceAreas: number[];
-  diagonalMm: number;
-  centroid: [number, number, number];
   problem?: string;
 }
 
 export interface DescribeResult {
   scanId: number;
-  descriptors: Float32Array[];
-  areas: number[];
+  /** Per prepared face: the segmentation face it is (or is a patch of), and its traits. */
+  parents: number[];
+  traits: FaceTraits[];
 }
 
 export interface MatchResult {
@@ -45,7 +51,7 @@ export interface MatchResult {
 /** How many fragments a worker keeps in memory (the pool mirrors this for its affinity). */
 export const WORKER_CACHE_SIZE = 120;
 
-const analysed = new Map<number, FragmentInput>();
+const analysed = new Map<number, { input: FragmentInput; summary: FragmentSummary }>();
 const prepared = new Map<string, PreparedFragment>();
 
 function remember<K, V>(m: Map<K, V>, k: K, v: V): V {
@@ -55,34 +61,43 @@ function remember<K, V>(m: Map<K, V>, k: K, v: V): V {
   return v;
 }
 
-function analysedInput(scan: ScanRef): FragmentInput {
+/** Analysed fragment: from memory, the cache folder, or by reading and analysing the scan (then cached). */
+function analysedFragment(scan: ScanRef): { input: FragmentInput; summary: FragmentSummary } {
   const hit = analysed.get(scan.scanId);
   if (hit) return remember(analysed, scan.scanId, hit);
-  return remember(analysed, scan.scanId, loadFragment(scan.file, scan.units).input);
+  const cached = scan.cache ? readFragment(scan.cache.dir, scan.cache.key) : undefined;
+  if (cached) return remember(analysed, scan.scanId, cached);
+  const entry = cachedFromLoaded(loadFragment(scan.file, scan.units, readScanBytes(scan.file), scan.choices));
+  if (scan.cache) writeFragment(scan.cache.dir, scan.cache.key, entry);
+  return remember(analysed, scan.scanId, entry);
 }
 
 function preparedFragment(scan: ScanRef, sampling: SamplingParameters): PreparedFragment {
   const key = `${scan.scanId}@${sampling.spacing}/${sampling.fpfhRadiusSpacings}`;
   const hit = prepared.get(key);
   if (hit) return remember(prepared, key, hit);
-  return remember(prepared, key, prepareFragment(analysedInput(scan), sampling));
+  return remember(prepared, key, prepareFragment(analysedFragment(scan).input, sampling));
 }
 
 function run(task: ProposalTask): AnalyseResult | DescribeResult | MatchResult {
   switch (task.kind) {
     case 'analyse': {
       try {
-        const loaded = loadFragment(task.scan.file, task.scan.units);
-        remember(analysed, task.scan.scanId, loaded.input);
-        return { scanId: task.scan.scanId, faceAreas: loaded.input.faces.map((f) => f.area ?? 0), diagonalMm: loaded.diagonalMm, centroid: loaded.centroid };
+        return { scanId: task.scan.scanId, ...analysedFragment(task.scan).summary };
       } catch (err) {
-        if (err instanceof KnitboneError) return { scanId: task.scan.scanId, faceAreas: [], diagonalMm: 0, centroid: [0, 0, 0], problem: err.message };
+        if (err instanceof KnitboneError) {
+          if (task.scan.cache && err.kind === 'bad-input') writeProblem(task.scan.cache.dir, task.scan.cache.key, err.message);
+          return { scanId: task.scan.scanId, faceAreas: [], diagonalMm: 0, centroid: [0, 0, 0], axis: { direction: [0, 0, 1], point: [0, 0, 0], support: 0 }, problem: err.message };
+        }
         throw err;
       }
     }
     case 'describe': {
       const f = preparedFragment(task.scan, task.sampling);
-      return { scanId: task.scan.scanId, descriptors: f.faces.map((x) => x.descriptor), areas: f.faces.map((x) => x.area) };
+      const axis = analysedFragment(task.scan).summary.axis;
+      const out = { parents: f.faces.map((x) => x.parent), traits: f.faces.map((x) => faceTraits(x.points, x.normals, x.area, x.fpfh, axis)) };
+      if (task.scan.cache) writeTraits(task.scan.cache.dir, task.scan.cache.key, task.sampling, out);
+      return { scanId: task.scan.scanId, ...out };
     }
     case 'match': {
       const a = preparedFragment(task.a, task.sampling);

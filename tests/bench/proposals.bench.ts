@@ -2,17 +2,33 @@
  * Join proposals, measured (issue 6, items 5-7): `npm run bench -- proposals`.
  *
  *  1. One true join of the committed sample recovered with B turned into each octant.
- *  2. Whole assemblages from the generator (seeds used nowhere else), through the real command
- *     line (`knitbone propose --workers 2`), pruned and `--exhaustive` side by side: recall of
- *     true joins (both pieces present, at least 30% of the break surviving) in the top 3
- *     proposals of either piece, per break pattern; precision of proposals scoring above 0.8;
- *     rotation and translation errors of correct proposals; time; peak memory.
- * Sizes: KNITBONE_BENCH_SIZES (comma separated, default "12,24"); exhaustive runs only up to
- * KNITBONE_BENCH_EXHAUSTIVE_MAX fragments (default 24).
+ *  2. Whole assemblages from the generator, through the real command line (`knitbone import
+ *     scans`, then `knitbone propose --workers 2`), pruned and `--exhaustive` side by side:
+ *     recall of true joins (both pieces present, at least 30% of the break surviving) in the
+ *     top 3 proposals of either piece, per break pattern; precision of proposals scoring above
+ *     0.8; rotation and translation errors of correct proposals; wall and CPU time with the
+ *     machine's load average; peak memory; face pairs aligned.
+ *  3. Candidate recall against face pairs (no alignment): how many true joins the pruning lets
+ *     through to the expensive step for several k, against every pair (what --exhaustive aligns).
+ *
+ * Environment:
+ *   KNITBONE_BENCH_SIZES           fragments per assemblage, comma separated (default "30,100,200"; add 1000 for the largest)
+ *   KNITBONE_BENCH_SEEDS           generator seeds (default "4242", held out: never used while developing)
+ *   KNITBONE_BENCH_EXHAUSTIVE_MAX  run --exhaustive for real up to this many fragments (default 30);
+ *                                  above it the exhaustive time is estimated from the measured CPU
+ *                                  time per aligned face pair, and marked "est."
+ *   KNITBONE_BENCH_K               k values for section 3 (default "10,20,30,40,60")
+ *   KNITBONE_BENCH_ALIGN=0         skip the propose runs (sections 3 only needs the scans analysed once)
+ *   KNITBONE_BENCH_WORKERS         workers for propose (default 2)
+ *   KNITBONE_BENCH_DIR             where generated assemblages are kept and reused (default: the system temp folder)
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { openCatalogue } from '../../core/catalogue/catalogue';
+import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
+import { candidateRecall, type TruthJoin as StudyJoin } from './candidate-recall';
+import { studyFromCache, type StudyFragment } from './candidate-study';
 import { join } from 'node:path';
 import { generateAssemblage } from '../../demo-data/generate';
 import { matchFragments } from '../../core/geometry/proposals/pairwise-match';
@@ -23,8 +39,8 @@ import { loadFragment } from '../../core/jobs/fragment-loader';
 const root = join(import.meta.dirname, '../..');
 const bin = join(root, 'bin/knitbone.js');
 
-interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; transformBToA: number[] }
-interface Truth { fragments: Array<{ catalogueNo: string }>; joins: TruthJoin[] }
+interface TruthJoin { a: string; b: string; type: string; breakId: number; breakAge: string; damaged: boolean; pattern: string; survivingFraction: number; transformBToA: number[] }
+interface Truth { fragments: Array<{ catalogueNo: string; scanFile: string; triangleLabels: string }>; joins: TruthJoin[] }
 interface Proposal { a: string; b: string; score: number; transform: number[] }
 
 function table(rows: Array<Record<string, string | number>>): void {
@@ -70,94 +86,211 @@ function octants(): void {
   table(rows);
 }
 
-function cli(args: string[]): { status: number | null; stdout: string; stderr: string; seconds: number; maxRssMb: number } {
+interface Timed { status: number | null; stdout: string; stderr: string; wall: number; cpu: number; maxRssMb: number; load: string }
+
+/** Run the command line under /usr/bin/time: wall and CPU seconds (user + system, all threads), peak RSS, load average before/after. */
+function cli(args: string[]): Timed {
+  const l0 = loadavg()[0];
   const t0 = Date.now();
-  const r = spawnSync('/usr/bin/time', ['-f', 'MAXRSS %M', process.execPath, bin, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
-  const rss = /MAXRSS (\d+)/.exec(r.stderr ?? '');
-  return { status: r.status, stdout: r.stdout, stderr: r.stderr, seconds: (Date.now() - t0) / 1000, maxRssMb: rss ? Number(rss[1]) / 1024 : NaN };
+  const r = spawnSync('/usr/bin/time', ['-f', 'TIMES %U %S %M', process.execPath, bin, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
+  const m = /TIMES ([\d.]+) ([\d.]+) (\d+)/.exec(r.stderr ?? '');
+  return {
+    status: r.status,
+    stdout: r.stdout,
+    stderr: r.stderr,
+    wall: (Date.now() - t0) / 1000,
+    cpu: m ? Number(m[1]) + Number(m[2]) : NaN,
+    maxRssMb: m ? Number(m[3]) / 1024 : NaN,
+    load: `${l0.toFixed(1)}/${loadavg()[0].toFixed(1)}`,
+  };
 }
 
-async function assemblage(n: number, exhaustiveMax: number): Promise<Array<Record<string, string | number>>> {
-  const dir = mkdtempSync(join(tmpdir(), `knitbone-bench-${n}-`));
-  await generateAssemblage({ outDir: dir, fragments: n, seed: `bench-${n}-proposals-71` });
+function must(r: Timed, what: string): Timed {
+  if (r.status !== 0) throw new Error(`${what} failed (exit ${r.status}): ${r.stderr.split('\n').slice(0, 3).join(' ')}`);
+  return r;
+}
+
+const key = (x: string, y: string): string => [x, y].sort().join('|');
+
+/** A generated assemblage with its catalogue and scans imported (kept between runs of the benchmark). */
+async function assemblage(n: number, seed: string): Promise<{ dir: string; truth: Truth; importRow: Record<string, string | number> }> {
+  const base = process.env.KNITBONE_BENCH_DIR ?? tmpdir();
+  const dir = join(base, `knitbone-bench-proposals-${seed}-${n}`);
+  if (!existsSync(join(dir, 'truth.json')) || !existsSync(join(dir, 'catalogue.ready'))) {
+    rmSync(dir, { recursive: true, force: true });
+    mkdirSync(dir, { recursive: true });
+    await generateAssemblage({ outDir: dir, fragments: n, seed, workers: 2 });
+  }
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
-  writeFileSync(join(dir, 'numbers.csv'), 'catalogue_no\n' + truth.fragments.map((x) => x.catalogueNo).join('\n') + '\n');
+  let importRow: Record<string, string | number> = { fragments: n, seed, step: 'import scans', note: 'reused from an earlier run' };
+  if (!existsSync(join(dir, 'catalogue.ready'))) {
+    writeFileSync(join(dir, 'numbers.csv'), 'catalogue_no\n' + truth.fragments.map((x) => x.catalogueNo).join('\n') + '\n');
+    const cat = join(dir, 'base.sqlite');
+    must(cli(['init', cat]), 'init');
+    must(cli(['import', 'specimens', cat, join(dir, 'numbers.csv')]), 'import specimens');
+    const r = cli(['import', 'scans', cat, join(dir, 'scans'), '--skip-bad']);
+    importRow = { fragments: n, seed, step: 'import scans', 'wall s': f(r.wall, 1), 'CPU s': f(r.cpu, 1), 'load 1 min (before/after)': r.load, 'max RSS MB': f(r.maxRssMb, 0) };
+    writeFileSync(join(dir, 'catalogue.ready'), '');
+  }
+  return { dir, truth, importRow };
+}
+
+interface Proposal { a: string; b: string; score: number; transform: number[] }
+
+/** One propose run on a fresh copy of the imported catalogue; the figures of the issue's table. */
+function proposeRun(dir: string, truth: Truth, n: number, seed: string, mode: 'pruned' | 'exhaustive'): { rows: Array<Record<string, string | number>>; found: Set<string>; cpuPerFacePair: number; catalogue: string } {
+  const cat = join(dir, `${mode}.sqlite`);
+  for (const suffix of ['', '-wal', '-shm']) rmSync(cat + suffix, { force: true });
+  rmSync(cacheDirFor(cat), { recursive: true, force: true });
+  writeFileSync(cat, readFileSync(join(dir, 'base.sqlite')));
+  const workers = process.env.KNITBONE_BENCH_WORKERS ?? '2';
+  const r = must(cli(['propose', cat, '--workers', workers, ...(mode === 'exhaustive' ? ['--exhaustive'] : [])]), `propose ${mode}`);
+  const proposals = JSON.parse(must(cli(['joins', cat, '--status', 'proposed', '--json']), 'joins').stdout) as Proposal[];
+  const stats = /(\d+) scans, (\d+) break faces, (\d+) candidate pairs.*\n\((\d+) scans analysed.*?(\d+) candidate face pairs, (\d+) aligned; reading ([\d.]+) s, describing ([\d.]+) s, aligning ([\d.]+) s/.exec(r.stdout) ?? [];
+  const present = new Set(truth.fragments.map((x) => x.catalogueNo));
+  const top3 = (no: string): Proposal[] => proposals.filter((p) => p.a === no || p.b === no).sort((p, q2) => q2.score - p.score).slice(0, 3);
+  const trueKeys = new Set(truth.joins.map((j) => key(j.a, j.b)));
+  const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && present.has(j.a) && present.has(j.b));
+  const groups = new Map<string, TruthJoin[]>([['all', eligible], ['green, undamaged', eligible.filter((j) => j.breakAge === 'fresh' && !j.damaged)]]);
+  for (const j of eligible) groups.set(j.pattern, [...(groups.get(j.pattern) ?? []), j]);
+  const found = new Set<string>();
   const rows: Array<Record<string, string | number>> = [];
-  const modes: Array<[string, string[]]> = [['pruned', []]];
-  if (n <= exhaustiveMax) modes.push(['exhaustive', ['--exhaustive']]);
-  const found: Record<string, Set<string>> = {};
-  for (const [mode, extra] of modes) {
-    const cat = join(dir, `${mode}.sqlite`);
-    cli(['init', cat]);
-    cli(['import', 'specimens', cat, join(dir, 'numbers.csv')]);
-    cli(['import', 'scans', cat, join(dir, 'scans'), '--skip-bad']);
-    const r = cli(['propose', cat, '--workers', '2', '--json', ...extra]);
-    if (r.status !== 0) {
-      rows.push({ fragments: n, mode, pattern: 'all', error: r.stderr.split('\n')[0] });
-      continue;
-    }
-    const proposals = JSON.parse(r.stdout) as Proposal[];
-    const present = new Set(truth.fragments.map((x) => x.catalogueNo));
-    const top3 = (no: string): Proposal[] => proposals.filter((p) => p.a === no || p.b === no).sort((p, q2) => q2.score - p.score).slice(0, 3);
-    const key = (x: string, y: string): string => [x, y].sort().join('|');
-    const trueKeys = new Set(truth.joins.map((j) => key(j.a, j.b)));
-    const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && present.has(j.a) && present.has(j.b));
-    const byPattern = new Map<string, TruthJoin[]>([['all', eligible]]);
-    for (const j of eligible) byPattern.set(j.pattern, [...(byPattern.get(j.pattern) ?? []), j]);
-    found[mode] = new Set();
+  const alignedFacePairs = Number(stats[6] ?? NaN);
+  for (const [group, list] of groups) {
+    let hit = 0;
     const rot: number[] = [], tr: number[] = [];
-    const correct = (j: TruthJoin, p: Proposal): boolean => {
+    for (const j of list) {
+      const p = proposals.find((x) => key(x.a, x.b) === key(j.a, j.b));
+      if (!p) continue;
       const want = p.a === j.a ? j.transformBToA : invert(j.transformBToA);
       const re = rotationErrorDegrees(p.transform, want);
       const te = displacementAt(p.transform, want, [0, 0, 0]);
-      return re < 5 && te < 5;
-    };
-    for (const [pattern, list] of byPattern) {
-      let hit = 0;
-      for (const j of list) {
-        const p = proposals.find((x) => key(x.a, x.b) === key(j.a, j.b));
-        if (!p || !correct(j, p)) continue;
-        if (!top3(j.a).includes(p) && !top3(j.b).includes(p)) continue;
-        hit++;
-        if (pattern === 'all') {
-          found[mode].add(key(j.a, j.b));
-          const want = p.a === j.a ? j.transformBToA : invert(j.transformBToA);
-          rot.push(rotationErrorDegrees(p.transform, want));
-          tr.push(displacementAt(p.transform, want, [0, 0, 0]));
-        }
-      }
-      const high = proposals.filter((p) => p.score > 0.8);
-      const highTrue = high.filter((p) => trueKeys.has(key(p.a, p.b)));
-      const summary = /(\d+) scans, (\d+) break faces, (\d+) candidate pairs/.exec(r.stdout) ?? [];
-      rows.push({
-        fragments: n,
-        mode,
-        pattern,
-        'true joins': list.length,
-        'recall top3': list.length ? f(hit / list.length) : '-',
-        'precision >0.8': pattern === 'all' ? (high.length ? `${f(highTrue.length / high.length)} (${highTrue.length}/${high.length})` : '- (0)') : '',
-        'rot med/p95 deg': pattern === 'all' ? `${f(q(rot, 0.5))}/${f(q(rot, 0.95))}` : '',
-        'trans med/p95 mm': pattern === 'all' ? `${f(q(tr, 0.5))}/${f(q(tr, 0.95))}` : '',
-        faces: pattern === 'all' ? (summary[2] ?? '-') : '',
-        'pairs aligned': pattern === 'all' ? (summary[3] ?? '-') : '',
-        seconds: pattern === 'all' ? f(r.seconds, 1) : '',
-        'max RSS MB': pattern === 'all' ? f(r.maxRssMb, 0) : '',
-      });
+      if (re >= 5 || te >= 5) continue;
+      if (!top3(j.a).includes(p) && !top3(j.b).includes(p)) continue;
+      hit++;
+      rot.push(re);
+      tr.push(te);
+      if (group === 'all') found.add(key(j.a, j.b));
     }
+    const high = proposals.filter((p) => p.score > 0.8);
+    const highTrue = high.filter((p) => trueKeys.has(key(p.a, p.b)));
+    const all = group === 'all';
+    rows.push({
+      fragments: n,
+      seed,
+      mode,
+      'break type': group,
+      'true joins': list.length,
+      'recall top3': list.length ? `${f(hit / list.length)} (${hit})` : '-',
+      'precision >0.8': all ? (high.length ? `${f(highTrue.length / high.length)} (${highTrue.length}/${high.length})` : '- (0)') : '',
+      'rot med/p95 deg': `${f(q(rot, 0.5))}/${f(q(rot, 0.95))}`,
+      'trans med/p95 mm': `${f(q(tr, 0.5))}/${f(q(tr, 0.95))}`,
+      faces: all ? (stats[2] ?? '-') : '',
+      'face pairs aligned': all ? (stats[6] ?? '-') : '',
+      'wall s': all ? f(r.wall, 1) : '',
+      'CPU s': all ? f(r.cpu, 1) : '',
+      'load 1 min': all ? r.load : '',
+      'max RSS MB': all ? f(r.maxRssMb, 0) : '',
+      'stages read/describe/align s': all ? `${stats[7] ?? '-'}/${stats[8] ?? '-'}/${stats[9] ?? '-'}` : '',
+    });
   }
-  if (found.pruned && found.exhaustive) {
-    const both = [...found.exhaustive].filter((k) => found.pruned.has(k)).length;
-    process.stdout.write(`${n} fragments: pruning finds ${both} of the ${found.exhaustive.size} joins exhaustive finds\n`);
+  const alignSeconds = Number(stats[9] ?? NaN);
+  // CPU per aligned face pair: the CPU of the aligning stage is not separated, so take the
+  // run's CPU share of wall time for that stage (an estimate; exact when reading took no time)
+  const cpuPerFacePair = alignedFacePairs > 0 ? (r.cpu * (alignSeconds / Math.max(r.wall, 1e-9))) / alignedFacePairs : NaN;
+  return { rows, found, cpuPerFacePair, catalogue: cat };
+}
+
+/** Section 3 from the analysis the pruned run stored: candidate recall for several k, no alignment. */
+function candidateSection(dir: string, truth: Truth, catalogue: string, ks: number[]): Array<Record<string, string | number>> {
+  const cat = openCatalogue(catalogue);
+  const spacing = (cat.joins.list({ status: 'proposed' })[0]?.parameters as { sampling?: { spacing: number } } | undefined)?.sampling?.spacing;
+  const scans = cat.scans.list();
+  const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
+  cat.close();
+  if (!spacing) return [];
+  const byNo = new Map(truth.fragments.map((x) => [x.catalogueNo, x]));
+  const studied: StudyFragment[] = [];
+  for (const s of scans) {
+    const fr = byNo.get(numbers.get(s.specimenId) ?? '');
+    if (!fr) continue;
+    const cached = readFragment(cacheDirFor(catalogue), fragmentKey(s.contentHash, s.units, (s.stats as { settings?: unknown }).settings, []));
+    if (!cached) continue;
+    studied.push(studyFromCache(dir, fr, { input: cached.input, axis: cached.summary.axis }, spacing));
   }
-  return rows;
+  const r = candidateRecall(studied, truth.joins as unknown as StudyJoin[], ks);
+  return r.rows.map((x) => ({
+    fragments: r.fragments,
+    faces: r.faces,
+    k: x.k === 'all' ? 'every pair' : x.k,
+    'face pairs': x.facePairs,
+    'per face': f(x.perFace, 1),
+    'true joins reachable': x.reachable,
+    'reached': x.found,
+    'candidate recall': f(x.recall, 3),
+    'fewer pairs than all': x.k === 'all' ? '1x' : `${f(r.rows[0].facePairs / Math.max(1, x.facePairs), 1)}x`,
+    'index ms': f(x.ms, 0),
+  }));
 }
 
 export default async function run(): Promise<void> {
-  octants();
-  const sizes = (process.env.KNITBONE_BENCH_SIZES ?? '12,24').split(',').map(Number).filter((x) => x > 0);
-  const exhaustiveMax = Number(process.env.KNITBONE_BENCH_EXHAUSTIVE_MAX ?? 24);
+  if (process.env.KNITBONE_BENCH_OCTANTS !== '0') octants();
+  const sizes = (process.env.KNITBONE_BENCH_SIZES ?? '30,100,200').split(',').map(Number).filter((x) => x > 0);
+  const seeds = (process.env.KNITBONE_BENCH_SEEDS ?? '4242').split(',').map((x) => x.trim()).filter(Boolean);
+  const exhaustiveMax = Number(process.env.KNITBONE_BENCH_EXHAUSTIVE_MAX ?? 30);
+  const ks = (process.env.KNITBONE_BENCH_K ?? '10,20,30,40,60').split(',').map(Number).filter((x) => x > 0);
+  const align = process.env.KNITBONE_BENCH_ALIGN !== '0';
+  const imports: Array<Record<string, string | number>> = [];
   const rows: Array<Record<string, string | number>> = [];
-  for (const n of sizes) rows.push(...(await assemblage(n, exhaustiveMax)));
-  process.stdout.write('\n2. Generated assemblages, knitbone propose --workers 2 (true joins: conjoins with both pieces present and >= 30% of the break surviving)\n');
-  table(rows);
+  const side: Array<Record<string, string | number>> = [];
+  const recall: Array<Record<string, string | number>> = [];
+  for (const seed of seeds) for (const n of sizes) {
+    const { dir, truth, importRow } = await assemblage(n, seed);
+    imports.push(importRow);
+    const pruned = proposeRun(dir, truth, n, seed, 'pruned');
+    if (align) rows.push(...pruned.rows);
+    const exhaustiveFacePairs = (() => {
+      const r = candidateSection(dir, truth, pruned.catalogue, ks);
+      recall.push(...r.map((x) => ({ seed, ...x })));
+      return Number(r[0]?.['face pairs'] ?? NaN);
+    })();
+    const prunedAll = pruned.rows[0];
+    if (n <= exhaustiveMax && align) {
+      const ex = proposeRun(dir, truth, n, seed, 'exhaustive');
+      rows.push(...ex.rows);
+      const both = [...ex.found].filter((k2) => pruned.found.has(k2)).length;
+      const exAll = ex.rows[0];
+      side.push({
+        fragments: n, seed,
+        'exhaustive finds': ex.found.size, 'pruned finds of those': `${both} (${f(ex.found.size ? both / ex.found.size : NaN)})`,
+        'face pairs pruned/exhaustive': `${prunedAll['face pairs aligned']}/${exAll['face pairs aligned']}`,
+        'CPU s pruned/exhaustive': `${prunedAll['CPU s']}/${exAll['CPU s']}`,
+        'wall s pruned/exhaustive': `${prunedAll['wall s']}/${exAll['wall s']}`,
+        'load 1 min': `${prunedAll['load 1 min']}, ${exAll['load 1 min']}`,
+        speedup: f(Number(exAll['CPU s']) / Number(prunedAll['CPU s']), 1) + 'x (CPU)',
+      });
+    } else if (align) {
+      const est = exhaustiveFacePairs * pruned.cpuPerFacePair;
+      side.push({
+        fragments: n, seed,
+        'exhaustive finds': 'not run',
+        'pruned finds of those': `candidate recall at this k: see section 3`,
+        'face pairs pruned/exhaustive': `${prunedAll['face pairs aligned']}/${exhaustiveFacePairs}`,
+        'CPU s pruned/exhaustive': `${prunedAll['CPU s']}/${f(est, 0)} est.`,
+        'wall s pruned/exhaustive': `${prunedAll['wall s']}/-`,
+        'load 1 min': `${prunedAll['load 1 min']}`,
+        speedup: `${f(est / Number(prunedAll['CPU s']), 1)}x est. (exhaustive CPU = every face pair x ${f(pruned.cpuPerFacePair * 1000, 0)} ms measured per aligned pair)`,
+      });
+    }
+  }
+  process.stdout.write(`\n2a. Importing scans (segmentation; done once per catalogue), 1-minute load average before/after, ${process.env.KNITBONE_BENCH_WORKERS ?? 2} workers\n`);
+  table(imports);
+  if (align) {
+    process.stdout.write('\n2b. knitbone propose --workers 2 (true joins: conjoins with both pieces present and >= 30% of the break surviving; a proposal is correct within 5 degrees and 5 mm)\n');
+    table(rows);
+    process.stdout.write('\n2c. Pruned against --exhaustive\n');
+    table(side);
+  }
+  process.stdout.write('\n3. Candidate recall (true joins with a candidate face pair on both sides of the break, each face >= 30% on it) against face pairs, no alignment\n');
+  table(recall);
 }

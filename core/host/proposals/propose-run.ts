@@ -16,14 +16,16 @@ import { availableParallelism } from 'node:os';
 import { dirname, isAbsolute, resolve } from 'node:path';
 import { withCatalogue, type Catalogue } from '../../catalogue/catalogue';
 import { ProposalPairRepository } from '../../catalogue/proposal-pairs';
-import type { Join } from '../../catalogue/records';
-import { byFragmentPair, candidateFacePairs, type IndexedFace } from '../../geometry/proposals/candidate-index';
+import type { Join, Scan } from '../../catalogue/records';
+import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../geometry/proposals/candidate-index';
+import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../geometry/proposals/face-descriptor';
 import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
 import { cycleAgreement, solvePoses, type PoseSolution } from '../../geometry/proposals/pose-graph';
 import { invert } from '../../geometry/registration/rigid-transform';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, spacingForFaces, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
 import { startTypeScriptWorker } from '../../jobs/typescript-worker';
 import { runPool, type PoolTask } from '../../jobs/affinity-pool';
+import { cacheDirFor, fragmentKey, readSummary, readTraits } from '../../jobs/fragment-cache';
 import { WORKER_CACHE_SIZE, type AnalyseResult, type DescribeResult, type MatchResult, type ProposalTask, type ScanRef } from '../../jobs/proposal-worker';
 import type { LengthUnit } from '../../jobs/fragment-loader';
 import type { RequestContext } from '../request';
@@ -46,7 +48,15 @@ export interface ProposeOutcome {
     scans: number;
     faces: number;
     candidatePairs: number;
+    /** Break face pairs the index suggested (every pair when exhaustive). */
+    candidateFacePairs: number;
     alignedPairs: number;
+    /** Face pairs aligned in this run. */
+    alignedFacePairs: number;
+    /** Scans read and analysed in this run (the others came from the cache). */
+    analysedScans: number;
+    /** Wall seconds per stage. */
+    stageSeconds: { reading: number; describing: number; aligning: number };
     skippedDone: number;
     skippedDecided: number;
     stored: number;
@@ -66,59 +76,96 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
   return withCatalogue(options.catalogue, async (cat) => {
     const base = dirname(cat.path);
     // latest scan of each specimen
-    const latest = new Map<number, { id: number; specimenId: number; path: string; units: string }>();
+    const latest = new Map<number, Scan>();
     for (const s of cat.scans.list()) {
       const old = latest.get(s.specimenId);
       if (!old || s.id > old.id) latest.set(s.specimenId, s);
     }
-    const scans: ScanRef[] = [...latest.values()].map((s) => ({ scanId: s.id, file: isAbsolute(s.path) ? s.path : resolve(base, s.path), units: s.units as LengthUnit }));
+    const cacheDir = cacheDirFor(cat.path);
+    const scans: ScanRef[] = [...latest.values()].map((s) => {
+      const settings = (s.stats as { settings?: Record<string, unknown> }).settings;
+      const corrections = [...cat.regionClasses.inForce(s.id).entries()];
+      return {
+        scanId: s.id,
+        file: isAbsolute(s.path) ? s.path : resolve(base, s.path),
+        units: s.units as LengthUnit,
+        cache: { dir: cacheDir, key: fragmentKey(s.contentHash, s.units, settings, corrections) },
+        choices: { settings, corrections },
+      };
+    });
     const specimenOfScan = new Map([...latest.values()].map((s) => [s.id, s.specimenId]));
     const problems: ProposeOutcome['run']['problems'] = [];
     const workerCount = Math.max(1, Math.min(options.workers ?? availableParallelism(), 64));
     const workers = Array.from({ length: workerCount }, () => startTypeScriptWorker(new URL('../../jobs/proposal-worker.ts', import.meta.url)));
     const stopWorkers = (): void => workers.forEach((w) => void w.terminate());
+    const stageSeconds = { reading: 0, describing: 0, aligning: 0 };
+    let stageStart = Date.now();
+    const endStage = (name: keyof typeof stageSeconds): void => {
+      stageSeconds[name] = (Date.now() - stageStart) / 1000;
+      stageStart = Date.now();
+    };
     const outcome = (over: Partial<ProposeOutcome['run']>, parameters: Record<string, unknown> = {}, hash = ''): ProposeOutcome => ({
       proposals: cat.joins.list({ status: 'proposed' }),
       run: {
-        scans: scans.length, faces: 0, candidatePairs: 0, alignedPairs: 0, skippedDone: 0, skippedDecided: 0, stored: 0,
+        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, stageSeconds: { ...stageSeconds }, skippedDone: 0, skippedDecided: 0, stored: 0,
         cancelled: false, problems, parameters, parametersHash: hash, seconds: (Date.now() - started) / 1000, ...over,
       },
     });
     try {
       // 1. analyse
       const analysedOk = new Map<number, AnalyseResult>();
-      const analyseTasks: PoolTask<ProposalTask>[] = scans.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'analyse', scan } }));
+      const takeSummary = (r: AnalyseResult): void => {
+        if (r.problem) problems.push({ scanId: r.scanId, file: scans.find((s) => s.scanId === r.scanId)!.file, message: r.problem });
+        else analysedOk.set(r.scanId, r);
+      };
+      // scans analysed by an earlier run come from the cache
+      const toAnalyse = scans.filter((scan) => {
+        const cached = readSummary(scan.cache!.dir, scan.cache!.key);
+        if (cached) takeSummary({ scanId: scan.scanId, ...cached });
+        return !cached;
+      });
+      const analyseTasks: PoolTask<ProposalTask>[] = toAnalyse.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'analyse', scan } }));
       const a1 = await runPool<ProposalTask, AnalyseResult>(analyseTasks, {
         workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
-        onResult: (r) => {
-          if (r.problem) problems.push({ scanId: r.scanId, file: scans.find((s) => s.scanId === r.scanId)!.file, message: r.problem });
-          else analysedOk.set(r.scanId, r);
-        },
-        onError: (message, i) => problems.push({ scanId: scans[i].scanId, file: scans[i].file, message }),
+        onResult: takeSummary,
+        onError: (message, i) => problems.push({ scanId: toAnalyse[i].scanId, file: toAnalyse[i].file, message }),
         onProgress: (done, total) => ctx.onProgress({ stage: 'reading scans', done, total }),
       });
+      endStage('reading');
       if (a1.cancelled) return outcome({ cancelled: true });
       const usable = scans.filter((s) => analysedOk.has(s.scanId));
       const spacingRaw = spacingForFaces(usable.flatMap((s) => analysedOk.get(s.scanId)!.faceAreas));
       const spacing = SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / spacingRaw)) < Math.abs(Math.log(best / spacingRaw)) ? v : best), SPACING_LADDER[0]);
       const sampling: SamplingParameters = { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS };
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
-      const k = options.k ?? 6;
-      const parameters = { method: METHOD_VERSION, sampling, match: params, k, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
-      const parametersHash = createHash('sha256').update(JSON.stringify(parameters)).digest('hex').slice(0, 16);
+      const k = options.k ?? DEFAULT_K;
+      const parameters = { method: METHOD_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      // A pair is done for the parameters that decide its outcome; which pairs are aligned
+      // (pruning, exhaustive) does not change a pair's result, so widening the search later
+      // aligns only the pairs not aligned before.
+      const { pruning: _pruning, exhaustive: _exhaustive, ...outcomeParameters } = parameters;
+      const parametersHash = createHash('sha256').update(JSON.stringify(outcomeParameters)).digest('hex').slice(0, 16);
 
       // 2. describe and index
       const faces: IndexedFace[] = [];
       const fragIndex = new Map(usable.map((s, i) => [s.scanId, i]));
+      const takeTraits = (r: DescribeResult): void => r.traits.forEach((traits, face) => faces.push({ fragment: fragIndex.get(r.scanId)!, face, traits }));
+      // faces described by an earlier run at this spacing come from the cache
+      const toDescribe = usable.filter((scan) => {
+        const cached = readTraits(scan.cache!.dir, scan.cache!.key, sampling);
+        if (cached) takeTraits({ scanId: scan.scanId, ...cached });
+        return !cached;
+      });
       const d = await runPool<ProposalTask, DescribeResult>(
-        usable.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'describe', scan, sampling } })),
+        toDescribe.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'describe', scan, sampling } })),
         {
           workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
-          onResult: (r) => r.descriptors.forEach((descriptor, face) => faces.push({ fragment: fragIndex.get(r.scanId)!, face, descriptor, area: r.areas[face] })),
-          onError: (message, i) => problems.push({ scanId: usable[i].scanId, file: usable[i].file, message }),
+          onResult: takeTraits,
+          onError: (message, i) => problems.push({ scanId: toDescribe[i].scanId, file: toDescribe[i].file, message }),
           onProgress: (done, total) => ctx.onProgress({ stage: 'describing break faces', done, total }),
         },
       );
+      endStage('describing');
       if (d.cancelled) return outcome({ cancelled: true }, parameters, parametersHash);
       const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive });
       const grouped = byFragmentPair(candidates);
@@ -148,11 +195,16 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       tasks.sort((p, q) => Number(p.keys[0]) - Number(q.keys[0]) || Number(p.keys[1]) - Number(q.keys[1]));
 
       // 4. align and store
-      let stored = 0;
+      let stored = 0, alignedFacePairs = 0;
+      const facePairsOf = new Map(tasks.map((t) => {
+        const msg = t.message as Extract<ProposalTask, { kind: 'match' }>;
+        return [`${msg.a.scanId}:${msg.b.scanId}`, msg.facePairs.length];
+      }));
       const minScore = options.minScore ?? 0.05;
       const m = await runPool<ProposalTask, MatchResult>(tasks, {
         workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
         onResult: (r) => {
+          alignedFacePairs += facePairsOf.get(`${r.scanA}:${r.scanB}`) ?? 0;
           if (storeResult(cat, pairsRepo, r, specimenOfScan, analysedOk, poses, { parametersHash, parameters, minScore })) stored++;
         },
         onError: (message, i) => {
@@ -161,8 +213,9 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         },
         onProgress: (n, total) => ctx.onProgress({ stage: 'aligning candidate pairs', done: n, total }),
       });
+      endStage('aligning');
       return outcome(
-        { faces: faces.length, candidatePairs: grouped.size, alignedPairs: m.done, skippedDone, skippedDecided, stored, cancelled: m.cancelled },
+        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, stageSeconds: { ...stageSeconds }, skippedDone, skippedDecided, stored, cancelled: m.cancelled },
         parameters,
         parametersHash,
       );

@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { withCatalogue } from '../../catalogue/catalogue';
 import { analysisSettingsSchema } from '../../geometry/settings';
 import { MESH_EXTENSIONS } from '../../geometry/parse/index';
+import { cacheDirFor } from '../../jobs/fragment-cache';
 import { analyseScanFile, ScanFileFailure, type ScanFileJob, type ScanFileProblem, type ScanFileResult } from '../../jobs/analyse-scan-file';
 import { runInWorkerPool } from '../../jobs/worker-pool';
 import { KnitboneError, type Problem } from '../errors';
@@ -129,7 +130,7 @@ export const scanRequests = {
         ctx.onProgress({ stage: 'reading scans', done: 0, total: todo.length });
         const outcome = await runInWorkerPool<ScanFileJob, ScanFileResult>({
           moduleUrl: new URL('../../jobs/scan-worker.ts', import.meta.url),
-          tasks: todo.map((t) => ({ path: join(input.folder, t.file), units: input.units, maxBytes: input.maxBytes, settings: input.settings })),
+          tasks: todo.map((t) => ({ path: join(input.folder, t.file), units: input.units, maxBytes: input.maxBytes, settings: input.settings, matchCacheDir: cacheDirFor(cat.path) })),
           workers: input.workers,
           signal: ctx.signal,
           onResult: (i, r) => {

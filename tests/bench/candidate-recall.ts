@@ -1,0 +1,70 @@
+/**
+ * Candidate recall against the number of face pairs, without aligning anything: for every
+ * true join (both pieces present, at least 30% of the break surviving) is there a candidate
+ * face pair (core/geometry/proposals/candidate-index.ts) whose faces both lie at least 30% on
+ * that break? The faces and their traits come from candidate-study.ts (one file per fragment).
+ * "reachable" counts the joins exhaustive pairing could reach at all (segmentation limits it).
+ */
+import { readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import type { StudyFragment } from './candidate-study';
+
+export interface TruthJoin { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number }
+
+export interface RecallRow { k: number | 'all'; facePairs: number; perFace: number; reachable: number; found: number; recall: number; ms: number }
+
+export function readStudy(dir: string): StudyFragment[] {
+  return readdirSync(join(dir, 'candidate-study'))
+    .filter((f) => f.endsWith('.json'))
+    .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment);
+}
+
+export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks: number[]): { fragments: number; faces: number; eligible: number; rows: RecallRow[] } {
+  const truth = { joins };
+  const study = studied.filter((f) => f.faces.length > 0);
+  const fragOf = new Map(study.map((f, i) => [f.no, i]));
+  const faces: IndexedFace[] = [];
+  const breaksOf: Array<Record<string, number>> = [];
+  study.forEach((f, i) => f.faces.forEach((x, face) => {
+    faces.push({ fragment: i, face, traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } });
+    breaksOf.push(x.breaks);
+  }));
+  const faceIndex = new Map(faces.map((f, i) => [`${f.fragment}:${f.face}`, i]));
+  const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && fragOf.has(j.a) && fragOf.has(j.b));
+  const on = (fi: number, breakId: number): boolean => (breaksOf[fi][breakId] ?? 0) >= 0.3;
+  const count = (pairs: Set<string> | null): number => {
+    let hit = 0;
+    for (const j of eligible) {
+      const ia = fragOf.get(j.a)!, ib = fragOf.get(j.b)!;
+      const sideA = faces.map((f, i) => i).filter((i) => faces[i].fragment === ia && on(i, j.breakId));
+      const sideB = faces.map((f, i) => i).filter((i) => faces[i].fragment === ib && on(i, j.breakId));
+      if (sideA.some((x) => sideB.some((y) => !pairs || pairs.has(x < y ? `${x}:${y}` : `${y}:${x}`)))) hit++;
+    }
+    return hit;
+  };
+  const reachable = count(null);
+  let total = 0;
+  for (let i = 0; i < faces.length; i++) for (let j = i + 1; j < faces.length; j++) if (faces[i].fragment !== faces[j].fragment) total++;
+  const rows: RecallRow[] = [{ k: 'all', facePairs: total, perFace: total / faces.length, reachable, found: reachable, recall: 1, ms: 0 }];
+  for (const k of ks) {
+    const t0 = performance.now();
+    const c = candidateFacePairs(faces, { k });
+    const ms = performance.now() - t0;
+    const set = new Set(c.map((p) => {
+      const x = faceIndex.get(`${p.a}:${p.faceA}`)!, y = faceIndex.get(`${p.b}:${p.faceB}`)!;
+      return x < y ? `${x}:${y}` : `${y}:${x}`;
+    }));
+    const found = count(set);
+    rows.push({ k, facePairs: set.size, perFace: set.size / faces.length, reachable, found, recall: reachable ? found / reachable : NaN, ms });
+  }
+  return { fragments: study.length, faces: faces.length, eligible: eligible.length, rows };
+}
+
+if (process.argv[1]?.endsWith('candidate-recall.ts')) {
+  const [dir, ks = '10,20,30,40,60'] = process.argv.slice(2);
+  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: TruthJoin[] };
+  const r = candidateRecall(readStudy(dir), truth.joins, ks.split(',').map(Number));
+  console.log(`${r.fragments} fragments, ${r.faces} faces, ${r.eligible} true joins`);
+  for (const x of r.rows) console.log(`k ${String(x.k).padStart(3)}  face pairs ${String(x.facePairs).padStart(7)} (${x.perFace.toFixed(1)}/face)  reached ${x.found}/${x.reachable} = ${(100 * x.recall).toFixed(1)}%  ${x.ms.toFixed(0)} ms`);
+}

@@ -1,0 +1,89 @@
+/**
+ * Candidate recall study, per fragment (no alignment): prepare a fragment as `knitbone propose`
+ * does and record every prepared break face's traits and which true breaks it lies on (from
+ * the generator's per-triangle labels in truth.json: nearest labelled triangle within 3 sample
+ * spacings). `studyFromCache` takes the analysis a propose run stored; the command line
+ * `npx tsx tests/bench/candidate-study.ts <demo-dir> <spacing> [shard] [shards]` analyses the
+ * scans itself and writes <demo-dir>/candidate-study/<catalogue-no>.json, skipping those done.
+ */
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { analyseFragment } from '../../core/geometry/analyse-fragment';
+import { parseMeshFile } from '../../core/geometry/parse/index';
+import { fragmentFromAnalysis } from '../../core/geometry/proposals/fragment-from-analysis';
+import { prepareFragment, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
+import { faceTraits, type FaceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
+import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
+import type { TriangleMesh } from '../../core/geometry/mesh';
+
+export interface StudyFace {
+  parent: number;
+  samples: number;
+  traits: Omit<FaceTraits, 'meanFpfh'> & { meanFpfh: number[] };
+  /** break id -> share of the face's samples on it */
+  breaks: Record<string, number>;
+}
+export interface StudyFragment { no: string; spacing: number; faces: StudyFace[]; cpuMs: number }
+export interface TruthFragment { catalogueNo: string; scanFile: string; triangleLabels: string }
+
+function scanPath(dir: string, f: TruthFragment): string {
+  return join(dir, f.scanFile.includes('/') ? f.scanFile : join('scans', f.scanFile));
+}
+
+/** Prepare the analysed fragment at `spacing`, describe its faces and label them with the true breaks. */
+export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: FragmentInput, axis: ShaftAxisLike, spacing: number): StudyFragment {
+  const c0 = process.cpuUsage();
+  const prepared = prepareFragment(input, { spacing, fpfhRadiusSpacings: 5 });
+  const labels = Buffer.from(f.triangleLabels, 'base64');
+  const cents: number[] = [], lab: number[] = [];
+  const P = fileMesh.positions, T = fileMesh.triangles;
+  for (let t = 0; t < T.length / 3; t++) {
+    if (labels[t] < 10) continue;
+    for (let k = 0; k < 3; k++) cents.push((P[3 * T[3 * t] + k] + P[3 * T[3 * t + 1] + k] + P[3 * T[3 * t + 2] + k]) / 3);
+    lab.push(labels[t] - 10);
+  }
+  const tree = new KdTree(Float32Array.from(cents), 3);
+  const faces: StudyFace[] = prepared.faces.map((face) => {
+    const n = face.points.length / 3;
+    const count = new Map<number, number>();
+    for (let i = 0; i < n; i++) {
+      const r = tree.nearestOne([face.points[3 * i], face.points[3 * i + 1], face.points[3 * i + 2]], (3 * spacing) ** 2);
+      if (r.index >= 0) count.set(lab[r.index], (count.get(lab[r.index]) ?? 0) + 1);
+    }
+    const breaks: Record<string, number> = {};
+    for (const [k, c] of count) breaks[k] = c / n;
+    const t = faceTraits(face.points, face.normals, face.area, face.fpfh, axis);
+    return { parent: face.parent, samples: n, traits: { ...t, meanFpfh: [...t.meanFpfh] }, breaks };
+  });
+  return { no: f.catalogueNo, spacing, faces, cpuMs: process.cpuUsage(c0).user / 1000 };
+}
+
+/** Read and analyse the scan as the propose run does (default settings), then study it. */
+export function studyScan(dir: string, f: TruthFragment, spacing: number): StudyFragment {
+  const mesh = parseMeshFile(readFileSync(scanPath(dir, f)), f.scanFile).mesh;
+  const analysis = analyseFragment(mesh);
+  return studyFragment(f, mesh, fragmentFromAnalysis(analysis), analysis.axis, spacing);
+}
+
+/** Study from an analysis a propose run stored (fragment-cache.ts): only the file's triangles are read again. */
+export function studyFromCache(dir: string, f: TruthFragment, cached: { input: FragmentInput; axis: ShaftAxisLike }, spacing: number): StudyFragment {
+  const mesh = parseMeshFile(readFileSync(scanPath(dir, f)), f.scanFile).mesh;
+  return studyFragment(f, mesh, cached.input, cached.axis, spacing);
+}
+
+if (process.argv[1]?.endsWith('candidate-study.ts')) {
+  const [dir, spacingArg, shardArg = '0', shardsArg = '1'] = process.argv.slice(2);
+  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: TruthFragment[] };
+  const out = join(dir, 'candidate-study');
+  mkdirSync(out, { recursive: true });
+  truth.fragments.forEach((f, i) => {
+    if (i % Number(shardsArg) !== Number(shardArg)) return;
+    const file = join(out, `${f.catalogueNo}.json`);
+    if (existsSync(file)) return;
+    try {
+      writeFileSync(file, JSON.stringify(studyScan(dir, f, Number(spacingArg))));
+    } catch (err) {
+      writeFileSync(file, JSON.stringify({ no: f.catalogueNo, spacing: Number(spacingArg), faces: [], cpuMs: 0, error: String(err) }));
+    }
+  });
+}
