@@ -2,7 +2,7 @@
  * The pairwise step of join proposals, measured (issue 6, items 5-7): `npm run bench -- pairwise`.
  *
  * On generated assemblages with known truth (truth.json), every candidate face pair the
- * candidate index suggests (k per face, as `knitbone propose` does) plus every face pair of every
+ * candidate index suggests (DEFAULT_K per face, as `knitbone propose` does) plus every face pair of every
  * true join is aligned and scored. Prints:
  *   - CPU milliseconds per face pair (median, p90, mean) beside the machine's load,
  *   - rotation and translation errors of the best motion of each true join that is found,
@@ -24,7 +24,8 @@ import { tmpdir, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { deserialize, serialize } from 'node:v8';
 import { generateAssemblage } from '../../demo-data/generate';
-import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { matchFacePair, distinctBest, DEFAULT_MATCH_PARAMETERS, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
 import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
@@ -106,8 +107,12 @@ export default async function main(): Promise<void> {
     const usable = [...inputs.keys()];
     for (const no of usable) prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
     const faces: IndexedFace[] = [];
-    usable.forEach((no, fi) => prepared.get(no)!.faces.forEach((x, face) => faces.push({ fragment: fi, face, descriptor: x.descriptor, area: x.area })));
-    const cands = candidateFacePairs(faces, { k: 6 });
+    usable.forEach((no, fi) => {
+      const p = prepared.get(no)!;
+      const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
+      p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
+    });
+    const cands = candidateFacePairs(faces, { k: DEFAULT_K });
     const key = (x: string, y: string): string => (x < y ? `${x}|${y}` : `${y}|${x}`);
     const truthOf = new Map(truth.joins.filter((j) => j.type === 'conjoin').map((j) => [key(j.a, j.b), j]));
     // face pairs per fragment pair: candidates, plus every face pair of true joins
