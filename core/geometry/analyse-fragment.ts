@@ -5,6 +5,8 @@ import { fractureFaces, type FractureFace } from './fracture-faces';
 import { enclosedVolume, surfaceArea } from './measure';
 import { boundingBox, triangleNormalsAndAreas, vertexNormals, type BoundingBox, type TriangleMesh } from './mesh';
 import { bilateralNormalFilter, triangleCentroids } from './normal-filter';
+import { regionBorders } from './region-borders';
+import { absorbSmallFractureRegions } from './small-faces';
 import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
@@ -107,10 +109,25 @@ export function analyseFragment(
   let regionCount = 0;
   for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays);
-  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, axis, rays);
+  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, axis, rays, settings.headOnCosineMin);
+  const regionFacing = Int8Array.from(figures, (r) => (axis.support < 0.5 ? 0 : r.radial >= settings.corticalRadialMin ? 1 : r.radial <= -settings.corticalRadialMin ? -1 : 0));
+  const borders = regionBorders(mesh, topo.neighbours, filtered, region, regionCount, regionFacing, settings.ridgeAngleDeg);
+  figures.forEach((r, i) => {
+    r.sharpBorderShare = borders[i].sharpShare;
+    r.outwardBorderShare = borders[i].outwardShare;
+    r.inwardBorderShare = borders[i].inwardShare;
+  });
   const wallDepth = typicalWallDepth(figures);
+  // The program's classes (small fracture patches absorbed), then the analyst's corrections on top.
+  const classes = absorbSmallFractureRegions(
+    region,
+    topo.neighbours,
+    areas,
+    figures.map((fig) => classifyRegion(fig, axis, settings, wallDepth)),
+    settings.minFaceAreaMm2,
+  ).map((c, id) => regionClassOverrides.get(id) ?? c);
   const regions: SurfaceRegion[] = figures.map((fig, id) => {
-    const surfaceClass = regionClassOverrides.get(id) ?? classifyRegion(fig, axis, settings, wallDepth);
+    const surfaceClass = classes[id];
     return { id, ...fig, surfaceClass, kind: surfaceClass === 'fracture' ? 'fracture' : 'original' };
   });
   const triangleClass = new Uint8Array(nt);

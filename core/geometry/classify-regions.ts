@@ -26,6 +26,13 @@ export interface RegionFigures {
   rayExitCosine: number;
   /** Rays from this region. */
   rays: number;
+  /** Share of those rays that leave head-on (exit cosine at least headOnCosineMin): they crossed a wall. */
+  headOnShare: number;
+  /** Share of the region's border that is a crease (region-borders.ts). */
+  sharpBorderShare: number;
+  /** Shares of the border shared with regions facing away from / towards the shaft axis. */
+  outwardBorderShare: number;
+  inwardBorderShare: number;
 }
 
 export function regionFigures(
@@ -38,9 +45,11 @@ export function regionFigures(
   triMeanCurvature: Float32Array,
   axis: ShaftAxis,
   rays: WallRays,
+  headOnCosineMin: number,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
+    headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
   }));
   const roughSorted = Float32Array.from(triRoughness).sort();
   const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;
@@ -60,6 +69,7 @@ export function regionFigures(
     if (d.length) {
       out[r].rayDepth = median(d);
       out[r].rayExitCosine = median(cosines[r]);
+      out[r].headOnShare = cosines[r].filter((c) => c >= headOnCosineMin).length / d.length;
     }
   });
   const [ax, ay, az] = axis.direction;
@@ -90,22 +100,30 @@ export function regionFigures(
 }
 
 /**
- * Class of a region, from two published cues that need no shaft axis:
+ * Class of a region, from physical cues that hold for any scan of broken bone:
  * - wall test: an inward ray from bone surface crosses the cortex and leaves through the
- *   other wall face head-on (exit cosine near 1); from a break face it runs along inside the
- *   wall and leaves obliquely (the shape diameter idea, Shapira et al. 2008; a break surface
- *   cuts through the wall, design.md section 7 notes for long bones);
+ *   other wall face head-on; from a break face it runs along inside the wall and leaves
+ *   obliquely (the shape diameter idea, Shapira et al. 2008; a break surface cuts through
+ *   the wall, design.md section 7 notes for long bones). Cue: the share of head-on rays.
+ * - creases: a break face is bounded by creases where it meets the bone surface (or another
+ *   break) nearly all round; original surface is not (region-borders.ts).
+ * - position in the wall: on a shaft a break face lies between the outer and the medullary
+ *   surface and borders both; original surface borders only break faces.
  * - roughness: break surfaces are rougher than the fragment's typical surface.
- * Evidence = exitCosineWeight (1 - exit cosine) + roughnessWeight (roughness ratio - 1);
+ * Evidence = sharpBorderWeight x crease share + betweenWallsWeight x min(outward, inward
+ * border share) + roughnessWeight x (roughness ratio - 1) - headOnWeight x head-on share;
  * above fractureEvidenceMin the region is a fracture face. Original regions facing away
  * from the shaft axis (or convex where there is no axis) are outer cortical, facing it (or
  * concave) medullary; smooth regions whose rays run much deeper than the wall is thick are
- * articular ends. The weights and cut-offs are settings (settings.ts), chosen on generated
- * assemblages (tests/bench/segmentation.bench.ts).
+ * articular ends. The weights and cut-off are settings (settings.ts), fitted on generated
+ * development assemblages and checked on others (tests/bench/segmentation.bench.ts).
  */
 export function fractureEvidence(r: RegionFigures, settings: AnalysisSettings): number {
-  const cos = Number.isFinite(r.rayExitCosine) ? r.rayExitCosine : 1;
-  return settings.exitCosineWeight * (1 - cos) + settings.roughnessWeight * (r.roughnessRatio - 1);
+  const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
+  return settings.sharpBorderWeight * r.sharpBorderShare
+    + settings.betweenWallsWeight * Math.min(r.outwardBorderShare, r.inwardBorderShare)
+    + settings.roughnessWeight * (r.roughnessRatio - 1)
+    - settings.headOnWeight * headOn;
 }
 
 export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {

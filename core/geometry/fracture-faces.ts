@@ -31,6 +31,9 @@ export interface FractureFace {
   anglesDeg: Float32Array;
   /** Mean of the samples folded to 0-90 degrees (90 = right angle). */
   meanAngleDeg: number;
+  /** Median of the folded samples: what the angle class is decided on. */
+  medianAngleDeg: number;
+  /** Share of the samples within rightAngleToleranceDeg of 90. */
   rightShare: number;
   angleClass: AngleClass;
   /** Length-weighted mean |outline chord . shaft axis| along the outer cortical edge (chords ~anglePlaneRadiusMm). */
@@ -154,9 +157,13 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
   const meanAngleDeg = folded.length ? folded.reduce((s, x) => s + x, 0) / folded.length : NaN;
   const right = folded.filter((a) => 90 - a <= settings.rightAngleToleranceDeg).length;
   const rightShare = folded.length ? right / folded.length : NaN;
+  // Villa & Mahieu's categories are judged on the face as a whole: the median sample decides
+  // (robust to the few samples at corners and chips); a face whose median is just oblique
+  // but with many right-angled samples is mixed.
+  const medianAngleDeg = folded.length ? [...folded].sort((x, y) => x - y)[Math.floor(folded.length / 2)] : NaN;
   let angleClass: AngleClass = 'indeterminate';
   if (folded.length >= 3) {
-    if (rightShare >= settings.rightShareMin) angleClass = 'right';
+    if (90 - medianAngleDeg <= settings.rightAngleToleranceDeg) angleClass = 'right';
     else if (rightShare <= settings.obliqueShareMax) angleClass = 'oblique';
     else angleClass = 'mixed';
   }
@@ -191,6 +198,7 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
     roughnessRatio,
     anglesDeg: Float32Array.from(angleSamples),
     meanAngleDeg,
+    medianAngleDeg,
     rightShare,
     angleClass,
     outlineAxisAlignment,

@@ -27,25 +27,37 @@ export const analysisSettingsSchema = z.object({
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**
    * Region growing keeps apart triangles facing out from the fitted shaft axis (radial
-   * component of the normal at least this), facing in, and neither.
+   * component of the normal at least this), facing in, and neither. A region whose mean
+   * radial component is at least this (at most minus this) counts as facing out (in) when
+   * the borders of its neighbours are measured (region-borders.ts).
    */
   corticalRadialMin: z.number().min(0).max(1).default(0.82),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
-  /** Weight of (1 - exit cosine of the inward rays) in a region's fracture evidence. */
-  exitCosineWeight: z.number().min(0).default(2),
+  /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
+  headOnCosineMin: z.number().min(0).max(1).default(0.9),
+  /** Weight of the share of a region's inward rays that cross a wall head-on (against fracture). */
+  headOnWeight: z.number().min(0).default(5.4),
+  /** Weight of the share of a region's border that is a crease (for fracture; creases: ridgeAngleDeg). */
+  sharpBorderWeight: z.number().min(0).default(4.4),
+  /** Weight of min(share of border with outward-facing regions, with inward-facing regions): a face between the walls. */
+  betweenWallsWeight: z.number().min(0).default(7.4),
   /** Weight of (roughness / the fragment's median roughness - 1) in a region's fracture evidence. */
-  roughnessWeight: z.number().min(0).default(1),
+  roughnessWeight: z.number().min(0).default(1.4),
   /** A region whose fracture evidence exceeds this is a fracture face (classify-regions.ts). */
-  fractureEvidenceMin: z.number().default(0.8),
+  fractureEvidenceMin: z.number().default(2.35),
+  /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
+  minFaceAreaMm2: z.number().min(0).default(10),
   /** Original surface whose rays run this many times deeper than the typical wall: articular end. */
   articularDepthRatio: z.number().positive().default(3),
-  /** Fracture angle within this many degrees of 90 counts as a right angle (Villa & Mahieu 1991). */
-  rightAngleToleranceDeg: z.number().positive().max(45).default(8),
-  /** A face is "right" when at least this share of its angle samples is right-angled. */
-  rightShareMin: z.number().min(0).max(1).default(0.45),
-  /** A face is "oblique" when at most this share of its samples is right-angled; between the two, "mixed". */
-  obliqueShareMax: z.number().min(0).max(1).default(0.4),
+  /**
+   * A face whose median fracture angle (folded to 0-90) is within this many degrees of 90 is
+   * "right" (Villa & Mahieu 1991); the samples within it make the face's right-angle share.
+   * Plane fits on a rough, stepped break scatter by several degrees, hence not tighter.
+   */
+  rightAngleToleranceDeg: z.number().positive().max(45).default(12),
+  /** A face whose median is oblique is "oblique" when at most this share of its samples is right-angled, else "mixed". */
+  obliqueShareMax: z.number().min(0).max(1).default(0.45),
   /** Radius of the plane fits either side of a break edge (also the spacing of the samples). */
   anglePlaneRadiusMm: z.number().positive().default(3.5),
   /** Triangles closer than this to the edge are left out of the plane fits (worn, rounded crease). */

@@ -23,7 +23,7 @@
  *   KNITBONE_BENCH_DIR             where generated assemblages are kept and reused (default: the system temp folder)
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { openCatalogue } from '../../core/catalogue/catalogue';
 import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
@@ -143,6 +143,8 @@ function proposeRun(dir: string, truth: Truth, n: number, seed: string, mode: 'p
   for (const suffix of ['', '-wal', '-shm']) rmSync(cat + suffix, { force: true });
   rmSync(cacheDirFor(cat), { recursive: true, force: true });
   writeFileSync(cat, readFileSync(join(dir, 'base.sqlite')));
+  // what importing the scans stored for matching goes with the catalogue, as it would for a user
+  if (existsSync(cacheDirFor(join(dir, 'base.sqlite')))) cpSync(cacheDirFor(join(dir, 'base.sqlite')), cacheDirFor(cat), { recursive: true });
   const workers = process.env.KNITBONE_BENCH_WORKERS ?? '2';
   const r = must(cli(['propose', cat, '--workers', workers, ...(mode === 'exhaustive' ? ['--exhaustive'] : [])]), `propose ${mode}`);
   const proposals = JSON.parse(must(cli(['joins', cat, '--status', 'proposed', '--json']), 'joins').stdout) as Proposal[];

@@ -6,11 +6,12 @@
  * one is right-angled), and time and memory for ingest plus segmentation of a
  * 200,000-triangle scan. Prints tables; not a pass/fail test.
  *
- * KNITBONE_SAMPLE_DIR points at another generated sample folder.
+ * KNITBONE_SAMPLE_DIR points at another generated sample folder (or several, comma-separated:
+ * one row each); KNITBONE_SEGMENTATION_PART=accuracy|speed runs only that part.
  */
 import { readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
-import { dirname, join } from 'node:path';
+import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { analyseFragment, type FragmentAnalysis } from '../../core/geometry/analyse-fragment';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
@@ -39,6 +40,8 @@ export interface SampleScores {
   faces: number;
   facesScored: number;
   angleAgreement: number;
+  /** Angle class agreement of faces on breaks expected oblique (bevelled) and right-angled. */
+  angleByExpected: Record<'oblique' | 'right', { faces: number; agree: number }>;
   outlineCounts: Record<string, number>;
   ms: number;
   perFragment: Array<{ no: string; tris: number; agree: number; faces: number; ms: number }>;
@@ -52,6 +55,7 @@ export function scoreSample(dir: string, settings = {}): SampleScores {
   let agreeArea = 0, totalArea = 0, agreeND = 0, totalND = 0, faces = 0, scored = 0, angleOk = 0, ms = 0, tris = 0;
   const outlineCounts: Record<string, number> = {};
   const confusion: Record<string, number> = {};
+  const angleByExpected: SampleScores['angleByExpected'] = { oblique: { faces: 0, agree: 0 }, right: { faces: 0, agree: 0 } };
   const perFragment: SampleScores['perFragment'] = [];
   for (const frag of truth.fragments) {
     const bytes = readFileSync(join(dir, frag.scanFile));
@@ -89,7 +93,9 @@ export function scoreSample(dir: string, settings = {}): SampleScores {
       const br = breaks.get(frag.boneId)?.get(breakId);
       if (!br) continue;
       scored++;
-      if (face.angleClass === expectedAngleClass(br, a.settings.rightAngleToleranceDeg)) angleOk++;
+      const expected = expectedAngleClass(br, a.settings.rightAngleToleranceDeg);
+      angleByExpected[expected].faces++;
+      if (face.angleClass === expected) { angleOk++; angleByExpected[expected].agree++; }
     }
     perFragment.push({ no: frag.catalogueNo, tris: labels.length, agree: fa / ft, faces: a.fractureFaces.length, ms: dt });
   }
@@ -102,6 +108,7 @@ export function scoreSample(dir: string, settings = {}): SampleScores {
     faces,
     facesScored: scored,
     angleAgreement: scored ? angleOk / scored : NaN,
+    angleByExpected,
     outlineCounts,
     ms,
     perFragment,
@@ -124,39 +131,79 @@ async function largeScan(targetTriangles: number): Promise<{ bytes: Uint8Array; 
 
 const pct = (x: number): string => `${(100 * x).toFixed(1)} %`;
 
+/** One row of the per-sample table. */
+function summaryRow(name: string, s: SampleScores): Record<string, string | number> {
+  const c = s.confusion;
+  const byExp = (k: 'oblique' | 'right'): string => (s.angleByExpected[k].faces ? `${s.angleByExpected[k].agree}/${s.angleByExpected[k].faces}` : '-');
+  return {
+    sample: name,
+    fragments: s.fragments,
+    triangles: s.triangles,
+    'agreement (area)': pct(s.areaAgreement),
+    'original -> fracture': pct((c['truth outer/articular -> fracture'] ?? 0) + (c['truth medullary -> fracture'] ?? 0)),
+    'of which medullary': pct(c['truth medullary -> fracture'] ?? 0),
+    'fracture -> original': pct((c['truth fracture -> original'] ?? 0) + (c['truth damage -> original'] ?? 0)),
+    faces: s.faces,
+    'angle class agreement': pct(s.angleAgreement),
+    'oblique ok': byExp('oblique'),
+    'right ok': byExp('right'),
+  };
+}
+
+/**
+ * KNITBONE_SAMPLE_DIR: one generated sample folder, or several separated by commas (one row
+ * each in the per-sample table). KNITBONE_SEGMENTATION_PART=accuracy or speed runs one part.
+ */
 export default async function main(): Promise<void> {
-  const dir = process.env.KNITBONE_SAMPLE_DIR ?? join(root, 'demo-data/sample');
-  let s: SampleScores | undefined;
-  try {
-    s = scoreSample(dir);
-  } catch (err) {
-    process.stdout.write(`(no generated sample at ${dir}: ${(err as Error).message})\n`);
+  const dirs = (process.env.KNITBONE_SAMPLE_DIR ?? join(root, 'demo-data/sample')).split(',').filter(Boolean);
+  const part = process.env.KNITBONE_SEGMENTATION_PART ?? 'all';
+  const rows: Array<Record<string, string | number>> = [];
+  if (part !== 'speed') {
+    for (const dir of dirs) {
+      let s: SampleScores | undefined;
+      const cpu0 = process.cpuUsage();
+      try {
+        s = scoreSample(dir);
+      } catch (err) {
+        process.stdout.write(`(no generated sample at ${dir}: ${(err as Error).message})\n`);
+      }
+      if (!s) continue;
+      const cpu = process.cpuUsage(cpu0);
+      rows.push({ ...summaryRow(basename(dir), s), 'CPU s': ((cpu.user + cpu.system) / 1e6).toFixed(1) });
+      if (dirs.length > 1) continue;
+      process.stdout.write(`\nGenerated sample (${dir.replace(root + '/', '')}): ${s.fragments} fragments, ${s.triangles} triangles\n`);
+      console.table({
+        'per-triangle agreement, area-weighted (damage scars count as fracture)': pct(s.areaAgreement),
+        'per-triangle agreement, area-weighted, damage scars left out': pct(s.areaAgreementWithoutDamage),
+        'fracture faces found': s.faces,
+        'faces lying on a true break': s.facesScored,
+        'angle class agreement (Villa & Mahieu) of those faces': pct(s.angleAgreement),
+        'outline classes found': JSON.stringify(s.outlineCounts),
+        'ingest + segmentation, whole sample': `${s.ms.toFixed(0)} ms`,
+      });
+      console.table(Object.fromEntries(Object.entries(s.confusion).sort().map(([k, v]) => [k, pct(v)])));
+      console.table(s.perFragment.map((f) => ({ fragment: f.no, triangles: f.tris, agreement: pct(f.agree), faces: f.faces, ms: Math.round(f.ms) })));
+    }
+    if (rows.length) {
+      process.stdout.write(`\nPer sample (load average ${loadavg().map((x) => x.toFixed(1)).join(' ')}):\n`);
+      console.table(rows);
+    }
   }
-  if (s) {
-    process.stdout.write(`\nGenerated sample (${dir.replace(root + '/', '')}): ${s.fragments} fragments, ${s.triangles} triangles\n`);
-    console.table({
-      'per-triangle agreement, area-weighted (damage scars count as fracture)': pct(s.areaAgreement),
-      'per-triangle agreement, area-weighted, damage scars left out': pct(s.areaAgreementWithoutDamage),
-      'fracture faces found': s.faces,
-      'faces lying on a true break': s.facesScored,
-      'angle class agreement (Villa & Mahieu) of those faces': pct(s.angleAgreement),
-      'outline classes found': JSON.stringify(s.outlineCounts),
-      'ingest + segmentation, whole sample': `${s.ms.toFixed(0)} ms`,
-    });
-    console.table(Object.fromEntries(Object.entries(s.confusion).sort().map(([k, v]) => [k, pct(v)])));
-    console.table(s.perFragment.map((f) => ({ fragment: f.no, triangles: f.tris, agreement: pct(f.agree), faces: f.faces, ms: Math.round(f.ms) })));
-  }
+  if (part === 'accuracy') return;
   const big = await largeScan(200_000);
   const before = process.memoryUsage();
   let peakRss = before.rss;
   const timer = setInterval(() => { peakRss = Math.max(peakRss, process.memoryUsage().rss); }, 20);
-  const times: number[] = [];
+  const times: number[] = [], cpuTimes: number[] = [];
   let analysis: FragmentAnalysis | undefined;
   for (let i = 0; i < 3; i++) {
     const t0 = performance.now();
+    const c0 = process.cpuUsage();
     const parsed = parseMeshFile(big.bytes, 'large.ply');
     analysis = analyseFragment(parsed.mesh);
+    const c = process.cpuUsage(c0);
     times.push(performance.now() - t0);
+    cpuTimes.push((c.user + c.system) / 1000);
     peakRss = Math.max(peakRss, process.memoryUsage().rss);
   }
   clearInterval(timer);
@@ -170,6 +217,7 @@ export default async function main(): Promise<void> {
   console.table({
     'ingest + segmentation, best of 3': `${Math.min(...times).toFixed(0)} ms`,
     'ingest + segmentation, each run': times.map((t) => t.toFixed(0)).join(', ') + ' ms',
+    'CPU time (user + system, all threads), each run': cpuTimes.map((t) => t.toFixed(0)).join(', ') + ' ms',
     'peak resident memory of the process': `${(peakRss / 1e6).toFixed(0)} MB`,
     'per-triangle agreement, area-weighted': pct(agree / total),
   });
