@@ -5,17 +5,37 @@
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
-import { ransacAlignFaces } from '../registration/ransac-alignment';
+import { mirrorFpfh, ransacAlignFaces } from '../registration/ransac-alignment';
+import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
-import { rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
+import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
+import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
+import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 
-export const METHOD_VERSION = 'fpfh-ransac-icp/1';
+export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
 
 export interface MatchParameters {
   ransacIterations: number;
   hypothesesPerPair: number;
+  /** Peaks of the shared-axis vote tried per flip. */
+  axisPeaks: number;
+  /** Weight each vote of the shared-axis search by how alike the two samples' FPFH are. */
+  axisFeatureWeights: boolean;
+  /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
+  maxRadiusRatio: number;
+  /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
+  axisGoodOverlap: number;
+  /** Hypotheses whose overlap share is below this are dropped before the fine step. */
+  minOverlap: number;
+  /** Hypotheses refined against the whole surface and scored. */
+  fineHypotheses: number;
+  /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
+  icpSamples: number;
+  fineSamples: number;
+  /** Samples of B's face in the last rounds against A's triangles (BVH). */
+  bvhSamples: number;
   /** Share of ICP pairs kept each round. */
   icpTrim: number;
   /** Contact tolerance in sample spacings. */
@@ -24,8 +44,17 @@ export interface MatchParameters {
 }
 
 export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
-  ransacIterations: 5000,
-  hypothesesPerPair: 5,
+  ransacIterations: 1500,
+  hypothesesPerPair: 4,
+  axisPeaks: 2,
+  axisFeatureWeights: false,
+  maxRadiusRatio: 1.35,
+  axisGoodOverlap: 0.35,
+  minOverlap: 0.08,
+  fineHypotheses: 2,
+  icpSamples: 150,
+  fineSamples: 300,
+  bvhSamples: 120,
   icpTrim: 0.7,
   contactToleranceSpacings: 0.4,
   seed: 1,
@@ -45,32 +74,128 @@ function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
 export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
-  const hyps = ransacAlignFaces(
-    { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree },
-    { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree },
-    { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
-  );
-  const out: FaceMatch[] = [];
-  const tol = params.contactToleranceSpacings * spacing;
-  const coarse = subsample(FB.points, FB.normals, 150);
-  for (const h of hyps) {
-    // coarse rounds on a subsample, then a few on every sample
-    const first = icpPointToPlane(coarse.points, coarse.normals, new SampledSurface(FA.points, FA.normals, FA.tree), h.transform, {
-      maxDistance: 3 * spacing,
-      trim: params.icpTrim,
-      maxIterations: 30,
-      tolerance: 1e-3 * spacing,
+  const starts: RigidTransform[] = [];
+  // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
+  const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
+  if (shafts) {
+    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: mirrorFpfh(FB.fpfh), featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
+  }
+  const coarse = subsample(FB.points, FB.normals, params.icpSamples);
+  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
+  const checkA = subsample(FA.points, FA.normals, params.icpSamples);
+  const refine = (list: RigidTransform[]): Array<{ transform: RigidTransform; overlap: number }> =>
+    list.map((h) => {
+      const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
+      return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
     });
-    const icp = icpPointToPlane(FB.points, FB.normals, a.surface, first.transform, {
+  let refined = refine(starts);
+  // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
+  if (!shafts || !refined.some((r) => r.overlap >= params.axisGoodOverlap)) {
+    const hyps = ransacAlignFaces(
+      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree },
+      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree },
+      { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
+    );
+    refined = refined.concat(refine(hyps.map((h) => h.transform)));
+  }
+  // 3. early rejection, then the few best on to the fine step against the whole surface
+  refined.sort((p, q) => q.overlap - p.overlap);
+  const kept: typeof refined = [];
+  for (const r of refined) {
+    if (r.overlap < params.minOverlap || (kept.length && r.overlap < 0.7 * kept[0].overlap)) break;
+    if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
+    kept.push(r);
+    if (kept.length >= params.fineHypotheses) break;
+  }
+  const tol = params.contactToleranceSpacings * spacing;
+  const out: FaceMatch[] = [];
+  for (const r of kept) {
+    // fine rounds against A's triangles, on B's samples that the coarse motion put near A's face
+    // (first against A's face samples, cheap k-d queries; the last few rounds against the BVH)
+    const fine = nearFace(FB.points, FB.normals, r.transform, FA.tree, 2 * spacing, params.fineSamples);
+    const mid = icpPointToPlane(fine.points, fine.normals, faceSurfaceA, r.transform, {
       maxDistance: 1.5 * spacing,
       trim: params.icpTrim,
-      maxIterations: 25,
+      maxIterations: 20,
       tolerance: 1e-4 * spacing,
     });
-    const s = scoreJoin(side(a, FA), side(b, FB), icp.transform, { contactTolerance: tol });
+    const last = nearFace(FB.points, FB.normals, mid.transform, FA.tree, 1.5 * spacing, params.bvhSamples);
+    const icp = icpPointToPlane(last.points, last.normals, a.surface, mid.transform, {
+      maxDistance: 1.5 * spacing,
+      trim: params.icpTrim,
+      maxIterations: 8,
+      tolerance: 1e-4 * spacing,
+    });
+    const s = scoreJoin(side(a, FA), side(b, FB), icp.transform, { contactTolerance: tol, spacing });
     out.push({ ...s, transform: icp.transform, faceA: FA.parent, faceB: FB.parent });
   }
   return distinctBest(out, 2 * spacing);
+}
+
+/**
+ * Share of the smaller face in contact under a motion: B's samples moved onto A's face and
+ * A's samples moved back onto B's face, within one spacing and with opposed normals (k-d tree
+ * only, for ranking hypotheses before the fine step).
+ */
+function overlapShare(
+  T: RigidTransform,
+  b: { points: Float32Array; normals: Float32Array },
+  treeA: KdTree,
+  normalsA: Float32Array,
+  a: { points: Float32Array; normals: Float32Array },
+  treeB: KdTree,
+  normalsB: Float32Array,
+  spacing: number,
+): number {
+  const count = (pts: Float32Array, nrm: Float32Array, M: RigidTransform, tree: KdTree, N: Float32Array): number => {
+    const q = [0, 0, 0];
+    let k = 0;
+    const n = pts.length / 3;
+    for (let i = 0; i < n; i++) {
+      const x = pts[3 * i], y = pts[3 * i + 1], z = pts[3 * i + 2];
+      q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
+      q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
+      q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
+      const hit = tree.nearestOne(q, spacing * spacing);
+      if (hit.index < 0) continue;
+      const j = hit.index;
+      const nx = M[0] * nrm[3 * i] + M[1] * nrm[3 * i + 1] + M[2] * nrm[3 * i + 2];
+      const ny = M[4] * nrm[3 * i] + M[5] * nrm[3 * i + 1] + M[6] * nrm[3 * i + 2];
+      const nz = M[8] * nrm[3 * i] + M[9] * nrm[3 * i + 1] + M[10] * nrm[3 * i + 2];
+      if (nx * N[3 * j] + ny * N[3 * j + 1] + nz * N[3 * j + 2] < -0.5) k++;
+    }
+    return k / Math.max(1, n);
+  };
+  return Math.max(count(b.points, b.normals, T, treeA, normalsA), count(a.points, a.normals, invert(T), treeB, normalsB));
+}
+
+/** B's samples that `T` puts within `within` of A's face, at most `max` of them (evenly strided). */
+function nearFace(points: Float32Array, normals: Float32Array, T: RigidTransform, treeA: KdTree, within: number, max: number): { points: Float32Array; normals: Float32Array } {
+  const n = points.length / 3;
+  const keep: number[] = [];
+  const q = [0, 0, 0];
+  for (let i = 0; i < n; i++) {
+    const x = points[3 * i], y = points[3 * i + 1], z = points[3 * i + 2];
+    q[0] = T[0] * x + T[1] * y + T[2] * z + T[3];
+    q[1] = T[4] * x + T[5] * y + T[6] * z + T[7];
+    q[2] = T[8] * x + T[9] * y + T[10] * z + T[11];
+    if (treeA.nearestOne(q, within * within).index >= 0) keep.push(i);
+  }
+  if (keep.length < 12) return subsample(points, normals, max);
+  const step = Math.max(1, keep.length / max);
+  const m = Math.min(keep.length, Math.ceil(keep.length / step));
+  const P = new Float32Array(3 * m), N = new Float32Array(3 * m);
+  for (let k = 0; k < m; k++) {
+    const i = keep[Math.min(keep.length - 1, Math.floor(k * step))];
+    P.set(points.subarray(3 * i, 3 * i + 3), 3 * k);
+    N.set(normals.subarray(3 * i, 3 * i + 3), 3 * k);
+  }
+  return { points: P, normals: N };
+}
+
+/** Two shaft pieces that join have about the same radius at the break (design.md section 7, notes for long bones). */
+function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
+  return Math.max(ra, rb) <= maxRatio * Math.min(ra, rb);
 }
 
 /** At most `max` samples, evenly strided. */

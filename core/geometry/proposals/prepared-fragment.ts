@@ -9,6 +9,8 @@ import { KdTree } from '../registration/nearest-neighbours';
 import { TargetSurface } from '../registration/target-surface';
 import { sampleTriangles, voxelResample } from '../registration/voxel-sampling';
 import { faceDescriptor } from './face-descriptor';
+import { fitShaftAxis } from '../shaft-axis';
+import type { ShaftFrame } from '../registration/shaft-axis-search';
 
 /** A break face as segmentation reports it (any resolution): samples with outward normals. */
 export interface BreakFaceInput {
@@ -52,7 +54,12 @@ export interface PreparedFragment {
   centroid: [number, number, number];
   diagonal: number;
   spacing: number;
+  /** The fitted shaft axis (from the surface off the break faces), or null when the piece is not a shaft. */
+  axis: ShaftFrame | null;
 }
+
+/** Below this share of the surface lying parallel to one axis the piece is not treated as a shaft. */
+export const SHAFT_SUPPORT_MIN = 0.5;
 
 export interface SamplingParameters {
   /** Distance between samples (mm). */
@@ -113,7 +120,35 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
     centroid: centroidOf(positions),
     diagonal: Math.hypot(box[3] - box[0], box[4] - box[1], box[5] - box[2]),
     spacing: params.spacing,
+    axis: shaftFrameOf(positions, triangles, input.faces),
   };
+}
+
+/** The piece's own shaft axis, fitted on the triangles that are not break face (all, when faces are not given by triangles). */
+function shaftFrameOf(positions: Float32Array, triangles: Uint32Array, faces: BreakFaceInput[]): ShaftFrame | null {
+  const nt = triangles.length / 3;
+  const skip = new Uint8Array(nt);
+  for (const f of faces) if (f.triangleIds) for (const t of f.triangleIds) if (t < nt) skip[t] = 1;
+  let m = 0;
+  for (let t = 0; t < nt; t++) if (!skip[t]) m++;
+  if (m < 20) return null;
+  const centroids = new Float32Array(3 * m), normals = new Float32Array(3 * m), areas = new Float64Array(m);
+  let k = 0;
+  for (let t = 0; t < nt; t++) {
+    if (skip[t]) continue;
+    const a = triangles[3 * t] * 3, b = triangles[3 * t + 1] * 3, c = triangles[3 * t + 2] * 3;
+    const ux = positions[b] - positions[a], uy = positions[b + 1] - positions[a + 1], uz = positions[b + 2] - positions[a + 2];
+    const vx = positions[c] - positions[a], vy = positions[c + 1] - positions[a + 1], vz = positions[c + 2] - positions[a + 2];
+    const nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
+    const l = Math.hypot(nx, ny, nz);
+    for (let d = 0; d < 3; d++) centroids[3 * k + d] = (positions[a + d] + positions[b + d] + positions[c + d]) / 3;
+    if (l > 0) { normals[3 * k] = nx / l; normals[3 * k + 1] = ny / l; normals[3 * k + 2] = nz / l; }
+    areas[k] = l / 2;
+    k++;
+  }
+  const fit = fitShaftAxis(centroids, normals, areas);
+  if (!(fit.support >= SHAFT_SUPPORT_MIN) || !(fit.radius > 0)) return null;
+  return { direction: fit.direction, point: fit.point, radius: fit.radius };
 }
 
 function sampleFaceTriangles(positions: Float32Array, triangles: Uint32Array, ids: Uint32Array, spacing: number) {

@@ -3,11 +3,12 @@
  * refit: how much of the break is in contact, how wide the gaps are, whether one piece runs
  * into the other, and whether the faces' outlines meet. The components are combined by a
  * logistic model so the score reads as the probability that the join is real (calibrated on
- * generated assemblages with known truth; see SCORE_MODEL).
+ * generated assemblages with known truth; see score-model.ts).
  */
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from './rigid-transform';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { KdTree } from './nearest-neighbours';
+import { scoreProbability } from './score-model';
 import type { ClosestPoint, TargetSurface } from './target-surface';
 
 export interface ScoredSide {
@@ -31,6 +32,8 @@ export interface JoinScore {
   contactFraction: number;
   /** The same share on the less-covered side. */
   contactFractionOther: number;
+  /** Area in contact (mm^2), the smaller of the two sides' figures. */
+  contactAreaMm2: number;
   /** RMS distance (mm) between the faces where they face each other within 3 tolerances. */
   gapRmsMm: number;
   /** Depth (mm) that the deepest 2% of one piece's surface samples reach inside the other. */
@@ -48,24 +51,21 @@ export interface JoinScore {
 export interface ScoreOptions {
   /** Distance that counts as contact (mm). */
   contactTolerance: number;
+  /** Distance between face samples (mm), for contact areas; default contactTolerance / 0.4. */
+  spacing?: number;
 }
 
-/**
- * Logistic model over the components: logit = b0 + contact + contactOther + outline
- * - gap/gapScale - penetration/gapScale - (1 - min(1, interlock/interlockFull)). Gaps are
- * measured against an absolute scale (a true join's faces sit within scanner noise and light
- * erosion of each other, a few tenths of a millimetre, from memory), not against the sampling.
- * Coefficients fitted on generated truth (tests/bench/proposals.bench.ts); starting values by hand.
- */
-export const SCORE_MODEL = { b0: -5, contact: 6, contactOther: 3, outline: 2, gap: 2.5, penetration: 1.5, gapScaleMm: 0.3, interlock: 8, interlockFull: 0.08 };
+/** Face samples judged per side at most (evenly strided): shares need no more. */
+const MAX_FACE_SAMPLES = 400;
 
 export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): JoinScore {
   const tol = options.contactTolerance;
   const inv = invert(transform);
-  const bFaceInA = applyToPoints(transform, b.facePoints);
-  const bFaceNormalsInA = applyToDirections(transform, b.faceNormals);
-  const aFaceInB = applyToPoints(inv, a.facePoints);
-  const aFaceNormalsInB = applyToDirections(inv, a.faceNormals);
+  const fb = strided(b.facePoints, b.faceNormals, MAX_FACE_SAMPLES), fa = strided(a.facePoints, a.faceNormals, MAX_FACE_SAMPLES);
+  const bFaceInA = applyToPoints(transform, fb.points);
+  const bFaceNormalsInA = applyToDirections(transform, fb.normals);
+  const aFaceInB = applyToPoints(inv, fa.points);
+  const aFaceNormalsInB = applyToDirections(inv, fa.normals);
   const cb = contactShare(bFaceInA, bFaceNormalsInA, a.surface, tol);
   const interlock = Math.min(interlockOf(bFaceInA, bFaceNormalsInA, a.surface, tol), interlockOf(aFaceInB, aFaceNormalsInB, b.surface, tol));
   const ca = contactShare(aFaceInB, aFaceNormalsInB, b.surface, tol);
@@ -73,17 +73,16 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const contactFractionOther = Math.min(ca.share, cb.share);
   const gapSum = ca.gapSum + cb.gapSum, gapN = ca.gapN + cb.gapN;
   const gapRmsMm = gapN > 0 ? Math.sqrt(gapSum / gapN) : 3 * tol;
+  // only surface samples near the other piece's face can be inside it within a wall's depth
   const penetrationMm = Math.max(
-    penetration(applyToPoints(transform, b.surfacePoints), a),
-    penetration(applyToPoints(inv, a.surfacePoints), b),
+    penetration(near(applyToPoints(transform, b.surfacePoints), a.facePoints, MAX_DEPTH_MM), a),
+    penetration(near(applyToPoints(inv, a.surfacePoints), b.facePoints, MAX_DEPTH_MM), b),
   );
   const outlineAgreement = outlineMeeting(a.outline, applyToPoints(transform, b.outline), 2 * tol);
-  const m = SCORE_MODEL;
-  const logit =
-    m.b0 + m.contact * contactFraction + m.contactOther * contactFractionOther + m.outline * outlineAgreement -
-    m.gap * (gapRmsMm / m.gapScaleMm) - m.penetration * (penetrationMm / m.gapScaleMm) - m.interlock * (1 - Math.min(1, interlock / m.interlockFull));
-  const score = 1 / (1 + Math.exp(-logit));
-  return { score, contactFraction, contactFractionOther, gapRmsMm, penetrationMm, outlineAgreement, interlock };
+  const spacing = options.spacing ?? tol / 0.4;
+  const contactAreaMm2 = Math.min(ca.share * (a.facePoints.length / 3), cb.share * (b.facePoints.length / 3)) * spacing * spacing;
+  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock };
+  return { score: scoreProbability(components), ...components };
 }
 
 /**
@@ -156,8 +155,11 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   const P = other.surfacePoints, N = other.surfaceNormals;
   for (let i = 0; i < n; i++) {
     const x = points[3 * i], y = points[3 * i + 1], z = points[3 * i + 2];
-    const hit = other.surface.closest(x, y, z, Infinity, cp);
-    if (!hit) continue;
+    const hit = other.surface.closest(x, y, z, MAX_DEPTH_MM, cp);
+    if (!hit) {
+      depths.push(0);
+      continue;
+    }
     // direction from the surface to the sample against the mean normal of the samples around
     // the closest point (same side of a thin wall as the hit); rims, where that direction is
     // ambiguous, and samples farther than a cortical wall is thick are not counted
@@ -179,6 +181,34 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   }
   depths.sort((p, q) => p - q);
   return depths[Math.min(depths.length - 1, Math.floor(0.98 * depths.length))] ?? 0;
+}
+
+function strided(points: Float32Array, normals: Float32Array, max: number): { points: Float32Array; normals: Float32Array } {
+  const n = points.length / 3;
+  if (n <= max) return { points, normals };
+  const step = n / max;
+  const P = new Float32Array(3 * max), N = new Float32Array(3 * max);
+  for (let k = 0; k < max; k++) {
+    const i = Math.floor(k * step);
+    P.set(points.subarray(3 * i, 3 * i + 3), 3 * k);
+    N.set(normals.subarray(3 * i, 3 * i + 3), 3 * k);
+  }
+  return { points: P, normals: N };
+}
+
+/** The points inside the bounding box of `around` grown by `margin`. */
+function near(points: Float32Array | Float64Array, around: Float32Array, margin: number): Float64Array {
+  const lo = [Infinity, Infinity, Infinity], hi = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < around.length; i += 3) for (let k = 0; k < 3; k++) {
+    lo[k] = Math.min(lo[k], around[i + k] - margin);
+    hi[k] = Math.max(hi[k], around[i + k] + margin);
+  }
+  const out: number[] = [];
+  for (let i = 0; i < points.length; i += 3) {
+    const x = points[i], y = points[i + 1], z = points[i + 2];
+    if (x >= lo[0] && x <= hi[0] && y >= lo[1] && y <= hi[1] && z >= lo[2] && z <= hi[2]) out.push(x, y, z);
+  }
+  return Float64Array.from(out);
 }
 
 /** Share of outline samples of either side with a sample of the other side's outline nearby (better side). */

@@ -1,0 +1,204 @@
+/**
+ * The pairwise step of join proposals, measured (issue 6, items 5-7): `npm run bench -- pairwise`.
+ *
+ * On generated assemblages with known truth (truth.json), every candidate face pair the
+ * candidate index suggests (DEFAULT_K per face, as `knitbone propose` does) plus every face pair of every
+ * true join is aligned and scored. Prints:
+ *   - CPU milliseconds per face pair (median, p90, mean) beside the machine's load,
+ *   - rotation and translation errors of the best motion of each true join that is found,
+ *   - recall of true joins as the best motion of their fragment pair and in the top 3 of a piece,
+ *   - calibration: predicted score against the observed share of correct motions, in bins,
+ *   - precision of motions scoring above 0.8.
+ * A motion is correct when within 5 degrees and 5 mm (at B's centroid) of the truth.
+ *
+ * Assemblages: KNITBONE_PAIRWISE_DIRS (comma separated folders written by `knitbone demo`), or
+ * else generated here from seeds KNITBONE_PAIRWISE_SEEDS (default "4242,777"; these seeds are
+ * never used to fit the score) with KNITBONE_PAIRWISE_FRAGMENTS fragments (default 30).
+ * KNITBONE_PAIRWISE_PARAMS='{"axisPeaks": 3}' overrides matching parameters; KNITBONE_PAIRWISE_LIMIT caps
+ * the face pairs aligned per assemblage (true joins first).
+ * KNITBONE_PAIRWISE_DUMP=<file.json> writes every scored motion with its components and whether
+ * it is correct (the input of tests/bench/fit-score-model.ts).
+ */
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir, loadavg } from 'node:os';
+import { join } from 'node:path';
+import { deserialize, serialize } from 'node:v8';
+import { generateAssemblage } from '../../demo-data/generate';
+import { candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { faceTraits } from '../../core/geometry/proposals/face-traits';
+import { matchFacePair, distinctBest, DEFAULT_MATCH_PARAMETERS, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
+import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { displacementAt, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
+import { loadFragment } from '../../core/jobs/fragment-loader';
+
+interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; transformBToA: number[] }
+interface Truth { fragments: Array<{ catalogueNo: string; boneId: string }>; joins: TruthJoin[] }
+
+const SPACING_LADDER = [0.3, 0.42, 0.6, 0.85, 1.2, 1.7, 2.4, 3.4];
+
+function table(rows: Array<Record<string, string | number>>): void {
+  if (!rows.length) return;
+  const cols = Object.keys(rows[0]);
+  const w = cols.map((c) => Math.max(c.length, ...rows.map((r) => String(r[c] ?? '').length)));
+  process.stdout.write(cols.map((c, i) => c.padEnd(w[i])).join('  ') + '\n');
+  for (const r of rows) process.stdout.write(cols.map((c, i) => String(r[c] ?? '').padEnd(w[i])).join('  ') + '\n');
+}
+const q = (xs: number[], p: number): number => (xs.length ? [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))] : NaN);
+const f = (x: number, d = 2): string => (Number.isFinite(x) ? x.toFixed(d) : '-');
+
+/** Analysed fragments are cached in the temporary folder (analysis is not what is measured here). */
+function loadCached(file: string): FragmentInput {
+  const dir = join(tmpdir(), 'knitbone-pairwise-cache');
+  mkdirSync(dir, { recursive: true });
+  const key = join(dir, file.replace(/[^A-Za-z0-9]+/g, '_') + '.v8');
+  if (existsSync(key)) return deserialize(readFileSync(key)) as FragmentInput;
+  const input = loadFragment(file).input;
+  writeFileSync(key, serialize(input));
+  return input;
+}
+
+export interface ScoredMotion {
+  set: string;
+  a: string;
+  b: string;
+  trueJoin: boolean;
+  correct: boolean;
+  rank: number;
+  score: number;
+  components: Record<string, number>;
+  rotErr: number;
+  transErr: number;
+}
+
+async function assemblageDirs(): Promise<string[]> {
+  if (process.env.KNITBONE_PAIRWISE_DIRS) return process.env.KNITBONE_PAIRWISE_DIRS.split(',');
+  const seeds = (process.env.KNITBONE_PAIRWISE_SEEDS ?? '4242,777').split(',');
+  const n = Number(process.env.KNITBONE_PAIRWISE_FRAGMENTS ?? 30);
+  const dirs: string[] = [];
+  for (const seed of seeds) {
+    const dir = join(tmpdir(), `knitbone-pairwise-${n}-${seed}`);
+    if (!existsSync(join(dir, 'truth.json'))) await generateAssemblage({ outDir: dir, fragments: n, seed: Number.isFinite(Number(seed)) ? Number(seed) : seed });
+    dirs.push(dir);
+  }
+  return dirs;
+}
+
+export default async function main(): Promise<void> {
+  const dirs = await assemblageDirs();
+  const limit = Number(process.env.KNITBONE_PAIRWISE_LIMIT ?? Infinity);
+  const params = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PAIRWISE_PARAMS ?? '{}') as object) };
+  const motions: ScoredMotion[] = [];
+  const cpuMs: number[] = [];
+  const summary: Array<Record<string, string | number>> = [];
+  for (const dir of dirs) {
+    const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
+    const names = truth.fragments.map((x) => x.catalogueNo);
+    const inputs = new Map<string, FragmentInput>();
+    for (const no of names) {
+      try {
+        inputs.set(no, loadCached(join(dir, 'scans', `${no}.ply`)));
+      } catch {
+        // refused scans (no break face, too small) take no part
+      }
+    }
+    const raw = spacingForFaces([...inputs.values()].flatMap((x) => x.faces.map((y) => y.area ?? 0)));
+    const spacing = SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / raw)) < Math.abs(Math.log(best / raw)) ? v : best), SPACING_LADDER[0]);
+    const prepared = new Map<string, PreparedFragment>();
+    const usable = [...inputs.keys()];
+    for (const no of usable) prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
+    const faces: IndexedFace[] = [];
+    usable.forEach((no, fi) => {
+      const p = prepared.get(no)!;
+      const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
+      p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
+    });
+    const cands = candidateFacePairs(faces, { k: DEFAULT_K });
+    const key = (x: string, y: string): string => (x < y ? `${x}|${y}` : `${y}|${x}`);
+    const truthOf = new Map(truth.joins.filter((j) => j.type === 'conjoin').map((j) => [key(j.a, j.b), j]));
+    // face pairs per fragment pair: candidates, plus every face pair of true joins
+    const work = new Map<string, { a: string; b: string; pairs: Set<string> }>();
+    const addPair = (a: string, b: string, fa: number, fb: number): void => {
+      const k = `${a}|${b}`;
+      let w = work.get(k);
+      if (!w) work.set(k, (w = { a, b, pairs: new Set() }));
+      w.pairs.add(`${fa},${fb}`);
+    };
+    for (const c of cands) addPair(usable[c.a], usable[c.b], c.faceA, c.faceB);
+    const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && prepared.has(j.a) && prepared.has(j.b));
+    for (const j of eligible) {
+      const [a, b] = usable.indexOf(j.a) < usable.indexOf(j.b) ? [j.a, j.b] : [j.b, j.a];
+      const A = prepared.get(a)!, B = prepared.get(b)!;
+      for (let i = 0; i < A.faces.length; i++) for (let k = 0; k < B.faces.length; k++) addPair(a, b, i, k);
+    }
+    let done = 0;
+    const best = new Map<string, FaceMatch & { correct: boolean }>();
+    // true joins first, so a limited run still measures accuracy
+    const ordered = [...work.values()].sort((x, y) => Number(truthOf.has(key(y.a, y.b))) - Number(truthOf.has(key(x.a, x.b))));
+    for (const w of ordered) {
+      if (done >= limit) break;
+      const A = prepared.get(w.a)!, B = prepared.get(w.b)!;
+      const tj = truthOf.get(key(w.a, w.b));
+      const want = tj ? (tj.a === w.a ? tj.transformBToA : undefined) : undefined;
+      const wantInv = tj && !want ? tj.transformBToA : undefined; // truth maps A(=tj.a) <- B; here a is tj.b
+      const all: FaceMatch[] = [];
+      for (const p of w.pairs) {
+        const [fa, fb] = p.split(',').map(Number);
+        const c0 = process.cpuUsage();
+        all.push(...matchFacePair(A, fa, B, fb, params));
+        const c1 = process.cpuUsage(c0);
+        cpuMs.push((c1.user + c1.system) / 1000);
+        done++;
+      }
+      const list = distinctBest(all, 2 * spacing).slice(0, 5);
+      list.forEach((m, rank) => {
+        let rotErr = NaN, transErr = NaN;
+        if (want || wantInv) {
+          // compare in B -> A of this pair
+          const t = want ?? invertRigid(wantInv!);
+          rotErr = rotationErrorDegrees(m.transform, t);
+          transErr = displacementAt(m.transform, t, B.centroid);
+        }
+        const correct = rotErr < 5 && transErr < 5;
+        motions.push({
+          set: dir, a: w.a, b: w.b, trueJoin: !!tj, correct, rank, score: m.score, rotErr, transErr,
+          components: { contactFraction: m.contactFraction, contactFractionOther: m.contactFractionOther, contactAreaMm2: m.contactAreaMm2, gapRmsMm: m.gapRmsMm, penetrationMm: m.penetrationMm, outlineAgreement: m.outlineAgreement, interlock: m.interlock, ...(m as unknown as { extra?: Record<string, number> }).extra },
+        });
+        if (rank === 0) best.set(key(w.a, w.b), { ...m, correct });
+      });
+    }
+    // recall: true join correct as the best motion of its pair, and in the top 3 of either piece
+    let asBest = 0, top3 = 0;
+    const pieceTop = (no: string): string[] => [...best.entries()].filter(([k]) => k.split('|').includes(no)).sort((x, y) => y[1].score - x[1].score).slice(0, 3).map(([k]) => k);
+    for (const j of eligible) {
+      const m = best.get(key(j.a, j.b));
+      if (!m || !m.correct) continue;
+      asBest++;
+      if (pieceTop(j.a).includes(key(j.a, j.b)) || pieceTop(j.b).includes(key(j.a, j.b))) top3++;
+    }
+    summary.push({ assemblage: dir.split(/[\\/]/).pop()!, fragments: usable.length, spacing, 'fragment pairs': work.size, 'face pairs': done, 'true joins': eligible.length, 'found (best of pair)': asBest, 'in top 3 of a piece': top3 });
+  }
+  const load = loadavg()[0];
+  process.stdout.write(`\nPairwise alignment: CPU ms per face pair (load average ${load.toFixed(2)})\n`);
+  table([{ 'face pairs': cpuMs.length, median: f(q(cpuMs, 0.5), 1), p90: f(q(cpuMs, 0.9), 1), mean: f(cpuMs.reduce((s, x) => s + x, 0) / Math.max(1, cpuMs.length), 1), max: f(Math.max(...cpuMs), 1) }]);
+  process.stdout.write('\nRecall\n');
+  table(summary);
+  const ok = motions.filter((m) => m.correct && m.rank === 0);
+  process.stdout.write('\nAccuracy of correct best motions (geodesic rotation; translation at B\'s centroid)\n');
+  table([{ n: ok.length, 'rot median deg': f(q(ok.map((m) => m.rotErr), 0.5)), 'rot p95 deg': f(q(ok.map((m) => m.rotErr), 0.95)), 'trans median mm': f(q(ok.map((m) => m.transErr), 0.5)), 'trans p95 mm': f(q(ok.map((m) => m.transErr), 0.95)) }]);
+  process.stdout.write('\nCalibration of the score (every motion ranked 1-5 of its fragment pair)\n');
+  const bins = [0, 0.1, 0.2, 0.4, 0.6, 0.8, 0.9, 1.0001];
+  const rows = [];
+  for (let i = 0; i + 1 < bins.length; i++) {
+    const inBin = motions.filter((m) => m.score >= bins[i] && m.score < bins[i + 1]);
+    rows.push({ score: `${bins[i].toFixed(1)}-${Math.min(1, bins[i + 1]).toFixed(1)}`, motions: inBin.length, 'mean predicted': f(inBin.reduce((s, m) => s + m.score, 0) / Math.max(1, inBin.length), 3), 'observed correct': inBin.length ? f(inBin.filter((m) => m.correct).length / inBin.length, 3) : '-' });
+  }
+  table(rows);
+  const high = motions.filter((m) => m.score > 0.8);
+  process.stdout.write(`\nPrecision of motions scoring above 0.8: ${high.length ? f(high.filter((m) => m.correct).length / high.length, 3) : '-'} (${high.filter((m) => m.correct).length}/${high.length})\n`);
+  if (process.env.KNITBONE_PAIRWISE_DUMP) writeFileSync(process.env.KNITBONE_PAIRWISE_DUMP, JSON.stringify(motions));
+}
+
+function invertRigid(m: number[]): number[] {
+  const tx = m[3], ty = m[7], tz = m[11];
+  return [m[0], m[4], m[8], -(m[0] * tx + m[4] * ty + m[8] * tz), m[1], m[5], m[9], -(m[1] * tx + m[5] * ty + m[9] * tz), m[2], m[6], m[10], -(m[2] * tx + m[6] * ty + m[10] * tz), 0, 0, 0, 1];
+}
