@@ -136,3 +136,47 @@ describe('importing a folder of scans', () => {
     await expect(host.call('scans.correctRegion', { catalogue, scanId: scan.id, regionId: 9999, surfaceClass: 'fracture' })).rejects.toThrow(/no region 9999/);
   });
 });
+
+describe('cancelling an import while scans are being read', () => {
+  it('stores the scans finished before the cancel, and the next run reads only the rest', async () => {
+    const sub = mkdtempSync(join(tmpdir(), 'knitbone-scans-cancel-'));
+    try {
+      const scans = join(sub, 'scans');
+      mkdirSync(scans);
+      const cat = join(sub, 'site.sqlite');
+      for (const no of ['KC-1', 'KC-2', 'KC-3']) writeFileSync(join(scans, `${no}.ply`), plyBinary(tube.mesh, false));
+      await host.call('catalogue.init', { catalogue: cat });
+      for (const no of ['KC-1', 'KC-2', 'KC-3']) await host.call('specimens.create', { catalogue: cat, specimen: { catalogueNo: no } });
+      // Cancel from inside the run, at the first finished scan (mid-run, not before the start).
+      const abort = new AbortController();
+      let readBeforeCancel = -1;
+      const first = await host.call('scans.import', { catalogue: cat, folder: scans, workers: 1 }, {
+        signal: abort.signal,
+        onProgress: (e) => {
+          if (e.stage === 'reading scans' && e.done >= 1 && !abort.signal.aborted) {
+            readBeforeCancel = e.done;
+            abort.abort();
+          }
+        },
+      });
+      expect(readBeforeCancel).toBe(1);
+      expect(first.cancelled).toBe(true);
+      expect(first.imported.length).toBeGreaterThanOrEqual(1);
+      expect(first.imported.length).toBeLessThan(3);
+      const firstDone = first.imported.map((s) => s.catalogueNo).sort();
+      expect([...firstDone, ...first.remaining.map((f) => f.replace('.ply', ''))].sort()).toEqual(['KC-1', 'KC-2', 'KC-3']);
+      const stored = openCatalogue(cat);
+      expect(stored.scans.list()).toHaveLength(first.imported.length);
+      stored.close();
+      const second = await host.call('scans.import', { catalogue: cat, folder: scans, workers: 1 });
+      expect(second.cancelled).toBe(false);
+      expect(second.alreadyImported.map((s) => s.catalogueNo).sort()).toEqual(firstDone);
+      expect(second.imported.map((s) => s.catalogueNo).sort()).toEqual(first.remaining.map((f) => f.replace('.ply', '')).sort());
+      const all = openCatalogue(cat);
+      expect(all.scans.list()).toHaveLength(3);
+      all.close();
+    } finally {
+      rmSync(sub, { recursive: true, force: true });
+    }
+  });
+});
