@@ -1,7 +1,10 @@
-import { BufferAttribute, BufferGeometry, Matrix4, Vector3 } from 'three';
+import { BufferAttribute, BufferGeometry, Color, Matrix4, SRGBColorSpace, Vector3 } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
 import { classColour, gapColour, SURFACE } from './colours';
 import type { MeshView } from './mesh-payload';
+
+/** Scratch colour for the sRGB -> linear conversion of vertex colours. */
+const sharedColour = new Color();
 
 /** A 4x4 row-major rigid transform (design convention) as a three.js matrix. */
 export function matrixFromRowMajor(m: readonly number[] | null | undefined): Matrix4 {
@@ -95,9 +98,12 @@ export function buildGeometry(mesh: MeshView, colouring: Colouring): BufferGeome
         nor[o + 1] = normals[v * 3 + 1];
         nor[o + 2] = normals[v * 3 + 2];
         const cc = colouring.gaps ? gapColour(colouring.gaps[v], c) : c;
-        col[o] = cc[0];
-        col[o + 1] = cc[1];
-        col[o + 2] = cc[2];
+        // The palette is written in sRGB (as the legend swatches are); three.js expects vertex
+        // colours in its linear working space, so convert or the lit surface reads paler.
+        sharedColour.setRGB(cc[0], cc[1], cc[2], SRGBColorSpace);
+        col[o] = sharedColour.r;
+        col[o + 1] = sharedColour.g;
+        col[o + 2] = sharedColour.b;
       }
       index[t * 3 + k] = copy;
     }

@@ -1,4 +1,4 @@
-/** Colours of the 3D views (linear-ish sRGB 0..1). Chosen to read on both themes. */
+/** Colours of the 3D views (sRGB 0..1, as CSS writes them; build-geometry converts them to linear). Chosen to read on both themes. */
 export const SURFACE = {
   bone: [0.86, 0.82, 0.72],
   boneAlt: [0.74, 0.78, 0.84],
