@@ -13,6 +13,7 @@ import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
 import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
+import { stridedSamples } from '../registration/strided-samples';
 
 export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
 
@@ -80,9 +81,9 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
   if (shafts) {
     for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: mirrorFpfh(FB.fpfh), featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
-  const coarse = subsample(FB.points, FB.normals, params.icpSamples);
+  const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
-  const checkA = subsample(FA.points, FA.normals, params.icpSamples);
+  const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
   const refine = (list: RigidTransform[]): Array<{ transform: RigidTransform; overlap: number }> =>
     list.map((h) => {
       const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
@@ -181,7 +182,7 @@ function nearFace(points: Float32Array, normals: Float32Array, T: RigidTransform
     q[2] = T[8] * x + T[9] * y + T[10] * z + T[11];
     if (treeA.nearestOne(q, within * within).index >= 0) keep.push(i);
   }
-  if (keep.length < 12) return subsample(points, normals, max);
+  if (keep.length < 12) return stridedSamples(points, normals, max);
   const step = Math.max(1, keep.length / max);
   const m = Math.min(keep.length, Math.ceil(keep.length / step));
   const P = new Float32Array(3 * m), N = new Float32Array(3 * m);
@@ -196,20 +197,6 @@ function nearFace(points: Float32Array, normals: Float32Array, T: RigidTransform
 /** Two shaft pieces that join have about the same radius at the break (design.md section 7, notes for long bones). */
 function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
   return Math.max(ra, rb) <= maxRatio * Math.min(ra, rb);
-}
-
-/** At most `max` samples, evenly strided. */
-function subsample(points: Float32Array, normals: Float32Array, max: number): { points: Float32Array; normals: Float32Array } {
-  const n = points.length / 3;
-  if (n <= max) return { points, normals };
-  const step = n / max;
-  const P = new Float32Array(3 * max), N = new Float32Array(3 * max);
-  for (let k = 0; k < max; k++) {
-    const i = Math.floor(k * step);
-    P.set(points.subarray(3 * i, 3 * i + 3), 3 * k);
-    N.set(normals.subarray(3 * i, 3 * i + 3), 3 * k);
-  }
-  return { points: P, normals: N };
 }
 
 /** Every face pair (or the given ones) of A and B, merged, best first. */

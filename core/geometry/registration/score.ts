@@ -10,6 +10,7 @@ import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { KdTree } from './nearest-neighbours';
 import { scoreProbability } from './score-model';
 import type { ClosestPoint, TargetSurface } from './target-surface';
+import { stridedSamples } from './strided-samples';
 
 export interface ScoredSide {
   surface: TargetSurface;
@@ -61,7 +62,7 @@ const MAX_FACE_SAMPLES = 400;
 export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): JoinScore {
   const tol = options.contactTolerance;
   const inv = invert(transform);
-  const fb = strided(b.facePoints, b.faceNormals, MAX_FACE_SAMPLES), fa = strided(a.facePoints, a.faceNormals, MAX_FACE_SAMPLES);
+  const fb = stridedSamples(b.facePoints, b.faceNormals, MAX_FACE_SAMPLES), fa = stridedSamples(a.facePoints, a.faceNormals, MAX_FACE_SAMPLES);
   const bFaceInA = applyToPoints(transform, fb.points);
   const bFaceNormalsInA = applyToDirections(transform, fb.normals);
   const aFaceInB = applyToPoints(inv, fa.points);
@@ -181,19 +182,6 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   }
   depths.sort((p, q) => p - q);
   return depths[Math.min(depths.length - 1, Math.floor(0.98 * depths.length))] ?? 0;
-}
-
-function strided(points: Float32Array, normals: Float32Array, max: number): { points: Float32Array; normals: Float32Array } {
-  const n = points.length / 3;
-  if (n <= max) return { points, normals };
-  const step = n / max;
-  const P = new Float32Array(3 * max), N = new Float32Array(3 * max);
-  for (let k = 0; k < max; k++) {
-    const i = Math.floor(k * step);
-    P.set(points.subarray(3 * i, 3 * i + 3), 3 * k);
-    N.set(normals.subarray(3 * i, 3 * i + 3), 3 * k);
-  }
-  return { points: P, normals: N };
 }
 
 /** The points inside the bounding box of `around` grown by `margin`. */
