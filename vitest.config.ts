@@ -5,6 +5,8 @@ import { defineConfig } from 'vitest/config';
 export default defineConfig({
   test: {
     maxWorkers: 2,
+    // Temporary folders of the whole run under one folder, removed at the end (tests/support/temp-root.ts).
+    globalSetup: ['tests/support/temp-root.ts'],
     projects: [
       {
         test: {
