@@ -10,22 +10,11 @@ import { performance } from 'node:perf_hooks';
 import { openCatalogue } from '../../core/catalogue/catalogue';
 import { specimensCsv } from '../../core/catalogue/export';
 import { importSpecimens } from '../../core/catalogue/import-specimens';
-
-/** Small deterministic PRNG (mulberry32) so every run reads the same invented assemblage. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from '../../core/geometry/seeded-random';
 
 /** An invented specimen list: units on a 1 m grid, mostly unidentified shaft fragments. */
 export function generateSpecimenCsv(n: number, seed = 7): string {
-  const r = rng(seed);
+  const r = mulberry32(seed);
   const pick = <T>(xs: readonly T[]): T => xs[Math.floor(r() * xs.length)];
   const taxa = ['', '', '', 'Cervus elaphus', 'Cervidae', 'Bos taurus', 'Caprini', 'Sus scrofa', 'Equus ferus', 'Lepus europaeus', 'Vulpes vulpes'];
   const elements = ['long bone', 'long bone', 'upper limb long bone', 'femur', 'tibia', 'humerus', 'radius', 'metatarsal', 'rib', 'cranium', 'first phalanx'];

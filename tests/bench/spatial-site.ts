@@ -4,17 +4,7 @@
  * near neighbours with a few long and cross-layer ones. Deterministic for a given seed.
  */
 import type { SiteDefinitions, SpatialJoin, SpatialSpecimen } from '../../core/spatial/types';
-
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from '../../core/geometry/seeded-random';
 
 export interface InventedSite {
   specimens: SpatialSpecimen[];

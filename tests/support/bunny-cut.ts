@@ -6,6 +6,7 @@
  */
 import { createRequire } from 'node:module';
 import Module from 'manifold-3d';
+import { mulberry32 } from '../../core/geometry/seeded-random';
 
 export interface CutPiece {
   positions: Float32Array;
@@ -97,7 +98,7 @@ async function cutSolid(vert: Float32Array, tri: Uint32Array, options: Options &
     mx[k] = Math.max(mx[k], vert[i + k]);
   }
   const diagonal = Math.hypot(mx[0] - mn[0], mx[1] - mn[1], mx[2] - mn[2]);
-  const rand = mulberry(options.seed ?? 5);
+  const rand = mulberry32(options.seed ?? 5);
   const noise = options.noise ?? 0.03;
   // independent scanner-like noise on each piece, so the two sides of the cut share no vertex
   for (const p of [lower, upper]) for (let i = 0; i < p.positions.length; i++) p.positions[i] += noise * gauss(rand);
@@ -123,17 +124,6 @@ function toPiece(m: { numProp: number; vertProperties: Float32Array; triVerts: U
     onCut[t] = onSurface(a) && onSurface(b) && onSurface(c) && centreOn ? 1 : 0;
   }
   return { positions, triangles, onCut };
-}
-
-function mulberry(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 function gauss(r: () => number): number {

@@ -9,6 +9,7 @@ import { absoluteOrientation } from './absolute-orientation';
 import { FPFH_BINS, FPFH_DIM } from './fpfh';
 import { KdTree } from './nearest-neighbours';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from './rigid-transform';
+import { mulberry32 } from '../seeded-random';
 
 export interface FaceSamples {
   points: Float32Array;
@@ -51,17 +52,6 @@ export function mirrorFpfh(f: Float32Array): Float32Array {
     }
   }
   return out;
-}
-
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 /** Motions that carry `source` (B's face) onto `target` (A's face), best first. */

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { candidateFacePairs, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
 import { faceTraits, type FaceTraits } from '../../../../core/geometry/proposals/face-traits';
 import { computeFpfh } from '../../../../core/geometry/registration/fpfh';
-import { mulberry32 } from '../../../../core/geometry/registration/ransac-alignment';
+import { mulberry32 } from '../../../../core/geometry/seeded-random';
 import { applyToDirections, applyToPoints, rotationAboutAxis, transformFrom } from '../../../../core/geometry/registration/rigid-transform';
 
 /** Points spread evenly by area over an annulus in the plane z = 0 (normals +z), on an axis along z. */

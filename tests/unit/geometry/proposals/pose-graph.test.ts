@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { cycleAgreement, solvePoses, type PoseEdge } from '../../../../core/geometry/proposals/pose-graph';
-import { mulberry32 } from '../../../../core/geometry/registration/ransac-alignment';
+import { mulberry32 } from '../../../../core/geometry/seeded-random';
 import {
   compose,
   displacementAt,

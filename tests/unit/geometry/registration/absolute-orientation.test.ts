@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { Matrix, SingularValueDecomposition, determinant } from 'ml-matrix';
 import { absoluteOrientation } from '../../../../core/geometry/registration/absolute-orientation';
 import { applyToPoints, isRigid, rotationAboutAxis, rotationErrorDegrees, rotationOf, transformFrom } from '../../../../core/geometry/registration/rigid-transform';
-import { mulberry32 } from '../../../../core/geometry/registration/ransac-alignment';
+import { mulberry32 } from '../../../../core/geometry/seeded-random';
 
 describe('absolute orientation (Horn 1987, unit quaternions)', () => {
   it('recovers the 120 degree turn about (1,1,1), which cycles the axes x -> y -> z (analytic geometry)', () => {

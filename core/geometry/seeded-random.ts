@@ -1,0 +1,15 @@
+/**
+ * A small seeded pseudo-random source (mulberry32, a public-domain 32-bit generator): the same
+ * seed gives the same sequence of uniform numbers in [0, 1), so sampling (RANSAC) and test or
+ * benchmark fixtures are repeatable run after run.
+ */
+export function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
