@@ -101,8 +101,8 @@ describe('catalogue at the bench', () => {
     await page.getByText('2 of 4 specimens').waitFor();
     await page.selectOption('#filter-unit', '');
     await page.getByRole('columnheader', { name: /Cat\. no\./ }).getByRole('button').click();
-    const first = (await rowsText())[1];
-    expect(first).toContain('KB-0004');
+    // The table redraws from a deferred value: wait for the sorted rows rather than read at once.
+    await expect.poll(async () => (await rowsText())[1] ?? '').toContain('KB-0004');
     expect(await page.getAttribute('[role="columnheader"][aria-sort="descending"]', 'aria-sort')).toBe('descending');
   });
 
