@@ -77,6 +77,8 @@ describe('join review', () => {
     const { page } = b;
     await page.keyboard.press('Alt+1');
     await page.fill('#find-specimens', shaft);
+    // The table filters through a deferred value: wait until the shaft fragment leads it.
+    await expect.poll(async () => (await page.locator('[role="grid"] [role="row"]').allInnerTexts())[1] ?? '').toContain(shaft);
     await page.locator('[role="grid"]').focus();
     await page.keyboard.press('Home');
     await page.keyboard.press('Enter');
