@@ -1,6 +1,7 @@
 import { copyFileSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openCatalogue } from '../../core/catalogue/catalogue';
 import { browse, tempDir, type Browsing } from './harness';
 import { newCatalogue, openFromFirstRun } from './fixtures';
 
@@ -20,6 +21,7 @@ const pair = ['QS-10512', 'QS-10837'];
 const stranger = 'QS-10130';
 let b: Browsing;
 let catalogue: Awaited<ReturnType<typeof newCatalogue>>;
+let scanFolder: string;
 
 beforeAll(async () => {
   catalogue = await newCatalogue();
@@ -29,12 +31,32 @@ beforeAll(async () => {
   writeFileSync(join(dir, 'specimens.csv'), [csv[0], ...csv.filter((l) => [...pair, stranger].some((no) => l.startsWith(`${no},`)))].join('\n') + '\n');
   for (const no of [...pair, stranger]) copyFileSync(join(sample, 'scans', `${no}.ply`), join(dir, 'scans', `${no}.ply`));
   await catalogue.call('specimens.import', { catalogue: catalogue.path, file: join(dir, 'specimens.csv') });
-  await catalogue.call('scans.import', { catalogue: catalogue.path, folder: join(dir, 'scans'), workers: 1 });
+  scanFolder = join(dir, 'scans');
   b = await browse({ catalogue: catalogue.path, demoCatalogue: null, recent: [], canPickFiles: false });
   await openFromFirstRun(b.page);
 });
 afterAll(async () => {
   await b?.close();
+});
+
+describe('linking a folder of scans from the catalogue screen', () => {
+  it('reads the three scans, names each fragment and reports what it linked', async () => {
+    const { page } = b;
+    await page.keyboard.press('Alt+1');
+    await page.getByRole('button', { name: 'Link scans...' }).click();
+    await page.fill('#scan-folder', scanFolder);
+    await page.getByRole('button', { name: 'Read and link scans' }).click();
+    await page.getByText('3 scans linked').waitFor({ timeout: 120_000 });
+    await b.shot('scans-linked');
+    const stored = openCatalogue(catalogue.path);
+    const scans = stored.scans.list();
+    stored.close();
+    expect(scans.map((s) => s.path.replace(/^.*[\\/]/, '')).sort()).toEqual([...pair, stranger].map((no) => `${no}.ply`).sort());
+    // A second run reads nothing again: the files are recognised by their content.
+    await page.getByRole('button', { name: 'Read and link scans' }).click();
+    await page.getByText('0 scans linked, 3 already in the catalogue').waitFor({ timeout: 60_000 });
+    await page.getByRole('button', { name: 'Link scans...' }).click();
+  });
 });
 
 describe('finding joins from the app', () => {

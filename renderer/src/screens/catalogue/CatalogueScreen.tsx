@@ -5,6 +5,7 @@ import { Problems } from '../../app/Problems';
 import { useWorkspace } from '../../app/workspace';
 import { BenchEntry, type BenchEntryHandle } from './BenchEntry';
 import { CsvTransfer } from './CsvTransfer';
+import { ScanFolderLink } from './ScanFolderLink';
 import { SpecimenTable } from './SpecimenTable';
 import { COLUMNS, distinctValues, EMPTY_QUERY, nextCatalogueNo, PreparedRows, queryPrepared, type FieldName, type SpecimenRecord, type TableQuery } from './specimen-view';
 import { useVocabulary } from './use-vocabulary';
@@ -151,6 +152,7 @@ export function CatalogueScreen() {
           {undoLabel}
         </button>
         <CsvTransfer onImported={() => ws.changed()} />
+        <ScanFolderLink onLinked={() => ws.changed()} />
       </div>
       <BenchEntry ref={bench} suggestions={suggestions} nextNumber={nextNumber} onSave={onSave} />
       <div className="filters" role="search" aria-label="Find specimens">
