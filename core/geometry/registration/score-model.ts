@@ -6,13 +6,25 @@
  * matcher's method version: a new method version needs a new fit. The held-out calibration is
  * printed by `npm run bench -- pairwise`.
  */
+/** What scoreJoin (score.ts) measures of a proposed motion; the model's inputs. */
 export interface ScoreComponents {
+  /** Share of break-face samples within `contactTolerance` of the other piece with opposed normals (the better-covered side). */
   contactFraction: number;
+  /** The same share on the less-covered side. */
   contactFractionOther: number;
+  /** Area in contact (mm^2), the smaller of the two sides' figures. */
   contactAreaMm2: number;
+  /** RMS distance (mm) between the faces where they face each other within 3 tolerances. */
   gapRmsMm: number;
+  /** Depth (mm) that the deepest 2% of one piece's surface samples reach inside the other. */
   penetrationMm: number;
+  /** Share of outline samples that meet the other face's outline within 2 tolerances (better side). */
   outlineAgreement: number;
+  /**
+   * How firmly the faces lock together, 0..1: sqrt of the smallest over the largest eigenvalue
+   * of the point-to-plane information matrix of the contact (rotations scaled by the contact's
+   * radius of gyration). Flat or cylindrical contacts that could slide or turn give about 0.
+   */
   interlock: number;
 }
 

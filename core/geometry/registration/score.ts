@@ -8,7 +8,7 @@
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from './rigid-transform';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { KdTree } from './nearest-neighbours';
-import { scoreProbability } from './score-model';
+import { scoreProbability, type ScoreComponents } from './score-model';
 import type { ClosestPoint, TargetSurface } from './target-surface';
 import { stridedSamples } from './strided-samples';
 
@@ -26,27 +26,10 @@ export interface ScoredSide {
   outline: Float32Array;
 }
 
-export interface JoinScore {
+/** The score and the measured components it is computed from (see ScoreComponents). */
+export interface JoinScore extends ScoreComponents {
   /** 0..1, reads as a probability that the join is real. */
   score: number;
-  /** Share of break-face samples within `contactTolerance` of the other piece with opposed normals (the better-covered side). */
-  contactFraction: number;
-  /** The same share on the less-covered side. */
-  contactFractionOther: number;
-  /** Area in contact (mm^2), the smaller of the two sides' figures. */
-  contactAreaMm2: number;
-  /** RMS distance (mm) between the faces where they face each other within 3 tolerances. */
-  gapRmsMm: number;
-  /** Depth (mm) that the deepest 2% of one piece's surface samples reach inside the other. */
-  penetrationMm: number;
-  /** Share of outline samples that meet the other face's outline within 2 tolerances (better side). */
-  outlineAgreement: number;
-  /**
-   * How firmly the faces lock together, 0..1: sqrt of the smallest over the largest eigenvalue
-   * of the point-to-plane information matrix of the contact (rotations scaled by the contact's
-   * radius of gyration). Flat or cylindrical contacts that could slide or turn give about 0.
-   */
-  interlock: number;
 }
 
 export interface ScoreOptions {
