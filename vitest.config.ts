@@ -23,6 +23,9 @@ export default defineConfig({
           testTimeout: 180_000,
           hookTimeout: 180_000,
           fileParallelism: false,
+          // Screens redraw after a host round trip and deferred rendering: on a loaded 2-core
+          // machine that can take more than expect.poll's default 1 s.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],
