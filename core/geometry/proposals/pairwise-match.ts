@@ -5,7 +5,7 @@
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
-import { mirrorFpfh, ransacAlignFaces } from '../registration/ransac-alignment';
+import { ransacAlignFaces } from '../registration/ransac-alignment';
 import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
@@ -95,7 +95,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
   const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
   if (shafts) {
-    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: mirrorFpfh(FB.fpfh), featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
+    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
@@ -109,8 +109,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!shafts || !refined.some((r) => r.overlap >= params.axisGoodOverlap)) {
     const hyps = ransacAlignFaces(
-      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree },
-      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree },
+      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
+      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, fpfhTree: FA.fpfhTree },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     );
     refined = refined.concat(refine(hyps.map((h) => h.transform)));
