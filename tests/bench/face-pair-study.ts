@@ -15,7 +15,7 @@ import { join } from 'node:path';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import { faceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
-import { DEFAULT_MATCH_PARAMETERS, refineFacePair, screenFacePair, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_MATCH_PARAMETERS, matchFragments, refineFacePair, screenFacePair, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
@@ -92,9 +92,10 @@ const cpuMs = (t: NodeJS.CpuUsage): number => {
 const mean = (xs: number[]): number => xs.reduce((a, b) => a + b, 0) / Math.max(1, xs.length);
 const q = (xs: number[], p: number): number => (xs.length ? [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))] : NaN);
 
-export interface PairRecord { truePair: boolean; screenMs: number; fineMs: number; screened: number; screenHit: number; fineHit: boolean; score: number; bestOverlap: number }
+export interface MotionRecord { overlap: number; fineMs: number; score: number; right: boolean }
+export interface PairRecord { a: number; b: number; truePair: boolean; trueFragments: boolean; screenMs: number; fineMs: number; screened: number; screenHit: number; fineHit: boolean; score: number; bestOverlap: number; motions: MotionRecord[] }
 
-export function study(dir: string, k: number, others: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): { records: PairRecord[]; faces: number; candidates: number; spacing: number } {
+export function study(dir: string, k: number, others: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): { records: PairRecord[]; fragmentPairs: FragmentPairRecord[]; faces: number; candidates: number; spacing: number } {
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: TruthFragment[]; joins: TruthJoin[] };
   const frags = truth.fragments.map((f) => studied(dir, f)).filter((x): x is StudiedFragment => !!x);
   const spacing = runSpacing(frags.flatMap((f) => f.input.faces.map((x) => x.area ?? 0)));
@@ -114,12 +115,15 @@ export function study(dir: string, k: number, others: number, params: MatchParam
     return idx.get(j.a) === a ? j.transformBToA : invert(j.transformBToA);
   };
   const rnd = mulberry32(5);
-  const share = Math.min(1, others / Math.max(1, candidates.length));
+  // whole fragment pairs are sampled (every face pair of a fragment pair studied together), plus every truly joined fragment pair
+  const fragPairs = new Set(candidates.map((c) => `${c.a}:${c.b}`));
+  const share = Math.min(1, (others / Math.max(1, candidates.length)) * 1);
+  const chosen = new Set([...fragPairs].filter((k) => joinOf.has(k) || joinOf.has(k.split(':').reverse().join(':')) || rnd() < share));
   const records: PairRecord[] = [];
   const near = (T: RigidTransform, want: RigidTransform, c: ArrayLike<number>): boolean => rotationErrorDegrees(T, want) < 5 && displacementAt(T, want, c) < 5;
   for (const c of candidates) {
     const want = trueMotion(c.a, c.faceA, c.b, c.faceB);
-    if (!want && rnd() > share) continue;
+    if (!chosen.has(`${c.a}:${c.b}`)) continue;
     const A = prepared[c.a], B = prepared[c.b];
     const t0 = process.cpuUsage();
     const screened = screenFacePair(A, c.faceA, B, c.faceB, params);
@@ -128,7 +132,18 @@ export function study(dir: string, k: number, others: number, params: MatchParam
     const fine = refineFacePair(A, c.faceA, B, c.faceB, screened, params);
     const fineMs = cpuMs(t1);
     const cen = B.faces[c.faceB].centroid;
+    const j = joinOf.get(`${c.a}:${c.b}`) ?? joinOf.get(`${c.b}:${c.a}`);
+    const wantFrag = j ? (idx.get(j.a) === c.a ? j.transformBToA : invert(j.transformBToA)) : null;
+    const motions = screened.map((m) => {
+      const t2 = process.cpuUsage();
+      const [f] = refineFacePair(A, c.faceA, B, c.faceB, [m], params);
+      return { overlap: m.overlap, fineMs: cpuMs(t2), score: f?.score ?? 0, right: !!wantFrag && !!f && near(f.transform, wantFrag, cen) };
+    });
     records.push({
+      a: c.a,
+      b: c.b,
+      trueFragments: !!j,
+      motions,
       truePair: !!want,
       screenMs,
       fineMs,
@@ -139,8 +154,25 @@ export function study(dir: string, k: number, others: number, params: MatchParam
       bestOverlap: screened[0]?.overlap ?? 0,
     });
   }
-  return { records, faces: faces.length, candidates: candidates.length, spacing };
+  // the fragment pairs as propose aligns them (screen every face pair, fine step on the shortlist), against every screened motion refined
+  const pairsOf = new Map<string, Array<[number, number]>>();
+  for (const c of candidates) if (chosen.has(`${c.a}:${c.b}`)) pairsOf.set(`${c.a}:${c.b}`, [...(pairsOf.get(`${c.a}:${c.b}`) ?? []), [c.faceA, c.faceB]]);
+  const fragmentPairs: FragmentPairRecord[] = [];
+  for (const [key, facePairs] of pairsOf) {
+    const [a, b] = key.split(':').map(Number);
+    const j = joinOf.get(`${a}:${b}`) ?? joinOf.get(`${b}:${a}`);
+    const want = j ? (idx.get(j.a) === a ? j.transformBToA : invert(j.transformBToA)) : null;
+    const t0 = process.cpuUsage();
+    const [best] = matchFragments(prepared[a], prepared[b], params, facePairs);
+    const ms = cpuMs(t0);
+    const all = records.filter((r) => r.a === a && r.b === b).flatMap((r) => r.motions).sort((p, q2) => q2.score - p.score)[0];
+    const allMs = records.filter((r) => r.a === a && r.b === b).reduce((s2, r) => s2 + r.screenMs + r.fineMs, 0);
+    fragmentPairs.push({ truePair: !!j, ms, allMs, score: best?.score ?? 0, right: !!want && !!best && near(best.transform, want, prepared[b].centroid), allScore: all?.score ?? 0, allRight: !!all?.right });
+  }
+  return { records, fragmentPairs, faces: faces.length, candidates: candidates.length, spacing };
 }
+
+export interface FragmentPairRecord { truePair: boolean; ms: number; allMs: number; score: number; right: boolean; allScore: number; allRight: boolean }
 
 export function summarise(r: ReturnType<typeof study>): string {
   const t = r.records.filter((x) => x.truePair), o = r.records.filter((x) => !x.truePair);
@@ -151,6 +183,10 @@ export function summarise(r: ReturnType<typeof study>): string {
     `mean ms: screen ${mean(r.records.map((x) => x.screenMs)).toFixed(1)}, fine ${mean(r.records.map((x) => x.fineMs)).toFixed(1)} (true ${mean(t.map((x) => x.screenMs)).toFixed(1)} + ${mean(t.map((x) => x.fineMs)).toFixed(1)}, other ${mean(o.map((x) => x.screenMs)).toFixed(1)} + ${mean(o.map((x) => x.fineMs)).toFixed(1)}); motions screened per pair ${mean(r.records.map((x) => x.screened)).toFixed(2)}`,
     `true pairs: screen keeps a motion near the truth ${t.filter((x) => x.screenHit >= 0).length}/${t.length} (first ${t.filter((x) => x.screenHit === 0).length}); fine best is right ${t.filter((x) => x.fineHit).length}/${t.length}`,
     `best overlap med: true ${q(t.map((x) => x.bestOverlap), 0.5).toFixed(2)} (p10 ${q(t.filter((x) => x.fineHit).map((x) => x.bestOverlap), 0.1).toFixed(2)} of right ones), other ${q(o.map((x) => x.bestOverlap), 0.5).toFixed(2)} (p90 ${q(o.map((x) => x.bestOverlap), 0.9).toFixed(2)})`,
+    (() => {
+      const f = r.fragmentPairs, t2 = f.filter((x) => x.truePair), o2 = f.filter((x) => !x.truePair);
+      return `fragment pairs ${f.length} (${t2.length} true): CPU ${(f.reduce((s2, x) => s2 + x.ms, 0) / 1000).toFixed(1)} s with the shortlist, ${(f.reduce((s2, x) => s2 + x.allMs, 0) / 1000).toFixed(1)} s refining every screened motion; true pairs right ${t2.filter((x) => x.right).length} vs ${t2.filter((x) => x.allRight).length}; false pairs above 0.5: ${o2.filter((x) => x.score > 0.5).length} vs ${o2.filter((x) => x.allScore > 0.5).length}`;
+    })(),
   ].join('\n');
 }
 

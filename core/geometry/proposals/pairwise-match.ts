@@ -14,6 +14,8 @@ import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
+import { LOCKED_INTERLOCK } from '../registration/score-model';
+import { screenInterlock } from './screen-measures';
 
 export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
 
@@ -32,6 +34,14 @@ export interface MatchParameters {
   minOverlap: number;
   /** Hypotheses refined against the whole surface and scored. */
   fineHypotheses: number;
+  /**
+   * Screened motions of one fragment pair (over all its face pairs) that go on to the fine step:
+   * at most this many, the best by overlap share, each at least fineMinOverlap and at least
+   * fineRatio times the pair's best overlap (measured with tests/bench/face-pair-study.ts).
+   */
+  finePerFragmentPair: number;
+  fineMinOverlap: number;
+  fineRatio: number;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -53,6 +63,9 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
   fineHypotheses: 2,
+  finePerFragmentPair: 3,
+  fineMinOverlap: 0.2,
+  fineRatio: 0.5,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
@@ -227,7 +240,10 @@ function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
   return Math.max(ra, rb) <= maxRatio * Math.min(ra, rb);
 }
 
-/** Every face pair (or the given ones) of A and B, merged, best first. */
+/**
+ * Every face pair (or the given ones) of A and B, merged, best first: every face pair is
+ * screened, and only the fragment pair's few best screened motions are refined and scored.
+ */
 export function matchFragments(
   a: PreparedFragment,
   b: PreparedFragment,
@@ -236,9 +252,27 @@ export function matchFragments(
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
+  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+  for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
   const all: FaceMatch[] = [];
-  for (const [i, j] of pairs) all.push(...matchFacePair(a, i, b, j, params));
+  for (const s of fineShortlist(a, b, screened, params)) all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params));
   return distinctBest(all, 2 * Math.max(a.spacing, b.spacing));
+}
+
+/**
+ * The screened motions of one fragment pair that deserve the fine step (see
+ * MatchParameters.finePerFragmentPair), best first by overlap share times how firmly the
+ * contact locks (screen-measures.ts: faces that could slide or turn, such as the flat ends
+ * of a tube, overlap fully in many wrong positions).
+ */
+export function fineShortlist<T extends { i: number; j: number; motion: CoarseMotion }>(a: PreparedFragment, b: PreparedFragment, screened: T[], params: MatchParameters): T[] {
+  const spacing = Math.max(a.spacing, b.spacing);
+  const ranked = screened
+    .filter((s) => s.motion.overlap >= params.fineMinOverlap)
+    .map((s) => ({ s, rank: s.motion.overlap * Math.min(1, screenInterlock(a.faces[s.i], b.faces[s.j], s.motion.transform, spacing) / LOCKED_INTERLOCK) }))
+    .sort((p, q) => q.rank - p.rank);
+  const best = ranked[0]?.rank ?? 0;
+  return ranked.filter((r) => r.rank >= params.fineRatio * best).slice(0, params.finePerFragmentPair).map((r) => r.s);
 }
 
 /** Sort by score and drop motions that repeat a better one (within 3 degrees and `shift` mm). */
