@@ -71,8 +71,24 @@ function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
   return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
 }
 
-/** Refined, scored motions carrying B's face fb onto A's face fa, best first. */
+/** A coarse motion of B's face onto A's face, with the share of the smaller face it puts in contact. */
+export interface CoarseMotion {
+  transform: RigidTransform;
+  overlap: number;
+}
+
+/** Refined, scored motions carrying B's face fb onto A's face fa, best first: the screen, then the fine step. */
 export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
+  return refineFacePair(a, fa, b, fb, screenFacePair(a, fa, b, fb, params), params);
+}
+
+/**
+ * Screening stage of one face pair: coarse motions (about the shared shaft axis, else from FPFH
+ * and RANSAC), each polished by a few rounds of ICP against A's face samples, ranked by the
+ * share of the smaller face they put in contact; the few distinct best go on to the fine step.
+ * Touches only the two faces' samples and k-d trees.
+ */
+export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): CoarseMotion[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const starts: RigidTransform[] = [];
@@ -84,7 +100,7 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
-  const refine = (list: RigidTransform[]): Array<{ transform: RigidTransform; overlap: number }> =>
+  const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
       const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
       return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
@@ -101,16 +117,28 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
   }
   // 3. early rejection, then the few best on to the fine step against the whole surface
   refined.sort((p, q) => q.overlap - p.overlap);
-  const kept: typeof refined = [];
+  const kept: CoarseMotion[] = [];
   for (const r of refined) {
     if (r.overlap < params.minOverlap || (kept.length && r.overlap < 0.7 * kept[0].overlap)) break;
     if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
   }
+  return kept;
+}
+
+/**
+ * Fine stage of one face pair: each screened motion refined by trimmed point-to-plane ICP
+ * (first against A's face samples, the last rounds against A's triangles in the BVH) and
+ * scored against both whole surfaces; distinct motions, best first.
+ */
+export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, screened: CoarseMotion[], params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const tol = params.contactToleranceSpacings * spacing;
   const out: FaceMatch[] = [];
-  for (const r of kept) {
+  for (const r of screened) {
     // fine rounds against A's triangles, on B's samples that the coarse motion put near A's face
     // (first against A's face samples, cheap k-d queries; the last few rounds against the BVH)
     const fine = nearFace(FB.points, FB.normals, r.transform, FA.tree, 2 * spacing, params.fineSamples);
