@@ -5,7 +5,7 @@
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
-import { mirrorFpfh, ransacAlignFaces } from '../registration/ransac-alignment';
+import { ransacAlignFaces } from '../registration/ransac-alignment';
 import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
@@ -14,6 +14,8 @@ import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
+import { LOCKED_INTERLOCK } from '../registration/score-model';
+import { screenInterlock } from './screen-measures';
 
 export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
 
@@ -32,6 +34,14 @@ export interface MatchParameters {
   minOverlap: number;
   /** Hypotheses refined against the whole surface and scored. */
   fineHypotheses: number;
+  /**
+   * Screened motions of one fragment pair (over all its face pairs) that go on to the fine step:
+   * at most this many, the best by overlap share, each at least fineMinOverlap and at least
+   * fineRatio times the pair's best overlap (measured with tests/bench/face-pair-study.ts).
+   */
+  finePerFragmentPair: number;
+  fineMinOverlap: number;
+  fineRatio: number;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -53,6 +63,9 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
   fineHypotheses: 2,
+  finePerFragmentPair: 3,
+  fineMinOverlap: 0.2,
+  fineRatio: 0.5,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
@@ -71,20 +84,36 @@ function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
   return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
 }
 
-/** Refined, scored motions carrying B's face fb onto A's face fa, best first. */
+/** A coarse motion of B's face onto A's face, with the share of the smaller face it puts in contact. */
+export interface CoarseMotion {
+  transform: RigidTransform;
+  overlap: number;
+}
+
+/** Refined, scored motions carrying B's face fb onto A's face fa, best first: the screen, then the fine step. */
 export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
+  return refineFacePair(a, fa, b, fb, screenFacePair(a, fa, b, fb, params), params);
+}
+
+/**
+ * Screening stage of one face pair: coarse motions (about the shared shaft axis, else from FPFH
+ * and RANSAC), each polished by a few rounds of ICP against A's face samples, ranked by the
+ * share of the smaller face they put in contact; the few distinct best go on to the fine step.
+ * Touches only the two faces' samples and k-d trees.
+ */
+export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): CoarseMotion[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const starts: RigidTransform[] = [];
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
   const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
   if (shafts) {
-    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: mirrorFpfh(FB.fpfh), featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
+    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
-  const refine = (list: RigidTransform[]): Array<{ transform: RigidTransform; overlap: number }> =>
+  const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
       const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
       return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
@@ -93,24 +122,36 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!shafts || !refined.some((r) => r.overlap >= params.axisGoodOverlap)) {
     const hyps = ransacAlignFaces(
-      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree },
-      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree },
+      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
+      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, fpfhTree: FA.fpfhTree },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     );
     refined = refined.concat(refine(hyps.map((h) => h.transform)));
   }
   // 3. early rejection, then the few best on to the fine step against the whole surface
   refined.sort((p, q) => q.overlap - p.overlap);
-  const kept: typeof refined = [];
+  const kept: CoarseMotion[] = [];
   for (const r of refined) {
     if (r.overlap < params.minOverlap || (kept.length && r.overlap < 0.7 * kept[0].overlap)) break;
     if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
   }
+  return kept;
+}
+
+/**
+ * Fine stage of one face pair: each screened motion refined by trimmed point-to-plane ICP
+ * (first against A's face samples, the last rounds against A's triangles in the BVH) and
+ * scored against both whole surfaces; distinct motions, best first.
+ */
+export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, screened: CoarseMotion[], params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const tol = params.contactToleranceSpacings * spacing;
   const out: FaceMatch[] = [];
-  for (const r of kept) {
+  for (const r of screened) {
     // fine rounds against A's triangles, on B's samples that the coarse motion put near A's face
     // (first against A's face samples, cheap k-d queries; the last few rounds against the BVH)
     const fine = nearFace(FB.points, FB.normals, r.transform, FA.tree, 2 * spacing, params.fineSamples);
@@ -199,7 +240,10 @@ function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
   return Math.max(ra, rb) <= maxRatio * Math.min(ra, rb);
 }
 
-/** Every face pair (or the given ones) of A and B, merged, best first. */
+/**
+ * Every face pair (or the given ones) of A and B, merged, best first: every face pair is
+ * screened, and only the fragment pair's few best screened motions are refined and scored.
+ */
 export function matchFragments(
   a: PreparedFragment,
   b: PreparedFragment,
@@ -208,9 +252,27 @@ export function matchFragments(
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
+  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+  for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
   const all: FaceMatch[] = [];
-  for (const [i, j] of pairs) all.push(...matchFacePair(a, i, b, j, params));
+  for (const s of fineShortlist(a, b, screened, params)) all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params));
   return distinctBest(all, 2 * Math.max(a.spacing, b.spacing));
+}
+
+/**
+ * The screened motions of one fragment pair that deserve the fine step (see
+ * MatchParameters.finePerFragmentPair), best first by overlap share times how firmly the
+ * contact locks (screen-measures.ts: faces that could slide or turn, such as the flat ends
+ * of a tube, overlap fully in many wrong positions).
+ */
+export function fineShortlist<T extends { i: number; j: number; motion: CoarseMotion }>(a: PreparedFragment, b: PreparedFragment, screened: T[], params: MatchParameters): T[] {
+  const spacing = Math.max(a.spacing, b.spacing);
+  const ranked = screened
+    .filter((s) => s.motion.overlap >= params.fineMinOverlap)
+    .map((s) => ({ s, rank: s.motion.overlap * Math.min(1, screenInterlock(a.faces[s.i], b.faces[s.j], s.motion.transform, spacing) / LOCKED_INTERLOCK) }))
+    .sort((p, q) => q.rank - p.rank);
+  const best = ranked[0]?.rank ?? 0;
+  return ranked.filter((r) => r.rank >= params.fineRatio * best).slice(0, params.finePerFragmentPair).map((r) => r.s);
 }
 
 /** Sort by score and drop motions that repeat a better one (within 3 degrees and `shift` mm). */
