@@ -67,6 +67,16 @@ export interface FaceMatch extends JoinScore {
   faceB: number;
 }
 
+/**
+ * What one face pair went through, for the benchmark's breakdown of missed joins: every coarse
+ * hypothesis, each after the short ICP with its overlap share, and those sent on to the fine step.
+ */
+export interface MatchTrace {
+  coarse: RigidTransform[];
+  refined: Array<{ transform: RigidTransform; overlap: number }>;
+  kept: RigidTransform[];
+}
+
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
   return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
 }
@@ -78,8 +88,8 @@ export interface CoarseMotion {
 }
 
 /** Refined, scored motions carrying B's face fb onto A's face fa, best first: the screen, then the fine step. */
-export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
-  return refineFacePair(a, fa, b, fb, screenFacePair(a, fa, b, fb, params), params);
+export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS, trace?: MatchTrace): FaceMatch[] {
+  return refineFacePair(a, fa, b, fb, screenFacePair(a, fa, b, fb, params, trace), params);
 }
 
 /**
@@ -88,7 +98,7 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
  * share of the smaller face they put in contact; the few distinct best go on to the fine step.
  * Touches only the two faces' samples and k-d trees.
  */
-export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): CoarseMotion[] {
+export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS, trace?: MatchTrace): CoarseMotion[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const starts: RigidTransform[] = [];
@@ -102,6 +112,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
   const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
+      trace?.coarse.push(h);
       const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
       return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
     });
@@ -123,6 +134,10 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
+  }
+  if (trace) {
+    trace.refined.push(...refined);
+    trace.kept.push(...kept.map((k) => k.transform));
   }
   return kept;
 }
@@ -159,6 +174,12 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     out.push({ ...s, transform: icp.transform, faceA: FA.parent, faceB: FB.parent });
   }
   return distinctBest(out, 2 * spacing);
+}
+
+/** Share of the smaller of two faces in contact under a motion (see overlapShare). */
+export function faceOverlapUnder(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, T: RigidTransform, samples = 300): number {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  return overlapShare(T, stridedSamples(FB.points, FB.normals, samples), FA.tree, FA.normals, stridedSamples(FA.points, FA.normals, samples), FB.tree, FB.normals, Math.max(a.spacing, b.spacing));
 }
 
 /**
