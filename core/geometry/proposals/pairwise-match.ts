@@ -10,6 +10,7 @@ import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
+import { searchAlongAxisDirections } from '../registration/axis-direction-search';
 import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
@@ -24,6 +25,10 @@ export interface MatchParameters {
   axisPeaks: number;
   /** Weight each vote of the shared-axis search by how alike the two samples' FPFH are. */
   axisFeatureWeights: boolean;
+  /** Hypotheses of the search along the two axis directions (0: not run); see axis-direction-search.ts. */
+  directionPeaks: number;
+  /** Tilts between the two axis directions tried about each of two directions (degrees). */
+  directionTiltsDeg: number[];
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
@@ -49,6 +54,8 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   hypothesesPerPair: 4,
   axisPeaks: 2,
   axisFeatureWeights: false,
+  directionPeaks: 3,
+  directionTiltsDeg: [-6, 0, 6],
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
@@ -117,8 +124,14 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
       return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
     });
   let refined = refine(starts);
+  // shaft pieces whose fitted axis points or radii disagree (partial arcs): the axis directions only
+  const good = (): boolean => refined.some((r) => r.overlap >= params.axisGoodOverlap);
+  if (a.axis && b.axis && params.directionPeaks > 0 && !good()) {
+    const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
+    refined = refined.concat(refine(hyps.map((h) => h.transform)));
+  }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
-  if (!shafts || !refined.some((r) => r.overlap >= params.axisGoodOverlap)) {
+  if (!good()) {
     const hyps = ransacAlignFaces(
       { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree },
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree },
@@ -176,10 +189,16 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   return distinctBest(out, 2 * spacing);
 }
 
-/** Share of the smaller of two faces in contact under a motion (see overlapShare). */
-export function faceOverlapUnder(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, T: RigidTransform, samples = 300): number {
+/**
+ * Contact of two faces under a motion, with every sample (for the benchmark): the better side's
+ * share of its samples in contact (as overlapShare) and the contact area that side's count stands for.
+ */
+export function faceOverlapUnder(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, T: RigidTransform): { share: number; areaMm2: number } {
   const FA = a.faces[fa], FB = b.faces[fb];
-  return overlapShare(T, stridedSamples(FB.points, FB.normals, samples), FA.tree, FA.normals, stridedSamples(FA.points, FA.normals, samples), FB.tree, FB.normals, Math.max(a.spacing, b.spacing));
+  const spacing = Math.max(a.spacing, b.spacing);
+  const kb = contactCount(FB.points, FB.normals, T, FA.tree, FA.normals, spacing);
+  const ka = contactCount(FA.points, FA.normals, invert(T), FB.tree, FB.normals, spacing);
+  return { share: Math.max(kb / Math.max(1, FB.points.length / 3), ka / Math.max(1, FA.points.length / 3)), areaMm2: Math.max(ka, kb) * spacing * spacing };
 }
 
 /**
@@ -197,26 +216,29 @@ function overlapShare(
   normalsB: Float32Array,
   spacing: number,
 ): number {
-  const count = (pts: Float32Array, nrm: Float32Array, M: RigidTransform, tree: KdTree, N: Float32Array): number => {
-    const q = [0, 0, 0];
-    let k = 0;
-    const n = pts.length / 3;
-    for (let i = 0; i < n; i++) {
-      const x = pts[3 * i], y = pts[3 * i + 1], z = pts[3 * i + 2];
-      q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
-      q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
-      q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
-      const hit = tree.nearestOne(q, spacing * spacing);
-      if (hit.index < 0) continue;
-      const j = hit.index;
-      const nx = M[0] * nrm[3 * i] + M[1] * nrm[3 * i + 1] + M[2] * nrm[3 * i + 2];
-      const ny = M[4] * nrm[3 * i] + M[5] * nrm[3 * i + 1] + M[6] * nrm[3 * i + 2];
-      const nz = M[8] * nrm[3 * i] + M[9] * nrm[3 * i + 1] + M[10] * nrm[3 * i + 2];
-      if (nx * N[3 * j] + ny * N[3 * j + 1] + nz * N[3 * j + 2] < -0.5) k++;
-    }
-    return k / Math.max(1, n);
-  };
-  return Math.max(count(b.points, b.normals, T, treeA, normalsA), count(a.points, a.normals, invert(T), treeB, normalsB));
+  const nb = b.points.length / 3, na = a.points.length / 3;
+  return Math.max(contactCount(b.points, b.normals, T, treeA, normalsA, spacing) / Math.max(1, nb), contactCount(a.points, a.normals, invert(T), treeB, normalsB, spacing) / Math.max(1, na));
+}
+
+/** Samples that `M` puts within `spacing` of a sample of the other face with opposed normals. */
+function contactCount(pts: Float32Array, nrm: Float32Array, M: RigidTransform, tree: KdTree, N: Float32Array, spacing: number): number {
+  const q = [0, 0, 0];
+  let k = 0;
+  const n = pts.length / 3;
+  for (let i = 0; i < n; i++) {
+    const x = pts[3 * i], y = pts[3 * i + 1], z = pts[3 * i + 2];
+    q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
+    q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
+    q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
+    const hit = tree.nearestOne(q, spacing * spacing);
+    if (hit.index < 0) continue;
+    const j = hit.index;
+    const nx = M[0] * nrm[3 * i] + M[1] * nrm[3 * i + 1] + M[2] * nrm[3 * i + 2];
+    const ny = M[4] * nrm[3 * i] + M[5] * nrm[3 * i + 1] + M[6] * nrm[3 * i + 2];
+    const nz = M[8] * nrm[3 * i] + M[9] * nrm[3 * i + 1] + M[10] * nrm[3 * i + 2];
+    if (nx * N[3 * j] + ny * N[3 * j + 1] + nz * N[3 * j + 2] < -0.5) k++;
+  }
+  return k;
 }
 
 /** B's samples that `T` puts within `within` of A's face, at most `max` of them (evenly strided). */
