@@ -101,7 +101,7 @@ export function analyseFragment(
   }
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
-  const axis = fitShaftAxis(centroids, filtered, areas);
+  const axis = fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance);
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
   let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);

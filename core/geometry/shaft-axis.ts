@@ -1,12 +1,16 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+import { mulberry32 } from './seeded-random';
 
 /**
  * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
  * bone surface every normal is nearly perpendicular to the axis, so the axis is the
  * eigenvector of the smallest eigenvalue of sum(w n n^T). Fracture faces, whose normals lean
  * along the axis, are down-weighted by refitting on the triangles already perpendicular to
- * the first estimate. The axis point is the least-squares meeting point of the normal lines
- * projected onto the plane across the axis.
+ * the first estimate. The axis point is where the normal lines, projected onto the plane
+ * across the axis, meet: started from the candidate (meeting point of two lines) that most
+ * lines pass close to, then refined by reweighted least squares. On a splinter the break faces
+ * along the shaft can outweigh the bone surface; a plain least-squares fit of all lines then
+ * lands inside the wall, and outer and medullary surface no longer face out and in.
  */
 export interface ShaftAxis {
   direction: [number, number, number];
@@ -17,7 +21,12 @@ export interface ShaftAxis {
   support: number;
 }
 
-export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, areas: Float64Array): ShaftAxis {
+/**
+ * `centreTolerance`: a normal line passes close enough to a candidate axis centre when it
+ * misses it by at most this share of its distance (settings.ts, shaftCentreTolerance).
+ * Without it the centre is the plain reweighted least-squares fit (no consensus start).
+ */
+export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, areas: Float64Array, centreTolerance?: number): ShaftAxis {
   const nt = areas.length;
   let dir = smallestEigen(normals, areas, () => true);
   for (let pass = 0; pass < 3; pass++) {
@@ -37,7 +46,16 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
   // Medians are taken over a regular sample of at most about 4000 triangles.
   const stride = Math.max(1, Math.floor(nt / 4000));
   let scale = Infinity;
-  for (let pass = 0; pass < 6; pass++) {
+  // Start from the best-supported meeting point of pairs of normal lines (consensus, as in
+  // RANSAC, Fischler & Bolles 1981): on a splinter the break faces along the shaft can
+  // outweigh the bone surface, and a plain least-squares start lands between the walls.
+  const start = centreTolerance ? consensusCentre(centroids, normals, areas, dir, [ux, uy, uz], [vx, vy, vz], centreTolerance) : undefined;
+  let first = 0;
+  if (start) {
+    [cu, cv, scale] = start;
+    first = 1;
+  }
+  for (let pass = first; pass < 6; pass++) {
     let s11 = 0, s12 = 0, s22 = 0, b1 = 0, b2 = 0;
     total = 0; supported = 0;
     for (let f = 0; f < nt; f++) {
@@ -53,7 +71,15 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
       const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz;
       const r = qu * pu + qv * pv;
       const miss = Math.abs(cu * pu + cv * pv - r);
-      const w = areas[f] / (1 + (pass === 0 ? 0 : (miss / scale) ** 2));
+      let w: number;
+      if (start) {
+        // From a consensus start: Tukey's biweight of the miss against centreTolerance times
+        // the distance, the same test the consensus used, so the break faces cannot pull it off.
+        const x = miss / (centreTolerance! * Math.hypot(qu - cu, qv - cv) + 1e-9);
+        w = x < 1 ? areas[f] * (1 - x * x) ** 2 : 0;
+      } else {
+        w = areas[f] / (1 + (pass === 0 ? 0 : (miss / scale) ** 2));
+      }
       s11 += w * pu * pu; s12 += w * pu * pv; s22 += w * pv * pv;
       b1 += w * pu * r; b2 += w * pv * r;
     }
@@ -93,6 +119,61 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
     if (acc >= half) { radius = d; break; }
   }
   return { direction: dir, point, radius, support: total ? supported / total : 0 };
+}
+
+/**
+ * Candidate centres (u, v across the axis) where the normal lines of two random wall
+ * triangles meet; each is scored by the area of triangles whose normal line passes within
+ * `tolerance` times their distance of it (biweight) (at most twice the fragment's width away); the best is
+ * returned with a fifth of its median distance (the reweighting scale). Undefined if no
+ * candidate has support.
+ */
+function consensusCentre(
+  centroids: Float32Array, normals: Float32Array, areas: Float64Array,
+  a: [number, number, number], u: [number, number, number], v: [number, number, number], tolerance: number,
+): [number, number, number] | undefined {
+  const nt = areas.length;
+  const stride = Math.max(1, Math.floor(nt / 1500));
+  const qu: number[] = [], qv: number[] = [], pu: number[] = [], pv: number[] = [], w: number[] = [];
+  let uMin = Infinity, uMax = -Infinity, vMin = Infinity, vMax = -Infinity;
+  for (let f = 0; f < nt; f += stride) {
+    const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+    const x = centroids[3 * f] * u[0] + centroids[3 * f + 1] * u[1] + centroids[3 * f + 2] * u[2];
+    const y = centroids[3 * f] * v[0] + centroids[3 * f + 1] * v[1] + centroids[3 * f + 2] * v[2];
+    uMin = Math.min(uMin, x); uMax = Math.max(uMax, x); vMin = Math.min(vMin, y); vMax = Math.max(vMax, y);
+    if (Math.abs(nx * a[0] + ny * a[1] + nz * a[2]) > 0.342) continue;
+    const mu = nx * u[0] + ny * u[1] + nz * u[2], mv = nx * v[0] + ny * v[1] + nz * v[2];
+    const ml = Math.hypot(mu, mv) || 1;
+    qu.push(x); qv.push(y); pu.push(mu / ml); pv.push(mv / ml); w.push(areas[f]);
+  }
+  const n = w.length;
+  if (n < 10) return undefined;
+  const reach = 2 * Math.max(uMax - uMin, vMax - vMin);
+  const random = mulberry32(0x5eed);
+  let best = -1, bu = 0, bv = 0;
+  for (let trial = 0; trial < 200; trial++) {
+    const i = Math.floor(random() * n), j = Math.floor(random() * n);
+    // Meeting point of the lines q_i + s p_i and q_j + t p_j.
+    const det = pu[i] * -pv[j] + pv[i] * pu[j];
+    if (Math.abs(det) < 0.17) continue; // nearly parallel (under ~10 degrees)
+    const du = qu[j] - qu[i], dv = qv[j] - qv[i];
+    const s = (du * -pv[j] + dv * pu[j]) / det;
+    const cu = qu[i] + s * pu[i], cv = qv[i] + s * pv[i];
+    let score = 0;
+    for (let k = 0; k < n; k++) {
+      const ru = cu - qu[k], rv = cv - qv[k];
+      const d = Math.hypot(ru, rv);
+      if (d > reach || d < 1e-6) continue;
+      const miss = Math.abs(ru * pv[k] - rv * pu[k]);
+      const x = miss / (tolerance * d);
+      if (x < 1) score += w[k] * (1 - x * x);
+    }
+    if (score > best) { best = score; bu = cu; bv = cv; }
+  }
+  if (best <= 0) return undefined;
+  const d: Array<[number, number]> = [];
+  for (let k = 0; k < n; k++) d.push([Math.hypot(bu - qu[k], bv - qv[k]), w[k]]);
+  return [bu, bv, Math.max(1e-6, weightedMedian(d) / 5)];
 }
 
 function smallestEigen(normals: Float32Array, areas: Float64Array, use: (f: number) => boolean): [number, number, number] {

@@ -46,12 +46,23 @@ export interface SampleScores {
   ms: number;
   perFragment: Array<{ no: string; tris: number; agree: number; faces: number; ms: number }>;
   confusion: Record<string, number>;
+  /**
+   * Face purity: the area share of a face lying on its dominant true break (anything else,
+   * another break or original surface, counts against it). Area-weighted mean over all faces,
+   * and the share of faces (by count) whose purity is under 0.7.
+   */
+  purity: number;
+  impureFaceShare: number;
+  /** Agreement if every region took its majority true label: the ceiling of a per-region classifier. */
+  regionCeiling: number;
 }
 
 export function scoreSample(dir: string, settings = {}): SampleScores {
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
   const breaks = new Map<string, Map<number, TruthBreak>>();
   for (const b of truth.bones) breaks.set(b.boneId, new Map(b.breaks.map((x) => [x.id, x])));
+  let ceilingArea = 0;
+  let purityArea = 0, faceArea = 0, impure = 0;
   let agreeArea = 0, totalArea = 0, agreeND = 0, totalND = 0, faces = 0, scored = 0, angleOk = 0, ms = 0, tris = 0;
   const outlineCounts: Record<string, number> = {};
   const confusion: Record<string, number> = {};
@@ -79,15 +90,36 @@ export function scoreSample(dir: string, settings = {}): SampleScores {
       const key = `truth ${labels[f] >= 10 ? 'fracture' : labels[f] === 2 ? 'damage' : labels[f] === 1 ? 'medullary' : 'outer/articular'} -> ${predicted[f] ? 'fracture' : 'original'}`;
       confusion[key] = (confusion[key] ?? 0) + areas[f];
     }
+    {
+      const nr = a.regions.length;
+      const fr = new Float64Array(nr), tot = new Float64Array(nr);
+      for (let f = 0; f < a.regionOfTriangle.length; f++) {
+        const src = a.sourceTriangle[f];
+        tot[a.regionOfTriangle[f]] += areas[src];
+        if (labels[src] >= 2) fr[a.regionOfTriangle[f]] += areas[src];
+      }
+      for (let r = 0; r < nr; r++) ceilingArea += Math.max(fr[r], tot[r] - fr[r]);
+    }
     for (const face of a.fractureFaces) {
       faces++;
       outlineCounts[face.outlineClass] = (outlineCounts[face.outlineClass] ?? 0) + 1;
       // The break this face belongs to: the truth label covering most of its area.
       const byBreak = new Map<number, number>();
+      const areaByBreak = new Map<number, number>();
+      let thisArea = 0;
       for (const t of face.triangleIds) {
-        const l = labels[a.sourceTriangle[t]];
-        if (l >= 10) byBreak.set(l - 10, (byBreak.get(l - 10) ?? 0) + 1);
+        const src = a.sourceTriangle[t];
+        const l = labels[src];
+        thisArea += areas[src];
+        if (l >= 10) {
+          byBreak.set(l - 10, (byBreak.get(l - 10) ?? 0) + 1);
+          areaByBreak.set(l - 10, (areaByBreak.get(l - 10) ?? 0) + areas[src]);
+        }
       }
+      const dominant = Math.max(0, ...areaByBreak.values());
+      faceArea += thisArea;
+      purityArea += dominant;
+      if (dominant < 0.7 * thisArea) impure++;
       if (byBreak.size === 0) continue;
       const breakId = [...byBreak.entries()].sort((x, y) => y[1] - x[1])[0][0];
       const br = breaks.get(frag.boneId)?.get(breakId);
@@ -113,6 +145,9 @@ export function scoreSample(dir: string, settings = {}): SampleScores {
     ms,
     perFragment,
     confusion,
+    purity: faceArea > 0 ? purityArea / faceArea : NaN,
+    impureFaceShare: faces ? impure / faces : NaN,
+    regionCeiling: ceilingArea / totalArea,
   };
 }
 
@@ -140,10 +175,13 @@ function summaryRow(name: string, s: SampleScores): Record<string, string | numb
     fragments: s.fragments,
     triangles: s.triangles,
     'agreement (area)': pct(s.areaAgreement),
+    'region ceiling': pct(s.regionCeiling),
     'original -> fracture': pct((c['truth outer/articular -> fracture'] ?? 0) + (c['truth medullary -> fracture'] ?? 0)),
     'of which medullary': pct(c['truth medullary -> fracture'] ?? 0),
     'fracture -> original': pct((c['truth fracture -> original'] ?? 0) + (c['truth damage -> original'] ?? 0)),
     faces: s.faces,
+    'face purity (area)': pct(s.purity),
+    'faces purity < 0.7': pct(s.impureFaceShare),
     'angle class agreement': pct(s.angleAgreement),
     'oblique ok': byExp('oblique'),
     'right ok': byExp('right'),
@@ -176,6 +214,8 @@ export default async function main(): Promise<void> {
         'per-triangle agreement, area-weighted (damage scars count as fracture)': pct(s.areaAgreement),
         'per-triangle agreement, area-weighted, damage scars left out': pct(s.areaAgreementWithoutDamage),
         'fracture faces found': s.faces,
+        'face purity: area share on the dominant true break, area-weighted': pct(s.purity),
+        'faces with purity under 0.7': pct(s.impureFaceShare),
         'faces lying on a true break': s.facesScored,
         'angle class agreement (Villa & Mahieu) of those faces': pct(s.angleAgreement),
         'outline classes found': JSON.stringify(s.outlineCounts),
