@@ -18,7 +18,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/3';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -29,6 +29,11 @@ export interface MatchParameters {
   axisFeatureWeights: boolean;
   /** Hypotheses of the search along the two axis directions (0: not run); see axis-direction-search.ts. */
   directionPeaks: number;
+  /**
+   * Skip RANSAC when a hypothesis of the axis-direction search puts this share of the smaller face
+   * in contact (above 1: never; a wrong turn on a broad, flattish break can overlap as much as the truth).
+   */
+  directionGoodOverlap: number;
   /** Tilts between the two axis directions tried about each of two directions (degrees). */
   directionTiltsDeg: number[];
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
@@ -65,6 +70,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisPeaks: 2,
   axisFeatureWeights: false,
   directionPeaks: 3,
+  directionGoodOverlap: 2,
   directionTiltsDeg: [-6, 0, 6],
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
@@ -138,13 +144,17 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     });
   let refined = refine(starts);
   // shaft pieces whose fitted axis points or radii disagree (partial arcs): the axis directions only
-  const good = (): boolean => refined.some((r) => r.overlap >= params.axisGoodOverlap);
-  if (a.axis && b.axis && params.directionPeaks > 0 && !good()) {
+  const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
+  let settled = shafts && good(refined, params.axisGoodOverlap);
+  if (a.axis && b.axis && params.directionPeaks > 0 && !settled) {
     const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
-    refined = refined.concat(refine(hyps.map((h) => h.transform)));
+    const more = refine(hyps.map((h) => h.transform));
+    refined = refined.concat(more);
+    // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
+    settled = params.directionGoodOverlap <= 1 && good(more, params.directionGoodOverlap);
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
-  if (!good()) {
+  if (!settled) {
     const hyps = ransacAlignFaces(
       { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, fpfhTree: FA.fpfhTree },
