@@ -54,12 +54,14 @@ interface FaceContext {
   axis: ShaftAxis;
   samples: SurfaceSamples;
   settings: AnalysisSettings;
+  /** Face group per triangle (face-split.ts): fracture triangles of different groups are different faces. */
+  faceGroup?: Int32Array;
 }
 
 const FRACTURE = 0;
 const OUTER = SURFACE_CLASSES.indexOf('outer-cortical');
 
-/** Fracture faces are the connected sets of fracture triangles; measure each one. */
+/** Fracture faces are the connected sets of fracture triangles of one face group (face-split.ts); measure each one. */
 export function fractureFaces(ctx: FaceContext): FractureFace[] {
   const nt = ctx.areas.length;
   const face = new Int32Array(nt).fill(-1);
@@ -73,7 +75,7 @@ export function fractureFaces(ctx: FaceContext): FractureFace[] {
       const f = list[k];
       for (let j = 0; j < 3; j++) {
         const g = ctx.neighbours[3 * f + j];
-        if (g >= 0 && face[g] < 0 && ctx.triClass[g] === FRACTURE) { face[g] = id; list.push(g); }
+        if (g >= 0 && face[g] < 0 && ctx.triClass[g] === FRACTURE && (!ctx.faceGroup || ctx.faceGroup[g] === ctx.faceGroup[f])) { face[g] = id; list.push(g); }
       }
     }
     lists.push(list);
