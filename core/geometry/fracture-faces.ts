@@ -113,7 +113,9 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
       const pts: number[] = [];
       const across: number[] = [];
       let h = startList.pop()!;
-      let sinceSample = step; // sample at the first edge
+      // Samples at least `step` apart in space (not along the boundary path, which zigzags over
+      // the triangles by more or less depending on how the outline crosses them).
+      let lastX = NaN, lastY = NaN, lastZ = NaN;
       let chordStart = -1;
       for (let guard = 0; guard < 4 * tris.length + 8; guard++) {
         const f = Math.floor(h / 3), j = h % 3;
@@ -139,10 +141,12 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
         } else {
           chordStart = -1;
         }
-        sinceSample += len;
-        if (g >= 0 && cls !== FRACTURE && sinceSample >= step) {
-          const angle = edgeAngle(ctx, f, g, id, (p[3 * a] + p[3 * b]) / 2, (p[3 * a + 1] + p[3 * b + 1]) / 2, (p[3 * a + 2] + p[3 * b + 2]) / 2);
-          if (angle !== undefined && (cls === OUTER || !hasOuter(ctx))) { angleSamples.push(angle); sinceSample = 0; }
+        if (g >= 0 && cls !== FRACTURE && (cls === OUTER || !hasOuter(ctx))) {
+          const mx = (p[3 * a] + p[3 * b]) / 2, my = (p[3 * a + 1] + p[3 * b + 1]) / 2, mz = (p[3 * a + 2] + p[3 * b + 2]) / 2;
+          if (!(Math.hypot(mx - lastX, my - lastY, mz - lastZ) < step)) {
+            const angle = edgeAngle(ctx, f, g, mx, my, mz);
+            if (angle !== undefined) { angleSamples.push(angle); lastX = mx; lastY = my; lastZ = mz; }
+          }
         }
         const cont = nextOf.get(b);
         if (!cont || cont.length === 0) break;
@@ -221,30 +225,30 @@ function hasOuter(ctx: FaceContext): boolean {
 
 /**
  * Interior angle (degrees) at a break edge between the fracture face and the bone surface
- * across it: fit a plane to each side within anglePlaneRadiusMm of the edge midpoint (the
- * area-weighted mean normal of the side's triangles), then angle = 180 - angle between the
- * two outward normals. 90 is a right-angled break; below or above is oblique.
+ * across it, from the normals of the two sides at the edge point m: 180 - the angle between
+ * the two outward normals (their cross product is the edge direction, so this is the dihedral
+ * angle in the plane across the edge). 90 is a right-angled break; below or above is oblique.
+ * Each side uses its triangles within anglePlaneRadiusMm of m, leaving out those closer than
+ * anglePlaneSkipMm to the edge line (the worn crease and the rim along it).
+ * - Fracture side: the area-weighted mean normal (a plane fit): the face is a narrow, rough
+ *   band, nominally flat across it at this scale.
+ * - Bone surface side: the normal field fitted as linear in position over the side's tangent
+ *   plane and evaluated at m (sideNormalAtEdge). A mean normal would be the normal some
+ *   2 mm away from the edge: on a shaft of radius R that leans by about 2/R radians (7 to 8
+ *   degrees on a 12 mm shaft wherever the edge runs along the shaft), which made bevelled
+ *   splinter edges read nearer to 90 than they are.
  */
-function edgeAngle(ctx: FaceContext, f: number, g: number, faceId: number, mx: number, my: number, mz: number): number | undefined {
+function edgeAngle(ctx: FaceContext, f: number, g: number, mx: number, my: number, mz: number): number | undefined {
   const r2 = ctx.settings.anglePlaneRadiusMm ** 2;
-  const skip2 = ctx.settings.anglePlaneSkipMm ** 2;
   const otherClass = ctx.triClass[g];
   const seen = new Set<number>([f, g]);
   const queue = [f, g];
-  let fx = 0, fy = 0, fz = 0, ox = 0, oy = 0, oz = 0, fa = 0, oa = 0;
+  const fractureSide: number[] = [], surfaceSide: number[] = [];
   for (let k = 0; k < queue.length && queue.length < 4000; k++) {
     const h = queue[k];
-    const w = ctx.areas[h];
     const cls = ctx.triClass[h];
-    const hx = ctx.centroids[3 * h] - mx, hy = ctx.centroids[3 * h + 1] - my, hz = ctx.centroids[3 * h + 2] - mz;
-    // Leave out the worn crease itself: only triangles at least anglePlaneSkipMm from the edge.
-    if (hx * hx + hy * hy + hz * hz < skip2) {
-      // still walk through it
-    } else if (cls === FRACTURE) {
-      fx += w * ctx.triNormals[3 * h]; fy += w * ctx.triNormals[3 * h + 1]; fz += w * ctx.triNormals[3 * h + 2]; fa += w;
-    } else if (cls === otherClass) {
-      ox += w * ctx.triNormals[3 * h]; oy += w * ctx.triNormals[3 * h + 1]; oz += w * ctx.triNormals[3 * h + 2]; oa += w;
-    }
+    if (cls === FRACTURE) fractureSide.push(h);
+    else if (cls === otherClass) surfaceSide.push(h);
     for (let j = 0; j < 3; j++) {
       const e = ctx.neighbours[3 * h + j];
       if (e < 0 || seen.has(e)) continue;
@@ -254,11 +258,128 @@ function edgeAngle(ctx: FaceContext, f: number, g: number, faceId: number, mx: n
       queue.push(e);
     }
   }
-  void faceId;
-  const fl = Math.hypot(fx, fy, fz), ol = Math.hypot(ox, oy, oz);
-  if (fa === 0 || oa === 0 || fl === 0 || ol === 0) return undefined;
-  const dot = (fx * ox + fy * oy + fz * oz) / (fl * ol);
+  // Leave out the worn crease itself: triangles within anglePlaneSkipMm of the edge line
+  // (through m, along the cross product of the two sides' mean normals: the edge runs in both
+  // surfaces). Measured from the line, not from m, so that the rim along the edge is left out
+  // too: the fit at the edge would otherwise lean on the rounded or chipped rim.
+  const f0 = meanNormal(ctx, fractureSide), s0 = meanNormal(ctx, surfaceSide);
+  if (!f0 || !s0) return undefined;
+  let tx = f0[1] * s0[2] - f0[2] * s0[1], ty = f0[2] * s0[0] - f0[0] * s0[2], tz = f0[0] * s0[1] - f0[1] * s0[0];
+  const tl = Math.hypot(tx, ty, tz);
+  if (tl > 0.05) { tx /= tl; ty /= tl; tz /= tl; } else { tx = 0; ty = 0; tz = 0; }
+  const skip2 = ctx.settings.anglePlaneSkipMm ** 2;
+  const away = (h: number): boolean => {
+    const dx = ctx.centroids[3 * h] - mx, dy = ctx.centroids[3 * h + 1] - my, dz = ctx.centroids[3 * h + 2] - mz;
+    const along = dx * tx + dy * ty + dz * tz;
+    return dx * dx + dy * dy + dz * dz - along * along >= skip2;
+  };
+  const nf = meanNormal(ctx, fractureSide.filter(away));
+  const ns = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
+  if (!nf || !ns) return undefined;
+  const dot = nf[0] * ns[0] + nf[1] * ns[1] + nf[2] * ns[2];
   return 180 - (Math.acos(Math.max(-1, Math.min(1, dot))) * 180) / Math.PI;
+}
+
+type Vec3 = [number, number, number];
+
+/** Area-weighted mean of the triangles' unit normals, normalised (undefined when empty). */
+function meanNormal(ctx: FaceContext, tris: number[]): Vec3 | undefined {
+  let sx = 0, sy = 0, sz = 0;
+  for (const h of tris) {
+    const w = ctx.areas[h];
+    sx += w * ctx.triNormals[3 * h]; sy += w * ctx.triNormals[3 * h + 1]; sz += w * ctx.triNormals[3 * h + 2];
+  }
+  const l = Math.hypot(sx, sy, sz);
+  return l > 0 ? [sx / l, sy / l, sz / l] : undefined;
+}
+
+/**
+ * Unit normal of a smooth surface at the point m (an edge point, not inside the patch):
+ * weighted least squares fit of each normal component as a + b s1 + c s2 over the triangles'
+ * centroids (s1, s2: offsets from m in the patch's tangent plane, weights: areas), evaluated
+ * at s = 0. This is the first-order Taylor expansion of the normal field, i.e. the normal at m
+ * of a quadric fitted to the patch, so a constant curvature between m and the patch does not
+ * tilt it (a sphere or cylinder gives its exact normal at m). The fit is made twice: first on
+ * the far part of the patch, then on every triangle within angleFitOutlierDeg of that fit, so
+ * that pieces of the break face left on this side by the segmentation, and chips, which a fit
+ * that extrapolates would follow, are left out. Falls back to the mean normal when the patch is
+ * too small or degenerate (all centroids on a line). t: the edge direction (unit, or zero).
+ */
+function sideNormalAtEdge(ctx: FaceContext, tris: number[], mx: number, my: number, mz: number, [tx, ty, tz]: Vec3): Vec3 | undefined {
+  const n = meanNormal(ctx, tris);
+  if (!n || tris.length < 6) return n;
+  const [nx, ny, nz] = n;
+  // Tangent basis (e1, e2) of the patch.
+  let e1x: number, e1y: number, e1z: number;
+  if (Math.abs(nx) < 0.9) { e1x = 0; e1y = -nz; e1z = ny; } else { e1x = -nz; e1y = 0; e1z = nx; }
+  const e1l = Math.hypot(e1x, e1y, e1z);
+  e1x /= e1l; e1y /= e1l; e1z /= e1l;
+  const e2x = ny * e1z - nz * e1y, e2y = nz * e1x - nx * e1z, e2z = nx * e1y - ny * e1x;
+  const s1 = new Float64Array(tris.length), s2 = new Float64Array(tris.length);
+  tris.forEach((h, i) => {
+    const dx = ctx.centroids[3 * h] - mx, dy = ctx.centroids[3 * h + 1] - my, dz = ctx.centroids[3 * h + 2] - mz;
+    s1[i] = dx * e1x + dy * e1y + dz * e1z;
+    s2[i] = dx * e2x + dy * e2y + dz * e2z;
+  });
+  const cosMax = Math.cos((ctx.settings.angleFitOutlierDeg * Math.PI) / 180);
+  // First fit on the far part of the patch (at least twice anglePlaneSkipMm from the edge
+  // line), where a misplaced region border leaves least of the break face; then all triangles
+  // within angleFitOutlierDeg of that fit.
+  const far2 = (2 * ctx.settings.anglePlaneSkipMm) ** 2;
+  const far = Uint8Array.from(tris, (h, i) => {
+    const d2 = s1[i] * s1[i] + s2[i] * s2[i];
+    const along = (ctx.centroids[3 * h] - mx) * tx + (ctx.centroids[3 * h + 1] - my) * ty + (ctx.centroids[3 * h + 2] - mz) * tz;
+    return d2 - along * along >= far2 ? 1 : 0;
+  });
+  let fit = fitLinearNormals(ctx, tris, s1, s2, far) ?? fitLinearNormals(ctx, tris, s1, s2, new Uint8Array(tris.length).fill(1));
+  if (fit) {
+    const first = fit;
+    const keep = Uint8Array.from(tris, (h, i) => {
+      const px = first[0] + first[3] * s1[i] + first[6] * s2[i];
+      const py = first[1] + first[4] * s1[i] + first[7] * s2[i];
+      const pz = first[2] + first[5] * s1[i] + first[8] * s2[i];
+      const l = Math.hypot(px, py, pz);
+      return l > 0 && (px * ctx.triNormals[3 * h] + py * ctx.triNormals[3 * h + 1] + pz * ctx.triNormals[3 * h + 2]) / l >= cosMax ? 1 : 0;
+    });
+    fit = fitLinearNormals(ctx, tris, s1, s2, keep) ?? first;
+  }
+  if (!fit) return n;
+  const l = Math.hypot(fit[0], fit[1], fit[2]);
+  return l > 0 ? [fit[0] / l, fit[1] / l, fit[2] / l] : n;
+}
+
+/**
+ * Weighted least squares normal_c = a_c + b_c s1 + c_c s2 over the kept triangles, for the three
+ * components c at once: returns [a_x, a_y, a_z, b_x, b_y, b_z, c_x, c_y, c_z], or undefined
+ * when the normal equations are singular (fewer than 6 triangles, or centroids on a line).
+ */
+function fitLinearNormals(ctx: FaceContext, tris: number[], s1: Float64Array, s2: Float64Array, keep: Uint8Array): number[] | undefined {
+  const M = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const B = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const u = [1, 0, 0];
+  let count = 0;
+  for (let i = 0; i < tris.length; i++) {
+    if (!keep[i]) continue;
+    count++;
+    const h = tris[i];
+    const w = ctx.areas[h];
+    u[1] = s1[i];
+    u[2] = s2[i];
+    for (let r = 0; r < 3; r++) {
+      for (let c = 0; c < 3; c++) M[3 * r + c] += w * u[r] * u[c];
+      for (let c = 0; c < 3; c++) B[3 * r + c] += w * u[r] * ctx.triNormals[3 * h + c];
+    }
+  }
+  if (count < 6) return undefined;
+  // Inverse of the symmetric M by cofactors.
+  const i00 = M[4] * M[8] - M[5] * M[7], i01 = M[2] * M[7] - M[1] * M[8], i02 = M[1] * M[5] - M[2] * M[4];
+  const i11 = M[0] * M[8] - M[2] * M[6], i12 = M[2] * M[3] - M[0] * M[5], i22 = M[0] * M[4] - M[1] * M[3];
+  const det = M[0] * i00 + M[3] * i01 + M[6] * i02;
+  if (!(Math.abs(det) > 1e-6 * Math.abs(M[0] * M[4] * M[8]))) return undefined;
+  const inv = [i00, i01, i02, i01, i11, i12, i02, i12, i22];
+  const out = new Array<number>(9).fill(0);
+  for (let r = 0; r < 3; r++) for (let c = 0; c < 3; c++) out[3 * r + c] = (inv[3 * r] * B[c] + inv[3 * r + 1] * B[3 + c] + inv[3 * r + 2] * B[6 + c]) / det;
+  return out;
 }
 
 /**

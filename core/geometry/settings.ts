@@ -79,6 +79,13 @@ export const analysisSettingsSchema = z.object({
   anglePlaneRadiusMm: z.number().positive().default(3.5),
   /** Triangles closer than this to the edge are left out of the plane fits (worn, rounded crease). */
   anglePlaneSkipMm: z.number().min(0).default(1),
+  /**
+   * The bone surface's normal at a break edge is extrapolated to the edge from a linear fit of
+   * its normals (fracture-faces.ts); triangles whose normal is further than this from the first
+   * fit (break face or chips left on the surface side by the segmentation) are left out of the
+   * second. Wide enough for scanner noise on a 1-1.5 mm mesh.
+   */
+  angleFitOutlierDeg: z.number().positive().max(90).default(15),
   /** Mean |outline tangent . shaft axis| below this: a transverse outline. */
   outlineTransverseMax: z.number().min(0).max(1).default(0.3),
   /** Mean |outline tangent . shaft axis| above this: a curved / V-shaped outline. */

@@ -5,7 +5,7 @@
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
-import { mirrorFpfh, ransacAlignFaces } from '../registration/ransac-alignment';
+import { ransacAlignFaces } from '../registration/ransac-alignment';
 import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
@@ -14,6 +14,8 @@ import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
+import { LOCKED_INTERLOCK } from '../registration/score-model';
+import { screenInterlock } from './screen-measures';
 
 export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
 
@@ -32,6 +34,14 @@ export interface MatchParameters {
   minOverlap: number;
   /** Hypotheses refined against the whole surface and scored. */
   fineHypotheses: number;
+  /**
+   * Screened motions of one fragment pair (over all its face pairs) that go on to the fine step:
+   * at most this many, the best by overlap share, each at least fineMinOverlap and at least
+   * fineRatio times the pair's best overlap (measured with tests/bench/face-pair-study.ts).
+   */
+  finePerFragmentPair: number;
+  fineMinOverlap: number;
+  fineRatio: number;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -53,6 +63,9 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
   fineHypotheses: 2,
+  finePerFragmentPair: 3,
+  fineMinOverlap: 0.2,
+  fineRatio: 0.5,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
@@ -95,7 +108,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
   const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
   if (shafts) {
-    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: mirrorFpfh(FB.fpfh), featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
+    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
@@ -109,8 +122,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!shafts || !refined.some((r) => r.overlap >= params.axisGoodOverlap)) {
     const hyps = ransacAlignFaces(
-      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree },
-      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree },
+      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
+      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, fpfhTree: FA.fpfhTree },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     );
     refined = refined.concat(refine(hyps.map((h) => h.transform)));
@@ -227,7 +240,10 @@ function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
   return Math.max(ra, rb) <= maxRatio * Math.min(ra, rb);
 }
 
-/** Every face pair (or the given ones) of A and B, merged, best first. */
+/**
+ * Every face pair (or the given ones) of A and B, merged, best first: every face pair is
+ * screened, and only the fragment pair's few best screened motions are refined and scored.
+ */
 export function matchFragments(
   a: PreparedFragment,
   b: PreparedFragment,
@@ -236,9 +252,27 @@ export function matchFragments(
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
+  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+  for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
   const all: FaceMatch[] = [];
-  for (const [i, j] of pairs) all.push(...matchFacePair(a, i, b, j, params));
+  for (const s of fineShortlist(a, b, screened, params)) all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params));
   return distinctBest(all, 2 * Math.max(a.spacing, b.spacing));
+}
+
+/**
+ * The screened motions of one fragment pair that deserve the fine step (see
+ * MatchParameters.finePerFragmentPair), best first by overlap share times how firmly the
+ * contact locks (screen-measures.ts: faces that could slide or turn, such as the flat ends
+ * of a tube, overlap fully in many wrong positions).
+ */
+export function fineShortlist<T extends { i: number; j: number; motion: CoarseMotion }>(a: PreparedFragment, b: PreparedFragment, screened: T[], params: MatchParameters): T[] {
+  const spacing = Math.max(a.spacing, b.spacing);
+  const ranked = screened
+    .filter((s) => s.motion.overlap >= params.fineMinOverlap)
+    .map((s) => ({ s, rank: s.motion.overlap * Math.min(1, screenInterlock(a.faces[s.i], b.faces[s.j], s.motion.transform, spacing) / LOCKED_INTERLOCK) }))
+    .sort((p, q) => q.rank - p.rank);
+  const best = ranked[0]?.rank ?? 0;
+  return ranked.filter((r) => r.rank >= params.fineRatio * best).slice(0, params.finePerFragmentPair).map((r) => r.s);
 }
 
 /** Sort by score and drop motions that repeat a better one (within 3 degrees and `shift` mm). */

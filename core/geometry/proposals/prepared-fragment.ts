@@ -6,6 +6,7 @@
 import { computeFpfh, FPFH_DIM } from '../registration/fpfh';
 import { splitIntoPatches } from './face-patches';
 import { KdTree } from '../registration/nearest-neighbours';
+import { mirrorFpfh } from '../registration/ransac-alignment';
 import { TargetSurface } from '../registration/target-surface';
 import { sampleTriangles, voxelResample } from '../registration/voxel-sampling';
 import { faceDescriptor } from './face-descriptor';
@@ -38,6 +39,10 @@ export interface PreparedFace {
   normals: Float32Array;
   fpfh: Float32Array;
   tree: KdTree;
+  /** Made once per face for the feature correspondences of every pair it takes part in: k-d tree over fpfh, mirrored fpfh (as a partner would show it) and its k-d tree. */
+  fpfhTree: KdTree;
+  mirroredFpfh: Float32Array;
+  mirroredFpfhTree: KdTree;
   outline: Float32Array;
   area: number;
   centroid: [number, number, number];
@@ -87,7 +92,8 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
     const area = f.area ?? (s.points.length / 3) * params.spacing * params.spacing;
     const add = (points: Float32Array, normals: Float32Array, feats: Float32Array, line: Float32Array, a: number): void => {
       const tree = new KdTree(points, 3);
-      faces.push({ index: faces.length, parent, points, normals, fpfh: feats, tree, outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
+      const mirrored = mirrorFpfh(feats);
+      faces.push({ index: faces.length, parent, points, normals, fpfh: feats, tree, fpfhTree: new KdTree(feats, FPFH_DIM), mirroredFpfh: mirrored, mirroredFpfhTree: new KdTree(mirrored, FPFH_DIM), outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
     };
     add(s.points, s.normals, fpfh, outline, area);
     if (params.patches === false) return;
@@ -205,4 +211,13 @@ export function spacingForFaces(areas: number[]): number {
   const s = [...areas].sort((p, q) => p - q);
   const median = s[Math.floor(s.length / 2)];
   return Math.min(4, Math.max(0.3, Math.sqrt(median / SAMPLES_PER_FACE)));
+}
+
+/** Spacings a proposal run chooses from, so that adding a few scans rarely changes the parameters. */
+export const SPACING_LADDER = [0.3, 0.42, 0.6, 0.85, 1.2, 1.7, 2.4, 3.4];
+
+/** The run's spacing for a set of break face areas: spacingForFaces rounded (in log) to the nearest rung of SPACING_LADDER. */
+export function runSpacing(areas: number[]): number {
+  const raw = spacingForFaces(areas);
+  return SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / raw)) < Math.abs(Math.log(best / raw)) ? v : best), SPACING_LADDER[0]);
 }

@@ -80,44 +80,67 @@ export class KdTree {
 
   /** The k nearest points to q: indices and squared distances, nearest first. */
   nearest(q: ArrayLike<number>, k: number, maxDist2 = Infinity): { indices: number[]; dist2: number[] } {
-    const idx: number[] = [];
-    const dd: number[] = [];
-    if (this.count === 0 || k <= 0) return { indices: idx, dist2: dd };
-    let worst = maxDist2;
-    const consider = (i: number): void => {
-      const d2 = this.dist2(q, i);
-      if (d2 >= worst && idx.length >= k) return;
-      if (d2 > maxDist2) return;
-      let pos = dd.length;
-      while (pos > 0 && dd[pos - 1] > d2) pos--;
-      dd.splice(pos, 0, d2);
-      idx.splice(pos, 0, i);
-      if (dd.length > k) {
-        dd.pop();
-        idx.pop();
-      }
-      if (dd.length === k) worst = Math.min(maxDist2, dd[k - 1]);
-    };
-    const visit = (lo: number, hi: number): void => {
-      if (hi - lo <= KdTree.LEAF) {
-        for (let i = lo; i < hi; i++) consider(this.order[i]);
-        return;
-      }
-      const mid = (lo + hi) >> 1;
-      const d = this.splitDim[mid];
-      const p = this.order[mid];
-      const diff = q[d] - this.data[p * this.dim + d];
-      consider(p);
-      if (diff < 0) {
-        visit(lo, mid);
-        if (diff * diff < worst) visit(mid + 1, hi);
-      } else {
-        visit(mid + 1, hi);
-        if (diff * diff < worst) visit(lo, mid);
-      }
-    };
-    visit(0, this.count);
-    return { indices: idx, dist2: dd };
+    if (this.count === 0 || k <= 0) return { indices: [], dist2: [] };
+    if (this.kIdx.length < k) {
+      this.kIdx = new Int32Array(k + 1);
+      this.kDist = new Float64Array(k + 1);
+    }
+    this.kWant = k;
+    this.kFound = 0;
+    this.kMax = maxDist2;
+    this.kWorst = maxDist2;
+    this.visitK(q, 0, this.count);
+    const m = this.kFound;
+    const indices = new Array<number>(m), dist2 = new Array<number>(m);
+    for (let i = 0; i < m; i++) {
+      indices[i] = this.kIdx[i];
+      dist2[i] = this.kDist[i];
+    }
+    return { indices, dist2 };
+  }
+
+  // state of one k-nearest query (a sorted list of the best so far, no allocation per query)
+  private kIdx = new Int32Array(8);
+  private kDist = new Float64Array(8);
+  private kWant = 0;
+  private kFound = 0;
+  private kMax = Infinity;
+  private kWorst = Infinity;
+
+  private considerK(q: ArrayLike<number>, i: number): void {
+    const d2 = this.dist2(q, i);
+    if (d2 >= this.kWorst && this.kFound >= this.kWant) return;
+    if (d2 > this.kMax) return;
+    const dd = this.kDist, idx = this.kIdx;
+    let pos = this.kFound;
+    while (pos > 0 && dd[pos - 1] > d2) {
+      dd[pos] = dd[pos - 1];
+      idx[pos] = idx[pos - 1];
+      pos--;
+    }
+    dd[pos] = d2;
+    idx[pos] = i;
+    if (this.kFound < this.kWant) this.kFound++;
+    if (this.kFound === this.kWant) this.kWorst = Math.min(this.kMax, dd[this.kWant - 1]);
+  }
+
+  private visitK(q: ArrayLike<number>, lo: number, hi: number): void {
+    if (hi - lo <= KdTree.LEAF) {
+      for (let i = lo; i < hi; i++) this.considerK(q, this.order[i]);
+      return;
+    }
+    const mid = (lo + hi) >> 1;
+    const d = this.splitDim[mid];
+    const p = this.order[mid];
+    const diff = q[d] - this.data[p * this.dim + d];
+    this.considerK(q, p);
+    if (diff < 0) {
+      this.visitK(q, lo, mid);
+      if (diff * diff < this.kWorst) this.visitK(q, mid + 1, hi);
+    } else {
+      this.visitK(q, mid + 1, hi);
+      if (diff * diff < this.kWorst) this.visitK(q, lo, mid);
+    }
   }
 
   /** Index of the single nearest point (or -1) and its squared distance. */

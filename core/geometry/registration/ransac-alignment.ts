@@ -17,6 +17,10 @@ export interface FaceSamples {
   /** FPFH per sample computed with the sample's own (outward) normals. */
   fpfh: Float32Array;
   tree?: KdTree;
+  /** Made once per face and reused across pairs when given: a k-d tree over fpfh, the mirrored fpfh (mirrorFpfh) and a k-d tree over that. */
+  fpfhTree?: KdTree;
+  mirroredFpfh?: Float32Array;
+  mirroredFpfhTree?: KdTree;
 }
 
 export interface RansacOptions {
@@ -66,9 +70,9 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
 
   // correspondences: each source sample's 2 nearest target samples in feature space (source
   // described with flipped normals), plus each target sample's nearest source sample
-  const srcFeat = mirrorFpfh(source.fpfh);
-  const featTreeT = new KdTree(target.fpfh, FPFH_DIM);
-  const featTreeS = new KdTree(srcFeat, FPFH_DIM);
+  const srcFeat = source.mirroredFpfh ?? mirrorFpfh(source.fpfh);
+  const featTreeT = target.fpfhTree ?? new KdTree(target.fpfh, FPFH_DIM);
+  const featTreeS = source.mirroredFpfhTree ?? new KdTree(srcFeat, FPFH_DIM);
   const corr: number[] = [];
   const fq = new Float32Array(FPFH_DIM);
   for (let i = 0; i < ns; i++) {

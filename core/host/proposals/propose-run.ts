@@ -22,7 +22,7 @@ import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../geometry/proposals/fac
 import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
 import { cycleAgreement, solvePoses, type PoseSolution } from '../../geometry/proposals/pose-graph';
 import { invert } from '../../geometry/registration/rigid-transform';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, spacingForFaces, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, runSpacing, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
 import { startTypeScriptWorker } from '../../jobs/typescript-worker';
 import { runPool, type PoolTask } from '../../jobs/affinity-pool';
 import { cacheDirFor, fragmentKey, readSummary, readTraits } from '../../jobs/fragment-cache';
@@ -67,9 +67,6 @@ export interface ProposeOutcome {
     seconds: number;
   };
 }
-
-/** Spacings the run chooses from, so that adding a few scans rarely changes the parameters. */
-const SPACING_LADDER = [0.3, 0.42, 0.6, 0.85, 1.2, 1.7, 2.4, 3.4];
 
 export async function proposeJoins(options: ProposeOptions, ctx: RequestContext): Promise<ProposeOutcome> {
   const started = Date.now();
@@ -134,8 +131,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       endStage('reading');
       if (a1.cancelled) return outcome({ cancelled: true });
       const usable = scans.filter((s) => analysedOk.has(s.scanId));
-      const spacingRaw = spacingForFaces(usable.flatMap((s) => analysedOk.get(s.scanId)!.faceAreas));
-      const spacing = SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / spacingRaw)) < Math.abs(Math.log(best / spacingRaw)) ? v : best), SPACING_LADDER[0]);
+      const spacing = runSpacing(usable.flatMap((s) => analysedOk.get(s.scanId)!.faceAreas));
       const sampling: SamplingParameters = { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS };
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;

@@ -16,7 +16,8 @@ export interface PlaneCut {
 /**
  * A conical cut: keeps the part of the tube inside a cone about the tube's axis whose radius
  * shrinks from `baseRadius` at z = `baseZ` by tan(halfAngle) per mm of z, so the break meets
- * the tube wall at a constant angle (90 degrees minus the half angle) all round.
+ * the tube wall (parallel to the axis) at a constant dihedral angle equal to the half angle
+ * all round, i.e. 90 - halfAngle degrees away from a right angle.
  */
 export interface ConeCut {
   baseZ: number;
@@ -41,6 +42,12 @@ export async function brokenTube(options: {
   cuts: Cut[];
   edgeLength?: number;
   roughness?: number;
+  /**
+   * A smooth map applied to every vertex last (after roughening and labelling), e.g. a shift
+   * along the axis by A sin(angle round the axis), which bends a cut into a wavy or helical
+   * one while the tube walls stay where they were.
+   */
+  warp?: (x: number, y: number, z: number) => [number, number, number];
 }): Promise<BrokenTube> {
   if (!wasm) {
     wasm = await Module();
@@ -102,6 +109,7 @@ export async function brokenTube(options: {
         pz -= bump * n[2];
       }
     });
+    if (options.warp) [px, py, pz] = options.warp(px, py, pz);
     positions[3 * v] = px;
     positions[3 * v + 1] = py;
     positions[3 * v + 2] = pz;

@@ -1,0 +1,148 @@
+/**
+ * The fracture angle (Villa & Mahieu 1991: the angle between the fracture surface and the
+ * cortical surface, read across the break edge) against analytic geometry. Every test piece is
+ * a tube of outer radius R = 12 mm cut by a surface whose angle with the wall is known in closed
+ * form (analytic geometry of a cylinder and the cutting surface); the cut faces are left smooth
+ * so that the construction alone decides the answer. Folded angles: 90 is a right angle.
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
+import type { FractureFace } from '../../../core/geometry/fracture-faces';
+import { brokenTube, type Cut } from './broken-tube';
+
+const R = 12;
+const deg = (rad: number): number => (rad * 180) / Math.PI;
+const folded = (f: FractureFace): number[] => Array.from(f.anglesDeg, (a) => Math.min(a, 180 - a));
+
+/** Shift along the axis by A sin(angle round the axis): cylinders about z map onto themselves. */
+const wave = (A: number) => (x: number, y: number, z: number): [number, number, number] => {
+  const rho = Math.hypot(x, y);
+  return [x, y, rho > 0 ? z + (A * y) / rho : z];
+};
+
+async function analyse(cuts: Cut[], warp?: (x: number, y: number, z: number) => [number, number, number]): Promise<FragmentAnalysis> {
+  const tube = await brokenTube({ cuts, roughness: 0, edgeLength: 0.9, warp });
+  return analyseFragment(tube.mesh);
+}
+
+/** The face whose outline runs along the axis the most (a splinter side), or the largest. */
+const alongAxis = (a: FragmentAnalysis): FractureFace => [...a.fractureFaces].sort((x, y) => (y.outlineAxisAlignment || 0) - (x.outlineAxisAlignment || 0))[0];
+const largest = (a: FragmentAnalysis): FractureFace => [...a.fractureFaces].sort((x, y) => y.area - x.area)[0];
+
+/** The angle at which half of a length-weighted distribution lies below. */
+function weightedMedian(rows: Array<[number, number]>): number {
+  rows.sort((x, y) => x[0] - y[0]);
+  const half = rows.reduce((s, r) => s + r[1], 0) / 2;
+  let acc = 0;
+  for (const [v, w] of rows) if ((acc += w) >= half) return v;
+  return NaN;
+}
+
+describe('fracture angle against analytic geometry (smooth cuts through a tube, R = 12 mm)', () => {
+  let transverse: FragmentAnalysis, radialChord: FragmentAnalysis, offsetChord: FragmentAnalysis;
+  let cone: FragmentAnalysis, wavy: FragmentAnalysis, bevelledWavy: FragmentAnalysis, tilted: FragmentAnalysis;
+  const tilt = (40 * Math.PI) / 180;
+  beforeAll(async () => {
+    transverse = await analyse([{ normal: [0, 0, 1], offset: -30 }]);
+    // Splinter-like cuts along the shaft: a plane parallel to the axis at distance d meets the
+    // wall x^2 + y^2 = R^2 where the wall's normal (x, y)/R makes acos(d / R) with the plane's
+    // normal (1, 0, 0): a folded angle of 90 - asin(d / R) at the outer rim.
+    radialChord = await analyse([{ normal: [-1, 0, 0], offset: 0 }, { normal: [0, 0, 1], offset: -35 }]);
+    offsetChord = await analyse([{ normal: [-1, 0, 0], offset: -6 }, { normal: [0, 0, 1], offset: -35 }]);
+    // A cone about the axis with half angle h meets the wall (parallel to the axis) at h.
+    cone = await analyse([{ baseZ: -45, baseRadius: 50, halfAngleDeg: 30 }]);
+    // z = A sin(phi): a wavy front ruled by radial lines, so right-angled all round.
+    wavy = await analyse([{ normal: [0, 0, 1], offset: -30 }], wave(6));
+    // z = A sin(phi) - rho cot(h) + c: the cone's bevel on a wavy front (see the test).
+    bevelledWavy = await analyse([{ baseZ: -45, baseRadius: 50, halfAngleDeg: 60 }], wave(6));
+    tilted = await analyse([{ normal: [-Math.sin(tilt), 0, -Math.cos(tilt)], offset: 0 }]);
+  }, 60_000);
+
+  it('a transverse plane meets the wall at 90 degrees: right', () => {
+    const face = largest(transverse);
+    for (const a of folded(face)) expect(a).toBeGreaterThan(88);
+    expect(face.angleClass).toBe('right');
+  });
+
+  it('a plane through the axis (a splinter edge with no bevel) reads 90 along the shaft, not less', () => {
+    // The wall curves away from the edge: a plane fitted some millimetres off the edge leans
+    // by about distance / R (7-8 degrees here); the angle must be read at the edge itself.
+    const face = alongAxis(radialChord);
+    expect(face.medianAngleDeg).toBeGreaterThan(88);
+    expect(face.angleClass).toBe('right');
+  });
+
+  it('a plane parallel to the axis 6 mm off it meets the outer wall at 90 - asin(6/12) = 60 degrees', () => {
+    const face = alongAxis(offsetChord);
+    const expected = 90 - deg(Math.asin(6 / R));
+    expect(Math.abs(face.medianAngleDeg - expected)).toBeLessThan(2);
+    expect(face.angleClass).toBe('oblique');
+  });
+
+  it('a cone of half angle 30 degrees meets the wall at 30 degrees all round: oblique', () => {
+    const face = cone.fractureFaces.find((f) => f.angleClass !== 'right');
+    expect(face).toBeDefined();
+    const angles = folded(face!);
+    expect(angles.length).toBeGreaterThan(10);
+    for (const a of angles) expect(Math.abs(a - 30)).toBeLessThan(2.5);
+    expect(face!.angleClass).toBe('oblique');
+  });
+
+  it('a plane tilted 40 degrees: the angle round the rim, its median and right-angle share as the closed form gives', () => {
+    // The plane z = x tan(t) + c meets the wall at 90 - asin(sin(t) |cos(p)|) degrees at the
+    // angle p round the axis (normals (-sin t, 0, cos t) and (cos p, sin p, 0)); the rim's
+    // length element is sqrt(1 + sin^2(p) tan^2(t)) dp. The share within d of 90 is
+    // (2 / pi) asin(sin(d) / sin(t)) by angle; weighted by length, computed numerically.
+    const d = tilted.settings.rightAngleToleranceDeg;
+    const rows: Array<[number, number]> = [];
+    let within = 0, total = 0;
+    for (let i = 0; i < 10000; i++) {
+      const p = ((i + 0.5) / 10000) * 2 * Math.PI;
+      const angle = 90 - deg(Math.asin(Math.sin(tilt) * Math.abs(Math.cos(p))));
+      const w = Math.sqrt(1 + Math.sin(p) ** 2 * Math.tan(tilt) ** 2);
+      rows.push([angle, w]);
+      total += w;
+      if (90 - angle <= d) within += w;
+    }
+    const face = tilted.fractureFaces.find((f) => f.angleClass !== 'right');
+    expect(face).toBeDefined();
+    const angles = folded(face!);
+    expect(angles.length).toBeGreaterThan(15);
+    for (const a of angles) expect(a).toBeGreaterThan(90 - deg(tilt) - 2);
+    expect(Math.abs(face!.medianAngleDeg - weightedMedian(rows))).toBeLessThan(3);
+    expect(Math.abs(face!.rightShare - within / total)).toBeLessThan(0.1);
+    expect(face!.angleClass).toBe('oblique');
+  });
+
+  it('a wavy front ruled by radial lines meets the wall at right angles: an outline alone makes no oblique angle', () => {
+    // The surface z = A sin(phi) has normal proportional to (-A cos(phi) / rho) e_phi + e_z,
+    // perpendicular to the wall's normal e_rho: 90 degrees wherever it crosses the wall.
+    const face = largest(wavy);
+    expect(face.outlineAxisAlignment).toBeGreaterThan(0.2);
+    expect(face.medianAngleDeg).toBeGreaterThan(87);
+    expect(face.angleClass).toBe('right');
+  });
+
+  it('a bevelled wavy front: the angle round the rim follows the closed form', () => {
+    // Surface F = z - A sin(phi) + rho cot(h) = const, gradient (cot h) e_rho - (A cos(phi) / rho)
+    // e_phi + e_z; against the wall's normal e_rho the folded angle at rho = R is
+    // 90 - asin(cot h / sqrt(1 + cot^2 h + (A cos(phi) / R)^2)), from 60 (where the front runs
+    // round the shaft) to 67.8 degrees (where it is steepest), for h = 60 degrees and A = 6 mm.
+    // Samples are spaced along the rim, whose length element is sqrt(R^2 + A^2 cos^2 phi) dphi.
+    const cot = 1 / Math.tan((60 * Math.PI) / 180), A = 6;
+    const rows: Array<[number, number]> = [];
+    for (let i = 0; i < 10000; i++) {
+      const phi = ((i + 0.5) / 10000) * 2 * Math.PI;
+      const s = (A * Math.cos(phi)) / R;
+      rows.push([90 - deg(Math.asin(cot / Math.sqrt(1 + cot * cot + s * s))), Math.sqrt(R * R + A * A * Math.cos(phi) ** 2)]);
+    }
+    const face = bevelledWavy.fractureFaces.find((f) => f.angleClass !== 'right');
+    expect(face).toBeDefined();
+    expect(Math.abs(face!.medianAngleDeg - weightedMedian(rows))).toBeLessThan(2.5);
+    for (const a of folded(face!)) {
+      expect(a).toBeGreaterThan(57);
+      expect(a).toBeLessThan(71);
+    }
+    expect(face!.angleClass).toBe('oblique');
+  });
+});
