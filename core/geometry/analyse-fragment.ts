@@ -136,11 +136,12 @@ export function analyseFragment(
   const samples = resampleSurface(mesh, triNormals, settings.sampleSpacingMm);
   const roughSorted = Float32Array.from(triRough).sort();
   // Faces: fracture regions grouped, split where breaks meet at a crease (face-split.ts).
-  const groupOfRegion = fractureFaceGroups(mesh, topo.neighbours, filtered, areas, region, regions.map((r) => r.kind === 'fracture'), {
+  const groupOfRegion = fractureFaceGroups(mesh, topo.neighbours, filtered, areas, region, regions.map((r) => r.kind === 'fracture'), regions.map((r) => r.surfaceClass === 'outer-cortical'), {
     creaseAngleDeg: settings.ridgeAngleDeg,
     creaseShareMin: settings.faceSplitCreaseShare,
     meanAngleDeg: settings.faceSplitMeanAngleDeg,
     minFaceArea: settings.faceSplitMinAreaMm2,
+    minOuterEdge: settings.faceSplitMinOuterEdgeMm,
   });
   const faceGroup = new Int32Array(nt);
   for (let f = 0; f < nt; f++) faceGroup[f] = groupOfRegion[region[f]];

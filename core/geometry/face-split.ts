@@ -11,7 +11,10 @@ import type { TriangleMesh } from './mesh';
  * area-weighted mean normals differ by more than meanAngleDeg: a worn crease rounds the edge
  * itself but not the two faces' orientations). Groups under minFaceArea (mm²) join the
  * neighbouring group they share most border with, so that a break is not split into pieces
- * too small to measure a fracture angle on or to match (the same reasoning as small-faces.ts).
+ * too small to measure a fracture angle on or to match (the same reasoning as small-faces.ts);
+ * so do groups whose border with the outer bone surface is shorter than minOuterEdge (mm),
+ * since the fracture angle is read along that border (Villa & Mahieu 1991: the angle between
+ * the break and the cortical surface), and a piece without it could not be classed.
  * Returns the face group of each region (-1 for regions that are not fracture).
  */
 export interface FaceSplitSettings {
@@ -19,6 +22,8 @@ export interface FaceSplitSettings {
   creaseShareMin: number;
   meanAngleDeg: number;
   minFaceArea: number;
+  /** A group whose border with outer bone surface is shorter than this (mm) also rejoins (when the fragment has outer surface). */
+  minOuterEdge: number;
 }
 
 export function fractureFaceGroups(
@@ -28,6 +33,7 @@ export function fractureFaceGroups(
   areas: Float64Array,
   region: Uint32Array,
   isFracture: ArrayLike<boolean>,
+  isOuter: ArrayLike<boolean>,
   settings: FaceSplitSettings,
 ): Int32Array {
   const n = isFracture.length;
@@ -38,6 +44,9 @@ export function fractureFaceGroups(
   const mean = new Float64Array(3 * n);
   // Shared border (length, crease length) of each pair of neighbouring fracture regions.
   const pairs = new Map<number, { length: number; crease: number }>();
+  const outerEdge = new Float64Array(n);
+  let anyOuter = false;
+  for (let r = 0; r < n; r++) if (isOuter[r]) anyOuter = true;
   for (let f = 0; f < region.length; f++) {
     const r = region[f];
     if (!isFracture[r]) continue;
@@ -47,8 +56,12 @@ export function fractureFaceGroups(
       const g = neighbours[3 * f + j];
       if (g < 0) continue;
       const s = region[g];
-      if (s <= r || !isFracture[s]) continue; // each edge once, from the lower region id
       const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
+      if (isOuter[s]) {
+        outerEdge[r] += Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+        continue;
+      }
+      if (s <= r || !isFracture[s]) continue; // each edge once, from the lower region id
       const len = Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
       const key = r * n + s;
       let e = pairs.get(key);
@@ -75,14 +88,15 @@ export function fractureFaceGroups(
   }
   // Small groups join the neighbouring group they share most border with, smallest first.
   for (let pass = 0; pass < 8; pass++) {
-    const groupArea = new Float64Array(n);
-    for (let r = 0; r < n; r++) if (isFracture[r]) groupArea[find(r)] += regionArea[r];
+    const groupArea = new Float64Array(n), groupOuter = new Float64Array(n);
+    for (let r = 0; r < n; r++) if (isFracture[r]) { groupArea[find(r)] += regionArea[r]; groupOuter[find(r)] += outerEdge[r]; }
+    const small = (x: number): boolean => groupArea[x] < settings.minFaceArea || (anyOuter && groupOuter[x] < settings.minOuterEdge);
     const border = new Map<number, Map<number, number>>();
     for (const [key, e] of pairs) {
       const a = find(Math.floor(key / n)), b = find(key % n);
       if (a === b) continue;
       for (const [x, y] of [[a, b], [b, a]]) {
-        if (groupArea[x] >= settings.minFaceArea) continue;
+        if (!small(x)) continue;
         let m = border.get(x);
         if (!m) border.set(x, (m = new Map()));
         m.set(y, (m.get(y) ?? 0) + e.length);

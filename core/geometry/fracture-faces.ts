@@ -247,7 +247,8 @@ function edgeAngle(ctx: FaceContext, f: number, g: number, mx: number, my: numbe
   for (let k = 0; k < queue.length && queue.length < 4000; k++) {
     const h = queue[k];
     const cls = ctx.triClass[h];
-    if (cls === FRACTURE) fractureSide.push(h);
+    // The fracture side is this face's own break (face-split.ts): not a neighbouring break across a crease.
+    if (cls === FRACTURE) { if (!ctx.faceGroup || ctx.faceGroup[h] === ctx.faceGroup[f]) fractureSide.push(h); }
     else if (cls === otherClass) surfaceSide.push(h);
     for (let j = 0; j < 3; j++) {
       const e = ctx.neighbours[3 * h + j];
