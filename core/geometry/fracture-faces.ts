@@ -60,6 +60,7 @@ interface FaceContext {
 
 const FRACTURE = 0;
 const OUTER = SURFACE_CLASSES.indexOf('outer-cortical');
+const ARTICULAR = SURFACE_CLASSES.indexOf('articular');
 
 /** Fracture faces are the connected sets of fracture triangles of one face group (face-split.ts); measure each one. */
 export function fractureFaces(ctx: FaceContext): FractureFace[] {
@@ -141,7 +142,9 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
         } else {
           chordStart = -1;
         }
-        if (g >= 0 && cls !== FRACTURE && (cls === OUTER || !hasOuter(ctx))) {
+        // The angle is read against the bone's outer surface (periosteal or articular), or
+        // against any original surface on a fragment that has no outer surface left.
+        if (g >= 0 && cls !== FRACTURE && (cls === OUTER || cls === ARTICULAR || !hasOuter(ctx))) {
           const mx = (p[3 * a] + p[3 * b]) / 2, my = (p[3 * a + 1] + p[3 * b + 1]) / 2, mz = (p[3 * a + 2] + p[3 * b + 2]) / 2;
           if (!(Math.hypot(mx - lastX, my - lastY, mz - lastZ) < step)) {
             const angle = edgeAngle(ctx, f, g, mx, my, mz);
@@ -214,10 +217,11 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
 }
 
 const outerPresent = new WeakMap<Uint8Array, boolean>();
+/** Whether the fragment has any outer surface (periosteal or articular) left. */
 function hasOuter(ctx: FaceContext): boolean {
   let v = outerPresent.get(ctx.triClass);
   if (v === undefined) {
-    v = ctx.triClass.includes(OUTER);
+    v = ctx.triClass.includes(OUTER) || ctx.triClass.includes(ARTICULAR);
     outerPresent.set(ctx.triClass, v);
   }
   return v;

@@ -21,9 +21,16 @@
  *   KNITBONE_BENCH_ALIGN=0         skip the propose runs (sections 3 only needs the scans analysed once)
  *   KNITBONE_BENCH_WORKERS         workers for propose (default 2)
  *   KNITBONE_BENCH_DIR             where generated assemblages are kept and reused (default: the system temp folder)
+ *   KNITBONE_BENCH_POINT_SPACING   scanner point spacing of the generated scans (mm; default: the generator's)
+ *
+ * Generated assemblages and imported catalogues (with the analysis import stores for matching)
+ * are kept between runs, named by a hash of what they are made from (generator options and
+ * source; the generated scans and the analysis source), so a repeat run only proposes again
+ * and a changed generator or analysis never reuses stale files. Progress goes to stderr.
  */
 import { spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { cpSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { openCatalogue } from '../../core/catalogue/catalogue';
 import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
@@ -112,27 +119,52 @@ function must(r: Timed, what: string): Timed {
 
 const key = (x: string, y: string): string => [x, y].sort().join('|');
 
-/** A generated assemblage with its catalogue and scans imported (kept between runs of the benchmark). */
-async function assemblage(n: number, seed: string): Promise<{ dir: string; truth: Truth; importRow: Record<string, string | number> }> {
-  const base = process.env.KNITBONE_BENCH_DIR ?? tmpdir();
-  const dir = join(base, `knitbone-bench-proposals-${seed}-${n}`);
-  if (!existsSync(join(dir, 'truth.json')) || !existsSync(join(dir, 'catalogue.ready'))) {
-    rmSync(dir, { recursive: true, force: true });
-    mkdirSync(dir, { recursive: true });
-    await generateAssemblage({ outDir: dir, fragments: n, seed, workers: 2 });
+/** Progress on stderr, with the time of day. */
+function progress(message: string): void {
+  process.stderr.write(`[${new Date().toISOString().slice(11, 19)}] ${message}\n`);
+}
+
+/** Hash of the TypeScript sources in these folders of the repository (not their subfolders): changes when the code that made a cached result changes. */
+function sourceHash(...folders: string[]): string {
+  const h = createHash('sha256');
+  for (const d of folders) for (const f of readdirSync(join(root, d)).filter((x) => x.endsWith('.ts')).sort()) h.update(f).update(readFileSync(join(root, d, f)));
+  return h.digest('hex').slice(0, 12);
+}
+
+/** A generated assemblage with its catalogue and scans imported (kept between runs of the benchmark, named by content). */
+async function assemblage(n: number, seed: string): Promise<{ dir: string; gen: string; truth: Truth; importRow: Record<string, string | number> }> {
+  const base = join(process.env.KNITBONE_BENCH_DIR ?? tmpdir(), 'knitbone-bench-proposals');
+  const pointSpacing = process.env.KNITBONE_BENCH_POINT_SPACING ? Number(process.env.KNITBONE_BENCH_POINT_SPACING) : undefined;
+  const genKey = createHash('sha256').update(JSON.stringify({ n, seed, pointSpacing, generator: sourceHash('demo-data') })).digest('hex').slice(0, 16);
+  const gen = join(base, `generated-${seed}-${n}-${genKey}`);
+  if (!existsSync(join(gen, 'generated.ready'))) {
+    rmSync(gen, { recursive: true, force: true });
+    mkdirSync(gen, { recursive: true });
+    progress(`seed ${seed}, ${n} fragments: generating the assemblage (${gen})`);
+    await generateAssemblage({ outDir: gen, fragments: n, seed, workers: 2, ...(pointSpacing ? { pointSpacing } : {}) });
+    writeFileSync(join(gen, 'generated.ready'), '');
   }
-  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
+  const truthText = readFileSync(join(gen, 'truth.json'));
+  const truth = JSON.parse(truthText.toString('utf8')) as Truth;
+  // the imported catalogue depends on the scans (truth.json holds every scan's labels and pose) and on the analysis code
+  const importKey = createHash('sha256').update(truthText).update(sourceHash('core/geometry', 'core/geometry/parse', 'core/jobs', 'core/catalogue')).digest('hex').slice(0, 16);
+  const dir = join(gen, `imported-${importKey}`);
   let importRow: Record<string, string | number> = { fragments: n, seed, step: 'import scans', note: 'reused from an earlier run' };
   if (!existsSync(join(dir, 'catalogue.ready'))) {
+    rmSync(dir, { recursive: true, force: true });
+    mkdirSync(dir, { recursive: true });
     writeFileSync(join(dir, 'numbers.csv'), 'catalogue_no\n' + truth.fragments.map((x) => x.catalogueNo).join('\n') + '\n');
     const cat = join(dir, 'base.sqlite');
     must(cli(['init', cat]), 'init');
     must(cli(['import', 'specimens', cat, join(dir, 'numbers.csv')]), 'import specimens');
-    const r = cli(['import', 'scans', cat, join(dir, 'scans'), '--skip-bad']);
+    progress(`seed ${seed}, ${n} fragments: importing and analysing the scans`);
+    const r = cli(['import', 'scans', cat, join(gen, 'scans'), '--skip-bad']);
     importRow = { fragments: n, seed, step: 'import scans', 'wall s': f(r.wall, 1), 'CPU s': f(r.cpu, 1), 'load 1 min (before/after)': r.load, 'max RSS MB': f(r.maxRssMb, 0) };
+    progress(`  imported: ${importRow['wall s']} s wall, ${importRow['CPU s']} s CPU, load ${r.load}`);
     writeFileSync(join(dir, 'catalogue.ready'), '');
   }
-  return { dir, truth, importRow };
+  // truth.json and the scans stay in the generated folder: the rest of the benchmark reads them there
+  return { dir, gen, truth, importRow };
 }
 
 interface Proposal { a: string; b: string; score: number; transform: number[] }
@@ -146,7 +178,9 @@ function proposeRun(dir: string, truth: Truth, n: number, seed: string, mode: 'p
   // what importing the scans stored for matching goes with the catalogue, as it would for a user
   if (existsSync(cacheDirFor(join(dir, 'base.sqlite')))) cpSync(cacheDirFor(join(dir, 'base.sqlite')), cacheDirFor(cat), { recursive: true });
   const workers = process.env.KNITBONE_BENCH_WORKERS ?? '2';
+  progress(`seed ${seed}, ${n} fragments: knitbone propose --workers ${workers}${mode === 'exhaustive' ? ' --exhaustive' : ''}`);
   const r = must(cli(['propose', cat, '--workers', workers, ...(mode === 'exhaustive' ? ['--exhaustive'] : [])]), `propose ${mode}`);
+  progress(`  done: ${f(r.wall, 1)} s wall, ${f(r.cpu, 1)} s CPU, ${f(r.maxRssMb, 0)} MB, load ${r.load}; ${r.stdout.split('\n').filter(Boolean).slice(-2).join(' ')}`);
   const proposals = JSON.parse(must(cli(['joins', cat, '--status', 'proposed', '--json']), 'joins').stdout) as Proposal[];
   const stats = /(\d+) scans, (\d+) break faces, (\d+) candidate pairs.*\n\((\d+) scans analysed.*?(\d+) candidate face pairs, (\d+) aligned; reading ([\d.]+) s, describing ([\d.]+) s, aligning ([\d.]+) s/.exec(r.stdout) ?? [];
   const present = new Set(truth.fragments.map((x) => x.catalogueNo));
@@ -247,12 +281,12 @@ export default async function run(): Promise<void> {
   const side: Array<Record<string, string | number>> = [];
   const recall: Array<Record<string, string | number>> = [];
   for (const seed of seeds) for (const n of sizes) {
-    const { dir, truth, importRow } = await assemblage(n, seed);
+    const { dir, gen, truth, importRow } = await assemblage(n, seed);
     imports.push(importRow);
     const pruned = proposeRun(dir, truth, n, seed, 'pruned');
     if (align) rows.push(...pruned.rows);
     const exhaustiveFacePairs = (() => {
-      const r = candidateSection(dir, truth, pruned.catalogue, ks);
+      const r = candidateSection(gen, truth, pruned.catalogue, ks);
       recall.push(...r.map((x) => ({ seed, ...x })));
       return Number(r[0]?.['face pairs'] ?? NaN);
     })();
@@ -292,6 +326,23 @@ export default async function run(): Promise<void> {
     table(rows);
     process.stdout.write('\n2c. Pruned against --exhaustive\n');
     table(side);
+  }
+  if (align) {
+    process.stdout.write('\n2d. Growth with the assemblage (pruned runs): CPU per break face stays flat when the work is near-linear in the number of faces\n');
+    table(rows.filter((r) => r.mode === 'pruned' && r['break type'] === 'all').map((r) => ({
+      seed: r.seed,
+      fragments: r.fragments,
+      faces: r.faces,
+      'face pairs aligned': r['face pairs aligned'],
+      'pairs per face': f(Number(r['face pairs aligned']) / Number(r.faces), 1),
+      'wall s': r['wall s'],
+      'CPU s': r['CPU s'],
+      'CPU ms per face': f((1000 * Number(r['CPU s'])) / Number(r.faces), 0),
+      'load 1 min': r['load 1 min'],
+      'max RSS MB': r['max RSS MB'],
+      'recall top3': r['recall top3'],
+      'precision >0.8': r['precision >0.8'],
+    })));
   }
   process.stdout.write('\n3. Candidate recall (true joins with a candidate face pair on both sides of the break, each face >= 30% on it) against face pairs, no alignment\n');
   table(recall);

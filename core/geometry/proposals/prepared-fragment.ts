@@ -6,7 +6,7 @@
 import { computeFpfh, FPFH_DIM } from '../registration/fpfh';
 import { splitIntoPatches } from './face-patches';
 import { KdTree } from '../registration/nearest-neighbours';
-import { mirrorFpfh } from '../registration/ransac-alignment';
+import { gatherFeatures, mirrorFpfh } from '../registration/ransac-alignment';
 import { TargetSurface } from '../registration/target-surface';
 import { sampleTriangles, voxelResample } from '../registration/voxel-sampling';
 import { faceDescriptor } from './face-descriptor';
@@ -39,7 +39,13 @@ export interface PreparedFace {
   normals: Float32Array;
   fpfh: Float32Array;
   tree: KdTree;
-  /** Made once per face for the feature correspondences of every pair it takes part in: k-d tree over fpfh, mirrored fpfh (as a partner would show it) and its k-d tree. */
+  /**
+   * Made once per face for the feature correspondences of every pair it takes part in: the
+   * samples whose features are matched (an even subset of at most FEATURE_SAMPLES; undefined
+   * when all are), k-d trees over their fpfh and mirrored fpfh (as a partner would show it),
+   * and the mirrored fpfh of every sample.
+   */
+  featureIndex: Uint32Array | undefined;
   fpfhTree: KdTree;
   mirroredFpfh: Float32Array;
   mirroredFpfhTree: KdTree;
@@ -61,6 +67,22 @@ export interface PreparedFragment {
   spacing: number;
   /** The fitted shaft axis (from the surface off the break faces), or null when the piece is not a shaft. */
   axis: ShaftFrame | null;
+}
+
+/**
+ * Samples of a face whose FPFH take part in feature correspondences, at most: finding them
+ * costs the product of the two faces' counts (a brute-force search in 33 dimensions, where a
+ * k-d tree prunes little), and an even subset of a large face gives RANSAC as many good
+ * triples as it needs (measured with tests/bench/face-pair-study.ts).
+ */
+export const FEATURE_SAMPLES = 320;
+
+/** Indices of an even stride of at most `max` of n items, or undefined when all n are wanted. */
+function evenSubset(n: number, max: number): Uint32Array | undefined {
+  if (n <= max) return undefined;
+  const out = new Uint32Array(max);
+  for (let k = 0; k < max; k++) out[k] = Math.floor((k * n) / max);
+  return out;
 }
 
 /** Below this share of the surface lying parallel to one axis the piece is not treated as a shaft. */
@@ -93,7 +115,14 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
     const add = (points: Float32Array, normals: Float32Array, feats: Float32Array, line: Float32Array, a: number): void => {
       const tree = new KdTree(points, 3);
       const mirrored = mirrorFpfh(feats);
-      faces.push({ index: faces.length, parent, points, normals, fpfh: feats, tree, fpfhTree: new KdTree(feats, FPFH_DIM), mirroredFpfh: mirrored, mirroredFpfhTree: new KdTree(mirrored, FPFH_DIM), outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
+      const featureIndex = evenSubset(points.length / 3, FEATURE_SAMPLES);
+      faces.push({
+        index: faces.length, parent, points, normals, fpfh: feats, tree,
+        featureIndex,
+        fpfhTree: new KdTree(featureIndex ? gatherFeatures(feats, featureIndex) : feats, FPFH_DIM),
+        mirroredFpfh: mirrored,
+        mirroredFpfhTree: new KdTree(featureIndex ? gatherFeatures(mirrored, featureIndex) : mirrored, FPFH_DIM),
+        outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
     };
     add(s.points, s.normals, fpfh, outline, area);
     if (params.patches === false) return;

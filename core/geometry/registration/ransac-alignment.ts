@@ -17,7 +17,12 @@ export interface FaceSamples {
   /** FPFH per sample computed with the sample's own (outward) normals. */
   fpfh: Float32Array;
   tree?: KdTree;
-  /** Made once per face and reused across pairs when given: a k-d tree over fpfh, the mirrored fpfh (mirrorFpfh) and a k-d tree over that. */
+  /**
+   * The samples whose features are matched (all when absent): on a large face an even subset
+   * is enough for correspondences, and the search grows with the product of the two counts.
+   */
+  featureIndex?: Uint32Array;
+  /** Made once per face and reused across pairs when given: k-d trees over the fpfh (and mirrored fpfh) of the featureIndex samples, and the mirrored fpfh of every sample. */
   fpfhTree?: KdTree;
   mirroredFpfh?: Float32Array;
   mirroredFpfhTree?: KdTree;
@@ -71,19 +76,23 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
   // correspondences: each source sample's 2 nearest target samples in feature space (source
   // described with flipped normals), plus each target sample's nearest source sample
   const srcFeat = source.mirroredFpfh ?? mirrorFpfh(source.fpfh);
-  const featTreeT = target.fpfhTree ?? new KdTree(target.fpfh, FPFH_DIM);
-  const featTreeS = source.mirroredFpfhTree ?? new KdTree(srcFeat, FPFH_DIM);
+  const srcIdx = source.featureIndex, tgtIdx = target.featureIndex;
+  const featTreeT = target.fpfhTree ?? new KdTree(tgtIdx ? gatherFeatures(target.fpfh, tgtIdx) : target.fpfh, FPFH_DIM);
+  const featTreeS = source.mirroredFpfhTree ?? new KdTree(srcIdx ? gatherFeatures(srcFeat, srcIdx) : srcFeat, FPFH_DIM);
   const corr: number[] = [];
   const fq = new Float32Array(FPFH_DIM);
-  for (let i = 0; i < ns; i++) {
+  const nsF = srcIdx ? srcIdx.length : ns, ntF = tgtIdx ? tgtIdx.length : nt;
+  for (let k = 0; k < nsF; k++) {
+    const i = srcIdx ? srcIdx[k] : k;
     for (let d = 0; d < FPFH_DIM; d++) fq[d] = srcFeat[i * FPFH_DIM + d];
     const r = featTreeT.nearest(fq, 2);
-    for (const j of r.indices) corr.push(i, j);
+    for (const j of r.indices) corr.push(i, tgtIdx ? tgtIdx[j] : j);
   }
-  for (let j = 0; j < nt; j++) {
+  for (let k = 0; k < ntF; k++) {
+    const j = tgtIdx ? tgtIdx[k] : k;
     for (let d = 0; d < FPFH_DIM; d++) fq[d] = target.fpfh[j * FPFH_DIM + d];
     const r = featTreeS.nearest(fq, 1);
-    for (const i of r.indices) corr.push(i, j);
+    for (const i of r.indices) corr.push(srcIdx ? srcIdx[i] : i, j);
   }
   const nc = corr.length / 2;
   if (nc < 3) return [];
@@ -157,6 +166,13 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
     insertHypothesis(best, { transform: M, inliers: inl, inlierFraction: inl / check.length }, keep, 3 * eps, centre);
   }
   return best;
+}
+
+/** The FPFH rows of the given samples, packed. */
+export function gatherFeatures(f: Float32Array, index: Uint32Array): Float32Array {
+  const out = new Float32Array(index.length * FPFH_DIM);
+  for (let k = 0; k < index.length; k++) out.set(f.subarray(index[k] * FPFH_DIM, index[k] * FPFH_DIM + FPFH_DIM), k * FPFH_DIM);
+  return out;
 }
 
 function dist(P: ArrayLike<number>, i: number, j: number): number {

@@ -1,10 +1,10 @@
 /**
  * A fragment's triangle surface prepared for closest-point queries: a bounding volume
- * hierarchy (three-mesh-bvh's MeshBVH) over its triangles, and each triangle's unit normal.
+ * hierarchy over its triangles (triangle-bvh.ts, checked against three-mesh-bvh), and each
+ * triangle's unit normal (triangle numbers are the mesh's own).
  * Used by ICP and by the score.
  */
-import { BufferAttribute, BufferGeometry, Vector3 } from 'three';
-import { MeshBVH } from 'three-mesh-bvh';
+import { TriangleBvh, type TriangleHit } from './triangle-bvh';
 import type { KdTree } from './nearest-neighbours';
 
 export interface ClosestPoint {
@@ -48,22 +48,16 @@ export class SampledSurface implements ClosestPointSource {
 }
 
 export class TargetSurface implements ClosestPointSource {
-  readonly bvh: MeshBVH;
+  readonly bvh: TriangleBvh;
   readonly triangleNormals: Float32Array;
-  private readonly query = new Vector3();
-  private readonly hit: { point?: Vector3; distance?: number; faceIndex?: number } = {};
+  private readonly hit = {} as TriangleHit;
 
   constructor(positions: Float32Array, triangles: Uint32Array) {
-    const geometry = new BufferGeometry();
-    geometry.setAttribute('position', new BufferAttribute(positions, 3));
-    geometry.setIndex(new BufferAttribute(triangles.slice(), 1));
-    // MeshBVH reorders the index buffer: triangle numbers below refer to that reordered index.
-    this.bvh = new MeshBVH(geometry, { targetLeafSize: 8 });
-    const index = geometry.index!.array as ArrayLike<number>;
-    const nt = index.length / 3;
+    this.bvh = new TriangleBvh(positions, triangles);
+    const nt = triangles.length / 3;
     this.triangleNormals = new Float32Array(nt * 3);
     for (let t = 0; t < nt; t++) {
-      const a = index[3 * t] * 3, b = index[3 * t + 1] * 3, c = index[3 * t + 2] * 3;
+      const a = triangles[3 * t] * 3, b = triangles[3 * t + 1] * 3, c = triangles[3 * t + 2] * 3;
       const ux = positions[b] - positions[a], uy = positions[b + 1] - positions[a + 1], uz = positions[b + 2] - positions[a + 2];
       const vx = positions[c] - positions[a], vy = positions[c + 1] - positions[a + 1], vz = positions[c + 2] - positions[a + 2];
       const nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
@@ -76,16 +70,13 @@ export class TargetSurface implements ClosestPointSource {
 
   /** Closest surface point to (x, y, z) within maxDistance, or null. */
   closest(x: number, y: number, z: number, maxDistance = Infinity, out?: ClosestPoint): ClosestPoint | null {
-    this.query.set(x, y, z);
-    const r = this.bvh.closestPointToPoint(this.query, this.hit as never, 0, maxDistance) as
-      | { point: Vector3; distance: number; faceIndex: number }
-      | null;
-    if (!r || !(r.distance <= maxDistance)) return null;
-    const t = r.faceIndex;
+    if (!this.bvh.closest(x, y, z, maxDistance, this.hit)) return null;
+    const r = this.hit;
+    const t = r.triangle;
     const res = out ?? ({} as ClosestPoint);
-    res.x = r.point.x;
-    res.y = r.point.y;
-    res.z = r.point.z;
+    res.x = r.x;
+    res.y = r.y;
+    res.z = r.z;
     res.nx = this.triangleNormals[3 * t];
     res.ny = this.triangleNormals[3 * t + 1];
     res.nz = this.triangleNormals[3 * t + 2];
