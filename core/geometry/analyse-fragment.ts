@@ -1,6 +1,7 @@
 import { vertexRings } from './adjacency';
 import { classifyRegion, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
+import { fractureFaceGroups } from './face-split';
 import { fractureFaces, type FractureFace } from './fracture-faces';
 import { enclosedVolume, surfaceArea } from './measure';
 import { boundingBox, triangleNormalsAndAreas, vertexNormals, type BoundingBox, type TriangleMesh } from './mesh';
@@ -134,7 +135,18 @@ export function analyseFragment(
   for (let f = 0; f < nt; f++) triangleClass[f] = surfaceClassCode(regions[region[f]].surfaceClass);
   const samples = resampleSurface(mesh, triNormals, settings.sampleSpacingMm);
   const roughSorted = Float32Array.from(triRough).sort();
+  // Faces: fracture regions grouped, split where breaks meet at a crease (face-split.ts).
+  const groupOfRegion = fractureFaceGroups(mesh, topo.neighbours, filtered, areas, region, regions.map((r) => r.kind === 'fracture'), regions.map((r) => r.surfaceClass === 'outer-cortical'), {
+    creaseAngleDeg: settings.ridgeAngleDeg,
+    creaseShareMin: settings.faceSplitCreaseShare,
+    meanAngleDeg: settings.faceSplitMeanAngleDeg,
+    minFaceArea: settings.faceSplitMinAreaMm2,
+    minOuterEdge: settings.faceSplitMinOuterEdgeMm,
+  });
+  const faceGroup = new Int32Array(nt);
+  for (let f = 0; f < nt; f++) faceGroup[f] = groupOfRegion[region[f]];
   const faces = fractureFaces({
+    faceGroup,
     mesh,
     neighbours: topo.neighbours,
     triNormals,

@@ -54,13 +54,15 @@ interface FaceContext {
   axis: ShaftAxis;
   samples: SurfaceSamples;
   settings: AnalysisSettings;
+  /** Face group per triangle (face-split.ts): fracture triangles of different groups are different faces. */
+  faceGroup?: Int32Array;
 }
 
 const FRACTURE = 0;
 const OUTER = SURFACE_CLASSES.indexOf('outer-cortical');
 const ARTICULAR = SURFACE_CLASSES.indexOf('articular');
 
-/** Fracture faces are the connected sets of fracture triangles; measure each one. */
+/** Fracture faces are the connected sets of fracture triangles of one face group (face-split.ts); measure each one. */
 export function fractureFaces(ctx: FaceContext): FractureFace[] {
   const nt = ctx.areas.length;
   const face = new Int32Array(nt).fill(-1);
@@ -74,7 +76,7 @@ export function fractureFaces(ctx: FaceContext): FractureFace[] {
       const f = list[k];
       for (let j = 0; j < 3; j++) {
         const g = ctx.neighbours[3 * f + j];
-        if (g >= 0 && face[g] < 0 && ctx.triClass[g] === FRACTURE) { face[g] = id; list.push(g); }
+        if (g >= 0 && face[g] < 0 && ctx.triClass[g] === FRACTURE && (!ctx.faceGroup || ctx.faceGroup[g] === ctx.faceGroup[f])) { face[g] = id; list.push(g); }
       }
     }
     lists.push(list);
@@ -249,7 +251,8 @@ function edgeAngle(ctx: FaceContext, f: number, g: number, mx: number, my: numbe
   for (let k = 0; k < queue.length && queue.length < 4000; k++) {
     const h = queue[k];
     const cls = ctx.triClass[h];
-    if (cls === FRACTURE) fractureSide.push(h);
+    // The fracture side is this face's own break (face-split.ts): not a neighbouring break across a crease.
+    if (cls === FRACTURE) { if (!ctx.faceGroup || ctx.faceGroup[h] === ctx.faceGroup[f]) fractureSide.push(h); }
     else if (cls === otherClass) surfaceSide.push(h);
     for (let j = 0; j < 3; j++) {
       const e = ctx.neighbours[3 * h + j];

@@ -55,6 +55,18 @@ export const analysisSettingsSchema = z.object({
   fractureEvidenceMin: z.number().default(2.35),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
+  /**
+   * Fracture faces where breaks meet (face-split.ts): two neighbouring fracture regions are
+   * different faces when at least this share of their shared border is a crease
+   * (ridgeAngleDeg) (above 1: never on this test)...
+   */
+  faceSplitCreaseShare: z.number().min(0).default(0.5),
+  /** ...or when their mean normals differ by more than this (180: never on this test). */
+  faceSplitMeanAngleDeg: z.number().positive().max(180).default(45),
+  /** A split-off piece smaller than this (mm²) joins the neighbouring face it shares most border with. */
+  faceSplitMinAreaMm2: z.number().min(0).default(120),
+  /** ...and so does one with less border than this (mm) against outer bone surface, where its fracture angle is read (3 samples at anglePlaneRadiusMm spacing and some). */
+  faceSplitMinOuterEdgeMm: z.number().min(0).default(12),
   /** Original surface whose rays run this many times deeper than the typical wall: articular end. */
   articularDepthRatio: z.number().positive().default(3),
   /**

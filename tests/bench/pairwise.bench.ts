@@ -26,13 +26,26 @@ import { deserialize, serialize } from 'node:v8';
 import { generateAssemblage } from '../../demo-data/generate';
 import { candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import { faceTraits } from '../../core/geometry/proposals/face-traits';
-import { matchFacePair, distinctBest, DEFAULT_MATCH_PARAMETERS, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
+import { matchFacePair, distinctBest, faceOverlapUnder, DEFAULT_MATCH_PARAMETERS, type FaceMatch, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
 import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
-import { displacementAt, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
+import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { loadFragment } from '../../core/jobs/fragment-loader';
 
-interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; transformBToA: number[] }
+interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 interface Truth { fragments: Array<{ catalogueNo: string; boneId: string }>; joins: TruthJoin[] }
+
+/**
+ * Classes of a true join's outcome, by the first stage that lost the truth: a, no coarse
+ * hypothesis within 10 degrees and 5 mm; b, a coarse one was but ICP (short or fine) drifted
+ * away; c2, refined correctly but dropped by the overlap ranking before the fine step; c,
+ * refined correctly but outscored by a wrong motion of the same pair; d, best of its pair but
+ * not in the top 3 of either piece; e, under the true motion no face pair overlaps or holds a
+ * fair share of the surviving break (the break is not held by one segmented face on each side).
+ */
+const FAILURE_CLASSES = ['found', 'a no coarse hypothesis', 'b coarse ICP drifted', 'c2 dropped by overlap', 'b fine step drifted', 'c outscored in pair', 'd outranked by other pairs', 'e break not in one face', 'not run (limit)'];
+const TRUTH_OVERLAP_MIN = 0.2;
+/** ... or when the face pair that holds the most of the break holds less than this share of its surviving area. */
+const TRUTH_AREA_MIN = 0.3;
 
 const SPACING_LADDER = [0.3, 0.42, 0.6, 0.85, 1.2, 1.7, 2.4, 3.4];
 
@@ -90,6 +103,7 @@ export default async function main(): Promise<void> {
   const motions: ScoredMotion[] = [];
   const cpuMs: number[] = [];
   const summary: Array<Record<string, string | number>> = [];
+  const breakdown: Array<Record<string, string | number>> = [];
   for (const dir of dirs) {
     const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
     const names = truth.fragments.map((x) => x.catalogueNo);
@@ -131,6 +145,7 @@ export default async function main(): Promise<void> {
       for (let i = 0; i < A.faces.length; i++) for (let k = 0; k < B.faces.length; k++) addPair(a, b, i, k);
     }
     let done = 0;
+    const traces = new Map<string, { truthOverlap: number; truthArea: number; coarseNear: boolean; refinedCorrect: boolean; keptCorrect: boolean; fineCorrect: boolean }>();
     const best = new Map<string, FaceMatch & { correct: boolean }>();
     // true joins first, so a limited run still measures accuracy
     const ordered = [...work.values()].sort((x, y) => Number(truthOf.has(key(y.a, y.b))) - Number(truthOf.has(key(x.a, x.b))));
@@ -141,15 +156,35 @@ export default async function main(): Promise<void> {
       const want = tj ? (tj.a === w.a ? tj.transformBToA : undefined) : undefined;
       const wantInv = tj && !want ? tj.transformBToA : undefined; // truth maps A(=tj.a) <- B; here a is tj.b
       const all: FaceMatch[] = [];
+      const t = want ?? (wantInv ? invertRigid(wantInv) : undefined);
+      const traced = t ? { coarse: [], refined: [], kept: [] } as MatchTrace : undefined;
+      let truthOverlap = 0, truthArea = 0;
       for (const p of w.pairs) {
         const [fa, fb] = p.split(',').map(Number);
+        if (t) {
+          const o = faceOverlapUnder(A, fa, B, fb, t);
+          truthOverlap = Math.max(truthOverlap, o.share);
+          truthArea = Math.max(truthArea, o.areaMm2);
+        }
         const c0 = process.cpuUsage();
-        all.push(...matchFacePair(A, fa, B, fb, params));
+        all.push(...matchFacePair(A, fa, B, fb, params, traced));
         const c1 = process.cpuUsage(c0);
         cpuMs.push((c1.user + c1.system) / 1000);
         done++;
       }
-      const list = distinctBest(all, 2 * spacing).slice(0, 5);
+      const ranked = distinctBest(all, 2 * spacing);
+      const list = ranked.slice(0, 5);
+      if (t && traced) {
+        const near = (m: RigidTransform, deg: number, mm: number): boolean => rotationErrorDegrees(m, t) < deg && displacementAt(m, t, B.centroid) < mm;
+        traces.set(key(w.a, w.b), {
+          truthOverlap,
+          truthArea,
+          coarseNear: traced.coarse.some((m) => near(m, 10, 5)),
+          refinedCorrect: traced.refined.some((r) => near(r.transform, 5, 5)),
+          keptCorrect: traced.kept.some((m) => near(m, 5, 5)),
+          fineCorrect: ranked.some((m) => near(m.transform, 5, 5)),
+        });
+      }
       list.forEach((m, rank) => {
         let rotErr = NaN, transErr = NaN;
         if (want || wantInv) {
@@ -169,12 +204,29 @@ export default async function main(): Promise<void> {
     // recall: true join correct as the best motion of its pair, and in the top 3 of either piece
     let asBest = 0, top3 = 0;
     const pieceTop = (no: string): string[] => [...best.entries()].filter(([k]) => k.split('|').includes(no)).sort((x, y) => y[1].score - x[1].score).slice(0, 3).map(([k]) => k);
+    const classes = new Map<string, number>(FAILURE_CLASSES.map((c) => [c, 0]));
     for (const j of eligible) {
-      const m = best.get(key(j.a, j.b));
-      if (!m || !m.correct) continue;
-      asBest++;
-      if (pieceTop(j.a).includes(key(j.a, j.b)) || pieceTop(j.b).includes(key(j.a, j.b))) top3++;
+      const k = key(j.a, j.b);
+      const m = best.get(k);
+      const tr = traces.get(k);
+      let cls: string;
+      if (m && m.correct) {
+        asBest++;
+        if (pieceTop(j.a).includes(k) || pieceTop(j.b).includes(k)) {
+          top3++;
+          cls = 'found';
+        } else cls = 'd outranked by other pairs';
+      } else if (!tr) cls = 'not run (limit)';
+      else if (tr.fineCorrect) cls = 'c outscored in pair';
+      else if (tr.keptCorrect) cls = 'b fine step drifted';
+      else if (tr.refinedCorrect) cls = 'c2 dropped by overlap';
+      else if (tr.coarseNear) cls = 'b coarse ICP drifted';
+      else if (tr.truthOverlap < TRUTH_OVERLAP_MIN || tr.truthArea < TRUTH_AREA_MIN * (j.contactAreaMm2 ?? 0) * j.survivingFraction) cls = 'e break not in one face';
+      else cls = 'a no coarse hypothesis';
+      classes.set(cls, (classes.get(cls) ?? 0) + 1);
+      if (process.env.KNITBONE_PAIRWISE_VERBOSE) process.stdout.write(`${k} ${j.pattern} area ${j.contactAreaMm2} surv ${j.survivingFraction} truthOverlap ${f(tr?.truthOverlap ?? NaN)} held ${f(tr?.truthArea ?? NaN, 0)} mm2 -> ${cls}${m ? ` best score ${f(m.score)}` : ''}\n`);
     }
+    breakdown.push({ assemblage: dir.split(/[\\/]/).pop()!, ...Object.fromEntries(classes) });
     summary.push({ assemblage: dir.split(/[\\/]/).pop()!, fragments: usable.length, spacing, 'fragment pairs': work.size, 'face pairs': done, 'true joins': eligible.length, 'found (best of pair)': asBest, 'in top 3 of a piece': top3 });
   }
   const load = loadavg()[0];
@@ -182,6 +234,8 @@ export default async function main(): Promise<void> {
   table([{ 'face pairs': cpuMs.length, median: f(q(cpuMs, 0.5), 1), p90: f(q(cpuMs, 0.9), 1), mean: f(cpuMs.reduce((s, x) => s + x, 0) / Math.max(1, cpuMs.length), 1), max: f(Math.max(...cpuMs), 1) }]);
   process.stdout.write('\nRecall\n');
   table(summary);
+  process.stdout.write(`\nWhy true joins are missed (first stage that lost the truth; e: under the true motion no face pair overlaps ${TRUTH_OVERLAP_MIN} or holds ${TRUTH_AREA_MIN} of the surviving break)\n`);
+  table(breakdown);
   const ok = motions.filter((m) => m.correct && m.rank === 0);
   process.stdout.write('\nAccuracy of correct best motions (geodesic rotation; translation at B\'s centroid)\n');
   table([{ n: ok.length, 'rot median deg': f(q(ok.map((m) => m.rotErr), 0.5)), 'rot p95 deg': f(q(ok.map((m) => m.rotErr), 0.95)), 'trans median mm': f(q(ok.map((m) => m.transErr), 0.5)), 'trans p95 mm': f(q(ok.map((m) => m.transErr), 0.95)) }]);

@@ -7,7 +7,9 @@
  * 200,000-triangle scan. Prints tables; not a pass/fail test.
  *
  * KNITBONE_SAMPLE_DIR points at another generated sample folder (or several, comma-separated:
- * one row each); KNITBONE_SEGMENTATION_PART=accuracy|speed runs only that part.
+ * one row each); KNITBONE_SEGMENTATION_PART=accuracy|speed runs only that part;
+ * KNITBONE_SEGMENTATION_SETTINGS takes analysis setting overrides as JSON (settings.ts), e.g.
+ * '{"faceSplitMeanAngleDeg":180,"faceSplitCreaseShare":2}' for faces without splitting.
  */
 import { readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
@@ -201,7 +203,7 @@ export default async function main(): Promise<void> {
       let s: SampleScores | undefined;
       const cpu0 = process.cpuUsage();
       try {
-        s = scoreSample(dir);
+        s = scoreSample(dir, JSON.parse(process.env.KNITBONE_SEGMENTATION_SETTINGS ?? '{}'));
       } catch (err) {
         process.stdout.write(`(no generated sample at ${dir}: ${(err as Error).message})\n`);
       }

@@ -10,6 +10,7 @@ import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
+import { searchAlongAxisDirections } from '../registration/axis-direction-search';
 import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
@@ -17,7 +18,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-fpfh-ransac-icp/2';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/3';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -26,6 +27,15 @@ export interface MatchParameters {
   axisPeaks: number;
   /** Weight each vote of the shared-axis search by how alike the two samples' FPFH are. */
   axisFeatureWeights: boolean;
+  /** Hypotheses of the search along the two axis directions (0: not run); see axis-direction-search.ts. */
+  directionPeaks: number;
+  /**
+   * Skip RANSAC when a hypothesis of the axis-direction search puts this share of the smaller face
+   * in contact (above 1: never; a wrong turn on a broad, flattish break can overlap as much as the truth).
+   */
+  directionGoodOverlap: number;
+  /** Tilts between the two axis directions tried about each of two directions (degrees). */
+  directionTiltsDeg: number[];
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
@@ -59,6 +69,9 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   hypothesesPerPair: 4,
   axisPeaks: 2,
   axisFeatureWeights: false,
+  directionPeaks: 3,
+  directionGoodOverlap: 2,
+  directionTiltsDeg: [-6, 0, 6],
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
@@ -80,6 +93,16 @@ export interface FaceMatch extends JoinScore {
   faceB: number;
 }
 
+/**
+ * What one face pair went through, for the benchmark's breakdown of missed joins: every coarse
+ * hypothesis, each after the short ICP with its overlap share, and those sent on to the fine step.
+ */
+export interface MatchTrace {
+  coarse: RigidTransform[];
+  refined: Array<{ transform: RigidTransform; overlap: number }>;
+  kept: RigidTransform[];
+}
+
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
   return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
 }
@@ -91,8 +114,8 @@ export interface CoarseMotion {
 }
 
 /** Refined, scored motions carrying B's face fb onto A's face fa, best first: the screen, then the fine step. */
-export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
-  return refineFacePair(a, fa, b, fb, screenFacePair(a, fa, b, fb, params), params);
+export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS, trace?: MatchTrace): FaceMatch[] {
+  return refineFacePair(a, fa, b, fb, screenFacePair(a, fa, b, fb, params, trace), params);
 }
 
 /**
@@ -101,7 +124,7 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
  * share of the smaller face they put in contact; the few distinct best go on to the fine step.
  * Touches only the two faces' samples and k-d trees.
  */
-export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): CoarseMotion[] {
+export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS, trace?: MatchTrace): CoarseMotion[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const starts: RigidTransform[] = [];
@@ -115,12 +138,23 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
   const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
+      trace?.coarse.push(h);
       const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
       return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
     });
   let refined = refine(starts);
+  // shaft pieces whose fitted axis points or radii disagree (partial arcs): the axis directions only
+  const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
+  let settled = shafts && good(refined, params.axisGoodOverlap);
+  if (a.axis && b.axis && params.directionPeaks > 0 && !settled) {
+    const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
+    const more = refine(hyps.map((h) => h.transform));
+    refined = refined.concat(more);
+    // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
+    settled = params.directionGoodOverlap <= 1 && good(more, params.directionGoodOverlap);
+  }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
-  if (!shafts || !refined.some((r) => r.overlap >= params.axisGoodOverlap)) {
+  if (!settled) {
     const hyps = ransacAlignFaces(
       { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, fpfhTree: FA.fpfhTree },
@@ -136,6 +170,10 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
+  }
+  if (trace) {
+    trace.refined.push(...refined);
+    trace.kept.push(...kept.map((k) => k.transform));
   }
   return kept;
 }
@@ -175,6 +213,18 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
 }
 
 /**
+ * Contact of two faces under a motion, with every sample (for the benchmark): the better side's
+ * share of its samples in contact (as overlapShare) and the contact area that side's count stands for.
+ */
+export function faceOverlapUnder(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, T: RigidTransform): { share: number; areaMm2: number } {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const kb = contactCount(FB.points, FB.normals, T, FA.tree, FA.normals, spacing);
+  const ka = contactCount(FA.points, FA.normals, invert(T), FB.tree, FB.normals, spacing);
+  return { share: Math.max(kb / Math.max(1, FB.points.length / 3), ka / Math.max(1, FA.points.length / 3)), areaMm2: Math.max(ka, kb) * spacing * spacing };
+}
+
+/**
  * Share of the smaller face in contact under a motion: B's samples moved onto A's face and
  * A's samples moved back onto B's face, within one spacing and with opposed normals (k-d tree
  * only, for ranking hypotheses before the fine step).
@@ -189,26 +239,29 @@ function overlapShare(
   normalsB: Float32Array,
   spacing: number,
 ): number {
-  const count = (pts: Float32Array, nrm: Float32Array, M: RigidTransform, tree: KdTree, N: Float32Array): number => {
-    const q = [0, 0, 0];
-    let k = 0;
-    const n = pts.length / 3;
-    for (let i = 0; i < n; i++) {
-      const x = pts[3 * i], y = pts[3 * i + 1], z = pts[3 * i + 2];
-      q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
-      q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
-      q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
-      const hit = tree.nearestOne(q, spacing * spacing);
-      if (hit.index < 0) continue;
-      const j = hit.index;
-      const nx = M[0] * nrm[3 * i] + M[1] * nrm[3 * i + 1] + M[2] * nrm[3 * i + 2];
-      const ny = M[4] * nrm[3 * i] + M[5] * nrm[3 * i + 1] + M[6] * nrm[3 * i + 2];
-      const nz = M[8] * nrm[3 * i] + M[9] * nrm[3 * i + 1] + M[10] * nrm[3 * i + 2];
-      if (nx * N[3 * j] + ny * N[3 * j + 1] + nz * N[3 * j + 2] < -0.5) k++;
-    }
-    return k / Math.max(1, n);
-  };
-  return Math.max(count(b.points, b.normals, T, treeA, normalsA), count(a.points, a.normals, invert(T), treeB, normalsB));
+  const nb = b.points.length / 3, na = a.points.length / 3;
+  return Math.max(contactCount(b.points, b.normals, T, treeA, normalsA, spacing) / Math.max(1, nb), contactCount(a.points, a.normals, invert(T), treeB, normalsB, spacing) / Math.max(1, na));
+}
+
+/** Samples that `M` puts within `spacing` of a sample of the other face with opposed normals. */
+function contactCount(pts: Float32Array, nrm: Float32Array, M: RigidTransform, tree: KdTree, N: Float32Array, spacing: number): number {
+  const q = [0, 0, 0];
+  let k = 0;
+  const n = pts.length / 3;
+  for (let i = 0; i < n; i++) {
+    const x = pts[3 * i], y = pts[3 * i + 1], z = pts[3 * i + 2];
+    q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
+    q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
+    q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
+    const hit = tree.nearestOne(q, spacing * spacing);
+    if (hit.index < 0) continue;
+    const j = hit.index;
+    const nx = M[0] * nrm[3 * i] + M[1] * nrm[3 * i + 1] + M[2] * nrm[3 * i + 2];
+    const ny = M[4] * nrm[3 * i] + M[5] * nrm[3 * i + 1] + M[6] * nrm[3 * i + 2];
+    const nz = M[8] * nrm[3 * i] + M[9] * nrm[3 * i + 1] + M[10] * nrm[3 * i + 2];
+    if (nx * N[3 * j] + ny * N[3 * j + 1] + nz * N[3 * j + 2] < -0.5) k++;
+  }
+  return k;
 }
 
 /** B's samples that `T` puts within `within` of A's face, at most `max` of them (evenly strided). */

@@ -56,7 +56,7 @@ interface Cyl {
 }
 
 /** Unit x, y completing z to a right-handed frame. */
-function basis(z: [number, number, number]): [[number, number, number], [number, number, number]] {
+export function shaftBasis(z: [number, number, number]): [[number, number, number], [number, number, number]] {
   const [ax, ay, az] = z;
   let x: [number, number, number] = Math.abs(ax) < 0.9 ? [0, az, -ay] : [-az, 0, ax];
   const l = Math.hypot(...x);
@@ -70,7 +70,7 @@ function cylinder(points: ArrayLike<number>, normals: ArrayLike<number>, frame: 
   const step = Math.max(1, total / max);
   const n = Math.min(total, Math.ceil(total / step));
   const out: Cyl = { index: new Uint32Array(n), r: new Float64Array(n), th: new Float64Array(n), z: new Float64Array(n), nr: new Float64Array(n), nt: new Float64Array(n), nz: new Float64Array(n), n };
-  const [x, y] = basis(frame.direction);
+  const [x, y] = shaftBasis(frame.direction);
   const z = frame.direction, o = frame.point;
   for (let k = 0; k < n; k++) {
     const i = Math.min(total - 1, Math.floor(k * step));
@@ -200,8 +200,8 @@ export function searchAboutSharedAxis(
 
 /** p_A = R_A (Rz(turn) F R_B^T (p - o_B) + (0, 0, shift)) + o_A, with F a half turn about x when flipped. */
 export function axisMotion(axisA: ShaftFrame, axisB: ShaftFrame, flip: boolean, turn: number, shift: number): RigidTransform {
-  const [xa, ya] = basis(axisA.direction), za = axisA.direction;
-  const [xb, yb] = basis(axisB.direction), zb = axisB.direction;
+  const [xa, ya] = shaftBasis(axisA.direction), za = axisA.direction;
+  const [xb, yb] = shaftBasis(axisB.direction), zb = axisB.direction;
   const RA = [xa, ya, za]; // columns of R_A
   const RB = [xb, yb, zb];
   const c = Math.cos(turn), sn = Math.sin(turn), f = flip ? -1 : 1;

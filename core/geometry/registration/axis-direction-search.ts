@@ -1,0 +1,210 @@
+/**
+ * Coarse alignment of two shaft pieces from their axis directions alone (design.md section 7,
+ * notes for long bones). The shared-axis search (shaft-axis-search.ts) lays both fitted axis
+ * lines on one line, which fails when a piece holds only part of the shaft's circumference: its
+ * fitted axis point and radius are then poor (off by several mm) while its axis direction is
+ * still good to a few degrees. Here only the directions are trusted: B's axis is laid along A's
+ * (either way round, and tilted by a few degrees about two directions across the axis, since
+ * directions fitted on bowed shafts or partial arcs differ a little), which leaves the turn about
+ * the axis and a free translation. Every pair of samples whose normals can be opposed by a turn
+ * fixes that turn (from the normals' components across the axis) and then the translation; the
+ * pairs vote in (turn, translation) bins and the peaks are the hypotheses (a generalised Hough
+ * transform, Ballard 1981).
+ */
+import type { RigidTransform } from './rigid-transform';
+import { shaftBasis } from './shaft-axis-search';
+
+export interface AxisDirectionSearchOptions {
+  spacing: number;
+  /** Most samples per face used in the vote. */
+  maxSamples?: number;
+  /** Hypotheses returned (best voted, distinct bins). */
+  peaks?: number;
+  /** Tilts tried about each of two directions across A's axis (degrees), e.g. [-6, 0, 6]. */
+  tiltsDeg?: number[];
+  /** Width of a turn bin (degrees). */
+  turnBinDeg?: number;
+  /** Width of a translation bin in sample spacings. */
+  shiftBinSpacings?: number;
+}
+
+export interface DirectionHypothesis {
+  transform: RigidTransform;
+  votes: number;
+  flip: boolean;
+  tiltDeg: [number, number];
+}
+
+type V3 = [number, number, number];
+
+function rotateAbout(v: V3, axis: V3, angle: number): V3 {
+  const c = Math.cos(angle), s = Math.sin(angle);
+  const d = axis[0] * v[0] + axis[1] * v[1] + axis[2] * v[2];
+  const cx = axis[1] * v[2] - axis[2] * v[1], cy = axis[2] * v[0] - axis[0] * v[2], cz = axis[0] * v[1] - axis[1] * v[0];
+  return [v[0] * c + cx * s + axis[0] * d * (1 - c), v[1] * c + cy * s + axis[1] * d * (1 - c), v[2] * c + cz * s + axis[2] * d * (1 - c)];
+}
+
+function strided(points: ArrayLike<number>, normals: ArrayLike<number>, max: number): { p: Float64Array; n: Float64Array; count: number } {
+  const total = points.length / 3;
+  const step = Math.max(1, total / max);
+  const count = Math.min(total, Math.ceil(total / step));
+  const p = new Float64Array(3 * count), n = new Float64Array(3 * count);
+  for (let k = 0; k < count; k++) {
+    const i = Math.min(total - 1, Math.floor(k * step));
+    for (let d = 0; d < 3; d++) {
+      p[3 * k + d] = points[3 * i + d];
+      n[3 * k + d] = normals[3 * i + d];
+    }
+  }
+  return { p, n, count };
+}
+
+/** Coordinates of packed vectors in the frame (x, y, z) (rows of the frame's transpose). */
+function toFrame(v: Float64Array, count: number, x: V3, y: V3, z: V3): Float64Array {
+  const out = new Float64Array(3 * count);
+  for (let i = 0; i < count; i++) {
+    const a = v[3 * i], b = v[3 * i + 1], c = v[3 * i + 2];
+    out[3 * i] = a * x[0] + b * x[1] + c * x[2];
+    out[3 * i + 1] = a * y[0] + b * y[1] + c * y[2];
+    out[3 * i + 2] = a * z[0] + b * z[1] + c * z[2];
+  }
+  return out;
+}
+
+/**
+ * Motions carrying B's face onto A's face with B's axis direction laid along A's (within the
+ * tilts tried), best voted first. Faces are packed xyz samples with outward normals.
+ */
+export function searchAlongAxisDirections(
+  directionA: V3,
+  faceAPoints: ArrayLike<number>,
+  faceANormals: ArrayLike<number>,
+  directionB: V3,
+  faceBPoints: ArrayLike<number>,
+  faceBNormals: ArrayLike<number>,
+  options: AxisDirectionSearchOptions,
+): DirectionHypothesis[] {
+  const max = options.maxSamples ?? 150;
+  const A = strided(faceAPoints, faceANormals, max), B = strided(faceBPoints, faceBNormals, max);
+  if (A.count < 3 || B.count < 3) return [];
+  const tilts = options.tiltsDeg ?? [0];
+  const dTh = ((options.turnBinDeg ?? 6) * Math.PI) / 180;
+  const nTh = Math.ceil((2 * Math.PI) / dTh);
+  const bs = (options.shiftBinSpacings ?? 1.5) * options.spacing;
+  const [xa0, ya0] = shaftBasis(directionA);
+  const [xb, yb] = shaftBasis(directionB);
+  const zb = directionB;
+  // bound on any translation's coordinates: |a| + |b| (coordinates taken about the faces' centres below)
+  const ca = [0, 0, 0], cb = [0, 0, 0];
+  for (let i = 0; i < A.count; i++) for (let d = 0; d < 3; d++) ca[d] += A.p[3 * i + d] / A.count;
+  for (let i = 0; i < B.count; i++) for (let d = 0; d < 3; d++) cb[d] += B.p[3 * i + d] / B.count;
+  const Ap = new Float64Array(A.p), Bp = new Float64Array(B.p);
+  let ra = 0, rb = 0;
+  for (let i = 0; i < A.count; i++) { for (let d = 0; d < 3; d++) Ap[3 * i + d] -= ca[d]; ra = Math.max(ra, Math.hypot(Ap[3 * i], Ap[3 * i + 1], Ap[3 * i + 2])); }
+  for (let i = 0; i < B.count; i++) { for (let d = 0; d < 3; d++) Bp[3 * i + d] -= cb[d]; rb = Math.max(rb, Math.hypot(Bp[3 * i], Bp[3 * i + 1], Bp[3 * i + 2])); }
+  const half = Math.ceil((ra + rb) / bs) + 1;
+  const nb = 2 * half + 1;
+  // vote table: open addressing on the bin key, with each bin's sums (turn as cos and sin, translation)
+  let size = 1024;
+  while (size < 2 * A.count * B.count) size <<= 1;
+  const mask = size - 1;
+  const tKey = new Float64Array(size).fill(-1), tCount = new Int32Array(size);
+  const tC = new Float64Array(size), tS = new Float64Array(size), tX = new Float64Array(size), tY = new Float64Array(size), tZ = new Float64Array(size);
+  const used = new Int32Array(size);
+  const found: DirectionHypothesis[] = [];
+  for (const flip of [false, true]) {
+    const f = flip ? -1 : 1;
+    // B in its own axis frame, flipped or not (half turn about x): fixed for every tilt and turn
+    const bP = toFrame(Bp, B.count, xb, yb, zb), bN = toFrame(B.n, B.count, xb, yb, zb);
+    if (flip) for (let i = 0; i < B.count; i++) { bP[3 * i + 1] *= f; bP[3 * i + 2] *= f; bN[3 * i + 1] *= f; bN[3 * i + 2] *= f; }
+    const phiB = new Float64Array(B.count).fill(NaN), cB = new Float64Array(B.count), sB = new Float64Array(B.count);
+    for (let i = 0; i < B.count; i++) {
+      const u = bN[3 * i], v = bN[3 * i + 1], h = Math.hypot(u, v);
+      if (h < 0.3) continue;
+      phiB[i] = Math.atan2(v, u); cB[i] = u / h; sB[i] = v / h;
+    }
+    for (const t1 of tilts) for (const t2 of tilts) {
+      // A's frame tilted: about x by t1, then about the new y by t2
+      const a1 = (t1 * Math.PI) / 180, a2 = (t2 * Math.PI) / 180;
+      const za1 = rotateAbout(directionA, xa0, a1), ya1 = rotateAbout(ya0, xa0, a1);
+      const za: V3 = rotateAbout(za1, ya1, a2), xa: V3 = rotateAbout(xa0, ya1, a2), ya = ya1;
+      const aP = toFrame(Ap, A.count, xa, ya, za), aN = toFrame(A.n, A.count, xa, ya, za);
+      // A's normal across the axis, reversed: where B's must point after the turn
+      const phiA = new Float64Array(A.count).fill(NaN), cA = new Float64Array(A.count), sA = new Float64Array(A.count);
+      for (let j = 0; j < A.count; j++) {
+        const p = -aN[3 * j], q = -aN[3 * j + 1], h = Math.hypot(p, q);
+        if (h < 0.3) continue;
+        phiA[j] = Math.atan2(q, p); cA[j] = p / h; sA[j] = q / h;
+      }
+      let nUsed = 0;
+      for (let i = 0; i < B.count; i++) {
+        if (Number.isNaN(phiB[i])) continue;
+        const w = bN[3 * i + 2];
+        const bx = bP[3 * i], by = bP[3 * i + 1], bz = bP[3 * i + 2];
+        for (let j = 0; j < A.count; j++) {
+          if (Number.isNaN(phiA[j]) || Math.abs(w + aN[3 * j + 2]) > 0.3) continue;
+          // turn that makes B's normal across the axis point opposite to A's
+          let th = phiA[j] - phiB[i];
+          if (th < 0) th += 2 * Math.PI;
+          const c = cA[j] * cB[i] + sA[j] * sB[i], s = sA[j] * cB[i] - cA[j] * sB[i];
+          const tx = aP[3 * j] - (c * bx - s * by), ty = aP[3 * j + 1] - (s * bx + c * by), tz = aP[3 * j + 2] - bz;
+          const kt = Math.floor(th / dTh) % nTh;
+          const key = ((kt * nb + Math.round(tx / bs) + half) * nb + Math.round(ty / bs) + half) * nb + Math.round(tz / bs) + half;
+          let h = (Math.imul(key | 0, 0x9e3779b1) ^ Math.floor(key / 4294967296)) & mask;
+          while (tKey[h] !== -1 && tKey[h] !== key) h = (h + 1) & mask;
+          if (tKey[h] === -1) { tKey[h] = key; used[nUsed++] = h; }
+          tCount[h]++; tC[h] += c; tS[h] += s; tX[h] += tx; tY[h] += ty; tZ[h] += tz;
+        }
+      }
+      // the best bins of this flip and tilt: the motion is the mean turn and translation of their votes
+      const peaks = options.peaks ?? 3;
+      const best: number[] = [];
+      for (let k = 0; k < nUsed; k++) {
+        const h = used[k];
+        if (tCount[h] < 3) continue;
+        if (best.length < peaks || tCount[h] > tCount[best[best.length - 1]]) {
+          best.push(h);
+          best.sort((x, y) => tCount[y] - tCount[x]);
+          if (best.length > peaks) best.length = peaks;
+        }
+      }
+      for (const h of best) {
+        const n = tCount[h];
+        const transform = motion([xa, ya, za], [xb, yb, zb], f, Math.atan2(tS[h], tC[h]), [tX[h] / n, tY[h] / n, tZ[h] / n], ca, cb);
+        found.push({ transform, votes: n, flip, tiltDeg: [t1, t2] });
+      }
+      for (let k = 0; k < nUsed; k++) {
+        const h = used[k];
+        tKey[h] = -1; tCount[h] = 0; tC[h] = 0; tS[h] = 0; tX[h] = 0; tY[h] = 0; tZ[h] = 0;
+      }
+    }
+  }
+  found.sort((x, y) => y.votes - x.votes);
+  return found.slice(0, options.peaks ?? 3);
+}
+
+/**
+ * p_A = FA (Rz(turn) Fl FB^T (p - cB) + t) + cA, with FA, FB the frames as columns and Fl the
+ * half turn about x when flipped.
+ */
+function motion(FA: [V3, V3, V3], FB: [V3, V3, V3], f: number, turn: number, t: V3, cA: number[], cB: number[]): RigidTransform {
+  const c = Math.cos(turn), s = Math.sin(turn);
+  const M = [
+    [c, -s * f, 0],
+    [s, c * f, 0],
+    [0, 0, f],
+  ];
+  const R = new Array<number>(9).fill(0);
+  for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
+    let v = 0;
+    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += FA[a][i] * M[a][b] * FB[b][j];
+    R[3 * i + j] = v;
+  }
+  const out: number[] = [];
+  for (let i = 0; i < 3; i++) {
+    const ti = cA[i] + FA[0][i] * t[0] + FA[1][i] * t[1] + FA[2][i] * t[2] - (R[3 * i] * cB[0] + R[3 * i + 1] * cB[1] + R[3 * i + 2] * cB[2]);
+    out.push(R[3 * i], R[3 * i + 1], R[3 * i + 2], ti);
+  }
+  out.push(0, 0, 0, 1);
+  return out;
+}
