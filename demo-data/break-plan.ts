@@ -40,7 +40,7 @@ export interface BreakPlan {
 /** Roughness of fracture faces, multi-scale, 0.1-1 mm (issue text; the octaves are our choice). */
 export const ROUGHNESS: Record<BreakAge, RoughnessSpec> = {
   fresh: { octaves: [{ wavelength: 9, amplitude: 0.55 }, { wavelength: 4, amplitude: 0.28 }, { wavelength: 2, amplitude: 0.14 }, { wavelength: 1, amplitude: 0.07 }] },
-  dry: { ridged: true, octaves: [{ wavelength: 7, amplitude: 0.32 }, { wavelength: 3, amplitude: 0.22 }, { wavelength: 1.5, amplitude: 0.12 }, { wavelength: 0.8, amplitude: 0.06 }] },
+  dry: { ridged: true, throughWall: 0.25, octaves: [{ wavelength: 7, amplitude: 0.32 }, { wavelength: 3, amplitude: 0.22 }, { wavelength: 1.5, amplitude: 0.12 }, { wavelength: 0.8, amplitude: 0.06 }] },
   modern: { octaves: [{ wavelength: 5, amplitude: 0.15 }, { wavelength: 2, amplitude: 0.07 }, { wavelength: 1, amplitude: 0.04 }] },
 };
 
@@ -178,15 +178,19 @@ function transverse(shape: BoneShape, random: Random, z: number, age: 'dry' | 'm
   const roughness = new Roughness(random, ROUGHNESS[age]);
   // dry fronts are stepped: a few millimetre steps along the outline
   const steps = age === 'dry' ? Array.from({ length: 5 }, () => [random.uniform(0, 2 * Math.PI), random.uniform(-1.5, 1.5)] as const) : [];
-  const outline = smoothedOutline((th) => {
-    let h = a * Math.cos(th - phase);
-    for (const [at, size] of steps) h += wrap(th - at) < Math.PI ? size / 2 : -size / 2;
-    return h;
-  }, 0.06);
+  // the tilt is a plane through the axis (so it scales with radius); the steps run straight through the wall
+  const outline = (th: number) => a * Math.cos(th - phase);
+  const stepFront = steps.length
+    ? smoothedOutline((th) => {
+        let h = 0;
+        for (const [at, size] of steps) h += wrap(th - at) < Math.PI ? size / 2 : -size / 2;
+        return h;
+      }, 0.06)
+    : undefined;
   const bevel = age === 'modern' ? 0 : random.uniform(-0.05, 0.05);
   const rc = shape.maxOuterRadius(Math.max(0, z - 15), Math.min(shape.length, z + 15)) + 3;
   const reach = (a * rc) / rMean + 4 + Math.abs(bevel) * rc;
-  return { z, outline, planar: true, bevel, twistBevel: 0, roughness, outlineMin: -reach, outlineMax: reach };
+  return { z, outline, planar: true, bevel, twistBevel: 0, roughness, outlineMin: -reach, outlineMax: reach, ...(stepFront ? { steps: stepFront } : {}) };
 }
 
 export function wrap(a: number): number {

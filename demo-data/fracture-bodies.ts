@@ -50,6 +50,12 @@ export interface RingBreakGeometry {
   bevel: number;
   /** Angular bevel (radians across one mean radius): turns the front with depth, for oblique faces on steep parts. */
   twistBevel: number;
+  /**
+   * Steps added to the front at angle θ, the same at every radius through the wall (a dry break
+   * runs straight through the cortex, so its steps meet the bone surface at right angles), faded
+   * out toward the axis so the surface stays one height per point of the cross-section.
+   */
+  steps?: (theta: number) => number;
   roughness: Roughness;
   /** Range of outline(θ) values, for clearances. */
   outlineMin: number;
@@ -69,6 +75,7 @@ export function ringBreakBody(shape: BoneShape, g: RingBreakGeometry, resolution
   const rInner = hollow ? shape.minInnerRadius(Math.max(shape.cavityStart, zlo), Math.min(shape.cavityEnd, zhi)) : 0;
   const rBlend = hollow ? rInner * 0.75 : 0;
   const outlineMean = hollow ? (g.outlineMin + g.outlineMax) / 2 : 0;
+  const rSteps = Math.max(1, 0.8 * (shape.shaftRadius(g.z) - shape.cortical(g.z)));
 
   const height = (r: number, theta: number): number => {
     const rc = Math.min(r, rClamp);
@@ -76,7 +83,9 @@ export function ringBreakBody(shape: BoneShape, g: RingBreakGeometry, resolution
     let h: number;
     if (g.planar) h = (g.outline(th) * rc) / rMean + g.bevel * (rc - rMean);
     else h = g.outline(th) + g.bevel * (rc - rMean);
-    h += g.roughness.at(rc * Math.cos(theta), rc * Math.sin(theta));
+    if (g.steps) h += g.steps(th) * smoothstep(Math.min(1, rc / rSteps));
+    const rr = g.roughness.acrossWall(rc, rMean);
+    h += g.roughness.at(rr * Math.cos(theta), rr * Math.sin(theta));
     if (hollow && r < rBlend) {
       const w = smoothstep(r / rBlend);
       h = outlineMean * (1 - w) + h * w;
@@ -87,10 +96,11 @@ export function ringBreakBody(shape: BoneShape, g: RingBreakGeometry, resolution
   // Angles: spaced by arc length of the front on the mid-cortex, so steep parts get more samples.
   const fine = 4096;
   const arc = new Float64Array(fine + 1);
-  let prev = g.outline(0);
+  const front = (th: number): number => g.outline(th) + (g.steps ? g.steps(th) : 0);
+  let prev = front(0);
   for (let i = 1; i <= fine; i++) {
     const th = (2 * Math.PI * i) / fine;
-    const h = g.outline(th);
+    const h = front(th);
     arc[i] = arc[i - 1] + Math.hypot((rClamp * 2 * Math.PI) / fine, h - prev);
     prev = h;
   }

@@ -39,6 +39,13 @@ export interface RoughnessSpec {
   octaves: ReadonlyArray<{ wavelength: number; amplitude: number }>;
   /** Ridged octaves (1 - |n|) give jagged, stepped relief, as on a dry break. */
   ridged?: boolean;
+  /**
+   * How much slower the relief varies through the cortical wall than along the front (1: the
+   * same; 0.25: four times slower). A dry break is jagged along its front but runs about
+   * straight through the wall, so its face meets the bone surface near a right angle, the
+   * mark Villa & Mahieu (1991) read a dry break by.
+   */
+  throughWall?: number;
 }
 
 /** A rough surface height field h(x, y) in mm: the sum of several noise octaves. */
@@ -52,6 +59,11 @@ export class Roughness {
   ) {
     this.layers = spec.octaves.map(() => new GradientNoise2D(random));
     this.offsets = spec.octaves.map(() => random.uniform(0, 200));
+  }
+
+  /** The radius at which to read the relief for a point at `radius` through a wall of mid-radius `rMean` (see throughWall). */
+  acrossWall(radius: number, rMean: number): number {
+    return rMean + (radius - rMean) * (this.spec.throughWall ?? 1);
   }
 
   at(x: number, y: number): number {

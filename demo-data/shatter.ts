@@ -103,7 +103,7 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       acc += w;
     }
     const smooth = (i: number) => (r: number, zeta: number) => base[i] + (sp.twist * zeta) / len + (sp.bevels[i] * (r - rMean)) / rMean;
-    const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, r) / rMean;
+    const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, sp.roughness[i].acrossWall(r, rMean)) / rMean;
     const common = {
       frame,
       zetaLo: z0 - zm - (openLo ? 0 : 6),
