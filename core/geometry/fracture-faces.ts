@@ -279,13 +279,35 @@ function edgeAngle(ctx: FaceContext, f: number, g: number, mx: number, my: numbe
     return dx * dx + dy * dy + dz * dz - along * along >= skip2;
   };
   const nf = meanNormal(ctx, fractureSide.filter(away));
-  const ns = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
+  let ns = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
   if (!nf || !ns) return undefined;
+  if (otherClass === OUTER) ns = shaftCheckedNormal(ctx, ns, mx, my, mz);
   const dot = nf[0] * ns[0] + nf[1] * ns[1] + nf[2] * ns[2];
   return 180 - (Math.acos(Math.max(-1, Math.min(1, dot))) * 180) / Math.PI;
 }
 
 type Vec3 = [number, number, number];
+
+/**
+ * The fitted bone-surface normal n at the edge point m, or the shaft's radial direction there
+ * when the fit has failed: on a fragment whose axis fit holds (support >= angleShaftSupportMin),
+ * at a point on the fitted shaft (|distance from the axis / radius - 1| <=
+ * angleShaftRadiusTolerance), a fit further than angleFitShaftMaxDeg from radial is not the
+ * cortical surface (settings.ts).
+ */
+function shaftCheckedNormal(ctx: FaceContext, n: Vec3, mx: number, my: number, mz: number): Vec3 {
+  const { axis, settings } = ctx;
+  if (!(axis.support >= settings.angleShaftSupportMin) || !(axis.radius > 0)) return n;
+  const [ax, ay, az] = axis.direction;
+  const dx = mx - axis.point[0], dy = my - axis.point[1], dz = mz - axis.point[2];
+  const along = dx * ax + dy * ay + dz * az;
+  const rx = dx - along * ax, ry = dy - along * ay, rz = dz - along * az;
+  const rl = Math.hypot(rx, ry, rz);
+  if (!(rl > 0) || Math.abs(rl / axis.radius - 1) > settings.angleShaftRadiusTolerance) return n;
+  const cos = (n[0] * rx + n[1] * ry + n[2] * rz) / rl;
+  if (cos >= Math.cos((settings.angleFitShaftMaxDeg * Math.PI) / 180)) return n;
+  return [rx / rl, ry / rl, rz / rl];
+}
 
 /** Area-weighted mean of the triangles' unit normals, normalised (undefined when empty). */
 function meanNormal(ctx: FaceContext, tris: number[]): Vec3 | undefined {

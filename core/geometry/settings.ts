@@ -88,6 +88,19 @@ export const analysisSettingsSchema = z.object({
    * second. Wide enough for scanner noise on a 1-1.5 mm mesh.
    */
   angleFitOutlierDeg: z.number().positive().max(90).default(15),
+  /**
+   * Shaft check on that fit (fracture-faces.ts): on a fragment whose shaft axis fit holds
+   * (support at least angleShaftSupportMin), at an edge against outer cortical surface that lies
+   * on the fitted shaft (distance from the axis within angleShaftRadiusTolerance of the radius),
+   * a fitted normal further than angleFitShaftMaxDeg from the shaft's radial direction there is
+   * a failed fit (a chipped or rounded rim, break face left on the surface side: on a coarse
+   * scan the fit rests on 10-20 triangles) and the radial direction is used instead. Cortical
+   * surface along a shaft leans far less than this from radial; fitted on dev seeds 12, 14-16
+   * and the committed sample (segmentation benchmark).
+   */
+  angleShaftSupportMin: z.number().min(0).max(1).default(0.75),
+  angleShaftRadiusTolerance: z.number().min(0).default(0.25),
+  angleFitShaftMaxDeg: z.number().positive().max(180).default(40),
   /** Mean |outline tangent . shaft axis| below this: a transverse outline. */
   outlineTransverseMax: z.number().min(0).max(1).default(0.3),
   /** Mean |outline tangent . shaft axis| above this: a curved / V-shaped outline. */

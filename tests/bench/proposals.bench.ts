@@ -180,7 +180,7 @@ function proposeRun(dir: string, truth: Truth, n: number, seed: string, mode: 'p
   const workers = process.env.KNITBONE_BENCH_WORKERS ?? '2';
   progress(`seed ${seed}, ${n} fragments: knitbone propose --workers ${workers}${mode === 'exhaustive' ? ' --exhaustive' : ''}`);
   const r = must(cli(['propose', cat, '--workers', workers, ...(mode === 'exhaustive' ? ['--exhaustive'] : [])]), `propose ${mode}`);
-  progress(`  done: ${f(r.wall, 1)} s wall, ${f(r.cpu, 1)} s CPU, ${f(r.maxRssMb, 0)} MB, load ${r.load}; ${r.stdout.split('\n').filter(Boolean).slice(-2).join(' ')}`);
+  progress(`  done: ${f(r.wall, 1)} s wall, ${f(r.cpu, 1)} s CPU, ${f(r.maxRssMb, 0)} MB, load ${r.load}; ${r.stdout.split('\n').filter((l) => /break faces|candidate face pairs/.test(l)).join(' ')}`);
   const proposals = JSON.parse(must(cli(['joins', cat, '--status', 'proposed', '--json']), 'joins').stdout) as Proposal[];
   const stats = /(\d+) scans, (\d+) break faces, (\d+) candidate pairs.*\n\((\d+) scans analysed.*?(\d+) candidate face pairs, (\d+) aligned; reading ([\d.]+) s, describing ([\d.]+) s, aligning ([\d.]+) s/.exec(r.stdout) ?? [];
   const present = new Set(truth.fragments.map((x) => x.catalogueNo));

@@ -4,8 +4,8 @@
  * first and pruned by the best distance found so far; the closest point on each triangle by
  * Ericson's Voronoi-region test (Real-Time Collision Detection, 2005, section 5.1.5). Exact,
  * like three-mesh-bvh's closestPointToPoint (tests/unit/geometry/registration/triangle-bvh.test.ts
- * compares the two), but on flat typed arrays with no objects made per query: ICP and the
- * join score ask it thousands of times per motion.
+ * compares the two), but on flat typed arrays (float32 corners, as scans are stored) with no
+ * objects made per query: ICP and the join score ask it thousands of times per motion.
  */
 const LEAF = 8;
 
@@ -20,7 +20,7 @@ export interface TriangleHit {
 
 export class TriangleBvh {
   /** Per node: box min xyz, max xyz. */
-  private readonly box: Float64Array;
+  private readonly box: Float32Array;
   /** Per node: first child (the second is first + 1), or -1 for a leaf. */
   private readonly child: Int32Array;
   /** Per node: range [start, end) in `order`. */
@@ -28,7 +28,7 @@ export class TriangleBvh {
   private readonly end: Uint32Array;
   /** Triangle numbers in tree order, and their corners in that order (9 numbers each). */
   private readonly order: Uint32Array;
-  private readonly corners: Float64Array;
+  private readonly corners: Float32Array;
   private readonly stack: Int32Array;
   private nodes = 0;
 
@@ -41,7 +41,7 @@ export class TriangleBvh {
     this.order = new Uint32Array(nt);
     for (let t = 0; t < nt; t++) this.order[t] = t;
     const maxNodes = Math.max(1, 2 * Math.ceil(nt / (LEAF / 2)) + 1);
-    this.box = new Float64Array(6 * maxNodes);
+    this.box = new Float32Array(6 * maxNodes);
     this.child = new Int32Array(maxNodes).fill(-1);
     this.start = new Uint32Array(maxNodes);
     this.end = new Uint32Array(maxNodes);
@@ -78,7 +78,7 @@ export class TriangleBvh {
       todo.push(a, b);
     }
     // corners in tree order, and boxes bottom-up (children always come after their parent)
-    this.corners = new Float64Array(9 * nt);
+    this.corners = new Float32Array(9 * nt);
     for (let i = 0; i < nt; i++) {
       const t = this.order[i];
       for (let v = 0; v < 3; v++) for (let k = 0; k < 3; k++) this.corners[9 * i + 3 * v + k] = positions[3 * triangles[3 * t + v] + k];

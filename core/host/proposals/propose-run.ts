@@ -25,6 +25,7 @@ import { invert } from '../../geometry/registration/rigid-transform';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, runSpacing, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
 import { startTypeScriptWorker } from '../../jobs/typescript-worker';
 import { runPool, type PoolTask } from '../../jobs/affinity-pool';
+import { bandOrder } from '../../jobs/pair-order';
 import { cacheDirFor, fragmentKey, readSummary, readTraits } from '../../jobs/fragment-cache';
 import { WORKER_CACHE_SIZE, type AnalyseResult, type DescribeResult, type MatchResult, type ProposalTask, type ScanRef } from '../../jobs/proposal-worker';
 import type { LengthUnit } from '../../jobs/fragment-loader';
@@ -187,8 +188,11 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         const facePairs: Array<[number, number]> = list.map((c) => (sa === A ? [c.faceA, c.faceB] : [c.faceB, c.faceA]));
         tasks.push({ keys: [String(sa.scanId), String(sb.scanId)], message: { kind: 'match', a: sa, b: sb, facePairs, sampling, params, keep: 3 } });
       }
-      // keep pairs that share fragments near each other in the queue (worker caches)
-      tasks.sort((p, q) => Number(p.keys[0]) - Number(q.keys[0]) || Number(p.keys[1]) - Number(q.keys[1]));
+      // keep pairs that share fragments near each other in the queue (worker caches; pair-order.ts)
+      const slot = new Map(usable.map((u, i) => [String(u.scanId), i]));
+      const ordered = bandOrder(tasks, (t) => [slot.get(t.keys[0])!, slot.get(t.keys[1])!], usable.length);
+      tasks.length = 0;
+      for (const t of ordered) tasks.push(t);
 
       // 4. align and store
       let stored = 0, alignedFacePairs = 0;

@@ -7,7 +7,11 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import type { FractureFace } from '../../../core/geometry/fracture-faces';
+import { fractureFaces, type FractureFace } from '../../../core/geometry/fracture-faces';
+import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
+import { triangleCentroids } from '../../../core/geometry/normal-filter';
+import { SURFACE_CLASSES } from '../../../core/geometry/surface-classes';
+import { buildTopology } from '../../../core/geometry/topology';
 import { brokenTube, type Cut } from './broken-tube';
 
 const R = 12;
@@ -144,5 +148,44 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
       expect(a).toBeLessThan(71);
     }
     expect(face!.angleClass).toBe('oblique');
+  });
+
+  it('a failed bone-surface fit at the rim (normals turned 50 degrees off the wall) is caught by the shaft check', () => {
+    // The transverse cut again, with the outer wall's triangle normals within 5 mm of the cut
+    // turned by 50 degrees towards the axis direction (what a chipped or rounded rim does to a
+    // fit on a few triangles): the fitted surface normal then makes 90 - 50 = 40 degrees with
+    // the face. The tube's wall is parallel to the axis, so the shaft model's radial direction
+    // is the true surface normal and the face is right-angled (90 degrees).
+    const a = transverse;
+    const face = largest(a);
+    const { normals, areas } = triangleNormalsAndAreas(a.mesh);
+    const centroids = triangleCentroids(a.mesh.positions, a.mesh.triangles);
+    let zc = 0;
+    for (const t of face.triangleIds) zc += centroids[3 * t + 2] / face.triangleIds.length;
+    const outer = SURFACE_CLASSES.indexOf('outer-cortical');
+    const turn = (50 * Math.PI) / 180;
+    let turned = 0;
+    for (let t = 0; t < areas.length; t++) {
+      if (a.triangleClass[t] !== outer || Math.abs(centroids[3 * t + 2] - zc) > 5) continue;
+      const rho = Math.hypot(centroids[3 * t], centroids[3 * t + 1]);
+      normals[3 * t] = (Math.cos(turn) * centroids[3 * t]) / rho;
+      normals[3 * t + 1] = (Math.cos(turn) * centroids[3 * t + 1]) / rho;
+      normals[3 * t + 2] = Math.sin(turn);
+      turned++;
+    }
+    expect(turned).toBeGreaterThan(50);
+    const topo = buildTopology(a.mesh);
+    const faceOf = (settings: typeof a.settings) => fractureFaces({
+      mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
+      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings,
+    }).sort((x, y) => y.area - x.area)[0];
+    expect(a.axis.support).toBeGreaterThanOrEqual(a.settings.angleShaftSupportMin);
+    const checked = faceOf(a.settings);
+    expect(checked.medianAngleDeg).toBeGreaterThan(88);
+    expect(checked.angleClass).toBe('right');
+    // Without the check (any lean accepted) the failed fit decides: 40 degrees, oblique.
+    const unchecked = faceOf({ ...a.settings, angleFitShaftMaxDeg: 180 });
+    expect(Math.abs(unchecked.medianAngleDeg - 40)).toBeLessThan(3);
+    expect(unchecked.angleClass).toBe('oblique');
   });
 });
