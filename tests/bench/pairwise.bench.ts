@@ -132,6 +132,9 @@ export default async function main(): Promise<void> {
     // face pairs per fragment pair: candidates, plus every face pair of true joins
     const work = new Map<string, { a: string; b: string; pairs: Set<string> }>();
     const addPair = (a: string, b: string, fa: number, fb: number): void => {
+      // one entry per fragment pair, whichever way round it was first met (else a true join's face
+      // pairs and the candidates' would be aligned as two entries, the later overwriting the first)
+      if (work.has(`${b}|${a}`)) return addPair(b, a, fb, fa);
       const k = `${a}|${b}`;
       let w = work.get(k);
       if (!w) work.set(k, (w = { a, b, pairs: new Set() }));
