@@ -11,6 +11,7 @@ import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
 import { searchAlongAxisDirections } from '../registration/axis-direction-search';
+import { inOpposedContact } from '../registration/opposed-contact';
 import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
@@ -248,19 +249,7 @@ function contactCount(pts: Float32Array, nrm: Float32Array, M: RigidTransform, t
   const q = [0, 0, 0];
   let k = 0;
   const n = pts.length / 3;
-  for (let i = 0; i < n; i++) {
-    const x = pts[3 * i], y = pts[3 * i + 1], z = pts[3 * i + 2];
-    q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
-    q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
-    q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
-    const hit = tree.nearestOne(q, spacing * spacing);
-    if (hit.index < 0) continue;
-    const j = hit.index;
-    const nx = M[0] * nrm[3 * i] + M[1] * nrm[3 * i + 1] + M[2] * nrm[3 * i + 2];
-    const ny = M[4] * nrm[3 * i] + M[5] * nrm[3 * i + 1] + M[6] * nrm[3 * i + 2];
-    const nz = M[8] * nrm[3 * i] + M[9] * nrm[3 * i + 1] + M[10] * nrm[3 * i + 2];
-    if (nx * N[3 * j] + ny * N[3 * j + 1] + nz * N[3 * j + 2] < -0.5) k++;
-  }
+  for (let i = 0; i < n; i++) if (inOpposedContact(M, pts, nrm, i, tree, N, spacing, q)) k++;
   return k;
 }
 

@@ -8,6 +8,7 @@
 import { absoluteOrientation } from './absolute-orientation';
 import { FPFH_BINS, FPFH_DIM } from './fpfh';
 import { KdTree } from './nearest-neighbours';
+import { inOpposedContact } from './opposed-contact';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from './rigid-transform';
 import { mulberry32 } from '../seeded-random';
 
@@ -149,18 +150,7 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
     for (let c = 0; c < check.length; c++) {
       // after a preview, give up on motions that cannot reach the kept ones
       if (c === preview && worst > 0 && (inl * check.length) / preview < 0.5 * worst) break;
-      const i = check[c];
-      const x = S[3 * i], y = S[3 * i + 1], z = S[3 * i + 2];
-      q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
-      q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
-      q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
-      const hit = targetTree.nearestOne(q, eps * eps);
-      if (hit.index < 0) continue;
-      const j = hit.index;
-      const nx = M[0] * Sn[3 * i] + M[1] * Sn[3 * i + 1] + M[2] * Sn[3 * i + 2];
-      const ny = M[4] * Sn[3 * i] + M[5] * Sn[3 * i + 1] + M[6] * Sn[3 * i + 2];
-      const nz = M[8] * Sn[3 * i] + M[9] * Sn[3 * i + 1] + M[10] * Sn[3 * i + 2];
-      if (nx * Tn[3 * j] + ny * Tn[3 * j + 1] + nz * Tn[3 * j + 2] < -0.5) inl++;
+      if (inOpposedContact(M, S, Sn, check[c], targetTree, Tn, eps, q)) inl++;
     }
     if (inl < 3) continue;
     insertHypothesis(best, { transform: M, inliers: inl, inlierFraction: inl / check.length }, keep, 3 * eps, centre);
