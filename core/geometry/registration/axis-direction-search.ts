@@ -12,7 +12,7 @@
  * transform, Ballard 1981).
  */
 import type { RigidTransform } from './rigid-transform';
-import { shaftBasis } from './shaft-axis-search';
+import { shaftBasis, turnBetweenFrames } from './shaft-axis-search';
 
 export interface AxisDirectionSearchOptions {
   spacing: number;
@@ -113,7 +113,7 @@ export function searchAlongAxisDirections(
   const used = new Int32Array(size);
   const found: DirectionHypothesis[] = [];
   for (const flip of [false, true]) {
-    const f = flip ? -1 : 1;
+    const f: 1 | -1 = flip ? -1 : 1;
     // B in its own axis frame, flipped or not (half turn about x): fixed for every tilt and turn
     const bP = toFrame(Bp, B.count, xb, yb, zb), bN = toFrame(B.n, B.count, xb, yb, zb);
     if (flip) for (let i = 0; i < B.count; i++) { bP[3 * i + 1] *= f; bP[3 * i + 2] *= f; bN[3 * i + 1] *= f; bN[3 * i + 2] *= f; }
@@ -187,19 +187,8 @@ export function searchAlongAxisDirections(
  * p_A = FA (Rz(turn) Fl FB^T (p - cB) + t) + cA, with FA, FB the frames as columns and Fl the
  * half turn about x when flipped.
  */
-function motion(FA: [V3, V3, V3], FB: [V3, V3, V3], f: number, turn: number, t: V3, cA: number[], cB: number[]): RigidTransform {
-  const c = Math.cos(turn), s = Math.sin(turn);
-  const M = [
-    [c, -s * f, 0],
-    [s, c * f, 0],
-    [0, 0, f],
-  ];
-  const R = new Array<number>(9).fill(0);
-  for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
-    let v = 0;
-    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += FA[a][i] * M[a][b] * FB[b][j];
-    R[3 * i + j] = v;
-  }
+function motion(FA: [V3, V3, V3], FB: [V3, V3, V3], f: 1 | -1, turn: number, t: V3, cA: number[], cB: number[]): RigidTransform {
+  const R = turnBetweenFrames(FA, FB, f, turn);
   const out: number[] = [];
   for (let i = 0; i < 3; i++) {
     const ti = cA[i] + FA[0][i] * t[0] + FA[1][i] * t[1] + FA[2][i] * t[2] - (R[3 * i] * cB[0] + R[3 * i + 1] * cB[1] + R[3 * i + 2] * cB[2]);

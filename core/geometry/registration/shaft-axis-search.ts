@@ -198,26 +198,33 @@ export function searchAboutSharedAxis(
   return out.sort((a, b) => b.votes - a.votes);
 }
 
-/** p_A = R_A (Rz(turn) F R_B^T (p - o_B) + (0, 0, shift)) + o_A, with F a half turn about x when flipped. */
-export function axisMotion(axisA: ShaftFrame, axisB: ShaftFrame, flip: boolean, turn: number, shift: number): RigidTransform {
-  const [xa, ya] = shaftBasis(axisA.direction), za = axisA.direction;
-  const [xb, yb] = shaftBasis(axisB.direction), zb = axisB.direction;
-  const RA = [xa, ya, za]; // columns of R_A
-  const RB = [xb, yb, zb];
-  const c = Math.cos(turn), sn = Math.sin(turn), f = flip ? -1 : 1;
-  // M = Rz F (3x3, local)
+/**
+ * R = F_A Rz(turn) Fl F_B^T, row-major 3x3: from B's frame to A's frame (each given as its three
+ * unit axes, the columns of its rotation), turned by `turn` about the shared z axis; `flip` -1
+ * adds a half turn about x (the second piece pointing the other way), +1 none.
+ */
+export function turnBetweenFrames(FA: ReadonlyArray<ArrayLike<number>>, FB: ReadonlyArray<ArrayLike<number>>, flip: 1 | -1, turn: number): number[] {
+  const c = Math.cos(turn), sn = Math.sin(turn), f = flip;
   const M = [
     [c, -sn * f, 0],
     [sn, c * f, 0],
     [0, 0, f],
   ];
-  // R = R_A M R_B^T
   const R = new Array<number>(9).fill(0);
   for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
     let v = 0;
-    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += RA[a][i] * M[a][b] * RB[b][j];
+    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) v += FA[a][i] * M[a][b] * FB[b][j];
     R[3 * i + j] = v;
   }
+  return R;
+}
+
+/** p_A = R_A (Rz(turn) F R_B^T (p - o_B) + (0, 0, shift)) + o_A, with F a half turn about x when flipped. */
+export function axisMotion(axisA: ShaftFrame, axisB: ShaftFrame, flip: boolean, turn: number, shift: number): RigidTransform {
+  const [xa, ya] = shaftBasis(axisA.direction), za = axisA.direction;
+  const [xb, yb] = shaftBasis(axisB.direction), zb = axisB.direction;
+  const RA = [xa, ya, za]; // columns of R_A
+  const R = turnBetweenFrames(RA, [xb, yb, zb], flip ? -1 : 1, turn);
   const ob = axisB.point, oa = axisA.point;
   const t = [0, 0, 0];
   for (let i = 0; i < 3; i++) {
