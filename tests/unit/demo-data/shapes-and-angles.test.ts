@@ -75,7 +75,7 @@ describe('fracture angles of green and dry breaks', () => {
       faces.set(group, t);
     };
     for (let s = 0; s < 16; s++) {
-      const shape = new BoneShape(ELEMENTS[s % 5]);
+      const shape = new BoneShape(ELEMENTS[s % ELEMENTS.length]);
       const plan = planBreaks(shape, new Random(`angles-${s}`));
       const shattered = shatterBone(wasm, shape, plan, 1.2, 1.6);
       const info = new Map(shattered.breaks.map((b) => [b.id, b]));
