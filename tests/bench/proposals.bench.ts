@@ -338,7 +338,7 @@ export default async function run(): Promise<void> {
   process.stdout.write(`\n2a. Importing scans (segmentation; done once per catalogue), 1-minute load average before/after, ${process.env.KNITBONE_BENCH_WORKERS ?? 2} workers\n`);
   table(imports);
   if (align) {
-    process.stdout.write('\n2b. knitbone propose --workers 2 (true joins: conjoins with both pieces present and >= 30% of the break surviving; a proposal is correct within 5 degrees and 5 mm at B's centroid)\n');
+    process.stdout.write('\n2b. knitbone propose --workers 2 (true joins: conjoins with both pieces present and >= 30% of the break surviving; a proposal is correct within 5 degrees and 5 mm at the centroid of B)\n');
     table(rows);
     process.stdout.write('\n2c. Pruned against --exhaustive\n');
     table(side);
