@@ -190,7 +190,8 @@ function transverse(shape: BoneShape, random: Random, z: number, age: 'dry' | 'm
   const bevel = age === 'modern' ? 0 : random.uniform(-0.05, 0.05);
   const rc = shape.maxOuterRadius(Math.max(0, z - 15), Math.min(shape.length, z + 15)) + 3;
   const reach = (a * rc) / rMean + 4 + Math.abs(bevel) * rc;
-  return { z, outline, planar: true, bevel, twistBevel: 0, roughness, outlineMin: -reach, outlineMax: reach, ...(stepFront ? { steps: stepFront } : {}) };
+  // right-angled against the real bone surface, also where the shaft flares into its ends
+  return { z, outline, planar: true, bevel, twistBevel: 0, rimBevel: Math.atan(bevel), roughness, outlineMin: -reach, outlineMax: reach, ...(stepFront ? { steps: stepFront } : {}) };
 }
 
 export function wrap(a: number): number {
