@@ -26,9 +26,17 @@ export interface ScoreComponents {
    * radius of gyration). Flat or cylindrical contacts that could slide or turn give about 0.
    */
   interlock: number;
+  /** 1 when both pieces have a fitted shaft axis and the two were compared, else 0 (and the next two are 0). */
+  axesCompared: number;
+  /** Distance between the two shaft axis lines where they pass the join, over the larger fitted radius. */
+  axisOffset: number;
+  /** Angle between the two shaft axis lines (degrees, 0..90). */
+  axisAngleDeg: number;
+  /** Of the face samples in contact, the share touching the other piece's break faces rather than its bone surface (smaller side). */
+  breakContact: number;
 }
 
-export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'logContactArea', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock'] as const;
+export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'logContactArea', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngle', 'breakContact'] as const;
 
 /** The model's inputs, in FEATURE_NAMES order (penetration and interlock capped where they stop telling anything). */
 export function scoreFeatures(c: ScoreComponents): number[] {
@@ -40,6 +48,10 @@ export function scoreFeatures(c: ScoreComponents): number[] {
     Math.min(c.penetrationMm, 3),
     c.outlineAgreement,
     Math.min(c.interlock, 0.1),
+    c.axesCompared ? 1 : 0,
+    c.axesCompared ? Math.min(c.axisOffset, 2) : 0,
+    c.axesCompared ? Math.min(c.axisAngleDeg, 45) / 45 : 0,
+    c.breakContact,
   ];
 }
 
@@ -56,7 +68,7 @@ export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-fpfh-ransac-icp/2',
   fittedOn: 'knitbone demo, 30 fragments each, seeds 11, 12, 13: 1633 motions (ranks 1-5 of every candidate and true fragment pair), 53 correct (within 5 degrees and 5 mm)',
   intercept: -3.5779,
-  slopes: { contactFraction: 2.9135, contactFractionOther: -1.2669, logContactArea: 0.052, gapRmsMm: -17.6381, penetrationMm: -2.3877, outlineAgreement: 4.1392, interlock: 17.6938 },
+  slopes: { contactFraction: 2.9135, contactFractionOther: -1.2669, logContactArea: 0.052, gapRmsMm: -17.6381, penetrationMm: -2.3877, outlineAgreement: 4.1392, interlock: 17.6938, axesCompared: 0, axisOffset: 0, axisAngle: 0, breakContact: 0 },
 };
 
 /**

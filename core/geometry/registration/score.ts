@@ -11,6 +11,7 @@ import { KdTree } from './nearest-neighbours';
 import { scoreProbability, type ScoreComponents } from './score-model';
 import type { ClosestPoint, TargetSurface } from './target-surface';
 import { stridedSamples } from './strided-samples';
+import type { ShaftFrame } from './shaft-axis-search';
 
 export interface ScoredSide {
   surface: TargetSurface;
@@ -24,6 +25,10 @@ export interface ScoredSide {
   surfaceTree: KdTree;
   /** Points along the face's outline(s), packed xyz (may be empty). */
   outline: Float32Array;
+  /** The piece's fitted shaft axis; null or absent when the piece is not a shaft. */
+  axis?: ShaftFrame | null;
+  /** k-d tree over the samples of all the piece's break faces; absent when not known. */
+  breakTree?: KdTree;
 }
 
 /** The score and the measured components it is computed from (see ScoreComponents). */
@@ -65,8 +70,61 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const outlineAgreement = outlineMeeting(a.outline, applyToPoints(transform, b.outline), 2 * tol);
   const spacing = options.spacing ?? tol / 0.4;
   const contactAreaMm2 = Math.min(ca.share * (a.facePoints.length / 3), cb.share * (b.facePoints.length / 3)) * spacing * spacing;
-  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock };
+  const axes = axisAgreement(a.axis, b.axis, transform, bFaceInA);
+  const breakContact = Math.min(breakContactShare(bFaceInA, bFaceNormalsInA, a, tol, spacing), breakContactShare(aFaceInB, aFaceNormalsInB, b, tol, spacing));
+  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes, breakContact };
   return { score: scoreProbability(components), ...components };
+}
+
+/**
+ * Whether the two pieces' shaft axes lie on one line under the motion (the outer surfaces of
+ * two joined shaft pieces continue one another, medullary into medullary): the distance
+ * between the two axis lines where they pass the join (at B's face centroid, measured across
+ * A's axis), over the larger fitted radius, and the angle between the lines. A piece turned end
+ * over end about a direction in a longitudinal break face keeps the face in contact but puts
+ * its axis on the far side of the wall (offset about twice the wall's mean radius).
+ */
+function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, transform: RigidTransform, bFaceInA: Float64Array | Float32Array): { axesCompared: number; axisOffset: number; axisAngleDeg: number } {
+  if (!axisA || !axisB || !(axisA.radius > 0) || !(axisB.radius > 0) || bFaceInA.length < 3) return { axesCompared: 0, axisOffset: 0, axisAngleDeg: 0 };
+  const n = bFaceInA.length / 3;
+  const c = [0, 0, 0];
+  for (let i = 0; i < n; i++) for (let k = 0; k < 3; k++) c[k] += bFaceInA[3 * i + k] / n;
+  const dA = axisA.direction, pA = axisA.point;
+  const dB = applyToDirections(transform, Float64Array.from(axisB.direction));
+  const pB = applyToPoints(transform, Float64Array.from(axisB.point));
+  const cos = Math.min(1, Math.abs(dA[0] * dB[0] + dA[1] * dB[1] + dA[2] * dB[2]));
+  // the points of both lines in the plane through c across A's axis
+  const onLine = (p: ArrayLike<number>, d: ArrayLike<number>): number[] => {
+    const den = d[0] * dA[0] + d[1] * dA[1] + d[2] * dA[2];
+    const t = Math.abs(den) > 0.2 ? ((c[0] - p[0]) * dA[0] + (c[1] - p[1]) * dA[1] + (c[2] - p[2]) * dA[2]) / den : 0;
+    return [p[0] + t * d[0], p[1] + t * d[1], p[2] + t * d[2]];
+  };
+  const qa = onLine(pA, dA), qb = onLine(pB, dB);
+  const offset = Math.hypot(qa[0] - qb[0], qa[1] - qb[1], qa[2] - qb[2]) / Math.max(axisA.radius, axisB.radius);
+  return { axesCompared: 1, axisOffset: offset, axisAngleDeg: (Math.acos(cos) * 180) / Math.PI };
+}
+
+/**
+ * Of the face samples in contact with the other piece, the share that touch the other piece's
+ * break faces (a break lies against a break, not against outer or medullary bone surface); 1
+ * when the other piece's break faces are not known or nothing is in contact.
+ */
+function breakContactShare(points: ArrayLike<number>, normals: ArrayLike<number>, other: ScoredSide, tol: number, spacing: number): number {
+  if (!other.breakTree) return 1;
+  const n = points.length / 3;
+  const cp = {} as ClosestPoint;
+  const q = [0, 0, 0];
+  const near2 = (1.5 * spacing) ** 2;
+  let touching = 0, onBreak = 0;
+  for (let i = 0; i < n; i++) {
+    const hit = other.surface.closest(points[3 * i], points[3 * i + 1], points[3 * i + 2], tol, cp);
+    if (!hit) continue;
+    if (normals[3 * i] * hit.nx + normals[3 * i + 1] * hit.ny + normals[3 * i + 2] * hit.nz > -0.5) continue;
+    touching++;
+    q[0] = hit.x; q[1] = hit.y; q[2] = hit.z;
+    if (other.breakTree.nearestOne(q, near2).index >= 0) onBreak++;
+  }
+  return touching ? onBreak / touching : 1;
 }
 
 /**
