@@ -23,7 +23,7 @@ import { readFileSync } from 'node:fs';
 import { reliability, table } from './calibration';
 import { FEATURE_NAMES, scoreFeatures, scoreProbability, type ScoreComponents, type ScoreModel } from '../../core/geometry/registration/score-model';
 
-interface Motion { set: string; correct: boolean; score: number; components: Record<string, number> }
+interface Motion { set: string; a: string; b: string; trueJoin: boolean; correct: boolean; score: number; components: Record<string, number> }
 
 function solve(A: number[][], b: number[]): number[] {
   const n = b.length;
@@ -83,6 +83,48 @@ function report(title: string, p: number[], y: number[]): void {
   table(r.rows);
 }
 
+/**
+ * Ranking on the dumped motions under a scoring: of the true fragment pairs that have a correct
+ * motion among their dumped ones, how many have it first in the pair (else class c of the
+ * benchmark, outscored in its pair), and of those how many are in the top 3 pairs of either
+ * piece by best score (else class d, outranked by other pairs). An estimate from the dump (each
+ * pair's ranks 1-5 only); the benchmark re-run gives the real counts.
+ */
+function ranking(list: Motion[], scores: number[]): { pairs: number; firstInPair: number; top3: number } {
+  const best = new Map<string, { score: number; correct: boolean; trueJoin: boolean; a: string; b: string; set: string; anyCorrect: boolean }>();
+  list.forEach((m, i) => {
+    const k = `${m.set}|${m.a}|${m.b}`;
+    const cur = best.get(k);
+    if (!cur) best.set(k, { score: scores[i], correct: m.correct, trueJoin: m.trueJoin, a: m.a, b: m.b, set: m.set, anyCorrect: m.correct });
+    else {
+      cur.anyCorrect ||= m.correct;
+      if (scores[i] > cur.score) Object.assign(cur, { score: scores[i], correct: m.correct });
+    }
+  });
+  const byPiece = new Map<string, number[]>();
+  for (const v of best.values()) for (const p of [v.a, v.b]) {
+    const k = `${v.set}|${p}`;
+    if (!byPiece.has(k)) byPiece.set(k, []);
+    byPiece.get(k)!.push(v.score);
+  }
+  for (const l of byPiece.values()) l.sort((x, y) => y - x);
+  let pairs = 0, firstInPair = 0, top3 = 0;
+  for (const v of best.values()) {
+    if (!v.trueJoin || !v.anyCorrect) continue;
+    pairs++;
+    if (!v.correct) continue;
+    firstInPair++;
+    const third = (p: string): number => byPiece.get(`${v.set}|${p}`)![Math.min(2, byPiece.get(`${v.set}|${p}`)!.length - 1)];
+    if (v.score >= third(v.a) || v.score >= third(v.b)) top3++;
+  }
+  return { pairs, firstInPair, top3 };
+}
+
+function rankingLine(title: string, list: Motion[], scores: number[]): void {
+  const r = ranking(list, scores);
+  process.stdout.write(`${title}: ${r.pairs} true pairs with a correct motion dumped; correct first in its pair ${r.firstInPair} (c: ${r.pairs - r.firstInPair}); of those in the top 3 of a piece ${r.top3} (d: ${r.firstInPair - r.top3})\n`);
+}
+
 function main(): void {
   const args = process.argv.slice(2);
   const at = args.indexOf('--fit');
@@ -109,6 +151,13 @@ function main(): void {
     const names = [...new Set(checked.map((m) => setName(m.set)))];
     report(`Checked sets (${names.join(', ')}; not fitted), score as recorded`, checked.map((m) => m.score), truth(checked));
     report(`Checked sets (${names.join(', ')}; not fitted), new model`, predict(checked), truth(checked));
+  }
+  process.stdout.write('\nRanking estimated from the dump (benchmark classes c and d)\n');
+  rankingLine('  fitted sets, score as recorded', fitted, fitted.map((m) => m.score));
+  rankingLine('  fitted sets, new model', fitted, predict(fitted));
+  if (checked.length) {
+    rankingLine('  checked sets, score as recorded', checked, checked.map((m) => m.score));
+    rankingLine('  checked sets, new model', checked, predict(checked));
   }
 }
 

@@ -32,11 +32,15 @@ export interface ScoreComponents {
   axisOffset: number;
   /** Angle between the two shaft axis lines (degrees, 0..90). */
   axisAngleDeg: number;
+  /** Cosine between the directions from the join across to each axis line: 1 when both axes lie on the same side of the wall, -1 when a piece is turned inside out (1 when not compared). */
+  axisSide: number;
+  /** Larger over smaller fitted shaft radius (1 when not compared). */
+  radiusRatio: number;
   /** Of the face samples in contact, the share touching the other piece's break faces rather than its bone surface (smaller side). */
   breakContact: number;
 }
 
-export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'logContactArea', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngle', 'breakContact'] as const;
+export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'logContactArea', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngle', 'axisSideMismatch', 'logRadiusRatio', 'breakContact'] as const;
 
 /** The model's inputs, in FEATURE_NAMES order (penetration and interlock capped where they stop telling anything). */
 export function scoreFeatures(c: ScoreComponents): number[] {
@@ -51,6 +55,8 @@ export function scoreFeatures(c: ScoreComponents): number[] {
     c.axesCompared ? 1 : 0,
     c.axesCompared ? Math.min(c.axisOffset, 2) : 0,
     c.axesCompared ? Math.min(c.axisAngleDeg, 45) / 45 : 0,
+    c.axesCompared ? (1 - c.axisSide) / 2 : 0,
+    c.axesCompared ? Math.min(Math.log(c.radiusRatio), 1) : 0,
     c.breakContact,
   ];
 }
@@ -68,7 +74,7 @@ export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-fpfh-ransac-icp/2',
   fittedOn: 'knitbone demo, 30 fragments each, seeds 11, 12, 13: 1633 motions (ranks 1-5 of every candidate and true fragment pair), 53 correct (within 5 degrees and 5 mm)',
   intercept: -3.5779,
-  slopes: { contactFraction: 2.9135, contactFractionOther: -1.2669, logContactArea: 0.052, gapRmsMm: -17.6381, penetrationMm: -2.3877, outlineAgreement: 4.1392, interlock: 17.6938, axesCompared: 0, axisOffset: 0, axisAngle: 0, breakContact: 0 },
+  slopes: { contactFraction: 2.9135, contactFractionOther: -1.2669, logContactArea: 0.052, gapRmsMm: -17.6381, penetrationMm: -2.3877, outlineAgreement: 4.1392, interlock: 17.6938, axesCompared: 0, axisOffset: 0, axisAngle: 0, axisSideMismatch: 0, logRadiusRatio: 0, breakContact: 0 },
 };
 
 /**

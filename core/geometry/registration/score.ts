@@ -82,10 +82,12 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
  * between the two axis lines where they pass the join (at B's face centroid, measured across
  * A's axis), over the larger fitted radius, and the angle between the lines. A piece turned end
  * over end about a direction in a longitudinal break face keeps the face in contact but puts
- * its axis on the far side of the wall (offset about twice the wall's mean radius).
+ * its axis on the far side of the wall (offset about twice the wall's mean radius, and the
+ * directions from the join across to the two axes opposed: axisSide about -1). Also the ratio
+ * of the two fitted radii (pieces of one shaft have about the same).
  */
-function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, transform: RigidTransform, bFaceInA: Float64Array | Float32Array): { axesCompared: number; axisOffset: number; axisAngleDeg: number } {
-  if (!axisA || !axisB || !(axisA.radius > 0) || !(axisB.radius > 0) || bFaceInA.length < 3) return { axesCompared: 0, axisOffset: 0, axisAngleDeg: 0 };
+function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, transform: RigidTransform, bFaceInA: Float64Array | Float32Array): { axesCompared: number; axisOffset: number; axisAngleDeg: number; axisSide: number; radiusRatio: number } {
+  if (!axisA || !axisB || !(axisA.radius > 0) || !(axisB.radius > 0) || bFaceInA.length < 3) return { axesCompared: 0, axisOffset: 0, axisAngleDeg: 0, axisSide: 1, radiusRatio: 1 };
   const n = bFaceInA.length / 3;
   const c = [0, 0, 0];
   for (let i = 0; i < n; i++) for (let k = 0; k < 3; k++) c[k] += bFaceInA[3 * i + k] / n;
@@ -101,7 +103,22 @@ function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame |
   };
   const qa = onLine(pA, dA), qb = onLine(pB, dB);
   const offset = Math.hypot(qa[0] - qb[0], qa[1] - qb[1], qa[2] - qb[2]) / Math.max(axisA.radius, axisB.radius);
-  return { axesCompared: 1, axisOffset: offset, axisAngleDeg: (Math.acos(cos) * 180) / Math.PI };
+  // which side of the wall each axis lies on, seen from the join: from c across to each line
+  const across = (q: number[], d: ArrayLike<number>): number[] => {
+    const v = [q[0] - c[0], q[1] - c[1], q[2] - c[2]];
+    const t = v[0] * d[0] + v[1] * d[1] + v[2] * d[2];
+    const w = [v[0] - t * d[0], v[1] - t * d[1], v[2] - t * d[2]];
+    const l = Math.hypot(w[0], w[1], w[2]) || 1;
+    return [w[0] / l, w[1] / l, w[2] / l];
+  };
+  const ua = across(qa, dA), ub = across(qb, dB);
+  return {
+    axesCompared: 1,
+    axisOffset: offset,
+    axisAngleDeg: (Math.acos(cos) * 180) / Math.PI,
+    axisSide: ua[0] * ub[0] + ua[1] * ub[1] + ua[2] * ub[2],
+    radiusRatio: Math.max(axisA.radius, axisB.radius) / Math.min(axisA.radius, axisB.radius),
+  };
 }
 
 /**
