@@ -12,14 +12,14 @@ import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } fro
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
 import { searchAlongAxisDirections } from '../registration/axis-direction-search';
 import { inOpposedContact } from '../registration/opposed-contact';
-import { KdTree } from '../registration/nearest-neighbours';
+import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/3';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/4';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -105,23 +105,7 @@ export interface MatchTrace {
 }
 
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
-  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis, breakTree: breakTreeOf(f) };
-}
-
-const breakTrees = new WeakMap<PreparedFragment, KdTree>();
-/** A k-d tree over the samples of all the fragment's break faces (whole faces, not their patches), made once per fragment. */
-function breakTreeOf(f: PreparedFragment): KdTree {
-  let tree = breakTrees.get(f);
-  if (!tree) {
-    const seen = new Set<number>();
-    const parts: Float32Array[] = [];
-    for (const x of f.faces) if (!seen.has(x.parent)) { seen.add(x.parent); parts.push(x.points); }
-    const all = new Float32Array(parts.reduce((s, p) => s + p.length, 0));
-    let o = 0;
-    for (const p of parts) { all.set(p, o); o += p.length; }
-    breakTrees.set(f, (tree = new KdTree(all, 3)));
-  }
-  return tree;
+  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis };
 }
 
 /** A coarse motion of B's face onto A's face, with the share of the smaller face it puts in contact. */

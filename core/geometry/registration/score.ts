@@ -27,8 +27,6 @@ export interface ScoredSide {
   outline: Float32Array;
   /** The piece's fitted shaft axis; null or absent when the piece is not a shaft. */
   axis?: ShaftFrame | null;
-  /** k-d tree over the samples of all the piece's break faces; absent when not known. */
-  breakTree?: KdTree;
 }
 
 /** The score and the measured components it is computed from (see ScoreComponents). */
@@ -71,8 +69,7 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const spacing = options.spacing ?? tol / 0.4;
   const contactAreaMm2 = Math.min(ca.share * (a.facePoints.length / 3), cb.share * (b.facePoints.length / 3)) * spacing * spacing;
   const axes = axisAgreement(a.axis, b.axis, transform, bFaceInA);
-  const breakContact = Math.min(breakContactShare(bFaceInA, bFaceNormalsInA, a, tol, spacing), breakContactShare(aFaceInB, aFaceNormalsInB, b, tol, spacing));
-  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes, breakContact };
+  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes };
   return { score: scoreProbability(components), ...components };
 }
 
@@ -119,29 +116,6 @@ function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame |
     axisSide: ua[0] * ub[0] + ua[1] * ub[1] + ua[2] * ub[2],
     radiusRatio: Math.max(axisA.radius, axisB.radius) / Math.min(axisA.radius, axisB.radius),
   };
-}
-
-/**
- * Of the face samples in contact with the other piece, the share that touch the other piece's
- * break faces (a break lies against a break, not against outer or medullary bone surface); 1
- * when the other piece's break faces are not known or nothing is in contact.
- */
-function breakContactShare(points: ArrayLike<number>, normals: ArrayLike<number>, other: ScoredSide, tol: number, spacing: number): number {
-  if (!other.breakTree) return 1;
-  const n = points.length / 3;
-  const cp = {} as ClosestPoint;
-  const q = [0, 0, 0];
-  const near2 = (1.5 * spacing) ** 2;
-  let touching = 0, onBreak = 0;
-  for (let i = 0; i < n; i++) {
-    const hit = other.surface.closest(points[3 * i], points[3 * i + 1], points[3 * i + 2], tol, cp);
-    if (!hit) continue;
-    if (normals[3 * i] * hit.nx + normals[3 * i + 1] * hit.ny + normals[3 * i + 2] * hit.nz > -0.5) continue;
-    touching++;
-    q[0] = hit.x; q[1] = hit.y; q[2] = hit.z;
-    if (other.breakTree.nearestOne(q, near2).index >= 0) onBreak++;
-  }
-  return touching ? onBreak / touching : 1;
 }
 
 /**
