@@ -12,7 +12,7 @@ import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
-import { facingGroups, fitShaftAxis, type ShaftAxis } from './shaft-axis';
+import { facingGroups, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
@@ -102,7 +102,7 @@ export function analyseFragment(
   }
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
-  const axis = fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance);
+  const axis = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean);
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
   let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);

@@ -101,7 +101,15 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
   for (let f = 0; f < nt; f++) mid += areas[f] * (centroids[3 * f] * ax + centroids[3 * f + 1] * ay + centroids[3 * f + 2] * az);
   mid /= total || 1;
   const point: [number, number, number] = [cu * ux + cv * vx + mid * ax, cu * uy + cv * vy + mid * ay, cu * uz + cv * vz + mid * az];
-  // Radius: area-weighted median distance of outward-facing supported triangles.
+  const radius = outerRadius(centroids, normals, areas, dir, point);
+  return { direction: dir, point, radius, support: total ? supported / total : 0 };
+}
+
+/** Area-weighted median distance from the axis of the triangles facing away from it (radial > 0.8). */
+function outerRadius(centroids: Float32Array, normals: Float32Array, areas: Float64Array, dir: [number, number, number], point: [number, number, number]): number {
+  const nt = areas.length;
+  const [ax, ay, az] = dir;
+  const stride = Math.max(1, Math.floor(nt / 4000));
   const dists: Array<[number, number]> = [];
   for (let f = 0; f < nt; f += stride) {
     const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
@@ -111,14 +119,63 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
     const outward = (px * normals[3 * f] + py * normals[3 * f + 1] + pz * normals[3 * f + 2]) / (d || 1);
     if (outward > 0.8) dists.push([d, areas[f]]);
   }
-  dists.sort((p, q) => p[0] - q[0]);
-  const half = dists.reduce((s, x) => s + x[1], 0) / 2;
-  let acc = 0, radius = 0;
-  for (const [d, w] of dists) {
-    acc += w;
-    if (acc >= half) { radius = d; break; }
+  return dists.length ? weightedMedian(dists) : 0;
+}
+
+/**
+ * How well a centre explains the wall as a tube section: on a shaft the surface facing away
+ * from the axis (outer, periosteal) is the longer arc and bends more convexly than the surface
+ * facing it (medullary), whose arc is shorter and whose cross-section curves the other way
+ * (a tube of outer radius R and inner radius r: mean curvature +1/2R outside, -1/2r inside;
+ * do Carmo 1976, section 3-3; arc lengths in ratio R/r). Returns the area of the outward-
+ * facing minus the inward-facing surface, and the difference of their area-weighted mean
+ * curvatures (triangles within 20 degrees of perpendicular to the axis, |radial| > 0.8).
+ */
+function sideFigures(
+  centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: ArrayLike<number>,
+  dir: [number, number, number], point: [number, number, number],
+): { areaExcess: number; convexityExcess: number } {
+  const [ax, ay, az] = dir;
+  let aOut = 0, aIn = 0, hOut = 0, hIn = 0;
+  for (let f = 0; f < areas.length; f++) {
+    const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+    if (Math.abs(nx * ax + ny * ay + nz * az) > 0.342) continue;
+    const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
+    const t = rx * ax + ry * ay + rz * az;
+    const px = rx - t * ax, py = ry - t * ay, pz = rz - t * az;
+    const radial = (px * nx + py * ny + pz * nz) / (Math.hypot(px, py, pz) || 1);
+    if (radial > 0.8) { aOut += areas[f]; hOut += areas[f] * meanCurvature[f]; }
+    else if (radial < -0.8) { aIn += areas[f]; hIn += areas[f] * meanCurvature[f]; }
   }
-  return { direction: dir, point, radius, support: total ? supported / total : 0 };
+  return { areaExcess: aOut - aIn, convexityExcess: (aOut > 0 ? hOut / aOut : 0) - (aIn > 0 ? hIn / aIn : 0) };
+}
+
+/**
+ * The normal lines of a nearly flat wall (a splinter from a flat or lobed shaft) meet on
+ * either side of it about equally well, so the fitted centre can land on the outer side, and
+ * outer and medullary surface then swap their facing. Checks the centre against its mirror
+ * image through the fragment's area centroid (across the axis) and keeps the mirror when it
+ * explains the wall better on both cues of sideFigures: more outward- than inward-facing
+ * area, and the outward-facing surface the more convex. Unchanged without shaft support.
+ */
+export function settleAxisSide(
+  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: ArrayLike<number>, supportMin = 0.5,
+): ShaftAxis {
+  if (!(axis.support >= supportMin)) return axis;
+  let mx = 0, my = 0, mz = 0, w = 0;
+  for (let f = 0; f < areas.length; f++) {
+    mx += areas[f] * centroids[3 * f]; my += areas[f] * centroids[3 * f + 1]; mz += areas[f] * centroids[3 * f + 2]; w += areas[f];
+  }
+  if (!(w > 0)) return axis;
+  const mirror: [number, number, number] = [2 * mx / w - axis.point[0], 2 * my / w - axis.point[1], 2 * mz / w - axis.point[2]];
+  // Keep the point at the middle of the fragment along the axis.
+  const [ax, ay, az] = axis.direction;
+  const shift = (mirror[0] - axis.point[0]) * ax + (mirror[1] - axis.point[1]) * ay + (mirror[2] - axis.point[2]) * az;
+  mirror[0] -= shift * ax; mirror[1] -= shift * ay; mirror[2] -= shift * az;
+  const here = sideFigures(centroids, normals, areas, meanCurvature, axis.direction, axis.point);
+  const there = sideFigures(centroids, normals, areas, meanCurvature, axis.direction, mirror);
+  if (!(there.areaExcess > here.areaExcess && there.convexityExcess > here.convexityExcess)) return axis;
+  return { ...axis, point: mirror, radius: outerRadius(centroids, normals, areas, axis.direction, mirror) };
 }
 
 /**
