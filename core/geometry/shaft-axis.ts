@@ -123,58 +123,82 @@ function outerRadius(centroids: Float32Array, normals: Float32Array, areas: Floa
 }
 
 /**
- * How well a centre explains the wall as a tube section: on a shaft the surface facing away
- * from the axis (outer, periosteal) is the longer arc and bends more convexly than the surface
- * facing it (medullary), whose arc is shorter and whose cross-section curves the other way
- * (a tube of outer radius R and inner radius r: mean curvature +1/2R outside, -1/2r inside;
- * do Carmo 1976, section 3-3; arc lengths in ratio R/r). Returns the area of the outward-
- * facing minus the inward-facing surface, and the difference of their area-weighted mean
- * curvatures (triangles within 20 degrees of perpendicular to the axis, |radial| > 0.8).
+ * Surface facing squarely across the axis: area of the triangles within 20 degrees of
+ * perpendicular to the axis whose normal faces away from a centre by radial > 0.8 or
+ * towards it by radial < -0.8. A centre far off to one side of the wall leaves much of it out.
  */
-function sideFigures(
-  centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: ArrayLike<number>,
-  dir: [number, number, number], point: [number, number, number],
-): { areaExcess: number; convexityExcess: number } {
+function facingArea(
+  centroids: Float32Array, normals: Float32Array, areas: Float64Array, dir: [number, number, number], point: [number, number, number],
+): number {
   const [ax, ay, az] = dir;
-  let aOut = 0, aIn = 0, hOut = 0, hIn = 0;
+  let area = 0;
   for (let f = 0; f < areas.length; f++) {
     const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
     if (Math.abs(nx * ax + ny * ay + nz * az) > 0.342) continue;
     const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
     const t = rx * ax + ry * ay + rz * az;
     const px = rx - t * ax, py = ry - t * ay, pz = rz - t * az;
-    const radial = (px * nx + py * ny + pz * nz) / (Math.hypot(px, py, pz) || 1);
-    if (radial > 0.8) { aOut += areas[f]; hOut += areas[f] * meanCurvature[f]; }
-    else if (radial < -0.8) { aIn += areas[f]; hIn += areas[f] * meanCurvature[f]; }
+    if (Math.abs(px * nx + py * ny + pz * nz) > 0.8 * Math.hypot(px, py, pz)) area += areas[f];
   }
-  return { areaExcess: aOut - aIn, convexityExcess: (aOut > 0 ? hOut / aOut : 0) - (aIn > 0 ? hIn / aIn : 0) };
+  return area;
 }
+
+/** The face towards the centre counts as the outer one while at least this share of the face away (a break face lying along the medullary face adds to that one's area). */
+const SIDE_AREA_RATIO = 0.8;
+
+/** A mirrored centre must keep at least this share of the surface facing squarely out or in. */
+const SIDE_FACING_SHARE = 0.6;
 
 /**
  * The normal lines of a nearly flat wall (a splinter from a flat or lobed shaft) meet on
  * either side of it about equally well, so the fitted centre can land on the outer side, and
- * outer and medullary surface then swap their facing. Checks the centre against its mirror
- * image through the fragment's area centroid (across the axis) and keeps the mirror when it
- * explains the wall better on both cues of sideFigures: more outward- than inward-facing
- * area, and the outward-facing surface the more convex. Unchanged without shaft support.
+ * outer and medullary surface then swap their facing. The two faces of the wall are told
+ * apart without the centre: across a shaft wall (a tube of outer radius R and inner radius r)
+ * the outer face is the longer arc (arc lengths in ratio R/r) and the more convex one (mean
+ * curvature +1/2R outside, -1/2r inside; do Carmo 1976, section 3-3). Taking w, the direction
+ * from the fragment's area centroid to the fitted centre across the axis, the surface facing
+ * w (normal . w > 0.8) should be the medullary face and the one facing -w the outer. When the
+ * surface facing w is the more convex (area-weighted median of the mean curvature) and not
+ * clearly the smaller (at least SIDE_AREA_RATIO of the other), the centre is on the wrong side and is replaced by its mirror image through the area centroid,
+ * provided at least SIDE_FACING_SHARE as much surface faces the mirror squarely. Break faces
+ * of a splinter run roughly along w and drop out of both sets. Unchanged without shaft support.
  */
 export function settleAxisSide(
   axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: ArrayLike<number>, supportMin = 0.5,
 ): ShaftAxis {
   if (!(axis.support >= supportMin)) return axis;
-  let mx = 0, my = 0, mz = 0, w = 0;
+  let mx = 0, my = 0, mz = 0, total = 0;
   for (let f = 0; f < areas.length; f++) {
-    mx += areas[f] * centroids[3 * f]; my += areas[f] * centroids[3 * f + 1]; mz += areas[f] * centroids[3 * f + 2]; w += areas[f];
+    mx += areas[f] * centroids[3 * f]; my += areas[f] * centroids[3 * f + 1]; mz += areas[f] * centroids[3 * f + 2]; total += areas[f];
   }
-  if (!(w > 0)) return axis;
-  const mirror: [number, number, number] = [2 * mx / w - axis.point[0], 2 * my / w - axis.point[1], 2 * mz / w - axis.point[2]];
-  // Keep the point at the middle of the fragment along the axis.
+  if (!(total > 0)) return axis;
   const [ax, ay, az] = axis.direction;
-  const shift = (mirror[0] - axis.point[0]) * ax + (mirror[1] - axis.point[1]) * ay + (mirror[2] - axis.point[2]) * az;
-  mirror[0] -= shift * ax; mirror[1] -= shift * ay; mirror[2] -= shift * az;
-  const here = sideFigures(centroids, normals, areas, meanCurvature, axis.direction, axis.point);
-  const there = sideFigures(centroids, normals, areas, meanCurvature, axis.direction, mirror);
-  if (!(there.areaExcess > here.areaExcess && there.convexityExcess > here.convexityExcess)) return axis;
+  // w: from the area centroid to the centre, across the axis.
+  let wx = axis.point[0] - mx / total, wy = axis.point[1] - my / total, wz = axis.point[2] - mz / total;
+  const along = wx * ax + wy * ay + wz * az;
+  wx -= along * ax; wy -= along * ay; wz -= along * az;
+  const wl = Math.hypot(wx, wy, wz);
+  if (!(wl > 1e-9)) return axis;
+  wx /= wl; wy /= wl; wz /= wl;
+  // Medians, not means: the creases where each face meets the break faces are strongly convex
+  // and make up more of the narrower face.
+  let aTowards = 0, aAway = 0;
+  const towards: Array<[number, number]> = [], away: Array<[number, number]> = [];
+  for (let f = 0; f < areas.length; f++) {
+    // Only the wall on the centroid's side of the centre (the far wall of a wide piece faces the other way round).
+    const side = (centroids[3 * f] - axis.point[0]) * wx + (centroids[3 * f + 1] - axis.point[1]) * wy + (centroids[3 * f + 2] - axis.point[2]) * wz;
+    if (side >= 0) continue;
+    const c = normals[3 * f] * wx + normals[3 * f + 1] * wy + normals[3 * f + 2] * wz;
+    if (c > 0.8) { aTowards += areas[f]; towards.push([meanCurvature[f], areas[f]]); }
+    else if (c < -0.8) { aAway += areas[f]; away.push([meanCurvature[f], areas[f]]); }
+  }
+  if (!(aTowards > 0 && aAway > 0)) return axis;
+  const hTowards = weightedMedian(towards), hAway = weightedMedian(away);
+  if (!(hTowards > hAway && aTowards >= SIDE_AREA_RATIO * aAway)) return axis;
+  const mirror: [number, number, number] = [axis.point[0] - 2 * wl * wx, axis.point[1] - 2 * wl * wy, axis.point[2] - 2 * wl * wz];
+  const here = facingArea(centroids, normals, areas, axis.direction, axis.point);
+  const there = facingArea(centroids, normals, areas, axis.direction, mirror);
+  if (!(there >= SIDE_FACING_SHARE * here)) return axis;
   return { ...axis, point: mirror, radius: outerRadius(centroids, normals, areas, axis.direction, mirror) };
 }
 

@@ -1,0 +1,94 @@
+/**
+ * Which side of a flat wall the shaft axis lies on. Test piece: a 40-degree wedge of an
+ * elliptic tube, the flat side of it: a round tube (outer radius 12 mm, inner 7 mm,
+ * broken-tube.ts, manifold-3d) cut by two planes through its axis at +-20 degrees about the y
+ * axis and across at z = +-20 mm, then stretched by 2 along x and 0.6 along y, so the outer
+ * cross-section is an ellipse with semi-axes 24 and 7.2 mm and the inner one 14 and 4.2 mm. A
+ * linear map keeps planes through the axis planes through the axis, so the break faces still
+ * meet on the z axis and the construction gives the truth: the axis is the z axis, the
+ * outer surface faces away from it. At the end of the minor axis the outer ellipse's
+ * radius of curvature is a^2 / b = 80 mm (analytic geometry of the ellipse), so the wall is
+ * nearly flat and its normal lines meet far away on either side about equally well.
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { vertexRings } from '../../../core/geometry/adjacency';
+import { analyseFragment } from '../../../core/geometry/analyse-fragment';
+import { principalCurvatures } from '../../../core/geometry/curvature';
+import { triangleNormalsAndAreas, vertexNormals } from '../../../core/geometry/mesh';
+import { triangleCentroids } from '../../../core/geometry/normal-filter';
+import { fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../../core/geometry/shaft-axis';
+import { brokenTube, type BrokenTube } from './broken-tube';
+
+const half = (20 * Math.PI) / 180;
+
+/** Distance of the axis line from the z axis, at z = 0. */
+function offAxis(point: number[], direction: number[]): number {
+  const t = -point[2] / direction[2];
+  return Math.hypot(point[0] + t * direction[0], point[1] + t * direction[1]);
+}
+
+describe('shaft axis side on a flat wall (elliptic tube wedge)', () => {
+  let wedge: BrokenTube;
+  let centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: Float32Array;
+  beforeAll(async () => {
+    wedge = await brokenTube({
+      cuts: [
+        // Keep the 40-degree sector about +y: between the planes through the z axis at +-20 degrees.
+        { normal: [Math.cos(half), Math.sin(half), 0], offset: 0 },
+        { normal: [-Math.cos(half), Math.sin(half), 0], offset: 0 },
+        { normal: [0, 0, 1], offset: -20 },
+        { normal: [0, 0, -1], offset: -20 },
+      ],
+      warp: (x, y, z) => [2 * x, 0.6 * y, z],
+    });
+    ({ normals, areas } = triangleNormalsAndAreas(wedge.mesh));
+    centroids = triangleCentroids(wedge.mesh.positions, wedge.mesh.triangles);
+    const curvature = principalCurvatures(wedge.mesh, vertexNormals(wedge.mesh), vertexRings(wedge.mesh));
+    const t = wedge.mesh.triangles;
+    meanCurvature = new Float32Array(areas.length);
+    for (let f = 0; f < areas.length; f++) {
+      let s = 0;
+      for (let k = 0; k < 3; k++) s += curvature.k1[t[3 * f + k]] + curvature.k2[t[3 * f + k]];
+      meanCurvature[f] = s / 6;
+    }
+  });
+
+  it('is the flat side: the wedge spans y 4.2 to 7.2 mm and is wider than thick', () => {
+    let yMin = Infinity, yMax = -Infinity, xMax = 0;
+    const p = wedge.mesh.positions;
+    for (let i = 0; i < p.length; i += 3) { yMin = Math.min(yMin, p[i + 1]); yMax = Math.max(yMax, p[i + 1]); xMax = Math.max(xMax, Math.abs(p[i])); }
+    // Roughened break faces move a little off their planes; the ellipse ends are exact.
+    expect(yMax).toBeGreaterThan(7.0);
+    expect(yMax).toBeLessThan(7.6);
+    expect(xMax).toBeGreaterThan(2 * 12 * Math.sin(half) - 0.6);
+  });
+
+  it('an axis fitted on the outer side (mirrored through the area centroid) is moved back to the z axis', () => {
+    const truthAxis: ShaftAxis = { direction: [0, 0, 1], point: [0, 0, 0], radius: 7.2, support: 0.9 };
+    let cy = 0, w = 0, cx = 0;
+    for (let f = 0; f < areas.length; f++) { cx += areas[f] * centroids[3 * f]; cy += areas[f] * centroids[3 * f + 1]; w += areas[f]; }
+    const wrongSide: ShaftAxis = { ...truthAxis, point: [2 * cx / w, 2 * cy / w, 0] };
+    expect(wrongSide.point[1]).toBeGreaterThan(7.2); // beyond the outer surface
+    const settled = settleAxisSide(wrongSide, centroids, normals, areas, meanCurvature);
+    expect(offAxis(settled.point, settled.direction)).toBeLessThan(0.5);
+    // Outer surface at the minor axis end is 7.2 mm from the axis.
+    expect(Math.abs(settled.radius - 7.2)).toBeLessThan(0.6);
+    // And the right side is kept.
+    const kept = settleAxisSide(truthAxis, centroids, normals, areas, meanCurvature);
+    expect(kept.point).toEqual(truthAxis.point);
+  });
+
+  it('the fitted and settled axis has the outer surface facing out, and the breaks are found', () => {
+    const axis = settleAxisSide(fitShaftAxis(centroids, normals, areas, 0.45), centroids, normals, areas, meanCurvature);
+    expect(Math.abs(axis.direction[2])).toBeGreaterThan(0.99);
+    expect(axis.point[1]).toBeLessThan(4.2); // on the medullary side of the wall
+    const a = analyseFragment(wedge.mesh);
+    let agree = 0, total = 0;
+    for (let f = 0; f < a.triangleClass.length; f++) {
+      const src = a.sourceTriangle[f];
+      total += areas[src];
+      if ((a.triangleClass[f] === 0 ? 1 : 0) === wedge.truth[src]) agree += areas[src];
+    }
+    expect(agree / total).toBeGreaterThan(0.95);
+  });
+});
