@@ -1,10 +1,14 @@
 /**
  * The join score as a probability: a logistic model over the score's components (what a
  * person checks on a refit: contact, gaps, one piece running into the other, outlines that
- * meet, faces that lock). Coefficients are fitted on motions with known truth from generated
- * assemblages of development seeds only (tests/bench/fit-score-model.ts) and belong to the
- * matcher's method version: a new method version needs a new fit. The held-out calibration is
- * printed by `npm run bench -- pairwise`.
+ * meet, faces that lock, and for shaft pieces whether the two fitted shaft axes agree under the
+ * motion: their tilt, and whether they lie on the same side of the wall seen from the join).
+ * Two rules scale the probability down where the fit has too few examples to learn it: faces
+ * that could slide (LOCKED_INTERLOCK) and a piece turned inside out (SIDE_NONE, SIDE_FULL).
+ * Coefficients are fitted on motions with known truth from generated assemblages of development
+ * seeds only (tests/bench/fit-score-model.ts, which also prints reliability tables and Brier
+ * scores for the sets it did not fit) and belong to the matcher's method version: a new method
+ * version needs a new fit. The held-out calibration is printed by `npm run bench -- pairwise`.
  */
 /** What scoreJoin (score.ts) measures of a proposed motion; the model's inputs. */
 export interface ScoreComponents {
