@@ -82,9 +82,9 @@ export interface ScoreModel {
 
 export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-direction-fpfh-ransac-icp/4',
-  fittedOn: 'knitbone demo, 30 fragments each, 1.5 mm, seeds 11, 12, 13 (generator before the rim-angle change): 4569 motions (ranks 1-5 of every candidate and true fragment pair), 114 correct (within 5 degrees and 5 mm); checked on seeds 14, 15, 16 (Brier 0.0052 against 0.0067 for the model fitted for method /2)',
-  intercept: -5.5221,
-  slopes: { contactFraction: -1.4340, contactFractionOther: -0.6486, logContactArea: 0.4718, gapRmsMm: -22.9077, penetrationMm: -3.2857, outlineAgreement: 6.2765, interlock: 53.9120, axisAngle: -4.2868, axisSideMismatch: -2.4077 },
+  fittedOn: 'knitbone demo (generator with rim angles, 2 Dec 2026), 30 fragments each, 1.5 mm, seeds 11, 12, 13: 4889 motions (ranks 1-5 of every candidate and true fragment pair, 8 fine motions per fragment pair), 103 correct (within 5 degrees and 5 mm); checked on seeds 14, 15, 16: Brier 0.0061 (reliability 0.0002), against 0.0067 for the fit on the previous generator and for the model fitted for method /2',
+  intercept: -8.8496,
+  slopes: { contactFraction: -0.9307, contactFractionOther: -1.3753, logContactArea: 1.0430, gapRmsMm: -28.0593, penetrationMm: -0.8886, outlineAgreement: 5.9637, interlock: 65.5309, axisAngle: -2.3727, axisSideMismatch: -2.6387 },
 };
 
 /**
