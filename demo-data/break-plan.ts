@@ -143,7 +143,7 @@ function ringBreak(
       const psi = wrap(th - phase);
       return psi < 2 * Math.PI - ramp ? pitch * (psi / (2 * Math.PI - ramp) - 0.5) : pitch * (0.5 - (psi - (2 * Math.PI - ramp)) / ramp);
     }, 0.12);
-    const g = { z, outline, planar: false, bevel, twistBevel, roughness, outlineMin: -pitch / 2, outlineMax: pitch / 2 };
+    const g = { z, outline, planar: false, bevel, twistBevel, rimBevel: Math.atan(bevel), roughness, outlineMin: -pitch / 2, outlineMax: pitch / 2 };
     if (z + g.outlineMin > hollowLo && z + g.outlineMax < hollowHi) return { kind: 'ring', id, age, pattern, geometry: g };
   } else if (pattern === 'v-shaped') {
     const depth = random.uniform(0.7, 1.6) * diam;
@@ -151,7 +151,7 @@ function ringBreak(
       const psi = wrap(th - phase);
       return depth * (Math.abs(psi - Math.PI) / Math.PI - 0.5);
     }, 0.25);
-    const g = { z, outline, planar: false, bevel, twistBevel, roughness, outlineMin: -depth / 2, outlineMax: depth / 2 };
+    const g = { z, outline, planar: false, bevel, twistBevel, rimBevel: Math.atan(bevel), roughness, outlineMin: -depth / 2, outlineMax: depth / 2 };
     if (z + g.outlineMin > hollowLo && z + g.outlineMax < hollowHi) return { kind: 'ring', id, age, pattern, geometry: g };
   }
   // oblique: a tilted, coned face that also works through the solid ends
@@ -166,7 +166,7 @@ function ringBreak(
     id,
     age,
     pattern: 'oblique',
-    geometry: { z, outline, planar: true, bevel: coneBevel, twistBevel: 0, roughness, outlineMin: -reach, outlineMax: reach },
+    geometry: { z, outline, planar: true, bevel: coneBevel, twistBevel: 0, rimBevel: Math.atan(coneBevel), roughness, outlineMin: -reach, outlineMax: reach },
   };
 }
 
@@ -190,7 +190,8 @@ function transverse(shape: BoneShape, random: Random, z: number, age: 'dry' | 'm
   const bevel = age === 'modern' ? 0 : random.uniform(-0.05, 0.05);
   const rc = shape.maxOuterRadius(Math.max(0, z - 15), Math.min(shape.length, z + 15)) + 3;
   const reach = (a * rc) / rMean + 4 + Math.abs(bevel) * rc;
-  return { z, outline, planar: true, bevel, twistBevel: 0, roughness, outlineMin: -reach, outlineMax: reach, ...(stepFront ? { steps: stepFront } : {}) };
+  // right-angled against the real bone surface, also where the shaft flares into its ends
+  return { z, outline, planar: true, bevel, twistBevel: 0, rimBevel: Math.atan(bevel), roughness, outlineMin: -reach, outlineMax: reach, ...(stepFront ? { steps: stepFront } : {}) };
 }
 
 export function wrap(a: number): number {

@@ -2,6 +2,7 @@ import type { BoneShape } from './bone-shape';
 import { smoothstep } from './bone-shape';
 import { orientOutwards, type TriangleMesh } from './mesh';
 import type { Roughness } from './noise';
+import { frameDirections, framePoint, outerNormal, outerRadiusOnRay, slopeForRimAngle } from './rim-angle';
 
 /**
  * Cut bodies: closed meshes whose boundary, where it passes through bone, is a rough fracture
@@ -48,7 +49,7 @@ export interface RingBreakGeometry {
   planar: boolean;
   /** Axial bevel dH/dr: tilts the face against the cortical surface (0: right angle). */
   bevel: number;
-  /** Angular bevel (radians across one mean radius): turns the front with depth, for oblique faces on steep parts. */
+  /** Angular bevel (radians across one mean radius): turns the front with depth, for oblique faces on steep parts (not used with rimBevel). */
   twistBevel: number;
   /**
    * Steps added to the front at angle θ, the same at every radius through the wall (a dry break
@@ -56,6 +57,14 @@ export interface RingBreakGeometry {
    * out toward the axis so the surface stays one height per point of the cross-section.
    */
   steps?: (theta: number) => number;
+  /**
+   * When set (signed, radians), the face meets the real outer bone surface at 90 degrees minus
+   * this angle all along its rim: the slope through the wall is worked out from the bone's
+   * surface at each point of the front (rim-angle.ts) and replaces the bevels above. (A bevel
+   * along the axis alone leaves the parts of a front that run along the shaft near a right
+   * angle, and a lobed section tilts the surface the face meets.)
+   */
+  rimBevel?: number;
   roughness: Roughness;
   /** Range of outline(θ) values, for clearances. */
   outlineMin: number;
@@ -76,13 +85,24 @@ export function ringBreakBody(shape: BoneShape, g: RingBreakGeometry, resolution
   const rBlend = hollow ? rInner * 0.75 : 0;
   const outlineMean = hollow ? (g.outlineMin + g.outlineMax) / 2 : 0;
   const rSteps = Math.max(1, 0.8 * (shape.shaftRadius(g.z) - shape.cortical(g.z)));
+  const rim = g.rimBevel !== undefined ? rimSlopes(shape, g, frame, rMean, rClamp) : undefined;
+  // near the axis (solid bone) the slope's change around the front fades to its mean, so the
+  // surface stays one height at the centre
+  const rFade = 0.5 * rMean;
 
   const height = (r: number, theta: number): number => {
     const rc = Math.min(r, rClamp);
-    const th = theta + (g.twistBevel * (rc - rMean)) / rMean;
     let h: number;
-    if (g.planar) h = (g.outline(th) * rc) / rMean + g.bevel * (rc - rMean);
-    else h = g.outline(th) + g.bevel * (rc - rMean);
+    if (rim) {
+      const w = smoothstep(Math.min(1, r / rFade));
+      const k = rim.mean + (rim.at(theta) - rim.mean) * w;
+      h = (g.planar ? (g.outline(theta) * rc) / rMean : g.outline(theta)) + k * (rc - rMean);
+    } else {
+      const th = theta + (g.twistBevel * (rc - rMean)) / rMean;
+      if (g.planar) h = (g.outline(th) * rc) / rMean + g.bevel * (rc - rMean);
+      else h = g.outline(th) + g.bevel * (rc - rMean);
+    }
+    const th = rim ? theta : theta + (g.twistBevel * (rc - rMean)) / rMean;
     if (g.steps) h += g.steps(th) * smoothstep(Math.min(1, rc / rSteps));
     const rr = g.roughness.acrossWall(rc, rMean);
     h += g.roughness.at(rr * Math.cos(theta), rr * Math.sin(theta));
@@ -154,6 +174,54 @@ export function ringBreakBody(shape: BoneShape, g: RingBreakGeometry, resolution
 }
 
 /**
+ * The slope through the wall (dH/dr, beyond the planar tilt's own outline/rMean) that makes a
+ * ring break's face meet the outer bone surface at 90 - |rimBevel| along its rim, tabulated
+ * over the angle; found twice, the second time at the rim the first slopes give.
+ */
+function rimSlopes(shape: BoneShape, g: RingBreakGeometry, frame: AxisFrame, rMean: number, rMax: number): { at: (theta: number) => number; mean: number } {
+  const n = 720;
+  const k = new Float64Array(n);
+  const rimAt = (theta: number, slope: number) => {
+    let h = g.outline(theta);
+    let r = outerRadiusOnRay(shape, frame, theta, h, rMax + 10);
+    for (let it = 0; it < 2; it++) {
+      h = (g.planar ? (g.outline(theta) * r) / rMean : g.outline(theta)) + slope * (r - rMean);
+      r = outerRadiusOnRay(shape, frame, theta, h, rMax + 10);
+    }
+    return framePoint(frame, r, theta, h);
+  };
+  const interp = (theta: number) => {
+    const x = (wrapAngle(theta) / (2 * Math.PI)) * n;
+    const i = Math.floor(x) % n;
+    const f = x - Math.floor(x);
+    return k[i] * (1 - f) + k[(i + 1) % n] * f;
+  };
+  for (let pass = 0; pass < 2; pass++) {
+    const next = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const theta = (2 * Math.PI * i) / n;
+      const d = (2 * Math.PI) / n / 2;
+      const total = (th: number) => (pass === 0 ? g.bevel : interp(th));
+      const p = rimAt(theta, total(theta));
+      const a = rimAt(theta - d, total(theta - d));
+      const b = rimAt(theta + d, total(theta + d));
+      const { eR } = frameDirections(frame, theta);
+      const slope = slopeForRimAngle(outerNormal(shape, p), [b[0] - a[0], b[1] - a[1], b[2] - a[2]], g.rimBevel!, eR, frame.t, 2);
+      next[i] = slope - (g.planar ? g.outline(theta) / rMean : 0);
+    }
+    k.set(next);
+  }
+  let mean = 0;
+  for (let i = 0; i < n; i++) mean += k[i] / n;
+  return { at: interp, mean };
+}
+
+function wrapAngle(a: number): number {
+  const t = a % (2 * Math.PI);
+  return t < 0 ? t + 2 * Math.PI : t;
+}
+
+/**
  * A wedge along a stretch of shaft, between two surfaces given as angle(r, ζ) about the
  * segment's chord: cuts a splinter out of a hollow shaft segment. r runs from inside the
  * medullary cavity to well outside the bone, ζ past both ends of the segment.
@@ -169,6 +237,8 @@ export interface WedgeGeometry {
   upper: (r: number, zeta: number) => number;
   /** Roughens the two ends of the wedge, where they cross bone. */
   capRoughness?: { at(x: number, y: number): number };
+  /** Axial slope through the wall (dζ/dr) of the low and high ends, where they cross bone (0: square). */
+  capBevel?: { lo: number; hi: number };
 }
 
 export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
@@ -197,6 +267,8 @@ export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
       const hi = g.upper(r, zeta);
       const phi = lo + ((hi - lo) * i) / nA;
       if (g.capRoughness && (l === 0 || l === nZ)) zeta += g.capRoughness.at(r * Math.cos(phi) + l, r * Math.sin(phi));
+      const capSlope = g.capBevel ? (l === 0 ? g.capBevel.lo : l === nZ ? g.capBevel.hi : 0) : 0;
+      if (capSlope !== 0) zeta += capSlope * (Math.min(g.rBand[1], Math.max(g.rBand[0], r)) - (g.rBand[0] + g.rBand[1]) / 2);
       place(g.frame, r, phi, zeta, tmp, 0);
       id = pos.length / 3;
       pos.push(tmp[0], tmp[1], tmp[2]);

@@ -2,7 +2,8 @@ import type { Manifold, ManifoldToplevel } from 'manifold-3d';
 import type { BoneShape } from './bone-shape';
 import { boneOuterMesh, medullaryCavityMesh } from './bone-mesh';
 import { type BreakAge, type BreakPattern, type BreakPlan, type PlannedRingBreak, wrap } from './break-plan';
-import { axisFrame, ringBreakBody, wedgeBody } from './fracture-bodies';
+import { type AxisFrame, axisFrame, ringBreakBody, wedgeBody } from './fracture-bodies';
+import { frameDirections, framePoint, outerNormal, outerRadiusOnRay, slopeForRimAngle } from './rim-angle';
 import { solidFromMesh } from './manifold-kernel';
 
 /** Per-triangle surface labels (truth.json legend). Fracture faces are FRACTURE_BASE + break id. */
@@ -61,8 +62,10 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
     const body = solidFromMesh(wasm, ringBreakBody(shape, b.geometry, resolution));
     labelOf.set(body.originalID(), FRACTURE_BASE + b.id);
     breaks.push({ id: b.id, age: b.age, pattern: b.pattern, nominalBevelDeg: (Math.atan(Math.abs(b.geometry.bevel)) * 180) / Math.PI });
-    const lo = b.geometry.z + b.geometry.outlineMin - 12;
-    const hi = b.geometry.z + b.geometry.outlineMax + 12;
+    // a face sloped to its rim angle reaches further through the wall than its outline's range
+    const margin = b.geometry.rimBevel !== undefined ? 32 : 12;
+    const lo = b.geometry.z + b.geometry.outlineMin - margin;
+    const hi = b.geometry.z + b.geometry.outlineMax + margin;
     pieces = pieces.flatMap((p) => {
       const box = p.solid.boundingBox();
       if (box.max[2] < lo || box.min[2] > hi) return [p];
@@ -102,7 +105,19 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       base.push(acc);
       acc += w;
     }
-    const smooth = (i: number) => (r: number, zeta: number) => base[i] + (sp.twist * zeta) / len + (sp.bevels[i] * (r - rMean)) / rMean;
+    const rBand = [Math.max(rIn * 0.6 + 0.5, rIn - 1.5), rOut + 2] as const;
+    // A fresh splinter's face keeps its bevel about the frame's axis (it meets the bone surface
+    // obliquely anyway); a dry one runs straight through the wall, perpendicular to the real,
+    // lobed outer surface at its rim (a half-plane through the axis meets a lobed section
+    // obliquely), so its face has the near right angle its truth states.
+    const rimTables = sp.age === 'dry' ? base.map((b0, i) => dryRimTable(shape, frame, b0, sp.twist / len, Math.atan(sp.bevels[i]), z0 - zm - 12, z1 - zm + 12, rOut + 10)) : undefined;
+    const smooth = (i: number) =>
+      rimTables
+        ? (r: number, zeta: number) => {
+            const [rim, k] = rimTables[i](zeta);
+            return base[i] + (sp.twist * zeta) / len + (k / rim) * (Math.min(rBand[1], Math.max(rBand[0], r)) - rim);
+          }
+        : (r: number, zeta: number) => base[i] + (sp.twist * zeta) / len + (sp.bevels[i] * (r - rMean)) / rMean;
     const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, sp.roughness[i].acrossWall(r, rMean)) / rMean;
     const common = {
       frame,
@@ -110,9 +125,13 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       zetaHi: z1 - zm + (openHi ? 0 : 6),
       capRoughness: sp.roughness[0],
       rInside: rIn * 0.6,
-      rBand: [Math.max(rIn * 0.6 + 0.5, rIn - 1.5), rOut + 2] as const,
+      rBand,
       rOutside: rOut + 12,
     };
+    // Where the splinters end inside the bone (the segment runs on into a solid end), the wedge's
+    // ends cross the shaft and carry the label of the wedge's face: they are bevelled as that
+    // face is (axial slope through the wall), so a fresh splinter's end is oblique as its truth says.
+    const capBevel = (i: number) => ({ lo: openLo ? sp.bevels[i] : 0, hi: openHi ? sp.bevels[i] : 0 });
     const boundaryIds: number[] = [];
     for (let i = 0; i < sp.sectors; i++) {
       boundaryIds.push(nextId++);
@@ -126,7 +145,9 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       const w = sp.widths;
       let body: Manifold;
       if (cut === 0) {
-        const a = solidFromMesh(wasm, wedgeBody({ ...common, lower: rough(0), upper: (r, z) => smooth(0)(r, z) + w[0] + 0.5 * w[1] }, resolution));
+        const a = solidFromMesh(wasm, wedgeBody({ ...common, capBevel: capBevel(0), lower: rough(0), upper: (r, z) => smooth(1)(r, z) + 0.5 * w[1] }, resolution));
+        // Each wedge's other side stands half a sector beyond the neighbouring break and follows
+        // its slope through the wall, so it never crosses bone inside the freed sector.
         // The second wedge reaches past the first one's inner and outer walls and its ends, so
         // the two bodies share no surface: only their rough sides cross. (Coincident walls and
         // ends make the intersection cut every triangle against every neighbour: slow.)
@@ -138,7 +159,7 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
           rInside: common.rInside * 0.8,
           rOutside: common.rOutside + 4,
         };
-        const bb = solidFromMesh(wasm, wedgeBody({ ...wider, lower: (r, z) => smooth(1)(r, z) - w[0] - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
+        const bb = solidFromMesh(wasm, wedgeBody({ ...wider, lower: (r, z) => smooth(0)(r, z) - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
         labelOf.set(a.originalID(), FRACTURE_BASE + boundaryIds[0]);
         labelOf.set(bb.originalID(), FRACTURE_BASE + boundaryIds[1]);
         body = a.intersect(bb);
@@ -147,7 +168,7 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       } else {
         const upperIndex = next % sp.sectors;
         const upper = upperIndex === 0 ? (r: number, z: number) => rough(0)(r, z) + 2 * Math.PI : rough(upperIndex);
-        body = solidFromMesh(wasm, wedgeBody({ ...common, lower: (r, z) => smooth(cut)(r, z) - 0.5 * w[cut - 1], upper }, resolution));
+        body = solidFromMesh(wasm, wedgeBody({ ...common, capBevel: capBevel(upperIndex), lower: (r, z) => smooth(cut)(r, z) - 0.5 * w[cut - 1], upper }, resolution));
         labelOf.set(body.originalID(), FRACTURE_BASE + boundaryIds[upperIndex]);
       }
       const cutId = boundaryIds[next % sp.sectors];
@@ -209,3 +230,35 @@ function splitPiece(p: Piece, body: Manifold, breakId: number, crumbs: number[])
 }
 
 export { wrap };
+
+/**
+ * Along a longitudinal break about `frame` (angle phi0 + twist zeta at the rim), the rim radius
+ * and the rate k = r dphi/dr that makes the face meet the outer bone surface at 90 - bevel
+ * degrees there: tabulated every 0.5 mm of zeta between zLo and zHi, read by linear interpolation.
+ */
+function dryRimTable(shape: BoneShape, frame: AxisFrame, phi0: number, twist: number, bevelRad: number, zLo: number, zHi: number, rMax: number): (zeta: number) => [number, number] {
+  const step = 0.5;
+  const n = Math.ceil((zHi - zLo) / step) + 1;
+  const rim = new Float64Array(n);
+  const slope = new Float64Array(n);
+  const rimPoint = (zeta: number) => {
+    const phi = phi0 + twist * zeta;
+    const r = outerRadiusOnRay(shape, frame, phi, zeta, rMax);
+    return { phi, r, p: framePoint(frame, r, phi, zeta) };
+  };
+  for (let i = 0; i < n; i++) {
+    const zeta = zLo + i * step;
+    const here = rimPoint(zeta);
+    const a = rimPoint(zeta - 0.25).p;
+    const b = rimPoint(zeta + 0.25).p;
+    const { eR, ePhi } = frameDirections(frame, here.phi);
+    rim[i] = here.r;
+    slope[i] = slopeForRimAngle(outerNormal(shape, here.p), [b[0] - a[0], b[1] - a[1], b[2] - a[2]], bevelRad, eR, ePhi, 1.5);
+  }
+  return (zeta: number) => {
+    const x = Math.max(0, Math.min(n - 1, (zeta - zLo) / step));
+    const i = Math.min(n - 2, Math.floor(x));
+    const f = x - i;
+    return [rim[i] * (1 - f) + rim[i + 1] * f, slope[i] * (1 - f) + slope[i + 1] * f];
+  };
+}

@@ -61,6 +61,10 @@ export interface MatchParameters {
    * Screened motions of one fragment pair (over all its face pairs) that go on to the fine step:
    * at most this many, the best by overlap share, each at least fineMinOverlap and at least
    * fineRatio times the pair's best overlap (measured with tests/bench/face-pair-study.ts).
+   * 8 and 0.3 (were 3 and 0.5): on fragment pairs with many faces the true motion was often
+   * 4th-8th by the screen's rank; best motion of the true pair correct on dev seeds 15 / 16 /
+   * the committed sample 21 / 14 / 21 with 3 and 0.5, 24 / 19 / 26 with 8 and 0.3 (every face
+   * pair through its own fine step: 25 / 20 / 28) for 1.1-1.3x the CPU (tests/bench/propose-gap.ts).
    */
   finePerFragmentPair: number;
   fineMinOverlap: number;
@@ -93,9 +97,9 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
   fineHypotheses: 2,
-  finePerFragmentPair: 3,
+  finePerFragmentPair: 8,
   fineMinOverlap: 0.2,
-  fineRatio: 0.5,
+  fineRatio: 0.3,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,

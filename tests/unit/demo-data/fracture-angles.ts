@@ -1,18 +1,27 @@
 import type { LabelledMesh } from '../../../demo-data/labelled-mesh';
 import { FRACTURE_BASE, LABEL_ORIGINAL } from '../../../demo-data/shatter';
 
+/** One rim sample: where, on which break, the angle (degrees) and the fitted face plane's unit normal. */
+export interface RimSample {
+  breakId: number;
+  angle: number;
+  at: [number, number, number];
+  faceNormal: [number, number, number];
+}
+
 /**
  * Macroscopic fracture angle along a break's edge on the outer (cortical) surface: at rim
  * vertices, the angle inside the bone between a plane fitted to the fracture face nearby and
  * the mean normal of the cortical surface nearby (degrees; 90 is a right angle). This is the
- * angle Villa & Mahieu (1991) score by eye as oblique or right.
+ * angle Villa & Mahieu (1991) score by eye as oblique or right. Every `every`-th rim vertex is
+ * a sample, with its place and the fitted face plane's normal.
  */
-export function rimFractureAngles(
+export function rimFractureSamples(
   mesh: LabelledMesh,
   keep: (x: number, y: number, z: number) => boolean = () => true,
   radius = 3,
   every = 3,
-): Map<number, number[]> {
+): RimSample[] {
   const { positions: p, triangles: t, labels } = mesh;
   const nv = p.length / 3;
   const triNormal = (f: number): [number, number, number] => {
@@ -42,7 +51,7 @@ export function rimFractureAngles(
     if (!list) grid.set(k, (list = []));
     list.push(f);
   }
-  const result = new Map<number, number[]>();
+  const result: RimSample[] = [];
   let n = 0;
   for (let v = 0; v < nv; v++) {
     const label = faceOfVertex[v];
@@ -76,10 +85,7 @@ export function rimFractureAngles(
     if (no === 0) continue;
     const cos = (nf[0] * outer[0] + nf[1] * outer[1] + nf[2] * outer[2]) / no;
     const angle = 180 - (Math.acos(Math.max(-1, Math.min(1, cos))) * 180) / Math.PI;
-    const id = label - FRACTURE_BASE;
-    let list = result.get(id);
-    if (!list) result.set(id, (list = []));
-    list.push(angle);
+    result.push({ breakId: label - FRACTURE_BASE, angle, at: [x, y, z], faceNormal: nf });
   }
   return result;
 }
