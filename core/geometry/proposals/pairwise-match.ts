@@ -1,6 +1,7 @@
 /**
  * Align two fragments through their break faces: for a pair of faces, coarse motions from
- * FPFH correspondences and RANSAC, each refined by trimmed point-to-plane ICP against the other
+ * the pieces' shaft axes, FPFH correspondences and RANSAC, and (small faces) point pair
+ * feature voting, each refined by trimmed point-to-plane ICP against the other
  * fragment's surface, then scored. Faces are matched in part as well as in whole (RANSAC and
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
@@ -20,7 +21,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/3';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/4';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -155,11 +156,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
-  // a small face pair is aligned against A's triangles: the tangent planes of a few dozen samples
-  // on a rough break pull ICP off the truth (a 5 mm disc of a cut tube: 18 degrees, against
-  // the triangles 1; tests/unit/geometry/proposals/face-pair-stages.test.ts)
   const small = smallPair(FA, FB, params);
-  const faceSurfaceA = small ? a.surface : new SampledSurface(FA.points, FA.normals, FA.tree);
+  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
   const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
@@ -217,7 +215,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
 export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, screened: CoarseMotion[], params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
-  const faceSurfaceA = smallPair(FA, FB, params) ? a.surface : new SampledSurface(FA.points, FA.normals, FA.tree);
+  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const tol = params.contactToleranceSpacings * spacing;
   const out: FaceMatch[] = [];
   for (const r of screened) {
