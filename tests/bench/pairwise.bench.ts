@@ -30,6 +30,7 @@ import { matchFacePair, distinctBest, faceOverlapUnder, DEFAULT_MATCH_PARAMETERS
 import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { loadFragment } from '../../core/jobs/fragment-loader';
+import { reliability } from './calibration';
 
 interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 interface Truth { fragments: Array<{ catalogueNo: string; boneId: string }>; joins: TruthJoin[] }
@@ -197,10 +198,8 @@ export default async function main(): Promise<void> {
           transErr = displacementAt(m.transform, t, B.centroid);
         }
         const correct = rotErr < 5 && transErr < 5;
-        motions.push({
-          set: dir, a: w.a, b: w.b, trueJoin: !!tj, correct, rank, score: m.score, rotErr, transErr,
-          components: { contactFraction: m.contactFraction, contactFractionOther: m.contactFractionOther, contactAreaMm2: m.contactAreaMm2, gapRmsMm: m.gapRmsMm, penetrationMm: m.penetrationMm, outlineAgreement: m.outlineAgreement, interlock: m.interlock, ...(m as unknown as { extra?: Record<string, number> }).extra },
-        });
+        const { transform: _t, faceA: _fa, faceB: _fb, score: _s, ...components } = m;
+        motions.push({ set: dir, a: w.a, b: w.b, trueJoin: !!tj, correct, rank, score: m.score, rotErr, transErr, components });
         if (rank === 0) best.set(key(w.a, w.b), { ...m, correct });
       });
     }
@@ -242,14 +241,9 @@ export default async function main(): Promise<void> {
   const ok = motions.filter((m) => m.correct && m.rank === 0);
   process.stdout.write('\nAccuracy of correct best motions (geodesic rotation; translation at B\'s centroid)\n');
   table([{ n: ok.length, 'rot median deg': f(q(ok.map((m) => m.rotErr), 0.5)), 'rot p95 deg': f(q(ok.map((m) => m.rotErr), 0.95)), 'trans median mm': f(q(ok.map((m) => m.transErr), 0.5)), 'trans p95 mm': f(q(ok.map((m) => m.transErr), 0.95)) }]);
-  process.stdout.write('\nCalibration of the score (every motion ranked 1-5 of its fragment pair)\n');
-  const bins = [0, 0.1, 0.2, 0.4, 0.6, 0.8, 0.9, 1.0001];
-  const rows = [];
-  for (let i = 0; i + 1 < bins.length; i++) {
-    const inBin = motions.filter((m) => m.score >= bins[i] && m.score < bins[i + 1]);
-    rows.push({ score: `${bins[i].toFixed(1)}-${Math.min(1, bins[i + 1]).toFixed(1)}`, motions: inBin.length, 'mean predicted': f(inBin.reduce((s, m) => s + m.score, 0) / Math.max(1, inBin.length), 3), 'observed correct': inBin.length ? f(inBin.filter((m) => m.correct).length / inBin.length, 3) : '-' });
-  }
-  table(rows);
+  const cal = reliability(motions.map((m) => m.score), motions.map((m) => (m.correct ? 1 : 0)));
+  process.stdout.write(`\nCalibration of the score (every motion ranked 1-5 of its fragment pair): Brier score ${f(cal.brier, 4)} (reliability ${f(cal.rel, 4)}, resolution ${f(cal.res, 4)}, uncertainty ${f(cal.unc, 4)}; Murphy 1973)\n`);
+  table(cal.rows);
   const high = motions.filter((m) => m.score > 0.8);
   process.stdout.write(`\nPrecision of motions scoring above 0.8: ${high.length ? f(high.filter((m) => m.correct).length / high.length, 3) : '-'} (${high.filter((m) => m.correct).length}/${high.length})\n`);
   if (process.env.KNITBONE_PAIRWISE_DUMP) writeFileSync(process.env.KNITBONE_PAIRWISE_DUMP, JSON.stringify(motions));

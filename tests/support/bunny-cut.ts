@@ -65,7 +65,8 @@ export async function cutTube(options: Options & { outerRadius?: number; innerRa
 }
 
 let wasmKernel: Awaited<ReturnType<typeof Module>> | undefined;
-async function kernel(): Promise<Awaited<ReturnType<typeof Module>>> {
+/** The manifold-3d kernel, set up once per test file. */
+export async function kernel(): Promise<Awaited<ReturnType<typeof Module>>> {
   if (!wasmKernel) {
     wasmKernel = await Module();
     wasmKernel.setup();

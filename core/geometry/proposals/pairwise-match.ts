@@ -19,7 +19,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/3';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/4';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -109,7 +109,7 @@ export interface MatchTrace {
 }
 
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
-  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline };
+  return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis };
 }
 
 /** A coarse motion of B's face onto A's face, with the share of the smaller face it puts in contact. */

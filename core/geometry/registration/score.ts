@@ -11,6 +11,7 @@ import { KdTree } from './nearest-neighbours';
 import { scoreProbability, type ScoreComponents } from './score-model';
 import type { ClosestPoint, TargetSurface } from './target-surface';
 import { stridedSamples } from './strided-samples';
+import type { ShaftFrame } from './shaft-axis-search';
 
 export interface ScoredSide {
   surface: TargetSurface;
@@ -24,6 +25,8 @@ export interface ScoredSide {
   surfaceTree: KdTree;
   /** Points along the face's outline(s), packed xyz (may be empty). */
   outline: Float32Array;
+  /** The piece's fitted shaft axis; null or absent when the piece is not a shaft. */
+  axis?: ShaftFrame | null;
 }
 
 /** The score and the measured components it is computed from (see ScoreComponents). */
@@ -65,8 +68,54 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const outlineAgreement = outlineMeeting(a.outline, applyToPoints(transform, b.outline), 2 * tol);
   const spacing = options.spacing ?? tol / 0.4;
   const contactAreaMm2 = Math.min(ca.share * (a.facePoints.length / 3), cb.share * (b.facePoints.length / 3)) * spacing * spacing;
-  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock };
+  const axes = axisAgreement(a.axis, b.axis, transform, bFaceInA);
+  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes };
   return { score: scoreProbability(components), ...components };
+}
+
+/**
+ * Whether the two pieces' shaft axes lie on one line under the motion (the outer surfaces of
+ * two joined shaft pieces continue one another, medullary into medullary): the distance
+ * between the two axis lines where they pass the join (at B's face centroid, measured across
+ * A's axis), over the larger fitted radius, and the angle between the lines. A piece turned end
+ * over end about a direction in a longitudinal break face keeps the face in contact but puts
+ * its axis on the far side of the wall (offset about twice the wall's mean radius, and the
+ * directions from the join across to the two axes opposed: axisSide about -1). Also the ratio
+ * of the two fitted radii (pieces of one shaft have about the same).
+ */
+function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, transform: RigidTransform, bFaceInA: Float64Array | Float32Array): { axesCompared: number; axisOffset: number; axisAngleDeg: number; axisSide: number; radiusRatio: number } {
+  if (!axisA || !axisB || !(axisA.radius > 0) || !(axisB.radius > 0) || bFaceInA.length < 3) return { axesCompared: 0, axisOffset: 0, axisAngleDeg: 0, axisSide: 1, radiusRatio: 1 };
+  const n = bFaceInA.length / 3;
+  const c = [0, 0, 0];
+  for (let i = 0; i < n; i++) for (let k = 0; k < 3; k++) c[k] += bFaceInA[3 * i + k] / n;
+  const dA = axisA.direction, pA = axisA.point;
+  const dB = applyToDirections(transform, Float64Array.from(axisB.direction));
+  const pB = applyToPoints(transform, Float64Array.from(axisB.point));
+  const cos = Math.min(1, Math.abs(dA[0] * dB[0] + dA[1] * dB[1] + dA[2] * dB[2]));
+  // the points of both lines in the plane through c across A's axis
+  const onLine = (p: ArrayLike<number>, d: ArrayLike<number>): number[] => {
+    const den = d[0] * dA[0] + d[1] * dA[1] + d[2] * dA[2];
+    const t = Math.abs(den) > 0.2 ? ((c[0] - p[0]) * dA[0] + (c[1] - p[1]) * dA[1] + (c[2] - p[2]) * dA[2]) / den : 0;
+    return [p[0] + t * d[0], p[1] + t * d[1], p[2] + t * d[2]];
+  };
+  const qa = onLine(pA, dA), qb = onLine(pB, dB);
+  const offset = Math.hypot(qa[0] - qb[0], qa[1] - qb[1], qa[2] - qb[2]) / Math.max(axisA.radius, axisB.radius);
+  // which side of the wall each axis lies on, seen from the join: from c across to each line
+  const across = (q: number[], d: ArrayLike<number>): number[] => {
+    const v = [q[0] - c[0], q[1] - c[1], q[2] - c[2]];
+    const t = v[0] * d[0] + v[1] * d[1] + v[2] * d[2];
+    const w = [v[0] - t * d[0], v[1] - t * d[1], v[2] - t * d[2]];
+    const l = Math.hypot(w[0], w[1], w[2]) || 1;
+    return [w[0] / l, w[1] / l, w[2] / l];
+  };
+  const ua = across(qa, dA), ub = across(qb, dB);
+  return {
+    axesCompared: 1,
+    axisOffset: offset,
+    axisAngleDeg: (Math.acos(cos) * 180) / Math.PI,
+    axisSide: ua[0] * ub[0] + ua[1] * ub[1] + ua[2] * ub[2],
+    radiusRatio: Math.max(axisA.radius, axisB.radius) / Math.min(axisA.radius, axisB.radius),
+  };
 }
 
 /**
