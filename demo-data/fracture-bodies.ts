@@ -235,11 +235,19 @@ export interface WedgeGeometry {
   rOutside: number;
   lower: (r: number, zeta: number) => number;
   upper: (r: number, zeta: number) => number;
+  /**
+   * Which side is the break face (the other one stands in already freed space): where the two
+   * would cross, the other side is kept just beyond the face, so the wedge never turns inside out.
+   */
+  face: 'lower' | 'upper';
   /** Roughens the two ends of the wedge, where they cross bone. */
   capRoughness?: { at(x: number, y: number): number };
-  /** Axial slope through the wall (dζ/dr) of the low and high ends, where they cross bone (0: square). */
-  capBevel?: { lo: number; hi: number };
+  /** Shift along ζ of the low (0) and high (1) ends at radius r and angle φ: their slope through the wall where they cross bone. */
+  capSlope?: (end: 0 | 1, r: number, phi: number) => number;
 }
+
+/** Smallest angle (radians) between a wedge's two sides. */
+const MIN_WEDGE_ANGLE = 0.02;
 
 export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
   const width = Math.abs(g.upper(g.rBand[1], 0) - g.lower(g.rBand[1], 0));
@@ -263,12 +271,13 @@ export function wedgeBody(g: WedgeGeometry, resolution: number): TriangleMesh {
     if (id < 0) {
       const r = radii[k];
       let zeta = g.zetaLo + ((g.zetaHi - g.zetaLo) * l) / nZ;
-      const lo = g.lower(r, zeta);
-      const hi = g.upper(r, zeta);
+      let lo = g.lower(r, zeta);
+      let hi = g.upper(r, zeta);
+      if (g.face === 'upper') lo = Math.min(lo, hi - MIN_WEDGE_ANGLE);
+      else hi = Math.max(hi, lo + MIN_WEDGE_ANGLE);
       const phi = lo + ((hi - lo) * i) / nA;
       if (g.capRoughness && (l === 0 || l === nZ)) zeta += g.capRoughness.at(r * Math.cos(phi) + l, r * Math.sin(phi));
-      const capSlope = g.capBevel ? (l === 0 ? g.capBevel.lo : l === nZ ? g.capBevel.hi : 0) : 0;
-      if (capSlope !== 0) zeta += capSlope * (Math.min(g.rBand[1], Math.max(g.rBand[0], r)) - (g.rBand[0] + g.rBand[1]) / 2);
+      if (g.capSlope && (l === 0 || l === nZ)) zeta += g.capSlope(l === 0 ? 0 : 1, r, phi);
       place(g.frame, r, phi, zeta, tmp, 0);
       id = pos.length / 3;
       pos.push(tmp[0], tmp[1], tmp[2]);

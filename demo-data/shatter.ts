@@ -106,18 +106,15 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       acc += w;
     }
     const rBand = [Math.max(rIn * 0.6 + 0.5, rIn - 1.5), rOut + 2] as const;
-    // A fresh splinter's face keeps its bevel about the frame's axis (it meets the bone surface
-    // obliquely anyway); a dry one runs straight through the wall, perpendicular to the real,
-    // lobed outer surface at its rim (a half-plane through the axis meets a lobed section
-    // obliquely), so its face has the near right angle its truth states.
-    const rimTables = sp.age === 'dry' ? base.map((b0, i) => dryRimTable(shape, frame, b0, sp.twist / len, Math.atan(sp.bevels[i]), z0 - zm - 12, z1 - zm + 12, rOut + 10)) : undefined;
-    const smooth = (i: number) =>
-      rimTables
-        ? (r: number, zeta: number) => {
-            const [rim, k] = rimTables[i](zeta);
-            return base[i] + (sp.twist * zeta) / len + (k / rim) * (Math.min(rBand[1], Math.max(rBand[0], r)) - rim);
-          }
-        : (r: number, zeta: number) => base[i] + (sp.twist * zeta) / len + (sp.bevels[i] * (r - rMean)) / rMean;
+    // Each splinter face meets the real (lobed, tapering, flaring) outer surface at 90 degrees
+    // minus its bevel at its rim: its slope through the wall is taken from that surface (a
+    // half-plane through the axis, or a bevel about the frame's axis, meets a lobed section at
+    // other angles: right-angled in places on a bevelled fresh face, oblique on a dry one).
+    const rimTables = base.map((b0, i) => sideRimTable(shape, frame, b0, sp.twist / len, Math.atan(sp.bevels[i]), z0 - zm - 12, z1 - zm + 12, rOut + 10));
+    const smooth = (i: number) => (r: number, zeta: number) => {
+      const [rim, k] = rimTables[i](zeta);
+      return base[i] + (sp.twist * zeta) / len + (k / rim) * (Math.min(rBand[1], Math.max(rBand[0], r)) - rim);
+    };
     const rough = (i: number) => (r: number, zeta: number) => smooth(i)(r, zeta) + sp.roughness[i].at(zeta, sp.roughness[i].acrossWall(r, rMean)) / rMean;
     const common = {
       frame,
@@ -128,10 +125,20 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       rBand,
       rOutside: rOut + 12,
     };
-    // Where the splinters end inside the bone (the segment runs on into a solid end), the wedge's
-    // ends cross the shaft and carry the label of the wedge's face: they are bevelled as that
-    // face is (axial slope through the wall), so a fresh splinter's end is oblique as its truth says.
-    const capBevel = (i: number) => ({ lo: openLo ? sp.bevels[i] : 0, hi: openHi ? sp.bevels[i] : 0 });
+    // Where the splinters end inside the bone (the segment runs on into a solid end, where the
+    // shaft flares), the wedge's ends cross the shaft and carry the label of the wedge's face:
+    // they meet the real outer surface at 90 degrees minus that face's bevel, as a ring front does
+    // (they were square to the frame's axis: oblique on the flare, right-angled on a fresh face).
+    const capTables = new Map<string, (phi: number) => [number, number]>();
+    const capSlope = (i: number) => (end: 0 | 1, r: number, phi: number): number => {
+      if (!(end === 0 ? openLo : openHi)) return 0;
+      const zeta = end === 0 ? z0 - zm : z1 - zm;
+      const key = `${end} ${i}`;
+      let table = capTables.get(key);
+      if (!table) capTables.set(key, (table = capRimTable(shape, frame, zeta, Math.atan(sp.bevels[i]), rOut + 10)));
+      const [rim, k] = table(phi);
+      return k * (Math.min(rBand[1], Math.max(rBand[0], r)) - rim);
+    };
     const boundaryIds: number[] = [];
     for (let i = 0; i < sp.sectors; i++) {
       boundaryIds.push(nextId++);
@@ -145,7 +152,7 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       const w = sp.widths;
       let body: Manifold;
       if (cut === 0) {
-        const a = solidFromMesh(wasm, wedgeBody({ ...common, capBevel: capBevel(0), lower: rough(0), upper: (r, z) => smooth(1)(r, z) + 0.5 * w[1] }, resolution));
+        const a = solidFromMesh(wasm, wedgeBody({ ...common, capSlope: capSlope(0), face: 'lower', lower: rough(0), upper: (r, z) => smooth(1)(r, z) + 0.5 * w[1] }, resolution));
         // Each wedge's other side stands half a sector beyond the neighbouring break and follows
         // its slope through the wall, so it never crosses bone inside the freed sector.
         // The second wedge reaches past the first one's inner and outer walls and its ends, so
@@ -159,7 +166,7 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
           rInside: common.rInside * 0.8,
           rOutside: common.rOutside + 4,
         };
-        const bb = solidFromMesh(wasm, wedgeBody({ ...wider, lower: (r, z) => smooth(0)(r, z) - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
+        const bb = solidFromMesh(wasm, wedgeBody({ ...wider, face: 'upper', lower: (r, z) => smooth(0)(r, z) - 0.5 * w[w.length - 1], upper: rough(1) }, resolution));
         labelOf.set(a.originalID(), FRACTURE_BASE + boundaryIds[0]);
         labelOf.set(bb.originalID(), FRACTURE_BASE + boundaryIds[1]);
         body = a.intersect(bb);
@@ -168,7 +175,7 @@ export function shatterBone(wasm: ManifoldToplevel, shape: BoneShape, plan: Brea
       } else {
         const upperIndex = next % sp.sectors;
         const upper = upperIndex === 0 ? (r: number, z: number) => rough(0)(r, z) + 2 * Math.PI : rough(upperIndex);
-        body = solidFromMesh(wasm, wedgeBody({ ...common, capBevel: capBevel(upperIndex), lower: (r, z) => smooth(cut)(r, z) - 0.5 * w[cut - 1], upper }, resolution));
+        body = solidFromMesh(wasm, wedgeBody({ ...common, capSlope: capSlope(upperIndex), face: 'upper', lower: (r, z) => smooth(cut)(r, z) - 0.5 * w[cut - 1], upper }, resolution));
         labelOf.set(body.originalID(), FRACTURE_BASE + boundaryIds[upperIndex]);
       }
       const cutId = boundaryIds[next % sp.sectors];
@@ -236,29 +243,52 @@ export { wrap };
  * and the rate k = r dphi/dr that makes the face meet the outer bone surface at 90 - bevel
  * degrees there: tabulated every 0.5 mm of zeta between zLo and zHi, read by linear interpolation.
  */
-function dryRimTable(shape: BoneShape, frame: AxisFrame, phi0: number, twist: number, bevelRad: number, zLo: number, zHi: number, rMax: number): (zeta: number) => [number, number] {
+function sideRimTable(shape: BoneShape, frame: AxisFrame, phi0: number, twist: number, bevelRad: number, zLo: number, zHi: number, rMax: number): (zeta: number) => [number, number] {
   const step = 0.5;
   const n = Math.ceil((zHi - zLo) / step) + 1;
-  const rim = new Float64Array(n);
-  const slope = new Float64Array(n);
   const rimPoint = (zeta: number) => {
     const phi = phi0 + twist * zeta;
     const r = outerRadiusOnRay(shape, frame, phi, zeta, rMax);
     return { phi, r, p: framePoint(frame, r, phi, zeta) };
   };
-  for (let i = 0; i < n; i++) {
+  return rimTable(n, (i) => {
     const zeta = zLo + i * step;
     const here = rimPoint(zeta);
     const a = rimPoint(zeta - 0.25).p;
     const b = rimPoint(zeta + 0.25).p;
     const { eR, ePhi } = frameDirections(frame, here.phi);
-    rim[i] = here.r;
-    slope[i] = slopeForRimAngle(outerNormal(shape, here.p), [b[0] - a[0], b[1] - a[1], b[2] - a[2]], bevelRad, eR, ePhi, 1.5);
-  }
-  return (zeta: number) => {
-    const x = Math.max(0, Math.min(n - 1, (zeta - zLo) / step));
-    const i = Math.min(n - 2, Math.floor(x));
-    const f = x - i;
-    return [rim[i] * (1 - f) + rim[i + 1] * f, slope[i] * (1 - f) + slope[i + 1] * f];
+    return [here.r, slopeForRimAngle(outerNormal(shape, here.p), [b[0] - a[0], b[1] - a[1], b[2] - a[2]], bevelRad, eR, ePhi, 1.5)];
+  }, (zeta) => Math.max(0, Math.min(n - 1, (zeta - zLo) / step)), false);
+}
+
+/**
+ * Around the end of a splinter wedge (the plane zeta of the frame, all the way round), the rim
+ * radius and the slope dzeta/dr that makes the end meet the outer surface at 90 - bevel degrees:
+ * tabulated every degree of the angle.
+ */
+function capRimTable(shape: BoneShape, frame: AxisFrame, zeta: number, bevelRad: number, rMax: number): (phi: number) => [number, number] {
+  const n = 360;
+  const rimPoint = (phi: number) => framePoint(frame, outerRadiusOnRay(shape, frame, phi, zeta, rMax), phi, zeta);
+  return rimTable(n, (i) => {
+    const phi = (2 * Math.PI * i) / n;
+    const r = outerRadiusOnRay(shape, frame, phi, zeta, rMax);
+    const a = rimPoint(phi - 0.005);
+    const b = rimPoint(phi + 0.005);
+    const { eR } = frameDirections(frame, phi);
+    return [r, slopeForRimAngle(outerNormal(shape, framePoint(frame, r, phi, zeta)), [b[0] - a[0], b[1] - a[1], b[2] - a[2]], bevelRad, eR, frame.t, 1.5)];
+  }, (phi) => ((((phi / (2 * Math.PI)) % 1) + 1) % 1) * n, true);
+}
+
+/** n tabulated [radius, slope] pairs read by linear interpolation at a fractional index (periodic or clamped). */
+function rimTable(n: number, entry: (i: number) => [number, number], index: (x: number) => number, periodic: boolean): (x: number) => [number, number] {
+  const rim = new Float64Array(n);
+  const slope = new Float64Array(n);
+  for (let i = 0; i < n; i++) [rim[i], slope[i]] = entry(i);
+  return (x: number) => {
+    const xi = index(x);
+    const i = periodic ? Math.floor(xi) % n : Math.min(n - 2, Math.floor(xi));
+    const j = periodic ? (i + 1) % n : i + 1;
+    const f = xi - Math.floor(xi) + (periodic ? 0 : Math.floor(xi) - i);
+    return [rim[i] * (1 - f) + rim[j] * f, slope[i] * (1 - f) + slope[j] * f];
   };
 }
