@@ -7,7 +7,7 @@
  *   match:    align two fragments through the given face pairs; result: best motions, scored
  * What is analysed and described is written to the cache (fragment-cache.ts) for later runs.
  */
-import { parentPort } from 'node:worker_threads';
+import { parentPort, threadId } from 'node:worker_threads';
 import { KnitboneError } from '../host/errors';
 import { faceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
 import { matchFragments, type FaceMatch, type MatchParameters } from '../geometry/proposals/pairwise-match';
@@ -46,6 +46,10 @@ export interface MatchResult {
   scanA: number;
   scanB: number;
   matches: FaceMatch[];
+  /** The worker thread that answered, fragments it had to prepare for this task (not in its memory), and its busy milliseconds. */
+  worker: number;
+  prepared: number;
+  busyMs: number;
 }
 
 /** How many fragments a worker keeps in memory (the pool mirrors this for its affinity). */
@@ -72,10 +76,14 @@ function analysedFragment(scan: ScanRef): { input: FragmentInput; summary: Fragm
   return remember(analysed, scan.scanId, entry);
 }
 
+/** Fragments this worker has prepared so far (each time one was not in its memory). */
+let preparations = 0;
+
 function preparedFragment(scan: ScanRef, sampling: SamplingParameters): PreparedFragment {
   const key = `${scan.scanId}@${sampling.spacing}/${sampling.fpfhRadiusSpacings}`;
   const hit = prepared.get(key);
   if (hit) return remember(prepared, key, hit);
+  preparations++;
   return remember(prepared, key, prepareFragment(analysedFragment(scan).input, sampling));
 }
 
@@ -100,10 +108,12 @@ function run(task: ProposalTask): AnalyseResult | DescribeResult | MatchResult {
       return { scanId: task.scan.scanId, ...out };
     }
     case 'match': {
+      const t0 = performance.now();
+      const before = preparations;
       const a = preparedFragment(task.a, task.sampling);
       const b = preparedFragment(task.b, task.sampling);
       const matches = matchFragments(a, b, task.params, task.facePairs).slice(0, task.keep);
-      return { scanA: task.a.scanId, scanB: task.b.scanId, matches };
+      return { scanA: task.a.scanId, scanB: task.b.scanId, matches, worker: threadId, prepared: preparations - before, busyMs: performance.now() - t0 };
     }
   }
 }

@@ -199,6 +199,7 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
   progress(`  done: ${f(r.wall, 1)} s wall, ${f(r.cpu, 1)} s CPU, ${f(r.maxRssMb, 0)} MB, load ${r.load}; ${r.stdout.split('\n').filter((l) => /break faces|candidate face pairs/.test(l)).join(' ')}`);
   const proposals = JSON.parse(must(cli(['joins', cat, '--status', 'proposed', '--json']), 'joins').stdout) as Proposal[];
   const stats = /(\d+) scans, (\d+) break faces, (\d+) candidate pairs.*\n\((\d+) scans analysed.*?(\d+) candidate face pairs, (\d+) aligned; reading ([\d.]+) s, describing ([\d.]+) s, aligning ([\d.]+) s/.exec(r.stdout) ?? [];
+  const workerStats = /while aligning: (\d+) fragments prepared by the workers; workers busy ([\d. /-]+) s of/.exec(r.stdout) ?? [];
   const present = new Set(truth.fragments.map((x) => x.catalogueNo));
   const top3 = (no: string): Proposal[] => proposals.filter((p) => p.a === no || p.b === no).sort((p, q2) => q2.score - p.score).slice(0, 3);
   const trueKeys = new Set(truth.joins.map((j) => key(j.a, j.b)));
@@ -244,6 +245,8 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
       'load 1 min': all ? r.load : '',
       'max RSS MB': all ? f(r.maxRssMb, 0) : '',
       'stages read/describe/align s': all ? `${stats[7] ?? '-'}/${stats[8] ?? '-'}/${stats[9] ?? '-'}` : '',
+      'prepared while aligning': all ? (workerStats[1] ?? '-') : '',
+      'workers busy s': all ? (workerStats[2] ?? '-') : '',
     });
   }
   const alignSeconds = Number(stats[9] ?? NaN);
@@ -356,6 +359,8 @@ export default async function run(): Promise<void> {
       'CPU ms per face': f((1000 * Number(r['CPU s'])) / Number(r.faces), 0),
       'load 1 min': r['load 1 min'],
       'max RSS MB': r['max RSS MB'],
+      'prepared while aligning': r['prepared while aligning'],
+      'workers busy s': r['workers busy s'],
       'recall top3': r['recall top3'],
       'precision >0.8': r['precision >0.8'],
     })));

@@ -1,6 +1,7 @@
 /**
  * Align two fragments through their break faces: for a pair of faces, coarse motions from
- * FPFH correspondences and RANSAC, each refined by trimmed point-to-plane ICP against the other
+ * the pieces' shaft axes, FPFH correspondences and RANSAC, and (small faces) point pair
+ * feature voting, each refined by trimmed point-to-plane ICP against the other
  * fragment's surface, then scored. Faces are matched in part as well as in whole (RANSAC and
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
@@ -11,6 +12,7 @@ import { SampledSurface } from '../registration/target-surface';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../registration/rigid-transform';
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
 import { searchAlongAxisDirections } from '../registration/axis-direction-search';
+import { pointPairVoting } from '../registration/point-pair-voting';
 import { inOpposedContact } from '../registration/opposed-contact';
 import type { KdTree } from '../registration/nearest-neighbours';
 import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
@@ -19,7 +21,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-icp/4';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/5';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -37,6 +39,17 @@ export interface MatchParameters {
   directionGoodOverlap: number;
   /** Tilts between the two axis directions tried about each of two directions (degrees); [0] measured better than [-6, 0, 6] on dev seeds 15-16 (recall 45 vs 43 of 83, 1.4x less CPU): the short ICP takes up a few degrees. */
   directionTiltsDeg: number[];
+  /**
+   * Hypotheses from point pair feature voting (point-pair-voting.ts) added to RANSAC's (0: never
+   * run) when the smaller face has at most pairVoteMaxFaceSamples samples; such a face pair is
+   * never settled by the axis searches alone either (a wrong turn covers a small face as well as
+   * the truth).
+   */
+  pairVoteHypotheses: number;
+  pairVoteMaxFaceSamples: number;
+  /** Samples of the smaller face in the vote, and reference samples of the larger face. */
+  pairVoteSamples: number;
+  pairVoteReferences: number;
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
@@ -77,6 +90,10 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   directionPeaks: 3,
   directionGoodOverlap: 2,
   directionTiltsDeg: [0],
+  pairVoteHypotheses: 4,
+  pairVoteMaxFaceSamples: 150,
+  pairVoteSamples: 120,
+  pairVoteReferences: 30,
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
   minOverlap: 0.08,
@@ -139,6 +156,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
+  const small = smallPair(FA, FB, params);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
   const refine = (list: RigidTransform[]): CoarseMotion[] =>
@@ -150,13 +168,14 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   let refined = refine(starts);
   // shaft pieces whose fitted axis points or radii disagree (partial arcs): the axis directions only
   const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
-  let settled = shafts && good(refined, params.axisGoodOverlap);
+  // a small face is easily covered by a wrong turn about the axis: it never settles the search
+  let settled = shafts && !small && good(refined, params.axisGoodOverlap);
   if (a.axis && b.axis && params.directionPeaks > 0 && !settled) {
     const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
     const more = refine(hyps.map((h) => h.transform));
     refined = refined.concat(more);
     // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
-    settled = params.directionGoodOverlap <= 1 && good(more, params.directionGoodOverlap);
+    settled = params.directionGoodOverlap <= 1 && !small && good(more, params.directionGoodOverlap);
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {
@@ -166,6 +185,11 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     );
     refined = refined.concat(refine(hyps.map((h) => h.transform)));
+    // point pair features: on a small face FPFH histograms over a radius as wide as the face barely differ, pair features still do
+    if (params.pairVoteHypotheses > 0 && small) {
+      const votes = pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: params.pairVoteHypotheses });
+      refined = refined.concat(refine(votes.map((h) => h.transform)));
+    }
   }
   // 3. early rejection, then the few best on to the fine step against the whole surface
   refined.sort((p, q) => q.overlap - p.overlap);
@@ -279,6 +303,11 @@ function nearFace(points: Float32Array, normals: Float32Array, T: RigidTransform
     N.set(normals.subarray(3 * i, 3 * i + 3), 3 * k);
   }
   return { points: P, normals: N };
+}
+
+/** A face pair whose smaller face has at most pairVoteMaxFaceSamples samples (see MatchParameters). */
+function smallPair(FA: PreparedFace, FB: PreparedFace, params: MatchParameters): boolean {
+  return Math.min(FA.points.length, FB.points.length) / 3 <= params.pairVoteMaxFaceSamples;
 }
 
 /** Two shaft pieces that join have about the same radius at the break (design.md section 7, notes for long bones). */

@@ -1,10 +1,14 @@
 /**
  * The join score as a probability: a logistic model over the score's components (what a
  * person checks on a refit: contact, gaps, one piece running into the other, outlines that
- * meet, faces that lock). Coefficients are fitted on motions with known truth from generated
- * assemblages of development seeds only (tests/bench/fit-score-model.ts) and belong to the
- * matcher's method version: a new method version needs a new fit. The held-out calibration is
- * printed by `npm run bench -- pairwise`.
+ * meet, faces that lock, and for shaft pieces whether the two fitted shaft axes agree under the
+ * motion: their tilt, and whether they lie on the same side of the wall seen from the join).
+ * Two rules scale the probability down where the fit has too few examples to learn it: faces
+ * that could slide (LOCKED_INTERLOCK) and a piece turned inside out (SIDE_NONE, SIDE_FULL).
+ * Coefficients are fitted on motions with known truth from generated assemblages of development
+ * seeds only (tests/bench/fit-score-model.ts, which also prints reliability tables and Brier
+ * scores for the sets it did not fit) and belong to the matcher's method version: a new method
+ * version needs a new fit. The held-out calibration is printed by `npm run bench -- pairwise`.
  */
 /** What scoreJoin (score.ts) measures of a proposed motion; the model's inputs. */
 export interface ScoreComponents {
@@ -78,9 +82,9 @@ export interface ScoreModel {
 
 export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-direction-fpfh-ransac-icp/4',
-  fittedOn: 'knitbone demo, 30 fragments each, 1.5 mm, seeds 11, 12, 13 (generator before the rim-angle change): 4569 motions (ranks 1-5 of every candidate and true fragment pair), 114 correct (within 5 degrees and 5 mm); checked on seeds 14, 15, 16 (Brier 0.0052 against 0.0067 for the model fitted for method /2)',
-  intercept: -5.5221,
-  slopes: { contactFraction: -1.4340, contactFractionOther: -0.6486, logContactArea: 0.4718, gapRmsMm: -22.9077, penetrationMm: -3.2857, outlineAgreement: 6.2765, interlock: 53.9120, axisAngle: -4.2868, axisSideMismatch: -2.4077 },
+  fittedOn: 'knitbone demo (generator with rim angles, 2 Dec 2026), 30 fragments each, 1.5 mm, seeds 11, 12, 13: 4889 motions (ranks 1-5 of every candidate and true fragment pair, 8 fine motions per fragment pair), 103 correct (within 5 degrees and 5 mm); checked on seeds 14, 15, 16: Brier 0.0061 (reliability 0.0002), against 0.0067 for the fit on the previous generator and for the model fitted for method /2',
+  intercept: -8.8496,
+  slopes: { contactFraction: -0.9307, contactFractionOther: -1.3753, logContactArea: 1.0430, gapRmsMm: -28.0593, penetrationMm: -0.8886, outlineAgreement: 5.9637, interlock: 65.5309, axisAngle: -2.3727, axisSideMismatch: -2.6387 },
 };
 
 /**

@@ -58,6 +58,9 @@ export interface ProposeOutcome {
     analysedScans: number;
     /** Wall seconds per stage. */
     stageSeconds: { reading: number; describing: number; aligning: number };
+    /** While aligning: fragments prepared by the workers (a fragment not in a worker's memory is prepared again), and each worker's busy seconds (the rest of the stage it waited). */
+    aligningPreparations: number;
+    workerBusySeconds: number[];
     skippedDone: number;
     skippedDecided: number;
     stored: number;
@@ -105,7 +108,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
     const outcome = (over: Partial<ProposeOutcome['run']>, parameters: Record<string, unknown> = {}, hash = ''): ProposeOutcome => ({
       proposals: cat.joins.list({ status: 'proposed' }),
       run: {
-        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, stageSeconds: { ...stageSeconds }, skippedDone: 0, skippedDecided: 0, stored: 0,
+        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, stored: 0,
         cancelled: false, problems, parameters, parametersHash: hash, seconds: (Date.now() - started) / 1000, ...over,
       },
     });
@@ -195,7 +198,8 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       for (const t of ordered) tasks.push(t);
 
       // 4. align and store
-      let stored = 0, alignedFacePairs = 0;
+      let stored = 0, alignedFacePairs = 0, aligningPreparations = 0;
+      const busy = new Map<number, number>();
       const facePairsOf = new Map(tasks.map((t) => {
         const msg = t.message as Extract<ProposalTask, { kind: 'match' }>;
         return [`${msg.a.scanId}:${msg.b.scanId}`, msg.facePairs.length];
@@ -205,6 +209,8 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
         onResult: (r) => {
           alignedFacePairs += facePairsOf.get(`${r.scanA}:${r.scanB}`) ?? 0;
+          aligningPreparations += r.prepared;
+          busy.set(r.worker, (busy.get(r.worker) ?? 0) + r.busyMs / 1000);
           if (storeResult(cat, pairsRepo, r, specimenOfScan, analysedOk, poses, { parametersHash, parameters, minScore })) stored++;
         },
         onError: (message, i) => {
@@ -215,7 +221,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       });
       endStage('aligning');
       return outcome(
-        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, stageSeconds: { ...stageSeconds }, skippedDone, skippedDecided, stored, cancelled: m.cancelled },
+        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, stored, cancelled: m.cancelled },
         parameters,
         parametersHash,
       );
