@@ -102,7 +102,8 @@ export function analyseFragment(
   }
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
-  const axis = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean);
+  const axis = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean,
+    { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
   let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);

@@ -39,6 +39,15 @@ export const analysisSettingsSchema = z.object({
    * break faces along a splinter from pulling the centre into the wall.
    */
   shaftCentreTolerance: z.number().positive().max(1).default(0.45),
+  /**
+   * Which side of a flat wall the shaft centre lies on (shaft-axis.ts, settleAxisSide): the
+   * surface facing the fitted centre may be taken for the outer one (and the centre mirrored)
+   * only while its area is at least this share of the surface facing away (a break face lying
+   * along the medullary face adds to that one's area).
+   */
+  axisSideAreaRatio: z.number().min(0).max(10).default(0.8),
+  /** A mirrored shaft centre is kept only when at least this share as much surface faces it squarely as faced the fitted one. */
+  axisSideFacingShare: z.number().min(0).max(10).default(0.6),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

@@ -1,5 +1,6 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { mulberry32 } from './seeded-random';
+import { analysisSettings } from './settings';
 
 /**
  * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
@@ -143,11 +144,13 @@ function facingArea(
   return area;
 }
 
-/** The face towards the centre counts as the outer one while at least this share of the face away (a break face lying along the medullary face adds to that one's area). */
-const SIDE_AREA_RATIO = 0.8;
+/** Cut-offs of settleAxisSide (settings.ts: axisSideAreaRatio, axisSideFacingShare; defaults there). */
+export interface AxisSideCutoffs { areaRatio: number; facingShare: number }
 
-/** A mirrored centre must keep at least this share of the surface facing squarely out or in. */
-const SIDE_FACING_SHARE = 0.6;
+function defaultAxisSideCutoffs(): AxisSideCutoffs {
+  const s = analysisSettings();
+  return { areaRatio: s.axisSideAreaRatio, facingShare: s.axisSideFacingShare };
+}
 
 /**
  * The normal lines of a nearly flat wall (a splinter from a flat or lobed shaft) meet on
@@ -159,12 +162,13 @@ const SIDE_FACING_SHARE = 0.6;
  * from the fragment's area centroid to the fitted centre across the axis, the surface facing
  * w (normal . w > 0.8) should be the medullary face and the one facing -w the outer. When the
  * surface facing w is the more convex (area-weighted median of the mean curvature) and not
- * clearly the smaller (at least SIDE_AREA_RATIO of the other), the centre is on the wrong side and is replaced by its mirror image through the area centroid,
- * provided at least SIDE_FACING_SHARE as much surface faces the mirror squarely. Break faces
+ * clearly the smaller (at least `areaRatio` of the other), the centre is on the wrong side and is replaced by its mirror image through the area centroid,
+ * provided at least `facingShare` as much surface faces the mirror squarely. Break faces
  * of a splinter run roughly along w and drop out of both sets. Unchanged without shaft support.
  */
 export function settleAxisSide(
-  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: ArrayLike<number>, supportMin = 0.5,
+  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, meanCurvature: ArrayLike<number>,
+  cutoffs: AxisSideCutoffs = defaultAxisSideCutoffs(), supportMin = 0.5,
 ): ShaftAxis {
   if (!(axis.support >= supportMin)) return axis;
   let mx = 0, my = 0, mz = 0, total = 0;
@@ -194,11 +198,11 @@ export function settleAxisSide(
   }
   if (!(aTowards > 0 && aAway > 0)) return axis;
   const hTowards = weightedMedian(towards), hAway = weightedMedian(away);
-  if (!(hTowards > hAway && aTowards >= SIDE_AREA_RATIO * aAway)) return axis;
+  if (!(hTowards > hAway && aTowards >= cutoffs.areaRatio * aAway)) return axis;
   const mirror: [number, number, number] = [axis.point[0] - 2 * wl * wx, axis.point[1] - 2 * wl * wy, axis.point[2] - 2 * wl * wz];
   const here = facingArea(centroids, normals, areas, axis.direction, axis.point);
   const there = facingArea(centroids, normals, areas, axis.direction, mirror);
-  if (!(there >= SIDE_FACING_SHARE * here)) return axis;
+  if (!(there >= cutoffs.facingShare * here)) return axis;
   return { ...axis, point: mirror, radius: outerRadius(centroids, normals, areas, axis.direction, mirror) };
 }
 
