@@ -7,6 +7,7 @@
 import { createRequire } from 'node:module';
 import Module from 'manifold-3d';
 import { mulberry32 } from '../../core/geometry/seeded-random';
+import { manifoldArrays } from './manifold-arrays';
 
 export interface CutPiece {
   positions: Float32Array;
@@ -107,11 +108,7 @@ async function cutSolid(vert: Float32Array, tri: Uint32Array, options: Options &
 }
 
 function toPiece(m: { numProp: number; vertProperties: Float32Array; triVerts: Uint32Array }, cutY: number, amp: number): CutPiece {
-  const np = m.numProp;
-  const nv = m.vertProperties.length / np;
-  const positions = new Float32Array(nv * 3);
-  for (let i = 0; i < nv; i++) for (let k = 0; k < 3; k++) positions[3 * i + k] = m.vertProperties[i * np + k];
-  const triangles = Uint32Array.from(m.triVerts);
+  const { positions, triangles } = manifoldArrays(m);
   const nt = triangles.length / 3;
   const onCut = new Uint8Array(nt);
   const onSurface = (i: number): boolean => Math.abs(positions[3 * i + 1] - (cutY + roughness(positions[3 * i], positions[3 * i + 2], amp))) < 0.05;

@@ -14,6 +14,7 @@
  */
 import { kernel, type CutPiece } from './bunny-cut';
 import { mulberry32 } from '../../core/geometry/seeded-random';
+import { manifoldArrays } from './manifold-arrays';
 
 export const OUTER_RADIUS = 12;
 export const INNER_RADIUS = 7;
@@ -58,11 +59,7 @@ export async function splitTube(options: { noise?: number; seed?: number } = {})
 }
 
 function toPiece(m: { numProp: number; vertProperties: Float32Array; triVerts: Uint32Array }, rand: () => number, noise: number): SplitPiece {
-  const np = m.numProp;
-  const nv = m.vertProperties.length / np;
-  const positions = new Float32Array(nv * 3);
-  for (let i = 0; i < nv; i++) for (let k = 0; k < 3; k++) positions[3 * i + k] = m.vertProperties[i * np + k];
-  const triangles = Uint32Array.from(m.triVerts);
+  const { positions, triangles } = manifoldArrays(m);
   const nt = triangles.length / 3;
   const breakOf = new Uint8Array(nt);
   const which = (x: number, y: number, z: number): number => {

@@ -123,3 +123,9 @@ export async function brokenTube(options: {
   }
   return { mesh: { positions, triangles }, truth };
 }
+
+/** Distance from the z axis (the tube's axis) of an axis line given by a point and a direction, at z = 0. */
+export function offAxis(point: ArrayLike<number>, direction: ArrayLike<number>): number {
+  const t = -point[2] / direction[2];
+  return Math.hypot(point[0] + t * direction[0], point[1] + t * direction[1]);
+}

@@ -10,15 +10,10 @@ import { analyseFragment } from '../../../core/geometry/analyse-fragment';
 import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
 import { triangleCentroids } from '../../../core/geometry/normal-filter';
 import { fitShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, type BrokenTube } from './broken-tube';
+import { brokenTube, offAxis, type BrokenTube } from './broken-tube';
 
 const half = (20 * Math.PI) / 180;
 
-/** Distance of the fitted axis line from the z axis, at z = 0. */
-function offAxis(point: number[], direction: number[]): number {
-  const t = -point[2] / direction[2];
-  return Math.hypot(point[0] + t * direction[0], point[1] + t * direction[1]);
-}
 
 describe('shaft axis of a long splinter (consensus start)', () => {
   let splinter: BrokenTube;
