@@ -129,3 +129,20 @@ export function offAxis(point: ArrayLike<number>, direction: ArrayLike<number>):
   const t = -point[2] / direction[2];
   return Math.hypot(point[0] + t * direction[0], point[1] + t * direction[1]);
 }
+
+/**
+ * Area-weighted share of the input triangles whose fracture/original class from the analysis
+ * (triangle class 0 = fracture) agrees with the tube's truth (1 = break face), weighted by the
+ * input triangles' areas.
+ */
+export function fractureAgreement(
+  analysis: { triangleClass: ArrayLike<number>; sourceTriangle: ArrayLike<number> }, truth: ArrayLike<number>, inputAreas: ArrayLike<number>,
+): number {
+  let agree = 0, total = 0;
+  for (let f = 0; f < analysis.triangleClass.length; f++) {
+    const src = analysis.sourceTriangle[f];
+    total += inputAreas[src];
+    if ((analysis.triangleClass[f] === 0 ? 1 : 0) === truth[src]) agree += inputAreas[src];
+  }
+  return agree / total;
+}

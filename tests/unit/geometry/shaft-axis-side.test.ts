@@ -17,7 +17,7 @@ import { principalCurvatures } from '../../../core/geometry/curvature';
 import { triangleNormalsAndAreas, vertexNormals } from '../../../core/geometry/mesh';
 import { triangleCentroids } from '../../../core/geometry/normal-filter';
 import { fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, offAxis, type BrokenTube } from './broken-tube';
+import { brokenTube, fractureAgreement, offAxis, type BrokenTube } from './broken-tube';
 
 const half = (20 * Math.PI) / 180;
 
@@ -78,12 +78,6 @@ describe('shaft axis side on a flat wall (elliptic tube wedge)', () => {
     expect(Math.abs(axis.direction[2])).toBeGreaterThan(0.99);
     expect(axis.point[1]).toBeLessThan(4.2); // on the medullary side of the wall
     const a = analyseFragment(wedge.mesh);
-    let agree = 0, total = 0;
-    for (let f = 0; f < a.triangleClass.length; f++) {
-      const src = a.sourceTriangle[f];
-      total += areas[src];
-      if ((a.triangleClass[f] === 0 ? 1 : 0) === wedge.truth[src]) agree += areas[src];
-    }
-    expect(agree / total).toBeGreaterThan(0.95);
+    expect(fractureAgreement(a, wedge.truth, areas)).toBeGreaterThan(0.95);
   });
 });

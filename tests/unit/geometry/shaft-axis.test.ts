@@ -10,7 +10,7 @@ import { analyseFragment } from '../../../core/geometry/analyse-fragment';
 import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
 import { triangleCentroids } from '../../../core/geometry/normal-filter';
 import { fitShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, offAxis, type BrokenTube } from './broken-tube';
+import { brokenTube, fractureAgreement, offAxis, type BrokenTube } from './broken-tube';
 
 const half = (20 * Math.PI) / 180;
 
@@ -48,12 +48,6 @@ describe('shaft axis of a long splinter (consensus start)', () => {
   it('so the outer and medullary surfaces face out and in, and the breaks are found', () => {
     const a = analyseFragment(splinter.mesh);
     const { areas } = triangleNormalsAndAreas(splinter.mesh);
-    let agree = 0, total = 0;
-    for (let f = 0; f < a.triangleClass.length; f++) {
-      const src = a.sourceTriangle[f];
-      total += areas[src];
-      if ((a.triangleClass[f] === 0 ? 1 : 0) === splinter.truth[src]) agree += areas[src];
-    }
-    expect(agree / total).toBeGreaterThan(0.95);
+    expect(fractureAgreement(a, splinter.truth, areas)).toBeGreaterThan(0.95);
   });
 });
