@@ -15,11 +15,13 @@ import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { DEFAULT_MATCH_PARAMETERS, distinctBest, fineShortlist, refineFacePair, screenFacePair, type CoarseMotion, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
 import { loadFragment } from '../../core/jobs/fragment-loader';
+import { displacementAt, invert as invertRigid, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
 
 const dir = process.argv[2];
 const out = process.argv[3];
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
-const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }> };
+interface TruthJoin { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
+const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }>; joins: TruthJoin[] };
 const cacheDir = join(tmpdir(), 'knitbone-pairwise-cache');
 mkdirSync(cacheDir, { recursive: true });
 const inputs: Array<{ no: string; input: FragmentInput }> = [];
@@ -62,6 +64,28 @@ for (const list of grouped) {
   fineCpu += cpu() - t1;
   results[`${inputs[list[0].a].no}|${inputs[list[0].b].no}`] = best.map((m) => ({ score: m.score, faceA: m.faceA, faceB: m.faceB, transform: [...m.transform] }));
 }
+// recall as the pairwise benchmark counts it: a true join (at least 30% of the break surviving)
+// whose fragment pair's best motion is within 5 degrees and 5 mm (at B's centroid) of the truth,
+// and that pair among the 3 best scored pairs of either piece
+const index = new Map(inputs.map((x, i) => [x.no, i]));
+const bestOf = new Map<string, number>();
+for (const [k, list] of Object.entries(results)) if (list.length) bestOf.set(k, list[0].score);
+const top3 = (no: string): string[] => [...bestOf.entries()].filter(([k]) => k.split('|').includes(no)).sort((x, y) => y[1] - x[1]).slice(0, 3).map(([k]) => k);
+let eligible = 0, asBest = 0, inTop3 = 0;
+for (const j of truth.joins) {
+  if (j.type !== 'conjoin' || j.survivingFraction < 0.3 || !index.has(j.a) || !index.has(j.b)) continue;
+  eligible++;
+  const swap = index.get(j.a)! > index.get(j.b)!;
+  const k = swap ? `${j.b}|${j.a}` : `${j.a}|${j.b}`;
+  const m = results[k]?.[0];
+  if (!m) continue;
+  const want = swap ? invertRigid(j.transformBToA) : j.transformBToA;
+  const B = prepared[index.get(swap ? j.a : j.b)!];
+  if (!(rotationErrorDegrees(m.transform, want) < 5 && displacementAt(m.transform, want, B.centroid) < 5)) continue;
+  asBest++;
+  if (top3(j.a).includes(k) || top3(j.b).includes(k)) inTop3++;
+}
+process.stdout.write(`true joins ${eligible}: best of their pair ${asBest}, in the top 3 of a piece ${inTop3}\n`);
 process.stdout.write(`spacing ${spacing}  fragments ${prepared.length}  fragment pairs ${grouped.length}  face pairs ${facePairs}  fine runs ${fineRuns}  load ${loadavg()[0].toFixed(2)}\n`);
 process.stdout.write(`CPU s: prepare ${prepCpu.toFixed(1)}  screen ${screenCpu.toFixed(1)}  fine ${fineCpu.toFixed(1)}  per face pair ${((1000 * (screenCpu + fineCpu)) / facePairs).toFixed(2)} ms (screen ${((1000 * screenCpu) / facePairs).toFixed(2)}, fine ${((1000 * fineCpu) / Math.max(1, fineRuns)).toFixed(2)} per fine run)\n`);
 if (out) writeFileSync(out, JSON.stringify(results));
