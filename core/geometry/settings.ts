@@ -62,6 +62,28 @@ export const analysisSettingsSchema = z.object({
   roughnessWeight: z.number().min(0).default(1.4),
   /** A region whose fracture evidence exceeds this is a fracture face (classify-regions.ts). */
   fractureEvidenceMin: z.number().default(2.35),
+  /**
+   * Neighbourhood pass (region-context.ts): after the first pass, each region is judged
+   * again with the kind of border it has with the regions taken for original surface, this
+   * many times (0: first pass only). The weights below make its evidence; they were fitted
+   * by area-weighted logistic regression on generated development assemblages (seeds 11-16
+   * at 1.5 mm, 14 at 1.0 mm), leaving each seed out in turn to check them.
+   */
+  contextPasses: z.number().int().min(0).max(20).default(4),
+  /** Weight of min(share of border with outward-facing regions, with inward-facing regions). */
+  contextBetweenWallsWeight: z.number().default(2.4),
+  /** Weight of (roughness / the fragment's median roughness - 1). */
+  contextRoughnessWeight: z.number().default(0.8),
+  /** Weight of the share of inward rays that cross a wall head-on (against fracture). */
+  contextHeadOnWeight: z.number().default(3),
+  /** Weight of the region's mean curvedness sqrt((k1² + k2²) / 2), per 1/mm (relief of a break). */
+  contextCurvednessWeight: z.number().default(11.4),
+  /** Weight of the share of the border with original-surface regions that is a crease (ridgeAngleDeg). */
+  contextOriginalCreaseWeight: z.number().default(2),
+  /** Weight of the crease length against original-surface regions as a share of the whole border. */
+  contextOriginalCreaseBorderWeight: z.number().default(3),
+  /** A region whose neighbourhood-pass evidence exceeds this is a fracture face. */
+  contextEvidenceMin: z.number().default(3.26),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
   /**
