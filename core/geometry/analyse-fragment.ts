@@ -125,7 +125,7 @@ export function analyseFragment(
   const wallDepth = typicalWallDepth(figures);
   // Each region judged by itself, then again with the border it has with original surface
   // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
-  const fracture = settleFractureRegions(figures, borders, figures.map((fig) => fractureEvidence(fig, settings) > settings.fractureEvidenceMin), settings);
+  const fracture = settleFractureRegions(figures, borders, figures.map((fig) => fractureEvidence(fig, settings) > settings.fractureEvidenceMin), axis, settings);
   const classes = absorbSmallFractureRegions(
     region,
     topo.neighbours,

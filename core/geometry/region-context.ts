@@ -1,6 +1,7 @@
 import type { RegionFigures } from './classify-regions';
 import type { RegionBorder } from './region-borders';
 import type { AnalysisSettings } from './settings';
+import type { ShaftAxis } from './shaft-axis';
 
 /**
  * The neighbourhood pass of region classification. A break face meets the original bone
@@ -15,27 +16,31 @@ import type { AnalysisSettings } from './settings';
  * - the share of its border with original-surface regions that is a crease, and
  * - that crease length as a share of its whole border,
  * and weighs them with the region's own cues (between the walls, roughness, head-on wall
- * rays, curvedness: the relief of a break bends the surface more than the shaft does) into
- * a second evidence. The classes are updated and the pass repeated `contextPasses` times (or
- * until nothing changes). Weights and cut-off are settings (settings.ts), fitted by
- * area-weighted logistic regression on generated development assemblages (leave-one-seed-out:
- * every seed at least as good as the first pass alone but one, 0.01 points lower).
+ * rays, curvedness: the relief of a break bends the surface more than the shaft does; facing
+ * squarely out from or into the fitted shaft axis: a wall face, where a break crosses the
+ * wall) into a second evidence. Regions are judged one after another, largest first, each
+ * with the classes its neighbours have at that moment (so two regions cannot keep swapping
+ * classes as they would if all were judged at once), over and over until nothing changes or
+ * `contextPasses` rounds have run. Weights and cut-off are settings (settings.ts).
  * Returns whether each region is a fracture face; fills the two border figures in `figures`.
  */
 export function settleFractureRegions(
   figures: RegionFigures[],
   borders: RegionBorder[],
   firstPass: boolean[],
+  axis: ShaftAxis,
   settings: AnalysisSettings,
 ): boolean[] {
-  let fracture = [...firstPass];
+  const fracture = [...firstPass];
+  const order = figures.map((_, id) => id).sort((a, b) => figures[b].area - figures[a].area || a - b);
+  const shaft = axis.support >= 0.5;
   for (let pass = 0; pass < settings.contextPasses; pass++) {
-    const next = figures.map((r, id) => {
-      measureOriginalBorder(r, borders[id], fracture);
-      return contextEvidence(r, settings) > settings.contextEvidenceMin;
-    });
-    const changed = next.some((x, i) => x !== fracture[i]);
-    fracture = next;
+    let changed = 0;
+    for (const id of order) {
+      measureOriginalBorder(figures[id], borders[id], fracture);
+      const f = contextEvidence(figures[id], shaft, settings) > settings.contextEvidenceMin;
+      if (f !== fracture[id]) { fracture[id] = f; changed++; }
+    }
     if (!changed) break;
   }
   if (settings.contextPasses > 0) figures.forEach((r, id) => measureOriginalBorder(r, borders[id], fracture));
@@ -54,13 +59,20 @@ function measureOriginalBorder(r: RegionFigures, border: RegionBorder, fracture:
   r.originalCreaseBorderShare = border.length > 0 ? crease / border.length : 0;
 }
 
-/** The second evidence (see settleFractureRegions); the border figures must be measured. */
-export function contextEvidence(r: RegionFigures, settings: AnalysisSettings): number {
+/**
+ * The second evidence (see settleFractureRegions); the border figures must be measured.
+ * `shaft`: the fragment's shaft axis fit holds (support at least 0.5), so the region's
+ * radial figure means something.
+ */
+export function contextEvidence(r: RegionFigures, shaft: boolean, settings: AnalysisSettings): number {
   const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
+  const min = settings.corticalRadialMin;
+  const facing = shaft && min < 1 ? Math.max(0, Math.abs(r.radial) - min) / (1 - min) : 0;
   return settings.contextBetweenWallsWeight * Math.min(r.outwardBorderShare, r.inwardBorderShare)
     + settings.contextRoughnessWeight * (r.roughnessRatio - 1)
     - settings.contextHeadOnWeight * headOn
     + settings.contextCurvednessWeight * r.curvedness
+    - settings.contextFacingWeight * facing
     + settings.contextOriginalCreaseWeight * r.originalCreaseShare
     + settings.contextOriginalCreaseBorderWeight * r.originalCreaseBorderShare;
 }

@@ -22,7 +22,7 @@ export const analysisSettingsSchema = z.object({
   /** Open ridge ends are joined to another ridge at most this far away (ridges.ts). */
   ridgeGapMm: z.number().min(0).default(3),
   /** How strongly closing paths prefer bent surface: edge cost = length / (1 + weight |k| mean edge). */
-  ridgeCurvatureWeight: z.number().min(0).default(4),
+  ridgeCurvatureWeight: z.number().min(0).default(10),
   /** Regions smaller than this share of the fragment's area are merged into a neighbour. */
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**
@@ -64,26 +64,32 @@ export const analysisSettingsSchema = z.object({
   fractureEvidenceMin: z.number().default(2.35),
   /**
    * Neighbourhood pass (region-context.ts): after the first pass, each region is judged
-   * again with the kind of border it has with the regions taken for original surface, this
-   * many times (0: first pass only). The weights below make its evidence; they were fitted
+   * again with the kind of border it has with the regions taken for original surface, in at
+   * most this many rounds (0: first pass only; it usually settles in 2-3). The weights below make its evidence; they were fitted
    * by area-weighted logistic regression on generated development assemblages (seeds 11-16
    * at 1.5 mm, 14 at 1.0 mm), leaving each seed out in turn to check them.
    */
-  contextPasses: z.number().int().min(0).max(20).default(4),
+  contextPasses: z.number().int().min(0).max(20).default(10),
   /** Weight of min(share of border with outward-facing regions, with inward-facing regions). */
-  contextBetweenWallsWeight: z.number().default(2.4),
+  contextBetweenWallsWeight: z.number().default(1.75),
   /** Weight of (roughness / the fragment's median roughness - 1). */
-  contextRoughnessWeight: z.number().default(0.8),
+  contextRoughnessWeight: z.number().default(0.62),
   /** Weight of the share of inward rays that cross a wall head-on (against fracture). */
-  contextHeadOnWeight: z.number().default(3),
+  contextHeadOnWeight: z.number().default(1.88),
   /** Weight of the region's mean curvedness sqrt((k1² + k2²) / 2), per 1/mm (relief of a break). */
-  contextCurvednessWeight: z.number().default(11.4),
+  contextCurvednessWeight: z.number().default(11.2),
+  /**
+   * Weight (against fracture) of how squarely a region faces out from or into the fitted shaft
+   * axis: (|mean radial component| - corticalRadialMin) / (1 - corticalRadialMin), from 0 to 1,
+   * where the axis fit holds (support at least 0.5).
+   */
+  contextFacingWeight: z.number().default(1.77),
   /** Weight of the share of the border with original-surface regions that is a crease (ridgeAngleDeg). */
-  contextOriginalCreaseWeight: z.number().default(2),
+  contextOriginalCreaseWeight: z.number().default(2.42),
   /** Weight of the crease length against original-surface regions as a share of the whole border. */
-  contextOriginalCreaseBorderWeight: z.number().default(3),
+  contextOriginalCreaseBorderWeight: z.number().default(2.67),
   /** A region whose neighbourhood-pass evidence exceeds this is a fracture face. */
-  contextEvidenceMin: z.number().default(3.26),
+  contextEvidenceMin: z.number().default(3.02),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
   /**
