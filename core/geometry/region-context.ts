@@ -55,7 +55,9 @@ function measureOriginalBorder(r: RegionFigures, border: RegionBorder, fracture:
     crease += n.crease;
     smooth += n.smooth;
   }
-  r.originalCreaseShare = crease + smooth > 0 ? crease / (crease + smooth) : 0;
+  // With no original-surface neighbour (a region inside a break face split along its bends,
+  // or bone surface ringed by breaks) the share stands in as the crease share of the whole border.
+  r.originalCreaseShare = crease + smooth > 0 ? crease / (crease + smooth) : r.sharpBorderShare;
   r.originalCreaseBorderShare = border.length > 0 ? crease / border.length : 0;
 }
 

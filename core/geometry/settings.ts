@@ -71,25 +71,25 @@ export const analysisSettingsSchema = z.object({
    */
   contextPasses: z.number().int().min(0).max(20).default(10),
   /** Weight of min(share of border with outward-facing regions, with inward-facing regions). */
-  contextBetweenWallsWeight: z.number().default(1.75),
+  contextBetweenWallsWeight: z.number().default(1.91),
   /** Weight of (roughness / the fragment's median roughness - 1). */
-  contextRoughnessWeight: z.number().default(0.62),
+  contextRoughnessWeight: z.number().default(0.77),
   /** Weight of the share of inward rays that cross a wall head-on (against fracture). */
-  contextHeadOnWeight: z.number().default(1.88),
+  contextHeadOnWeight: z.number().default(1.97),
   /** Weight of the region's mean curvedness sqrt((k1² + k2²) / 2), per 1/mm (relief of a break). */
-  contextCurvednessWeight: z.number().default(11.2),
+  contextCurvednessWeight: z.number().default(11.8),
   /**
    * Weight (against fracture) of how squarely a region faces out from or into the fitted shaft
    * axis: (|mean radial component| - corticalRadialMin) / (1 - corticalRadialMin), from 0 to 1,
    * where the axis fit holds (support at least 0.5).
    */
-  contextFacingWeight: z.number().default(1.77),
+  contextFacingWeight: z.number().default(1.96),
   /** Weight of the share of the border with original-surface regions that is a crease (ridgeAngleDeg). */
-  contextOriginalCreaseWeight: z.number().default(2.42),
+  contextOriginalCreaseWeight: z.number().default(1.55),
   /** Weight of the crease length against original-surface regions as a share of the whole border. */
-  contextOriginalCreaseBorderWeight: z.number().default(2.67),
+  contextOriginalCreaseBorderWeight: z.number().default(3.23),
   /** A region whose neighbourhood-pass evidence exceeds this is a fracture face. */
-  contextEvidenceMin: z.number().default(3.02),
+  contextEvidenceMin: z.number().default(3.03),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
   /**
