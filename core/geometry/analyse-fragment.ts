@@ -1,5 +1,5 @@
 import { vertexRings } from './adjacency';
-import { fractureEvidence, originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
+import { originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
 import { fractureFaceGroups } from './face-split';
 import { fractureFaces, type FractureFace } from './fracture-faces';
@@ -125,7 +125,7 @@ export function analyseFragment(
   const wallDepth = typicalWallDepth(figures);
   // Each region judged by itself, then again with the border it has with original surface
   // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
-  const fracture = settleFractureRegions(figures, borders, figures.map((fig) => fractureEvidence(fig, settings) > settings.fractureEvidenceMin), axis, settings);
+  const fracture = settleFractureRegions(figures, borders, axis, settings);
   const classes = absorbSmallFractureRegions(
     region,
     topo.neighbours,

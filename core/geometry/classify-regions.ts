@@ -40,11 +40,9 @@ export interface RegionFigures {
   outwardBorderShare: number;
   inwardBorderShare: number;
   /**
-   * Set by the neighbourhood pass (region-context.ts), from the classes of the neighbours at
-   * its end: the share of the border with original-surface regions that is a crease, and that
-   * crease length as a share of the whole border (NaN before that pass).
+   * Set by the neighbourhood pass (region-context.ts), from the classes at its end: the crease
+   * length shared with original-surface regions as a share of the whole border.
    */
-  originalCreaseShare: number;
   originalCreaseBorderShare: number;
 }
 
@@ -64,7 +62,7 @@ export function regionFigures(
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
-    originalCreaseShare: NaN, originalCreaseBorderShare: NaN,
+    originalCreaseBorderShare: NaN,
   }));
   const roughSorted = Float32Array.from(triRoughness).sort();
   const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;

@@ -65,31 +65,23 @@ export const analysisSettingsSchema = z.object({
   /**
    * Neighbourhood pass (region-context.ts): after the first pass, each region is judged
    * again with the kind of border it has with the regions taken for original surface, in at
-   * most this many rounds (0: first pass only; it usually settles in 2-3). The weights below make its evidence; they were fitted
-   * by area-weighted logistic regression on generated development assemblages (seeds 11-16
+   * most this many rounds (0: first pass only; it usually settles in 2-3). The weights below
+   * add to the first pass's evidence; they were fitted by area-weighted logistic regression on generated development assemblages (seeds 11-16
    * at 1.5 mm, 14 at 1.0 mm), leaving each seed out in turn to check them.
    */
   contextPasses: z.number().int().min(0).max(20).default(10),
-  /** Weight of min(share of border with outward-facing regions, with inward-facing regions). */
-  contextBetweenWallsWeight: z.number().default(1.91),
-  /** Weight of (roughness / the fragment's median roughness - 1). */
-  contextRoughnessWeight: z.number().default(0.77),
-  /** Weight of the share of inward rays that cross a wall head-on (against fracture). */
-  contextHeadOnWeight: z.number().default(1.97),
-  /** Weight of the region's mean curvedness sqrt((k1² + k2²) / 2), per 1/mm (relief of a break). */
-  contextCurvednessWeight: z.number().default(11.8),
+  /** Weight of the region's mean curvedness sqrt((k1² + k2²) / 2), per 1/mm (the relief of a break). */
+  contextCurvednessWeight: z.number().default(14.6),
   /**
    * Weight (against fracture) of how squarely a region faces out from or into the fitted shaft
    * axis: (|mean radial component| - corticalRadialMin) / (1 - corticalRadialMin), from 0 to 1,
    * where the axis fit holds (support at least 0.5).
    */
-  contextFacingWeight: z.number().default(1.96),
-  /** Weight of the share of the border with original-surface regions that is a crease (ridgeAngleDeg). */
-  contextOriginalCreaseWeight: z.number().default(1.55),
-  /** Weight of the crease length against original-surface regions as a share of the whole border. */
-  contextOriginalCreaseBorderWeight: z.number().default(3.23),
-  /** A region whose neighbourhood-pass evidence exceeds this is a fracture face. */
-  contextEvidenceMin: z.number().default(3.03),
+  contextFacingWeight: z.number().default(2.33),
+  /** Weight of the crease length against original-surface regions as a share of the region's whole border. */
+  contextOriginalCreaseWeight: z.number().default(2.89),
+  /** A region whose first evidence plus those terms exceeds this is a fracture face. */
+  contextEvidenceMin: z.number().default(4.9),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
   /**
