@@ -43,9 +43,12 @@ export const analysisSettingsSchema = z.object({
    * Which side of a flat wall the shaft centre lies on (shaft-axis.ts, settleAxisSide): the
    * surface facing the fitted centre may be taken for the outer one (and the centre mirrored)
    * only while its area is at least this share of the surface facing away (a break face lying
-   * along the medullary face adds to that one's area).
+   * along the medullary face adds to that one's area). Not above about 0.7: a break face
+   * bevelled through a thick wall leaves the outer face of a splinter narrower than its
+   * medullary face (a round wall of radii 12 and 7 mm broken at 40 degrees off radial: 0.69;
+   * tests/unit/geometry/shaft-axis-side-bevel.test.ts).
    */
-  axisSideAreaRatio: z.number().min(0).max(10).default(0.8),
+  axisSideAreaRatio: z.number().min(0).max(10).default(0.5),
   /** A mirrored shaft centre is kept only when at least this share as much surface faces it squarely as faced the fitted one. */
   axisSideFacingShare: z.number().min(0).max(10).default(0.6),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
