@@ -15,6 +15,8 @@ export interface WallRays {
   triangles: Uint32Array;
   distance: Float32Array;
   exitCosine: Float32Array;
+  /** The triangle each ray leaves through (-1 when it leaves through none). */
+  exitTriangle: Int32Array;
 }
 
 export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centroids: Float32Array, maxRays: number): WallRays {
@@ -27,7 +29,7 @@ export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centr
   geometry.setIndex(new BufferAttribute(mesh.triangles.slice(), 1));
   const bvh = new MeshBVH(geometry, { indirect: true });
   const n = Math.ceil(nt / step);
-  const triangles = new Uint32Array(n), distance = new Float32Array(n), exitCosine = new Float32Array(n);
+  const triangles = new Uint32Array(n), distance = new Float32Array(n), exitCosine = new Float32Array(n), exitTriangle = new Int32Array(n).fill(-1);
   const ray = new Ray();
   let k = 0;
   for (let f = 0; f < nt; f += step, k++) {
@@ -42,9 +44,10 @@ export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centr
       continue;
     }
     const g = hit.faceIndex;
+    exitTriangle[k] = g;
     distance[k] = hit.distance;
     exitCosine[k] = -(nx * triNormals[3 * g] + ny * triNormals[3 * g + 1] + nz * triNormals[3 * g + 2]);
   }
   geometry.dispose();
-  return { triangles, distance, exitCosine };
+  return { triangles, distance, exitCosine, exitTriangle };
 }
