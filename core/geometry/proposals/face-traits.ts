@@ -10,7 +10,7 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { FPFH_DIM } from '../registration/fpfh';
 import type { FragmentInput, PreparedFragment } from './prepared-fragment';
-import { breakTriangleMask, rimWallThickness, wallThicknessMap } from './rim-wall-thickness';
+import { breakTriangleMask, rimWallThicknesses } from './rim-wall-thickness';
 
 export interface ShaftAxisLike {
   direction: [number, number, number];
@@ -47,8 +47,8 @@ export interface FaceTraits {
 
 /** Traits of every prepared face of a fragment, with the wall thickness along each face's rim. */
 export function fragmentFaceTraits(input: FragmentInput, prepared: PreparedFragment, axis?: ShaftAxisLike): FaceTraits[] {
-  const map = wallThicknessMap(input.positions, input.triangles, breakTriangleMask(input.triangles.length / 3, input.faces));
-  return prepared.faces.map((x) => faceTraits(x.points, x.normals, x.area, x.fpfh, axis, rimWallThickness(map, x.tree)));
+  const rims = rimWallThicknesses(input.positions, input.triangles, breakTriangleMask(input.triangles.length / 3, input.faces), prepared.faces.map((x) => x.tree));
+  return prepared.faces.map((x, i) => faceTraits(x.points, x.normals, x.area, x.fpfh, axis, rims[i]));
 }
 
 export function faceTraits(points: Float32Array, normals: Float32Array, area: number, fpfh: Float32Array, axis?: ShaftAxisLike, rimThickness?: number): FaceTraits {

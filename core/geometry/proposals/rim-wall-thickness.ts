@@ -7,7 +7,8 @@
  * triangle of the original surface straight into the bone leaves it through the other face of
  * the wall. A ray counts only when it leaves head-on through original surface (not through a
  * break face, where it ran along the wall) and is not shorter than a scan's noise could make it.
- * The face's figure is the median over the triangles within a band next to it.
+ * A face's figure is the median over the triangles within a band next to it; rays are cast
+ * only from triangles in some face's band.
  */
 import type { KdTree } from '../registration/nearest-neighbours';
 import { triangleNormalsAndAreas } from '../mesh';
@@ -30,42 +31,50 @@ export interface RimThicknessSettings {
  */
 export const DEFAULT_RIM_THICKNESS: RimThicknessSettings = { bandMm: 3, exitCosineMin: 0.9, minRayMm: 0.5 };
 
-/** Per original-surface triangle of a fragment: its centroid and the wall thickness behind it (NaN where no ray counts). */
-export interface WallThicknessMap {
-  centroids: Float32Array;
-  thickness: Float32Array;
-}
-
-/** Rays from every triangle that is not break face; `isBreak` marks break-face triangles (1). */
-export function wallThicknessMap(positions: Float32Array, triangles: Uint32Array, isBreak: Uint8Array, settings: RimThicknessSettings = DEFAULT_RIM_THICKNESS): WallThicknessMap {
-  const mesh = { positions, triangles };
+/**
+ * Median wall thickness along the rim of each face (its samples in a k-d tree), in the order
+ * given; undefined for a face where no ray counts. `isBreak` marks the fragment's break-face
+ * triangles (1).
+ */
+export function rimWallThicknesses(positions: Float32Array, triangles: Uint32Array, isBreak: Uint8Array, faceTrees: ReadonlyArray<KdTree>, settings: RimThicknessSettings = DEFAULT_RIM_THICKNESS): Array<number | undefined> {
   const nt = triangles.length / 3;
-  const { normals } = triangleNormalsAndAreas(mesh);
   const centroids = triangleCentroids(positions, triangles);
-  const rays = castWallRays(mesh, normals, centroids, Math.max(1, nt));
-  const thickness = new Float32Array(nt).fill(NaN);
-  for (let k = 0; k < rays.triangles.length; k++) {
-    const t = rays.triangles[k], exit = rays.exitTriangle[k];
-    if (isBreak[t] || exit < 0 || isBreak[exit]) continue;
-    if (rays.exitCosine[k] >= settings.exitCosineMin && rays.distance[k] >= settings.minRayMm) thickness[t] = rays.distance[k];
-  }
-  return { centroids, thickness };
-}
-
-/** Median wall thickness over the rim of a face (its samples in `faceTree`); undefined when no ray there counts. */
-export function rimWallThickness(map: WallThicknessMap, faceTree: KdTree, settings: RimThicknessSettings = DEFAULT_RIM_THICKNESS): number | undefined {
-  const near: number[] = [];
-  const q = [0, 0, 0];
   const r2 = settings.bandMm * settings.bandMm;
-  const { centroids, thickness } = map;
-  for (let t = 0; t < thickness.length; t++) {
-    if (Number.isNaN(thickness[t])) continue;
+  const q = [0, 0, 0];
+  // each face's rim triangles, and the union to shoot rays from
+  const rims: number[][] = faceTrees.map(() => []);
+  const shooters: number[] = [];
+  for (let t = 0; t < nt; t++) {
+    if (isBreak[t]) continue;
     q[0] = centroids[3 * t]; q[1] = centroids[3 * t + 1]; q[2] = centroids[3 * t + 2];
-    if (faceTree.nearestOne(q, r2).index >= 0) near.push(thickness[t]);
+    let near = false;
+    faceTrees.forEach((tree, f) => {
+      if (tree.nearestOne(q, r2).index >= 0) {
+        rims[f].push(t);
+        near = true;
+      }
+    });
+    if (near) shooters.push(t);
   }
-  if (!near.length) return undefined;
-  near.sort((a, b) => a - b);
-  return near[Math.floor(near.length / 2)];
+  if (!shooters.length) return faceTrees.map(() => undefined);
+  const { normals } = triangleNormalsAndAreas({ positions, triangles });
+  const rays = castWallRays({ positions, triangles }, normals, centroids, shooters.length, shooters);
+  const thickness = new Map<number, number>();
+  for (let k = 0; k < rays.triangles.length; k++) {
+    const exit = rays.exitTriangle[k];
+    if (exit < 0 || isBreak[exit]) continue;
+    if (rays.exitCosine[k] >= settings.exitCosineMin && rays.distance[k] >= settings.minRayMm) thickness.set(rays.triangles[k], rays.distance[k]);
+  }
+  return rims.map((rim) => {
+    const values: number[] = [];
+    for (const t of rim) {
+      const d = thickness.get(t);
+      if (d !== undefined) values.push(d);
+    }
+    if (!values.length) return undefined;
+    values.sort((a, b) => a - b);
+    return values[Math.floor(values.length / 2)];
+  });
 }
 
 /** Break-face triangles of a fragment from its faces' triangle lists (1 = on a break face). */
