@@ -54,6 +54,8 @@ export interface MatchParameters {
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
   axisGoodOverlap: number;
+  /** Such a hypothesis also skips the axis-direction search (else it always runs on two shaft pieces). */
+  axisSettlesDirections: boolean;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** Hypotheses refined against the whole surface and scored. */
@@ -96,6 +98,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   pairVoteReferences: 30,
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
+  axisSettlesDirections: false,
   minOverlap: 0.08,
   fineHypotheses: 2,
   finePerFragmentPair: 8,
@@ -170,12 +173,12 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
   // a small face is easily covered by a wrong turn about the axis: it never settles the search
   let settled = shafts && !small && good(refined, params.axisGoodOverlap);
-  if (a.axis && b.axis && params.directionPeaks > 0 && !settled) {
+  if (a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections)) {
     const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
     const more = refine(hyps.map((h) => h.transform));
     refined = refined.concat(more);
     // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
-    settled = params.directionGoodOverlap <= 1 && !small && good(more, params.directionGoodOverlap);
+    settled = settled || (params.directionGoodOverlap <= 1 && !small && good(more, params.directionGoodOverlap));
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {
