@@ -28,6 +28,8 @@ import { ransacAlignFaces } from '../../core/geometry/registration/ransac-alignm
 import { pointPairVoting } from '../../core/geometry/registration/point-pair-voting';
 import { faceBreaks, studied, type TruthFragment, type TruthJoin } from './face-pair-study';
 
+/** A true contact smaller than this (mm^2, the truth's contact area times its surviving share) is a category of its own. */
+const SMALL_CONTACT_MM2 = 60;
 const f2 = (x: number, d = 2): string => (Number.isFinite(x) ? x.toFixed(d) : '-');
 
 function contactShare(P: PreparedFace, Q: PreparedFace, T: RigidTransform, spacing: number): number {
@@ -182,7 +184,11 @@ export function studyMisses(dir: string, params: MatchParameters = DEFAULT_MATCH
       screenFacePair(A, fa, B, fb, { ...params, directionPeaks: 0, ransacIterations: 0, pairVoteHypotheses: 0 }, axisOnly);
       const small = Math.min(FA.points.length, FB.points.length) / 3 <= params.pairVoteMaxFaceSamples;
       const settled = !!A.axis && !!B.axis && !small && axisOnly.refined.some((r) => r.overlap >= params.axisGoodOverlap);
-      rec.category = settled ? '1 axis search settled' : Math.max(rec.shareA, rec.shareB) < 0.45 ? '2 contact is part of both faces' : Math.min(rec.shareA, rec.shareB) < 0.3 ? '3 small face in part of a large one' : '4 faces correspond';
+      const contact = ((j as TruthJoin & { contactAreaMm2?: number }).contactAreaMm2 ?? Infinity) * j.survivingFraction;
+      rec.category = settled ? '1 axis search settled'
+        : contact < SMALL_CONTACT_MM2 ? `2 contact under ${SMALL_CONTACT_MM2} mm2`
+        : Math.max(rec.shareA, rec.shareB) < 0.45 ? '3 contact is part of both faces'
+        : Math.min(rec.shareA, rec.shareB) < 0.3 ? '4 small face in part of a large one' : '5 faces correspond';
       const c = correspondenceTruth(FA, FB, T, spacing);
       rec.corrGood = c.good; rec.corrTotal = c.total;
       rec.basin = basin(FA, FB, T, spacing, 8, 2, B.centroid, params);

@@ -21,7 +21,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/5';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/6';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -54,7 +54,13 @@ export interface MatchParameters {
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
   axisGoodOverlap: number;
-  /** Such a hypothesis also skips the axis-direction search (else it always runs on two shaft pieces). */
+  /**
+   * Such a hypothesis also skips the axis-direction search (false: that search always runs on two
+   * shaft pieces). false since method /6: on dev seeds 11-16, 15 of the 40 true joins with no
+   * coarse motion near the truth had been settled by a wrong shared-axis motion (fitted axis
+   * points off on partial arcs; tests/bench/coarse-miss-study.ts), and the direction search then
+   * finds 7 of them; about 5% more CPU per face pair (tests/bench/coarse-cost-exp.ts).
+   */
   axisSettlesDirections: boolean;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
