@@ -1,5 +1,5 @@
 import { vertexRings } from './adjacency';
-import { classifyRegion, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
+import { originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
 import { fractureFaceGroups } from './face-split';
 import { fractureFaces, type FractureFace } from './fracture-faces';
@@ -7,6 +7,7 @@ import { enclosedVolume, surfaceArea } from './measure';
 import { boundingBox, triangleNormalsAndAreas, vertexNormals, type BoundingBox, type TriangleMesh } from './mesh';
 import { bilateralNormalFilter, triangleCentroids } from './normal-filter';
 import { regionBorders } from './region-borders';
+import { settleFractureRegions } from './region-context';
 import { absorbSmallFractureRegions } from './small-faces';
 import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
@@ -93,12 +94,14 @@ export function analyseFragment(
   const curvature = principalCurvatures(mesh, vNormals, rings);
   const centroids = triangleCentroids(mesh.positions, mesh.triangles);
   const nt = areas.length;
-  const triRough = new Float32Array(nt), triMean = new Float32Array(nt);
+  const triRough = new Float32Array(nt), triMean = new Float32Array(nt), triCurvedness = new Float32Array(nt);
+  const { k1, k2 } = curvature;
   const t = mesh.triangles;
   for (let f = 0; f < nt; f++) {
     const a = t[3 * f], b = t[3 * f + 1], c = t[3 * f + 2];
     triRough[f] = (curvature.roughness[a] + curvature.roughness[b] + curvature.roughness[c]) / 3;
-    triMean[f] = (curvature.k1[a] + curvature.k1[b] + curvature.k1[c] + curvature.k2[a] + curvature.k2[b] + curvature.k2[c]) / 6;
+    triMean[f] = (k1[a] + k1[b] + k1[c] + k2[a] + k2[b] + k2[c]) / 6;
+    triCurvedness[f] = (Math.sqrt((k1[a] * k1[a] + k2[a] * k2[a]) / 2) + Math.sqrt((k1[b] * k1[b] + k2[b] * k2[b]) / 2) + Math.sqrt((k1[c] * k1[c] + k2[c] * k2[c]) / 2)) / 3;
   }
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
@@ -111,7 +114,7 @@ export function analyseFragment(
   let regionCount = 0;
   for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays);
-  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, axis, rays, settings.headOnCosineMin);
+  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin);
   const regionFacing = Int8Array.from(figures, (r) => (axis.support < 0.5 ? 0 : r.radial >= settings.corticalRadialMin ? 1 : r.radial <= -settings.corticalRadialMin ? -1 : 0));
   const borders = regionBorders(mesh, topo.neighbours, filtered, region, regionCount, regionFacing, settings.ridgeAngleDeg);
   figures.forEach((r, i) => {
@@ -120,12 +123,14 @@ export function analyseFragment(
     r.inwardBorderShare = borders[i].inwardShare;
   });
   const wallDepth = typicalWallDepth(figures);
-  // The program's classes (small fracture patches absorbed), then the analyst's corrections on top.
+  // Each region judged by itself, then again with the border it has with original surface
+  // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
+  const fracture = settleFractureRegions(figures, borders, axis, settings);
   const classes = absorbSmallFractureRegions(
     region,
     topo.neighbours,
     areas,
-    figures.map((fig) => classifyRegion(fig, axis, settings, wallDepth)),
+    figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
     settings.minFaceAreaMm2,
   ).map((c, id) => regionClassOverrides.get(id) ?? c);
   const regions: SurfaceRegion[] = figures.map((fig, id) => {

@@ -20,6 +20,12 @@ export interface RegionFigures {
   roughnessRatio: number;
   /** Area-weighted mean curvature (k1 + k2) / 2, 1/mm. */
   meanCurvature: number;
+  /**
+   * Area-weighted mean curvedness sqrt((k1² + k2²) / 2), 1/mm (Koenderink & van Doorn 1992):
+   * how strongly the surface bends whatever the sign. The relief of a break (bumps a few mm
+   * across) keeps it high where the bone surface bends only as gently as the shaft.
+   */
+  curvedness: number;
   /** Median depth (mm) of the inward rays from this region to where they leave the bone (wall-rays.ts). */
   rayDepth: number;
   /** Median cosine between those rays and the surface they leave by (1 = straight across a wall). */
@@ -33,6 +39,11 @@ export interface RegionFigures {
   /** Shares of the border shared with regions facing away from / towards the shaft axis. */
   outwardBorderShare: number;
   inwardBorderShare: number;
+  /**
+   * Set by the neighbourhood pass (region-context.ts), from the classes at its end: the crease
+   * length shared with original-surface regions as a share of the whole border.
+   */
+  originalCreaseBorderShare: number;
 }
 
 export function regionFigures(
@@ -43,13 +54,15 @@ export function regionFigures(
   areas: Float64Array,
   triRoughness: Float32Array,
   triMeanCurvature: Float32Array,
+  triCurvedness: Float32Array,
   axis: ShaftAxis,
   rays: WallRays,
   headOnCosineMin: number,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
-    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
+    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
+    originalCreaseBorderShare: NaN,
   }));
   const roughSorted = Float32Array.from(triRoughness).sort();
   const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;
@@ -87,12 +100,14 @@ export function regionFigures(
     r.radial += w * ((nx * qx + ny * qy + nz * qz) / ql);
     r.axial += w * Math.abs(nx * ax + ny * ay + nz * az);
     r.meanCurvature += w * triMeanCurvature[f];
+    r.curvedness += w * triCurvedness[f];
   }
   out.forEach((r, i) => {
     if (r.area > 0) {
       r.radial /= r.area;
       r.axial /= r.area;
       r.meanCurvature /= r.area;
+      r.curvedness /= r.area;
       r.roughnessRatio = roughSum[i] / r.area;
     }
   });
@@ -128,6 +143,11 @@ export function fractureEvidence(r: RegionFigures, settings: AnalysisSettings): 
 
 export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {
   if (fractureEvidence(r, settings) > settings.fractureEvidenceMin) return 'fracture';
+  return originalClass(r, axis, settings, wallDepth);
+}
+
+/** Which original surface a region not taken for a break is: articular end, outer cortical or medullary. */
+export function originalClass(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {
   if (Number.isFinite(wallDepth) && r.rayDepth > settings.articularDepthRatio * wallDepth && r.meanCurvature >= 0) return 'articular';
   if (axis.support >= 0.5 && Math.abs(r.radial) >= 0.5) return r.radial > 0 ? 'outer-cortical' : 'medullary';
   return r.meanCurvature >= 0 ? 'outer-cortical' : 'medullary';

@@ -16,6 +16,8 @@ export interface RegionBorder {
   sharpShare: number;
   outwardShare: number;
   inwardShare: number;
+  /** Each neighbouring region with the length (mm) of shared border that is a crease and that is not. */
+  neighbours: Array<{ region: number; crease: number; smooth: number }>;
 }
 
 export function regionBorders(
@@ -31,6 +33,7 @@ export function regionBorders(
   const t = mesh.triangles, p = mesh.positions;
   const length = new Float64Array(regionCount), sharp = new Float64Array(regionCount);
   const outward = new Float64Array(regionCount), inward = new Float64Array(regionCount);
+  const pairs: Array<Map<number, { region: number; crease: number; smooth: number }>> = Array.from({ length: regionCount }, () => new Map());
   const cosMax = Math.cos((sharpAngleDeg * Math.PI) / 180);
   const nt = region.length;
   for (let f = 0; f < nt; f++) {
@@ -44,15 +47,18 @@ export function regionBorders(
       const len = Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
       length[r] += len;
       const dot = normals[3 * f] * normals[3 * g] + normals[3 * f + 1] * normals[3 * g + 1] + normals[3 * f + 2] * normals[3 * g + 2];
-      if (dot < cosMax) sharp[r] += len;
+      let pair = pairs[r].get(s);
+      if (!pair) pairs[r].set(s, (pair = { region: s, crease: 0, smooth: 0 }));
+      if (dot < cosMax) { sharp[r] += len; pair.crease += len; } else pair.smooth += len;
       if (regionFacing[s] > 0) outward[r] += len;
       else if (regionFacing[s] < 0) inward[r] += len;
     }
   }
   return Array.from({ length: regionCount }, (_, r) => {
     const L = length[r];
+    const neighbours = [...pairs[r].values()];
     return L > 0
-      ? { length: L, sharpShare: sharp[r] / L, outwardShare: outward[r] / L, inwardShare: inward[r] / L }
-      : { length: 0, sharpShare: 0, outwardShare: 0, inwardShare: 0 };
+      ? { length: L, sharpShare: sharp[r] / L, outwardShare: outward[r] / L, inwardShare: inward[r] / L, neighbours }
+      : { length: 0, sharpShare: 0, outwardShare: 0, inwardShare: 0, neighbours };
   });
 }

@@ -189,8 +189,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {
     const hyps = ransacAlignFaces(
-      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
-      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, fpfhTree: FA.fpfhTree },
+      { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFeatureFpfh: FB.mirroredFeatureFpfh },
+      { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, featureFpfh: FA.featureFpfh },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     );
     refined = refined.concat(refine(hyps.map((h) => h.transform)));

@@ -42,13 +42,13 @@ export interface PreparedFace {
   /**
    * Made once per face for the feature correspondences of every pair it takes part in: the
    * samples whose features are matched (an even subset of at most FEATURE_SAMPLES; undefined
-   * when all are), k-d trees over their fpfh and mirrored fpfh (as a partner would show it),
+   * when all are), their fpfh and mirrored fpfh (as a partner would show it) packed in order,
    * and the mirrored fpfh of every sample.
    */
   featureIndex: Uint32Array | undefined;
-  fpfhTree: KdTree;
+  featureFpfh: Float32Array;
   mirroredFpfh: Float32Array;
-  mirroredFpfhTree: KdTree;
+  mirroredFeatureFpfh: Float32Array;
   outline: Float32Array;
   area: number;
   centroid: [number, number, number];
@@ -119,9 +119,9 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
       faces.push({
         index: faces.length, parent, points, normals, fpfh: feats, tree,
         featureIndex,
-        fpfhTree: new KdTree(featureIndex ? gatherFeatures(feats, featureIndex) : feats, FPFH_DIM),
+        featureFpfh: featureIndex ? gatherFeatures(feats, featureIndex) : feats,
         mirroredFpfh: mirrored,
-        mirroredFpfhTree: new KdTree(featureIndex ? gatherFeatures(mirrored, featureIndex) : mirrored, FPFH_DIM),
+        mirroredFeatureFpfh: featureIndex ? gatherFeatures(mirrored, featureIndex) : mirrored,
         outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
     };
     add(s.points, s.normals, fpfh, outline, area);

@@ -71,6 +71,29 @@ function toFrame(v: Float64Array, count: number, x: V3, y: V3, z: V3): Float64Ar
   return out;
 }
 
+interface VoteTable {
+  tKey: Float64Array;
+  tCount: Int32Array;
+  tC: Float64Array;
+  tS: Float64Array;
+  tX: Float64Array;
+  tY: Float64Array;
+  tZ: Float64Array;
+  used: Int32Array;
+}
+
+/** Vote tables by size, kept between searches (each search leaves its bins empty again: key -1, sums 0). */
+const tables = new Map<number, VoteTable>();
+
+function voteTable(size: number): VoteTable {
+  let t = tables.get(size);
+  if (!t) {
+    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), tC: new Float64Array(size), tS: new Float64Array(size), tX: new Float64Array(size), tY: new Float64Array(size), tZ: new Float64Array(size), used: new Int32Array(size) };
+    tables.set(size, t);
+  }
+  return t;
+}
+
 /**
  * Motions carrying B's face onto A's face with B's axis direction laid along A's (within the
  * tilts tried), best voted first. Faces are packed xyz samples with outward normals.
@@ -108,9 +131,7 @@ export function searchAlongAxisDirections(
   let size = 1024;
   while (size < 2 * A.count * B.count) size <<= 1;
   const mask = size - 1;
-  const tKey = new Float64Array(size).fill(-1), tCount = new Int32Array(size);
-  const tC = new Float64Array(size), tS = new Float64Array(size), tX = new Float64Array(size), tY = new Float64Array(size), tZ = new Float64Array(size);
-  const used = new Int32Array(size);
+  const { tKey, tCount, tC, tS, tX, tY, tZ, used } = voteTable(size);
   const found: DirectionHypothesis[] = [];
   for (const flip of [false, true]) {
     const f: 1 | -1 = flip ? -1 : 1;

@@ -83,8 +83,7 @@ export function icpPointToPlane(
     const keep = Math.max(6, Math.floor(m * trim));
     if (keep < m) order.sort((a, b) => dist[a] - dist[b]);
     // Normal equations A^T A x = A^T b for x = (omega, t), row a = (p x n, n), b = -(p - q).n
-    const AtA = new Float64Array(36);
-    const Atb = new Float64Array(6);
+    // (the 21 sums of the upper triangle and the 6 of A^T b in locals, each summed in sample order)
     // centre for conditioning
     let cx = 0, cy = 0, cz = 0;
     for (let k = 0; k < keep; k++) {
@@ -93,22 +92,34 @@ export function icpPointToPlane(
     }
     cx /= keep; cy /= keep; cz /= keep;
     let ss = 0;
-    const row = new Float64Array(6);
+    let s00 = 0, s01 = 0, s02 = 0, s03 = 0, s04 = 0, s05 = 0, s11 = 0, s12 = 0, s13 = 0, s14 = 0, s15 = 0;
+    let s22 = 0, s23 = 0, s24 = 0, s25 = 0, s33 = 0, s34 = 0, s35 = 0, s44 = 0, s45 = 0, s55 = 0;
+    let b0 = 0, b1 = 0, b2 = 0, b3 = 0, b4 = 0, b5 = 0;
     for (let k = 0; k < keep; k++) {
       const i = order[k];
       const X = px[i] - cx, Y = py[i] - cy, Z = pz[i] - cz;
-      row[0] = Y * nz[i] - Z * ny[i];
-      row[1] = Z * nx[i] - X * nz[i];
-      row[2] = X * ny[i] - Y * nx[i];
-      row[3] = nx[i]; row[4] = ny[i]; row[5] = nz[i];
+      const r0 = Y * nz[i] - Z * ny[i];
+      const r1 = Z * nx[i] - X * nz[i];
+      const r2 = X * ny[i] - Y * nx[i];
+      const r3 = nx[i], r4 = ny[i], r5 = nz[i];
       const r = (px[i] - qx[i]) * nx[i] + (py[i] - qy[i]) * ny[i] + (pz[i] - qz[i]) * nz[i];
       ss += r * r;
-      for (let a = 0; a < 6; a++) {
-        Atb[a] -= row[a] * r;
-        for (let b = a; b < 6; b++) AtA[a * 6 + b] += row[a] * row[b];
-      }
+      b0 -= r0 * r; s00 += r0 * r0; s01 += r0 * r1; s02 += r0 * r2; s03 += r0 * r3; s04 += r0 * r4; s05 += r0 * r5;
+      b1 -= r1 * r; s11 += r1 * r1; s12 += r1 * r2; s13 += r1 * r3; s14 += r1 * r4; s15 += r1 * r5;
+      b2 -= r2 * r; s22 += r2 * r2; s23 += r2 * r3; s24 += r2 * r4; s25 += r2 * r5;
+      b3 -= r3 * r; s33 += r3 * r3; s34 += r3 * r4; s35 += r3 * r5;
+      b4 -= r4 * r; s44 += r4 * r4; s45 += r4 * r5;
+      b5 -= r5 * r; s55 += r5 * r5;
     }
-    for (let a = 0; a < 6; a++) for (let b = 0; b < a; b++) AtA[a * 6 + b] = AtA[b * 6 + a];
+    const AtA = Float64Array.of(
+      s00, s01, s02, s03, s04, s05,
+      s01, s11, s12, s13, s14, s15,
+      s02, s12, s22, s23, s24, s25,
+      s03, s13, s23, s33, s34, s35,
+      s04, s14, s24, s34, s44, s45,
+      s05, s15, s25, s35, s45, s55,
+    );
+    const Atb = Float64Array.of(b0, b1, b2, b3, b4, b5);
     rms = Math.sqrt(ss / keep);
     inliers = keep;
     // light damping keeps sliding directions of thin bands from running away

@@ -20,7 +20,15 @@ export class KdTree {
     for (let i = 0; i < this.count; i++) this.order[i] = i;
     this.splitDim = new Uint8Array(this.count);
     if (this.count > 0) this.build(0, this.count);
+    if (dim === 3) {
+      // points in tree order, as doubles: the nearest-one search of 3-d samples reads them in
+      // place of the generic layout (same traversal and arithmetic, so the same answers)
+      this.points3 = new Float64Array(3 * this.count);
+      for (let k = 0; k < this.count; k++) for (let d = 0; d < 3; d++) this.points3[3 * k + d] = data[this.order[k] * 3 + d];
+    }
   }
+
+  private readonly points3: Float64Array | undefined;
 
   private build(lo: number, hi: number): void {
     const stack: number[] = [lo, hi];
@@ -147,7 +155,10 @@ export class KdTree {
   nearestOne(q: ArrayLike<number>, maxDist2 = Infinity): { index: number; dist2: number } {
     this.bestIndex = -1;
     this.bestDist2 = maxDist2;
-    if (this.count > 0) this.visitOne(q, 0, this.count);
+    if (this.count > 0) {
+      if (this.points3) this.visitOne3(q[0], q[1], q[2], 0, this.count);
+      else this.visitOne(q, 0, this.count);
+    }
     return { index: this.bestIndex, dist2: this.bestIndex < 0 ? Infinity : this.bestDist2 };
   }
 
@@ -180,6 +191,38 @@ export class KdTree {
     } else {
       this.visitOne(q, mid + 1, hi);
       if (diff * diff < this.bestDist2) this.visitOne(q, lo, mid);
+    }
+  }
+
+  /** visitOne for 3-d points: positions k in tree order, coordinates from points3. */
+  private visitOne3(x: number, y: number, z: number, lo: number, hi: number): void {
+    const P = this.points3!;
+    if (hi - lo <= KdTree.LEAF) {
+      for (let k = lo; k < hi; k++) {
+        const dx = x - P[3 * k], dy = y - P[3 * k + 1], dz = z - P[3 * k + 2];
+        const d2 = dx * dx + dy * dy + dz * dz;
+        if (d2 < this.bestDist2 || (d2 === this.bestDist2 && this.bestIndex < 0)) {
+          this.bestDist2 = d2;
+          this.bestIndex = this.order[k];
+        }
+      }
+      return;
+    }
+    const mid = (lo + hi) >> 1;
+    const sd = this.splitDim[mid];
+    const dx = x - P[3 * mid], dy = y - P[3 * mid + 1], dz = z - P[3 * mid + 2];
+    const diff = sd === 0 ? dx : sd === 1 ? dy : dz;
+    const d2 = dx * dx + dy * dy + dz * dz;
+    if (d2 < this.bestDist2 || (d2 === this.bestDist2 && this.bestIndex < 0)) {
+      this.bestDist2 = d2;
+      this.bestIndex = this.order[mid];
+    }
+    if (diff < 0) {
+      this.visitOne3(x, y, z, lo, mid);
+      if (diff * diff < this.bestDist2) this.visitOne3(x, y, z, mid + 1, hi);
+    } else {
+      this.visitOne3(x, y, z, mid + 1, hi);
+      if (diff * diff < this.bestDist2) this.visitOne3(x, y, z, lo, mid);
     }
   }
 

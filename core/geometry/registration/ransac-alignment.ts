@@ -8,6 +8,7 @@
 import { absoluteOrientation } from './absolute-orientation';
 import { FPFH_BINS, FPFH_DIM } from './fpfh';
 import { KdTree } from './nearest-neighbours';
+import { featureCorrespondences } from './feature-correspondences';
 import { inOpposedContact } from './opposed-contact';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from './rigid-transform';
 import { mulberry32 } from '../seeded-random';
@@ -23,10 +24,10 @@ export interface FaceSamples {
    * is enough for correspondences, and the search grows with the product of the two counts.
    */
   featureIndex?: Uint32Array;
-  /** Made once per face and reused across pairs when given: k-d trees over the fpfh (and mirrored fpfh) of the featureIndex samples, and the mirrored fpfh of every sample. */
-  fpfhTree?: KdTree;
+  /** Made once per face and reused across pairs when given: the fpfh (and mirrored fpfh) rows of the featureIndex samples, packed, and the mirrored fpfh of every sample. */
+  featureFpfh?: Float32Array;
   mirroredFpfh?: Float32Array;
-  mirroredFpfhTree?: KdTree;
+  mirroredFeatureFpfh?: Float32Array;
 }
 
 export interface RansacOptions {
@@ -78,22 +79,17 @@ export function ransacAlignFaces(source: FaceSamples, target: FaceSamples, optio
   // described with flipped normals), plus each target sample's nearest source sample
   const srcFeat = source.mirroredFpfh ?? mirrorFpfh(source.fpfh);
   const srcIdx = source.featureIndex, tgtIdx = target.featureIndex;
-  const featTreeT = target.fpfhTree ?? new KdTree(tgtIdx ? gatherFeatures(target.fpfh, tgtIdx) : target.fpfh, FPFH_DIM);
-  const featTreeS = source.mirroredFpfhTree ?? new KdTree(srcIdx ? gatherFeatures(srcFeat, srcIdx) : srcFeat, FPFH_DIM);
+  const featT = target.featureFpfh ?? (tgtIdx ? gatherFeatures(target.fpfh, tgtIdx) : target.fpfh);
+  const featS = source.mirroredFeatureFpfh ?? (srcIdx ? gatherFeatures(srcFeat, srcIdx) : srcFeat);
+  const found = featureCorrespondences(featS, featT, FPFH_DIM);
   const corr: number[] = [];
-  const fq = new Float32Array(FPFH_DIM);
-  const nsF = srcIdx ? srcIdx.length : ns, ntF = tgtIdx ? tgtIdx.length : nt;
-  for (let k = 0; k < nsF; k++) {
+  for (let k = 0; k < found.sourceBest.length; k++) {
     const i = srcIdx ? srcIdx[k] : k;
-    for (let d = 0; d < FPFH_DIM; d++) fq[d] = srcFeat[i * FPFH_DIM + d];
-    const r = featTreeT.nearest(fq, 2);
-    for (const j of r.indices) corr.push(i, tgtIdx ? tgtIdx[j] : j);
+    for (const j of [found.sourceBest[k], found.sourceSecond[k]]) if (j >= 0) corr.push(i, tgtIdx ? tgtIdx[j] : j);
   }
-  for (let k = 0; k < ntF; k++) {
-    const j = tgtIdx ? tgtIdx[k] : k;
-    for (let d = 0; d < FPFH_DIM; d++) fq[d] = target.fpfh[j * FPFH_DIM + d];
-    const r = featTreeS.nearest(fq, 1);
-    for (const i of r.indices) corr.push(srcIdx ? srcIdx[i] : i, j);
+  for (let k = 0; k < found.targetBest.length; k++) {
+    const i = found.targetBest[k];
+    if (i >= 0) corr.push(srcIdx ? srcIdx[i] : i, tgtIdx ? tgtIdx[k] : k);
   }
   const nc = corr.length / 2;
   if (nc < 3) return [];

@@ -54,8 +54,8 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const aFaceInB = applyToPoints(inv, fa.points);
   const aFaceNormalsInB = applyToDirections(inv, fa.normals);
   const cb = contactShare(bFaceInA, bFaceNormalsInA, a.surface, tol);
-  const interlock = Math.min(interlockOf(bFaceInA, bFaceNormalsInA, a.surface, tol), interlockOf(aFaceInB, aFaceNormalsInB, b.surface, tol));
   const ca = contactShare(aFaceInB, aFaceNormalsInB, b.surface, tol);
+  const interlock = Math.min(interlockOf(bFaceInA, bFaceNormalsInA, cb.touching), interlockOf(aFaceInB, aFaceNormalsInB, ca.touching));
   const contactFraction = Math.max(ca.share, cb.share);
   const contactFractionOther = Math.min(ca.share, cb.share);
   const gapSum = ca.gapSum + cb.gapSum, gapN = ca.gapN + cb.gapN;
@@ -126,19 +126,12 @@ function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame |
 /** Samples farther than this from the other surface are not judged inside it (about a cortical wall's thickness; common practice). */
 const MAX_DEPTH_MM = 6;
 
-function interlockOf(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): number {
-  const n = points.length / 3;
-  const cp = {} as ClosestPoint;
-  const rows: number[][] = [];
+function interlockOf(points: ArrayLike<number>, normals: ArrayLike<number>, kept: number[]): number {
+  if (kept.length < 12) return 0;
   let cx = 0, cy = 0, cz = 0;
-  const kept: number[] = [];
-  for (let i = 0; i < n; i++) {
-    const hit = surface.closest(points[3 * i], points[3 * i + 1], points[3 * i + 2], tol, cp);
-    if (!hit) continue;
-    kept.push(i);
+  for (const i of kept) {
     cx += points[3 * i]; cy += points[3 * i + 1]; cz += points[3 * i + 2];
   }
-  if (kept.length < 12) return 0;
   cx /= kept.length; cy /= kept.length; cz /= kept.length;
   let rg = 0;
   for (const i of kept) rg += (points[3 * i] - cx) ** 2 + (points[3 * i + 1] - cy) ** 2 + (points[3 * i + 2] - cz) ** 2;
@@ -150,27 +143,32 @@ function interlockOf(points: ArrayLike<number>, normals: ArrayLike<number>, surf
     const r = [(y * nz - z * ny) / rg, (z * nx - x * nz) / rg, (x * ny - y * nx) / rg, nx, ny, nz];
     for (let a = 0; a < 6; a++) for (let b = 0; b < 6; b++) M[a][b] += r[a] * r[b];
   }
-  void rows;
   const e = new EigenvalueDecomposition(new Matrix(M), { assumeSymmetric: true }).realEigenvalues;
   const lo = Math.max(0, Math.min(...e)), hi = Math.max(...e);
   return hi > 0 ? Math.sqrt(lo / hi) : 0;
 }
 
-function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): { share: number; gapSum: number; gapN: number } {
+/**
+ * Share of face samples within `tol` of the other surface with opposed normals, the squared gaps
+ * of those within 3 tol, and (for the interlock) every sample within `tol` whatever its normal.
+ */
+function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): { share: number; gapSum: number; gapN: number; touching: number[] } {
   const n = points.length / 3;
-  if (n === 0) return { share: 0, gapSum: 0, gapN: 0 };
+  const touching: number[] = [];
+  if (n === 0) return { share: 0, gapSum: 0, gapN: 0, touching };
   let inContact = 0, gapSum = 0, gapN = 0;
   const cp = {} as ClosestPoint;
   for (let i = 0; i < n; i++) {
     const hit = surface.closest(points[3 * i], points[3 * i + 1], points[3 * i + 2], 3 * tol, cp);
     if (!hit) continue;
+    if (hit.distance <= tol) touching.push(i);
     const c = normals[3 * i] * hit.nx + normals[3 * i + 1] * hit.ny + normals[3 * i + 2] * hit.nz;
     if (c > -0.5) continue;
     gapSum += hit.distance * hit.distance;
     gapN++;
     if (hit.distance <= tol) inContact++;
   }
-  return { share: inContact / n, gapSum, gapN };
+  return { share: inContact / n, gapSum, gapN, touching };
 }
 
 /**

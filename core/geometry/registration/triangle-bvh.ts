@@ -30,6 +30,8 @@ export class TriangleBvh {
   private readonly order: Uint32Array;
   private readonly corners: Float32Array;
   private readonly stack: Int32Array;
+  /** Box distance of each node on the stack, beside it. */
+  private readonly stackDist: Float64Array;
   private nodes = 0;
 
   constructor(positions: ArrayLike<number>, triangles: ArrayLike<number>) {
@@ -46,6 +48,7 @@ export class TriangleBvh {
     this.start = new Uint32Array(maxNodes);
     this.end = new Uint32Array(maxNodes);
     this.stack = new Int32Array(2 * maxNodes + 8);
+    this.stackDist = new Float64Array(2 * maxNodes + 8);
     // build (explicit stack of nodes to split)
     const todo: number[] = [];
     this.nodes = 1;
@@ -119,22 +122,26 @@ export class TriangleBvh {
     let best2 = maxDistance === Infinity ? Infinity : maxDistance * maxDistance;
     let bestI = -1, bx = 0, by = 0, bz = 0;
     const st = this.stack, C = this.corners;
+    const sd = this.stackDist;
     let sp = 0;
-    if (this.boxDist2(0, x, y, z) > best2) return false;
-    st[sp++] = 0;
+    const d00 = this.boxDist2(0, x, y, z);
+    if (d00 > best2) return false;
+    st[sp] = 0;
+    sd[sp++] = d00;
     while (sp > 0) {
+      // each node's box distance was worked out when it was pushed
       const node = st[--sp];
-      if (this.boxDist2(node, x, y, z) > best2) continue;
+      if (sd[sp] > best2) continue;
       const c = this.child[node];
       if (c >= 0) {
         const d0 = this.boxDist2(c, x, y, z), d1 = this.boxDist2(c + 1, x, y, z);
         // the nearer child is searched first (pushed last)
         if (d0 <= d1) {
-          if (d1 <= best2) st[sp++] = c + 1;
-          if (d0 <= best2) st[sp++] = c;
+          if (d1 <= best2) { st[sp] = c + 1; sd[sp++] = d1; }
+          if (d0 <= best2) { st[sp] = c; sd[sp++] = d0; }
         } else {
-          if (d0 <= best2) st[sp++] = c;
-          if (d1 <= best2) st[sp++] = c + 1;
+          if (d0 <= best2) { st[sp] = c; sd[sp++] = d0; }
+          if (d1 <= best2) { st[sp] = c + 1; sd[sp++] = d1; }
         }
         continue;
       }

@@ -52,4 +52,17 @@ describe('the search along the two axis directions', () => {
     expect(rotationErrorDegrees(h.transform, truth)).toBeLessThan(rotationErrorDegrees(untilted.transform, truth));
     expect(h.tiltDeg.some((t) => t !== 0)).toBe(true);
   });
+
+  it('answers the same after other searches have used its vote tables (each search leaves them empty)', () => {
+    const A = face(lower, identity), B = face(upper, M);
+    const dB = Array.from(applyToDirections(M, Float32Array.from([0, -1, 0]))) as [number, number, number];
+    const first = searchAlongAxisDirections([0, 1, 0], A.points, A.normals, dB, B.points, B.normals, { spacing });
+    // a search of the other piece against itself, of the same table size, then a smaller one
+    searchAlongAxisDirections([0, 1, 0], B.points, B.normals, dB, A.points, A.normals, { spacing, tiltsDeg: [-5, 0, 5] });
+    searchAlongAxisDirections([0, 1, 0], A.points, A.normals, dB, B.points, B.normals, { spacing, maxSamples: 20 });
+    const again = searchAlongAxisDirections([0, 1, 0], A.points, A.normals, dB, B.points, B.normals, { spacing });
+    expect(again.map((h) => h.votes)).toEqual(first.map((h) => h.votes));
+    again.forEach((h, k) => h.transform.forEach((v, i) => expect(v).toBe(first[k].transform[i])));
+    expect(rotationErrorDegrees(again[0].transform, truth)).toBeLessThan(6);
+  });
 });

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { createRequire } from 'node:module';
 import { KdTree } from '../../../../core/geometry/registration/nearest-neighbours';
+import { mulberry32 } from '../../../../core/geometry/seeded-random';
 
 // Reference: brute-force search over every point (the definition of the k nearest neighbours).
 function bruteForce(data: number[], dim: number, q: number[], k: number): number[] {
@@ -36,6 +38,48 @@ describe('k-d tree (Friedman, Bentley & Finkel 1977)', () => {
           expect(inside.length).toBe(bruteForce(data, dim, q, n).filter((d) => d <= radius * radius).length);
         },
       ),
+      { numRuns: 150 },
+    );
+  });
+});
+
+describe('nearest one in 3 dimensions', () => {
+  it('finds the closest vertex of the Stanford bunny as brute force does (npm package `bunny`)', () => {
+    const bunny = createRequire(import.meta.url)('bunny') as { positions: number[][] };
+    const P = Float32Array.from(bunny.positions.flat().map((v) => v * 10));
+    const tree = new KdTree(P, 3);
+    const rnd = mulberry32(5);
+    for (let k = 0; k < 2000; k++) {
+      const v = Math.floor(rnd() * (P.length / 3));
+      const q = [P[3 * v] + (rnd() - 0.5) * 10, P[3 * v + 1] + (rnd() - 0.5) * 10, P[3 * v + 2] + (rnd() - 0.5) * 10];
+      const limit2 = k % 2 ? Infinity : 4;
+      let bi = -1, bd = limit2;
+      for (let i = 0; i < P.length / 3; i++) {
+        const d = (q[0] - P[3 * i]) ** 2 + (q[1] - P[3 * i + 1]) ** 2 + (q[2] - P[3 * i + 2]) ** 2;
+        if (d < bd) { bd = d; bi = i; }
+      }
+      const got = tree.nearestOne(q, limit2);
+      if (bi < 0) expect(got.index).toBe(-1);
+      else {
+        expect(got.dist2).toBeCloseTo(bd, 9);
+        // the bunny's vertices are distinct, so the nearest is one point unless two lie equally far
+        const gd = (q[0] - P[3 * got.index]) ** 2 + (q[1] - P[3 * got.index + 1]) ** 2 + (q[2] - P[3 * got.index + 2]) ** 2;
+        expect(gd).toBeCloseTo(bd, 9);
+      }
+    }
+  });
+
+  it('finds the nearest distance of brute force on points with many ties', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 200 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
+        let s = seed;
+        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
+        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+        const q = [r(), r(), r()];
+        const got = new KdTree(data, 3).nearestOne(q);
+        expect(got.dist2).toBeCloseTo(bruteForce([...data], 3, q, 1)[0], 9);
+        expect((q[0] - data[3 * got.index]) ** 2 + (q[1] - data[3 * got.index + 1]) ** 2 + (q[2] - data[3 * got.index + 2]) ** 2).toBeCloseTo(got.dist2, 9);
+      }),
       { numRuns: 150 },
     );
   });

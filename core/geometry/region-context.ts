@@ -1,0 +1,73 @@
+import { fractureEvidence, type RegionFigures } from './classify-regions';
+import type { RegionBorder } from './region-borders';
+import type { AnalysisSettings } from './settings';
+import type { ShaftAxis } from './shaft-axis';
+
+/**
+ * The neighbourhood pass of region classification. A break face meets the original bone
+ * surface at a crease (the rim of the break), while two pieces of original surface meet
+ * smoothly: region growing stops between them only where the surface bends a little more
+ * than it may within one region, or where it turns from facing out to facing the shaft axis.
+ * A crease next to another break face says little (two breaks also meet at a crease, and a
+ * break face is cut into several regions along its own bends), so the first pass
+ * (classify-regions.ts), which judges each region by itself and counts every crease alike,
+ * misses break faces whose border with the bone surface is creased but whose border with
+ * the rest of their own break is not. This pass takes the first pass's classes and adds to
+ * each region's first evidence
+ * - the crease length it shares with regions taken for original surface, as a share of its
+ *   whole border (contextOriginalCreaseWeight);
+ * - its curvedness (Koenderink & van Doorn 1992): the relief of a break bends the surface
+ *   far more than a shaft of 5-20 mm radius does (contextCurvednessWeight);
+ * - against fracture, how squarely it faces out from or into the fitted shaft axis: that is
+ *   what the wall faces do, while a break crosses the wall (contextFacingWeight);
+ * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
+ * after another, largest first, each with the classes its neighbours have at that moment (so
+ * two regions cannot keep swapping classes as they would if all were judged at once), over
+ * and over until nothing changes or `contextPasses` rounds have run. The weights are settings
+ * (settings.ts), fitted by area-weighted logistic regression on generated development
+ * assemblages with each seed left out in turn to check them (tests/bench/segmentation-regions-dump.ts
+ * writes the region figures). Returns whether each region is a fracture face and fills
+ * `originalCreaseBorderShare` in `figures` from the final classes.
+ */
+export function settleFractureRegions(
+  figures: RegionFigures[],
+  borders: RegionBorder[],
+  axis: ShaftAxis,
+  settings: AnalysisSettings,
+): boolean[] {
+  const first = figures.map((r) => fractureEvidence(r, settings));
+  const fracture = first.map((e) => e > settings.fractureEvidenceMin);
+  const order = figures.map((_, id) => id).sort((a, b) => figures[b].area - figures[a].area || a - b);
+  const shaft = axis.support >= 0.5;
+  for (let pass = 0; pass < settings.contextPasses; pass++) {
+    let changed = 0;
+    for (const id of order) {
+      figures[id].originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture);
+      const f = first[id] + contextTerms(figures[id], shaft, settings) > settings.contextEvidenceMin;
+      if (f !== fracture[id]) { fracture[id] = f; changed++; }
+    }
+    if (!changed) break;
+  }
+  figures.forEach((r, id) => { r.originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture); });
+  return fracture;
+}
+
+/** Crease length shared with regions not taken for fracture, over the region's whole border. */
+function originalCreaseBorderShare(border: RegionBorder, fracture: boolean[]): number {
+  let crease = 0;
+  for (const n of border.neighbours) if (!fracture[n.region]) crease += n.crease;
+  return border.length > 0 ? crease / border.length : 0;
+}
+
+/**
+ * What the neighbourhood pass adds to a region's first evidence (see settleFractureRegions);
+ * `originalCreaseBorderShare` must be measured. `shaft`: the fragment's shaft axis fit holds
+ * (support at least 0.5), so the region's radial figure means something.
+ */
+export function contextTerms(r: RegionFigures, shaft: boolean, settings: AnalysisSettings): number {
+  const min = settings.corticalRadialMin;
+  const facing = shaft && min < 1 ? Math.max(0, Math.abs(r.radial) - min) / (1 - min) : 0;
+  return settings.contextCurvednessWeight * r.curvedness
+    - settings.contextFacingWeight * facing
+    + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare;
+}

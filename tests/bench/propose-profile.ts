@@ -1,0 +1,91 @@
+/**
+ * The alignment step of `knitbone propose`, in one thread, for profiling and for checking that a
+ * speed change leaves results as they were: `npx tsx tests/bench/propose-profile.ts DIR [OUT.json]`.
+ * Fragments of a `knitbone demo` folder are analysed (cached in the temp folder), prepared at the
+ * run's spacing, pruned by the candidate index as propose does, and each fragment pair goes
+ * through matchFragments split into its stages (screen every face pair, shortlist, fine step).
+ * Prints CPU seconds per stage and per face pair; OUT.json gets every fragment pair's best 3.
+ */
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { deserialize, serialize } from 'node:v8';
+import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { faceTraits } from '../../core/geometry/proposals/face-traits';
+import { DEFAULT_MATCH_PARAMETERS, distinctBest, fineShortlist, refineFacePair, screenFacePair, type CoarseMotion, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
+import { loadFragment } from '../../core/jobs/fragment-loader';
+import { displacementAt, invert as invertRigid, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
+
+const dir = process.argv[2];
+const out = process.argv[3];
+const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
+interface TruthJoin { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
+const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }>; joins: TruthJoin[] };
+const cacheDir = join(tmpdir(), 'knitbone-pairwise-cache');
+mkdirSync(cacheDir, { recursive: true });
+const inputs: Array<{ no: string; input: FragmentInput }> = [];
+for (const { catalogueNo: no } of truth.fragments) {
+  const file = join(dir, 'scans', `${no}.ply`);
+  const key = join(cacheDir, file.replace(/[^A-Za-z0-9]+/g, '_') + '.v8');
+  try {
+    const input = existsSync(key) ? (deserialize(readFileSync(key)) as FragmentInput) : loadFragment(file).input;
+    if (!existsSync(key)) writeFileSync(key, serialize(input));
+    inputs.push({ no, input });
+  } catch {
+    // refused scans take no part
+  }
+}
+const spacing = runSpacing(inputs.flatMap((x) => x.input.faces.map((f) => f.area ?? 0)));
+const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
+let t = cpu();
+const prepared = inputs.map((x) => prepareFragment(x.input, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
+const prepCpu = cpu() - t;
+const faces: IndexedFace[] = [];
+prepared.forEach((p, fi) => {
+  const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
+  p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
+});
+const grouped = [...byFragmentPair(candidateFacePairs(faces, { k: DEFAULT_K })).values()].slice(0, maxPairs);
+const params = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as object) };
+let screenCpu = 0, fineCpu = 0, facePairs = 0, fineRuns = 0;
+const results: Record<string, Array<{ score: number; faceA: number; faceB: number; transform: number[] }>> = {};
+for (const list of grouped) {
+  const a = prepared[list[0].a], b = prepared[list[0].b];
+  t = cpu();
+  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+  for (const c of list) for (const motion of screenFacePair(a, c.faceA, b, c.faceB, params)) screened.push({ i: c.faceA, j: c.faceB, motion });
+  facePairs += list.length;
+  const t1 = cpu();
+  screenCpu += t1 - t;
+  const all: FaceMatch[] = [];
+  for (const s of fineShortlist(a, b, screened, params)) { all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params)); fineRuns++; }
+  const best = distinctBest(all, 2 * spacing).slice(0, 3);
+  fineCpu += cpu() - t1;
+  results[`${inputs[list[0].a].no}|${inputs[list[0].b].no}`] = best.map((m) => ({ score: m.score, faceA: m.faceA, faceB: m.faceB, transform: [...m.transform] }));
+}
+// recall as the pairwise benchmark counts it: a true join (at least 30% of the break surviving)
+// whose fragment pair's best motion is within 5 degrees and 5 mm (at B's centroid) of the truth,
+// and that pair among the 3 best scored pairs of either piece
+const index = new Map(inputs.map((x, i) => [x.no, i]));
+const bestOf = new Map<string, number>();
+for (const [k, list] of Object.entries(results)) if (list.length) bestOf.set(k, list[0].score);
+const top3 = (no: string): string[] => [...bestOf.entries()].filter(([k]) => k.split('|').includes(no)).sort((x, y) => y[1] - x[1]).slice(0, 3).map(([k]) => k);
+let eligible = 0, asBest = 0, inTop3 = 0;
+for (const j of truth.joins) {
+  if (j.type !== 'conjoin' || j.survivingFraction < 0.3 || !index.has(j.a) || !index.has(j.b)) continue;
+  eligible++;
+  const swap = index.get(j.a)! > index.get(j.b)!;
+  const k = swap ? `${j.b}|${j.a}` : `${j.a}|${j.b}`;
+  const m = results[k]?.[0];
+  if (!m) continue;
+  const want = swap ? invertRigid(j.transformBToA) : j.transformBToA;
+  const B = prepared[index.get(swap ? j.a : j.b)!];
+  if (!(rotationErrorDegrees(m.transform, want) < 5 && displacementAt(m.transform, want, B.centroid) < 5)) continue;
+  asBest++;
+  if (top3(j.a).includes(k) || top3(j.b).includes(k)) inTop3++;
+}
+process.stdout.write(`true joins ${eligible}: best of their pair ${asBest}, in the top 3 of a piece ${inTop3}\n`);
+process.stdout.write(`spacing ${spacing}  fragments ${prepared.length}  fragment pairs ${grouped.length}  face pairs ${facePairs}  fine runs ${fineRuns}  load ${loadavg()[0].toFixed(2)}\n`);
+process.stdout.write(`CPU s: prepare ${prepCpu.toFixed(1)}  screen ${screenCpu.toFixed(1)}  fine ${fineCpu.toFixed(1)}  per face pair ${((1000 * (screenCpu + fineCpu)) / facePairs).toFixed(2)} ms (screen ${((1000 * screenCpu) / facePairs).toFixed(2)}, fine ${((1000 * fineCpu) / Math.max(1, fineRuns)).toFixed(2)} per fine run)\n`);
+if (out) writeFileSync(out, JSON.stringify(results));

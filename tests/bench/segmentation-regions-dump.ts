@@ -1,0 +1,88 @@
+/**
+ * Dumps one row per segmentation region of generated folders (figures, truth share, border
+ * adjacency split into crease / smooth length) as JSON lines, for studying the region
+ * classifier offline. Run: npx tsx tests/bench/segmentation-regions-dump.ts DIR[,DIR...] OUT.jsonl [settings JSON]
+ */
+import { readFileSync, writeFileSync } from 'node:fs';
+import { basename, join } from 'node:path';
+import { analyseFragment } from '../../core/geometry/analyse-fragment';
+import { typicalWallDepth } from '../../core/geometry/classify-regions';
+import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
+import { bilateralNormalFilter, triangleCentroids } from '../../core/geometry/normal-filter';
+import { parseMeshFile } from '../../core/geometry/parse/index';
+import { buildTopology } from '../../core/geometry/topology';
+
+interface Truth {
+  fragments: Array<{ catalogueNo: string; scanFile: string; boneId: string; triangleLabels: string; element: string }>;
+  bones: Array<{ boneId: string; breaks: Array<{ id: number; age: string; pattern: string }> }>;
+}
+const dirs = (process.argv[2] ?? '').split(',').filter(Boolean);
+const out: string[] = [];
+const settings = JSON.parse(process.argv[4] ?? '{}');
+for (const dir of dirs) {
+  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
+  for (const frag of truth.fragments) {
+    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
+    const labels = Buffer.from(frag.triangleLabels, 'base64');
+    const a = analyseFragment(parsed.mesh, settings);
+    const { areas: srcAreas } = triangleNormalsAndAreas(parsed.mesh);
+    const mesh = a.mesh;
+    const topo = buildTopology(mesh);
+    const { normals, areas } = triangleNormalsAndAreas(mesh);
+    const centroids = triangleCentroids(mesh.positions, mesh.triangles);
+    const filtered = bilateralNormalFilter(normals, areas, centroids, topo.neighbours, a.settings.normalFilterIterations, a.settings.normalFilterRange);
+    const nr = a.regions.length;
+    const fr = new Float64Array(nr), tot = new Float64Array(nr);
+    for (let f = 0; f < a.regionOfTriangle.length; f++) {
+      const src = a.sourceTriangle[f], r = a.regionOfTriangle[f];
+      tot[r] += srcAreas[src];
+      if (labels[src] >= 2) fr[r] += srcAreas[src];
+    }
+    // Border lengths per neighbouring region: [crease length, smooth length].
+    const nb: Array<Map<number, [number, number]>> = Array.from({ length: nr }, () => new Map());
+    const cosMax = Math.cos((a.settings.ridgeAngleDeg * Math.PI) / 180);
+    const t = mesh.triangles, p = mesh.positions, reg = a.regionOfTriangle;
+    for (let f = 0; f < reg.length; f++) {
+      for (let j = 0; j < 3; j++) {
+        const g = topo.neighbours[3 * f + j];
+        if (g < 0 || reg[g] === reg[f]) continue;
+        const u = t[3 * f + j], v = t[3 * f + ((j + 1) % 3)];
+        const len = Math.hypot(p[3 * u] - p[3 * v], p[3 * u + 1] - p[3 * v + 1], p[3 * u + 2] - p[3 * v + 2]);
+        const dot = filtered[3 * f] * filtered[3 * g] + filtered[3 * f + 1] * filtered[3 * g + 1] + filtered[3 * f + 2] * filtered[3 * g + 2];
+        const e = nb[reg[f]].get(reg[g]) ?? [0, 0];
+        if (dot < cosMax) e[0] += len; else e[1] += len;
+        nb[reg[f]].set(reg[g], e);
+      }
+    }
+    const wallDepth = typicalWallDepth(a.regions);
+    // Per region: area-weighted mean and median triangle curvedness sqrt((k1^2 + k2^2) / 2), mean 1 - raw.filtered normal.
+    const k1 = a.curvature.k1, k2 = a.curvature.k2;
+    const cv: number[][] = Array.from({ length: nr }, () => []);
+    const cvSum = new Float64Array(nr), devSum = new Float64Array(nr), arSum = new Float64Array(nr);
+    for (let f = 0; f < reg.length; f++) {
+      let c = 0;
+      for (let j = 0; j < 3; j++) { const v = t[3 * f + j]; c += Math.sqrt((k1[v] * k1[v] + k2[v] * k2[v]) / 2) / 3; }
+      cv[reg[f]].push(c);
+      cvSum[reg[f]] += areas[f] * c; arSum[reg[f]] += areas[f];
+      devSum[reg[f]] += areas[f] * (1 - (normals[3 * f] * filtered[3 * f] + normals[3 * f + 1] * filtered[3 * f + 1] + normals[3 * f + 2] * filtered[3 * f + 2]));
+    }
+    const med = (x: number[]): number => { const s = [...x].sort((p, q) => p - q); return s[Math.floor(s.length / 2)] ?? 0; };
+    const allCv = cv.flat();
+    const fragCurvd = med(allCv);
+    for (const r of a.regions) {
+      out.push(JSON.stringify({
+        set: basename(dir), frag: frag.catalogueNo, element: frag.element, region: r.id, cls: r.surfaceClass,
+        truthF: tot[r.id] > 0 ? fr[r.id] / tot[r.id] : 0, areaTruth: tot[r.id],
+        fragArea: a.stats.area, axisSupport: a.axis.support, axisRadius: a.axis.radius, wallDepth,
+        area: r.area, tris: r.triangleCount, radial: r.radial, axial: r.axial, rough: r.roughnessRatio, curv: r.meanCurvature,
+        depth: Number.isFinite(r.rayDepth) ? r.rayDepth : null, exitCos: Number.isFinite(r.rayExitCosine) ? r.rayExitCosine : null,
+        rays: r.rays, headOn: Number.isFinite(r.headOnShare) ? r.headOnShare : null,
+        sharp: r.sharpBorderShare, out: r.outwardBorderShare, in: r.inwardBorderShare,
+        curvd: cvSum[r.id] / (arSum[r.id] || 1), curvdMed: med(cv[r.id]), fragCurvd, rawDev: devSum[r.id] / (arSum[r.id] || 1),
+        nb: [...nb[r.id].entries()].map(([s, [c, m]]) => [s, c, m]),
+      }));
+    }
+  }
+  process.stderr.write(`${dir} done\n`);
+}
+writeFileSync(process.argv[3], out.join('\n') + '\n');
