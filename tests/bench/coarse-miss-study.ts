@@ -21,6 +21,7 @@ import { icpPointToPlane } from '../../core/geometry/registration/icp-point-to-p
 import { displacementAt, invert, compose, rotationAboutAxis, transformFrom, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { SampledSurface } from '../../core/geometry/registration/target-surface';
 import { stridedSamples } from '../../core/geometry/registration/strided-samples';
+import { featureCorrespondences } from '../../core/geometry/registration/feature-correspondences';
 import { inOpposedContact } from '../../core/geometry/registration/opposed-contact';
 import { searchAboutSharedAxis } from '../../core/geometry/registration/shaft-axis-search';
 import { searchAlongAxisDirections } from '../../core/geometry/registration/axis-direction-search';
@@ -42,7 +43,6 @@ function contactShare(P: PreparedFace, Q: PreparedFace, T: RigidTransform, spaci
 
 /** Share of RANSAC's feature correspondences (as ransac-alignment.ts builds them) that the truth puts within 1.5 spacings. */
 function correspondenceTruth(FA: PreparedFace, FB: PreparedFace, T: RigidTransform, spacing: number): { total: number; good: number } {
-  const fq = new Float32Array(FPFH_DIM);
   let total = 0, good = 0;
   const check = (i: number, j: number): void => {
     total++;
@@ -51,17 +51,9 @@ function correspondenceTruth(FA: PreparedFace, FB: PreparedFace, T: RigidTransfo
     if (Math.hypot(px - FA.points[3 * j], py - FA.points[3 * j + 1], pz - FA.points[3 * j + 2]) < 1.5 * spacing) good++;
   };
   const sIdx = FB.featureIndex, tIdx = FA.featureIndex;
-  const ns = sIdx ? sIdx.length : FB.points.length / 3, nt = tIdx ? tIdx.length : FA.points.length / 3;
-  for (let k = 0; k < ns; k++) {
-    const i = sIdx ? sIdx[k] : k;
-    for (let d = 0; d < FPFH_DIM; d++) fq[d] = FB.mirroredFpfh[i * FPFH_DIM + d];
-    for (const j of FA.fpfhTree.nearest(fq, 2).indices) check(i, tIdx ? tIdx[j] : j);
-  }
-  for (let k = 0; k < nt; k++) {
-    const j = tIdx ? tIdx[k] : k;
-    for (let d = 0; d < FPFH_DIM; d++) fq[d] = FA.fpfh[j * FPFH_DIM + d];
-    for (const i of FB.mirroredFpfhTree.nearest(fq, 1).indices) check(sIdx ? sIdx[i] : i, j);
-  }
+  const found = featureCorrespondences(FB.mirroredFeatureFpfh, FA.featureFpfh, FPFH_DIM);
+  for (let k = 0; k < found.sourceBest.length; k++) for (const j of [found.sourceBest[k], found.sourceSecond[k]]) if (j >= 0) check(sIdx ? sIdx[k] : k, tIdx ? tIdx[j] : j);
+  for (let k = 0; k < found.targetBest.length; k++) if (found.targetBest[k] >= 0) check(sIdx ? sIdx[found.targetBest[k]] : found.targetBest[k], tIdx ? tIdx[k] : k);
   return { total, good };
 }
 
@@ -123,8 +115,8 @@ function stages(A: PreparedFragment, fa: number, B: PreparedFragment, fb: number
     out.push('dir ' + near(searchAlongAxisDirections(A.axis.direction, FA.points, FA.normals, B.axis.direction, FB.points, FB.normals, { spacing, peaks: 10, maxSamples: params.icpSamples, tiltsDeg: [0] }).map((h) => h.transform)));
   }
   out.push('ransac ' + near(ransacAlignFaces(
-    { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFpfhTree: FB.mirroredFpfhTree },
-    { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, fpfhTree: FA.fpfhTree },
+    { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFeatureFpfh: FB.mirroredFeatureFpfh },
+    { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, featureFpfh: FA.featureFpfh },
     { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: 10, seed: params.seed + 7919 * fa + 104729 * fb },
   ).map((h) => h.transform)));
   out.push('vote ' + near(pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: 10 }).map((h) => h.transform)));
