@@ -74,6 +74,10 @@ export interface MatchParameters {
    * 4th-8th by the screen's rank; best motion of the true pair correct on dev seeds 15 / 16 /
    * the committed sample 21 / 14 / 21 with 3 and 0.5, 24 / 19 / 26 with 8 and 0.3 (every face
    * pair through its own fine step: 25 / 20 / 28) for 1.1-1.3x the CPU (tests/bench/propose-gap.ts).
+   * 12 (was 8) since method /6, where the axis-direction search always runs on shaft pieces and
+   * adds wrong motions of high overlap to the screen: best motion of the true fragment pair
+   * correct through the shortlist on dev seeds 11-16, 178 / 315 with 8, 189 with 12 (169 before
+   * method /6), 1.02x the CPU on those pairs (tests/bench/coarse-miss-study.ts for the causes).
    */
   finePerFragmentPair: number;
   fineMinOverlap: number;
@@ -107,7 +111,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisSettlesDirections: false,
   minOverlap: 0.08,
   fineHypotheses: 2,
-  finePerFragmentPair: 8,
+  finePerFragmentPair: 12,
   fineMinOverlap: 0.2,
   fineRatio: 0.3,
   icpSamples: 150,
