@@ -15,9 +15,12 @@ export interface WallRays {
   triangles: Uint32Array;
   distance: Float32Array;
   exitCosine: Float32Array;
+  /** The triangle each ray leaves through (-1 when it leaves through none). */
+  exitTriangle: Int32Array;
 }
 
-export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centroids: Float32Array, maxRays: number): WallRays {
+/** Rays from an even stride of at most `maxRays` triangles, or from the triangles listed in `from`. */
+export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centroids: Float32Array, maxRays: number, from?: ArrayLike<number>): WallRays {
   const nt = triNormals.length / 3;
   const step = Math.max(1, Math.ceil(nt / maxRays));
   const geometry = new BufferGeometry();
@@ -26,11 +29,12 @@ export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centr
   // and hit.faceIndex must name our triangles.
   geometry.setIndex(new BufferAttribute(mesh.triangles.slice(), 1));
   const bvh = new MeshBVH(geometry, { indirect: true });
-  const n = Math.ceil(nt / step);
-  const triangles = new Uint32Array(n), distance = new Float32Array(n), exitCosine = new Float32Array(n);
+  const shooters = from ? Uint32Array.from(from) : Uint32Array.from({ length: Math.ceil(nt / step) }, (_, i) => i * step);
+  const n = shooters.length;
+  const triangles = new Uint32Array(n), distance = new Float32Array(n), exitCosine = new Float32Array(n), exitTriangle = new Int32Array(n).fill(-1);
   const ray = new Ray();
-  let k = 0;
-  for (let f = 0; f < nt; f += step, k++) {
+  for (let k = 0; k < n; k++) {
+    const f = shooters[k];
     const nx = triNormals[3 * f], ny = triNormals[3 * f + 1], nz = triNormals[3 * f + 2];
     triangles[k] = f;
     ray.origin.set(centroids[3 * f] - nx * 1e-3, centroids[3 * f + 1] - ny * 1e-3, centroids[3 * f + 2] - nz * 1e-3);
@@ -42,9 +46,10 @@ export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centr
       continue;
     }
     const g = hit.faceIndex;
+    exitTriangle[k] = g;
     distance[k] = hit.distance;
     exitCosine[k] = -(nx * triNormals[3 * g] + ny * triNormals[3 * g + 1] + nz * triNormals[3 * g + 2]);
   }
   geometry.dispose();
-  return { triangles, distance, exitCosine };
+  return { triangles, distance, exitCosine, exitTriangle };
 }

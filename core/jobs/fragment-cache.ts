@@ -164,14 +164,21 @@ export function readFragment(dir: string, key: string): CachedFragment | undefin
   }
 }
 
+/** Version of the stored face traits (face-traits.ts): traits stored under another version are measured again. */
+export const TRAITS_CACHE_VERSION = 2;
+
 /** Traits of the prepared faces at one sampling (with each face's parent), as stored. */
 export interface CachedTraits {
   parents: number[];
   traits: FaceTraits[];
 }
 
+function traitsFile(dir: string, key: string, sampling: SamplingParameters): string {
+  return join(dir, `${key}.traits${TRAITS_CACHE_VERSION}-${samplingKey(sampling)}.json`);
+}
+
 export function readTraits(dir: string, key: string, sampling: SamplingParameters): CachedTraits | undefined {
-  const file = join(dir, `${key}.traits-${samplingKey(sampling)}.json`);
+  const file = traitsFile(dir, key, sampling);
   if (!existsSync(file)) return undefined;
   try {
     const raw = JSON.parse(readFileSync(file, 'utf8')) as { parents: number[]; traits: Array<Omit<FaceTraits, 'meanFpfh'> & { meanFpfh: number[] }> };
@@ -182,5 +189,5 @@ export function readTraits(dir: string, key: string, sampling: SamplingParameter
 }
 
 export function writeTraits(dir: string, key: string, sampling: SamplingParameters, c: CachedTraits): void {
-  writeAtomically(join(dir, `${key}.traits-${samplingKey(sampling)}.json`), JSON.stringify({ parents: c.parents, traits: c.traits.map((t) => ({ ...t, meanFpfh: [...t.meanFpfh] })) }));
+  writeAtomically(traitsFile(dir, key, sampling), JSON.stringify({ parents: c.parents, traits: c.traits.map((t) => ({ ...t, meanFpfh: [...t.meanFpfh] })) }));
 }

@@ -9,7 +9,7 @@
  */
 import { parentPort, threadId } from 'node:worker_threads';
 import { KnitboneError } from '../host/errors';
-import { faceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
+import { fragmentFaceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
 import { matchFragments, type FaceMatch, type MatchParameters } from '../geometry/proposals/pairwise-match';
 import { prepareFragment, type FragmentInput, type PreparedFragment, type SamplingParameters } from '../geometry/proposals/prepared-fragment';
 import { cachedFromLoaded, readFragment, writeFragment, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
@@ -102,8 +102,8 @@ function run(task: ProposalTask): AnalyseResult | DescribeResult | MatchResult {
     }
     case 'describe': {
       const f = preparedFragment(task.scan, task.sampling);
-      const axis = analysedFragment(task.scan).summary.axis;
-      const out = { parents: f.faces.map((x) => x.parent), traits: f.faces.map((x) => faceTraits(x.points, x.normals, x.area, x.fpfh, axis)) };
+      const analysed = analysedFragment(task.scan);
+      const out = { parents: f.faces.map((x) => x.parent), traits: fragmentFaceTraits(analysed.input, f, analysed.summary.axis) };
       if (task.scan.cache) writeTraits(task.scan.cache.dir, task.scan.cache.key, task.sampling, out);
       return { scanId: task.scan.scanId, ...out };
     }

@@ -12,7 +12,7 @@ import { analyseFragment } from '../../core/geometry/analyse-fragment';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { fragmentFromAnalysis } from '../../core/geometry/proposals/fragment-from-analysis';
 import { prepareFragment, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
-import { faceTraits, type FaceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
+import { fragmentFaceTraits, type FaceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
 import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
 import type { TriangleMesh } from '../../core/geometry/mesh';
 
@@ -24,6 +24,13 @@ export interface StudyFace {
   breaks: Record<string, number>;
 }
 export interface StudyFragment { no: string; spacing: number; faces: StudyFace[]; cpuMs: number }
+/** Raw inputs of a studied fragment (base64 of little-endian typed arrays), so that new traits can be tried without analysing again. */
+export interface StudyRaw {
+  positions: string; triangles: string; triangleClass?: string;
+  axis: ShaftAxisLike;
+  faces: Array<{ parent: number; points: string; normals: string; fpfh: string; outline: string; area: number }>;
+}
+const b64 = (a: Float32Array | Uint32Array | Uint8Array): string => Buffer.from(a.buffer, a.byteOffset, a.byteLength).toString('base64');
 export interface TruthFragment { catalogueNo: string; scanFile: string; triangleLabels: string }
 
 function scanPath(dir: string, f: TruthFragment): string {
@@ -31,7 +38,7 @@ function scanPath(dir: string, f: TruthFragment): string {
 }
 
 /** Prepare the analysed fragment at `spacing`, describe its faces and label them with the true breaks. */
-export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: FragmentInput, axis: ShaftAxisLike, spacing: number): StudyFragment {
+export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: FragmentInput, axis: ShaftAxisLike, spacing: number, raw?: (r: StudyRaw) => void): StudyFragment {
   const c0 = process.cpuUsage();
   const prepared = prepareFragment(input, { spacing, fpfhRadiusSpacings: 5 });
   const labels = Buffer.from(f.triangleLabels, 'base64');
@@ -43,7 +50,8 @@ export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: F
     lab.push(labels[t] - 10);
   }
   const tree = new KdTree(Float32Array.from(cents), 3);
-  const faces: StudyFace[] = prepared.faces.map((face) => {
+  const traits = fragmentFaceTraits(input, prepared, axis);
+  const faces: StudyFace[] = prepared.faces.map((face, fi) => {
     const n = face.points.length / 3;
     const count = new Map<number, number>();
     for (let i = 0; i < n; i++) {
@@ -52,17 +60,21 @@ export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: F
     }
     const breaks: Record<string, number> = {};
     for (const [k, c] of count) breaks[k] = c / n;
-    const t = faceTraits(face.points, face.normals, face.area, face.fpfh, axis);
+    const t = traits[fi];
     return { parent: face.parent, samples: n, traits: { ...t, meanFpfh: [...t.meanFpfh] }, breaks };
+  });
+  raw?.({
+    positions: b64(input.positions), triangles: b64(input.triangles), axis,
+    faces: prepared.faces.map((x) => ({ parent: x.parent, points: b64(x.points), normals: b64(x.normals), fpfh: b64(x.fpfh), outline: b64(x.outline), area: x.area })),
   });
   return { no: f.catalogueNo, spacing, faces, cpuMs: process.cpuUsage(c0).user / 1000 };
 }
 
 /** Read and analyse the scan as the propose run does (default settings), then study it. */
-export function studyScan(dir: string, f: TruthFragment, spacing: number): StudyFragment {
+export function studyScan(dir: string, f: TruthFragment, spacing: number, raw?: (r: StudyRaw) => void): StudyFragment {
   const mesh = parseMeshFile(readFileSync(scanPath(dir, f)), f.scanFile).mesh;
   const analysis = analyseFragment(mesh);
-  return studyFragment(f, mesh, fragmentFromAnalysis(analysis), analysis.axis, spacing);
+  return studyFragment(f, mesh, fragmentFromAnalysis(analysis), analysis.axis, spacing, raw && ((r) => raw({ ...r, triangleClass: b64(analysis.triangleClass) })));
 }
 
 /** Study from an analysis a propose run stored (fragment-cache.ts): only the file's triangles are read again. */
@@ -81,7 +93,8 @@ if (process.argv[1]?.endsWith('candidate-study.ts')) {
     const file = join(out, `${f.catalogueNo}.json`);
     if (existsSync(file)) return;
     try {
-      writeFileSync(file, JSON.stringify(studyScan(dir, f, Number(spacingArg))));
+      const raw = process.env.KNITBONE_STUDY_RAW ? (r: StudyRaw) => writeFileSync(join(out, `${f.catalogueNo}.raw`), JSON.stringify(r)) : undefined;
+      writeFileSync(file, JSON.stringify(studyScan(dir, f, Number(spacingArg), raw)));
     } catch (err) {
       writeFileSync(file, JSON.stringify({ no: f.catalogueNo, spacing: Number(spacingArg), faces: [], cpuMs: 0, error: String(err) }));
     }

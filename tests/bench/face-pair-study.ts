@@ -14,7 +14,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { faceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
+import { fragmentFaceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
 import { DEFAULT_MATCH_PARAMETERS, matchFragments, refineFacePair, screenFacePair, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
@@ -102,7 +102,7 @@ export function study(dir: string, k: number, others: number, params: MatchParam
   const prepared = frags.map((f) => prepareFragment(f.input, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
   const breaks = frags.map((f, i) => faceBreaks(f, prepared[i]));
   const faces: IndexedFace[] = [];
-  prepared.forEach((p, i) => p.faces.forEach((x, face) => faces.push({ fragment: i, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, frags[i].axis) })));
+  prepared.forEach((p, i) => fragmentFaceTraits(frags[i].input, p, frags[i].axis).forEach((traits, face) => faces.push({ fragment: i, face, traits })));
   const candidates = candidateFacePairs(faces, { k });
   const idx = new Map(frags.map((f, i) => [f.no, i]));
   const joinOf = new Map<string, TruthJoin>();

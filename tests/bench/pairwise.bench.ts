@@ -25,7 +25,7 @@ import { join } from 'node:path';
 import { deserialize, serialize } from 'node:v8';
 import { generateAssemblage } from '../../demo-data/generate';
 import { candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { faceTraits } from '../../core/geometry/proposals/face-traits';
+import { fragmentFaceTraits } from '../../core/geometry/proposals/face-traits';
 import { matchFacePair, distinctBest, faceOverlapUnder, DEFAULT_MATCH_PARAMETERS, type FaceMatch, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
 import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
@@ -140,7 +140,7 @@ export default async function main(): Promise<void> {
     usable.forEach((no, fi) => {
       const p = prepared.get(no)!;
       const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
-      p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
+      fragmentFaceTraits(inputs.get(no)!, p, axis).forEach((traits, face) => faces.push({ fragment: fi, face, traits }));
     });
     const cands = candidateFacePairs(faces, { k: DEFAULT_K });
     const key = (x: string, y: string): string => (x < y ? `${x}|${y}` : `${y}|${x}`);

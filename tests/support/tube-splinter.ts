@@ -29,14 +29,26 @@ export function splitRelief(x: number, z: number, amplitude = 0.8): number {
 }
 
 export interface SplitPiece extends CutPiece {
-  /** 1 on the rough break (angle 0), 2 on the plane break (angle 90 degrees), else 0. */
+  /** 1 on the rough break (angle 0), 2 on the plane break (angle 90 degrees), 3 on the cut across a halved splinter, else 0. */
   breakOf: Uint8Array;
 }
 
-export async function splitTube(options: { noise?: number; seed?: number } = {}): Promise<{ shaft: SplitPiece; splinter: SplitPiece }> {
+export interface SplitOptions {
+  noise?: number;
+  seed?: number;
+  /** Tube radii and length (mm); default OUTER_RADIUS, INNER_RADIUS, LENGTH. */
+  outerRadius?: number;
+  innerRadius?: number;
+  length?: number;
+  /** Keep only the half z < 0 of the splinter (cut across at z = 0): it meets half of each break. */
+  halveSplinter?: boolean;
+}
+
+export async function splitTube(options: SplitOptions = {}): Promise<{ shaft: SplitPiece; splinter: SplitPiece }> {
   const { Manifold, CrossSection } = await kernel();
-  const outer = Manifold.cylinder(LENGTH, OUTER_RADIUS, OUTER_RADIUS, 96, true);
-  const inner = Manifold.cylinder(LENGTH + 2, INNER_RADIUS, INNER_RADIUS, 64, true);
+  const R = options.outerRadius ?? OUTER_RADIUS, r = options.innerRadius ?? INNER_RADIUS, L = options.length ?? LENGTH;
+  const outer = Manifold.cylinder(L, R, R, 96, true);
+  const inner = Manifold.cylinder(L + 2, r, r, 64, true);
   const tube = outer.subtract(inner);
   const fineTube = tube.refineToLength(1.5);
   // the wedge: a quarter annulus (radii 3..30) in the xy plane, longer than the tube
@@ -44,27 +56,30 @@ export async function splitTube(options: { noise?: number; seed?: number } = {})
   for (let k = 0; k <= 24; k++) ring.push([30 * Math.cos((k / 24) * (Math.PI / 2)), 30 * Math.sin((k / 24) * (Math.PI / 2))]);
   for (let k = 24; k >= 0; k--) ring.push([3 * Math.cos((k / 24) * (Math.PI / 2)), 3 * Math.sin((k / 24) * (Math.PI / 2))]);
   const section = new CrossSection([ring]);
-  const wedge = section.extrude(LENGTH + 20, 0, 0, 1, true);
+  const wedge = section.extrude(L + 20, 0, 0, 1, true);
   const fineWedge = wedge.refineToLength(0.6);
   const cutter = fineWedge.warp((v) => {
     if (Math.abs(v[1]) < 1e-6 && v[0] > 2.9) v[1] = splitRelief(v[0], v[2]);
   });
   const [inside, outside] = fineTube.split(cutter);
+  const [upperHalf, lowerHalf] = options.halveSplinter ? inside.splitByPlane([0, 0, 1], 0) : [inside, inside];
   const rand = mulberry32(options.seed ?? 7);
   const noise = options.noise ?? 0.02;
-  const splinter = toPiece(inside.getMesh(), rand, noise);
-  const shaft = toPiece(outside.getMesh(), rand, noise);
-  for (const o of [outer, inner, tube, fineTube, section, wedge, fineWedge, cutter, inside, outside]) o.delete();
+  const shape = { R, r, L, halved: options.halveSplinter ?? false };
+  const splinter = toPiece(lowerHalf.getMesh(), rand, noise, shape);
+  const shaft = toPiece(outside.getMesh(), rand, noise, { ...shape, halved: false });
+  for (const o of new Set([outer, inner, tube, fineTube, section, wedge, fineWedge, cutter, inside, outside, upperHalf, lowerHalf])) o.delete();
   return { shaft, splinter };
 }
 
-function toPiece(m: { numProp: number; vertProperties: Float32Array; triVerts: Uint32Array }, rand: () => number, noise: number): SplitPiece {
+function toPiece(m: { numProp: number; vertProperties: Float32Array; triVerts: Uint32Array }, rand: () => number, noise: number, shape: { R: number; r: number; L: number; halved: boolean }): SplitPiece {
   const { positions, triangles } = manifoldArrays(m);
   const nt = triangles.length / 3;
   const breakOf = new Uint8Array(nt);
   const which = (x: number, y: number, z: number): number => {
     const r = Math.hypot(x, y);
-    if (r < INNER_RADIUS - 0.05 || r > OUTER_RADIUS + 0.05 || Math.abs(z) > LENGTH / 2 - 0.01) return 0;
+    if (r < shape.r - 0.05 || r > shape.R + 0.05 || Math.abs(z) > shape.L / 2 - 0.01) return 0;
+    if (shape.halved && Math.abs(z) < 0.02) return 3;
     if (x > 0 && Math.abs(y - splitRelief(x, z)) < 0.02) return 1;
     if (y > 0 && Math.abs(x) < 0.02) return 2;
     return 0;

@@ -2,34 +2,47 @@
  * How unlike two break faces are, for the candidate index, from their pose-invariant traits
  * (face-traits.ts). Each figure is compared on a scale equal to the median difference measured
  * between the two sides of one true break on a generated assemblage (seed 11, 200 fragments,
- * 235 face pairs; `npm run bench -- proposals` prints the candidate recall these give on other
- * seeds), through a robust loss log(1 + z^2), so one figure that disagrees (a chipped edge, an
- * axis fitted badly on a splinter) costs little more than a moderate disagreement:
+ * 235 face pairs; the rim thickness on seed 14), through a robust loss log(1 + z^2), so one
+ * figure that disagrees (a chipped edge, an axis fitted badly on a splinter) costs little more
+ * than a moderate disagreement, and weighted:
  *   size:   log area, log principal extents (3),
  *   bend:   the two largest eigenvalues of the face normals' scatter,
  *   tube:   log outer and inner radius and log cortical thickness about the shaft axis, log span
  *           along the axis, share of the circumference (shaft pieces only; a figure missing on
  *           either side costs as much as a difference of one scale),
+ *   wall:   log thickness of the bone wall along the face's rim (rim-wall-thickness.ts),
  *   texture: distance between the mean FPFH of one face and the mirrored mean FPFH of the other
  *           (a partner's normals point the other way).
+ * The weights were chosen by a coordinate search (each weight x0, x0.5, x2 in turn, two rounds)
+ * for the candidate recall at k = 15, 30 and 60 on the dev assemblage of seed 14 at 200
+ * fragments (tests/bench/candidate-recall.ts), and checked on seed 15 at 200 and on seeds 12-16
+ * at 30. At 200 fragments a break is often met by two or more pieces on one side, so a face
+ * faces only part of its partner: figures of the face's extent (area, the two smaller extents)
+ * and the radii about each piece's own fitted axis (its centre is uncertain on a narrow
+ * splinter) then mislead more than they help, and their weight is 0; the wall beside the face
+ * stays the same however the break is shared, and weighs most.
  */
 import { FPFH_DIM } from '../registration/fpfh';
 import { mirrorFpfh } from '../registration/ransac-alignment';
 import { principalSpread, type FaceTraits } from './face-traits';
 
-/** Name and scale of each figure of `descriptorFigures` (median |difference| across true breaks). */
-export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number }> = [
-  { name: 'log area', scale: 0.51 },
-  { name: 'log extent 1', scale: 0.31 },
-  { name: 'log extent 2', scale: 0.35 },
-  { name: 'log extent 3', scale: 0.63 },
-  { name: 'normal scatter 1', scale: 0.077 },
-  { name: 'normal scatter 2', scale: 0.055 },
-  { name: 'log outer radius', scale: 0.17 },
-  { name: 'log inner radius', scale: 0.19 },
-  { name: 'log cortical thickness', scale: 0.19 },
-  { name: 'log span along axis', scale: 0.28 },
-  { name: 'share of circumference', scale: 0.14 },
+/**
+ * Name, scale (median |difference| across true breaks) and weight of each figure of
+ * `descriptorFigures`; a weight of 0 leaves the figure out of the cost.
+ */
+export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number }> = [
+  { name: 'log area', scale: 0.51, weight: 0 },
+  { name: 'log extent 1', scale: 0.31, weight: 1 },
+  { name: 'log extent 2', scale: 0.35, weight: 0 },
+  { name: 'log extent 3', scale: 0.63, weight: 0 },
+  { name: 'normal scatter 1', scale: 0.077, weight: 0.5 },
+  { name: 'normal scatter 2', scale: 0.055, weight: 1 },
+  { name: 'log outer radius', scale: 0.17, weight: 0 },
+  { name: 'log inner radius', scale: 0.19, weight: 0 },
+  { name: 'log cortical thickness', scale: 0.19, weight: 1 },
+  { name: 'log span along axis', scale: 0.28, weight: 2 },
+  { name: 'share of circumference', scale: 0.14, weight: 0.5 },
+  { name: 'log wall thickness at the rim', scale: 0.1, weight: 4 },
 ];
 /** Weight of the mean-FPFH distance (per unit of FPFH histogram mass). */
 export const TEXTURE_WEIGHT = 0.25;
@@ -50,6 +63,7 @@ export function descriptorFigures(t: FaceTraits): Float64Array {
     tube ? Math.log(Math.max(0, tube.outerRadius - tube.innerRadius) + 0.3) : NaN,
     tube ? Math.log(tube.axialSpan + 1) : NaN,
     tube ? tube.arcShare : NaN,
+    t.rimThickness !== undefined ? Math.log(t.rimThickness) : NaN,
   );
 }
 
@@ -68,13 +82,15 @@ export function describeFace(t: FaceTraits): FaceDescriptor {
 export function partnerCost(a: FaceDescriptor, b: FaceDescriptor): number {
   let s = 0;
   for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) {
+    const { scale, weight } = DESCRIPTOR_FIGURES[c];
+    if (weight === 0) continue;
     const x = a.figures[c], y = b.figures[c];
     if (Number.isNaN(x) || Number.isNaN(y)) {
-      s += MISSING_COST;
+      s += weight * MISSING_COST;
       continue;
     }
-    const z = (x - y) / DESCRIPTOR_FIGURES[c].scale;
-    s += Math.log1p(z * z);
+    const z = (x - y) / scale;
+    s += weight * Math.log1p(z * z);
   }
   let d = 0;
   const n = Math.min(a.mirrored.length, b.fpfh.length);

@@ -3,11 +3,14 @@
  * candidate index (design.md section 7, step 5). Both sides of a break are the same surface,
  * so they agree in size and in the scatter of their points and normals (normals flip, their
  * scatter does not); on a shaft, they also sit at the same distance from the shaft axis and
- * span the same cortical thickness, arc and length along the axis. None of these depends on
- * where the fragment lies or how its scan file is numbered.
+ * span the same cortical thickness, arc and length along the axis; the wall next to either
+ * face is equally thick (rim-wall-thickness.ts). None of these depends on where the fragment
+ * lies or how its scan file is numbered.
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { FPFH_DIM } from '../registration/fpfh';
+import type { FragmentInput, PreparedFragment } from './prepared-fragment';
+import { breakTriangleMask, rimWallThicknesses } from './rim-wall-thickness';
 
 export interface ShaftAxisLike {
   direction: [number, number, number];
@@ -28,6 +31,8 @@ export interface FaceTraits {
   normalSpread: [number, number, number];
   /** Mean FPFH of the face samples (normals as stored, pointing out of the fragment). */
   meanFpfh: Float32Array;
+  /** Median thickness of the bone wall along the face's rim (mm; rim-wall-thickness.ts); absent when not measurable. */
+  rimThickness?: number;
   /** Figures about the fragment's shaft axis; absent when the fragment is not a shaft piece. */
   tube?: {
     /** 90th and 10th percentile of the samples' distance from the axis (mm): outer and inner edge of the cortex. */
@@ -40,7 +45,13 @@ export interface FaceTraits {
   };
 }
 
-export function faceTraits(points: Float32Array, normals: Float32Array, area: number, fpfh: Float32Array, axis?: ShaftAxisLike): FaceTraits {
+/** Traits of every prepared face of a fragment, with the wall thickness along each face's rim. */
+export function fragmentFaceTraits(input: FragmentInput, prepared: PreparedFragment, axis?: ShaftAxisLike): FaceTraits[] {
+  const rims = rimWallThicknesses(input.positions, input.triangles, breakTriangleMask(input.triangles.length / 3, input.faces), prepared.faces.map((x) => x.tree));
+  return prepared.faces.map((x, i) => faceTraits(x.points, x.normals, x.area, x.fpfh, axis, rims[i]));
+}
+
+export function faceTraits(points: Float32Array, normals: Float32Array, area: number, fpfh: Float32Array, axis?: ShaftAxisLike, rimThickness?: number): FaceTraits {
   const n = points.length / 3;
   const meanFpfh = new Float32Array(FPFH_DIM);
   const m = Math.floor(fpfh.length / FPFH_DIM);
@@ -52,6 +63,7 @@ export function faceTraits(points: Float32Array, normals: Float32Array, area: nu
     normalSpread: principalSpread(normals, false),
     meanFpfh,
   };
+  if (rimThickness !== undefined && Number.isFinite(rimThickness)) traits.rimThickness = rimThickness;
   if (axis && axis.support >= AXIS_SUPPORT_MIN && n >= 3) {
     const [dx, dy, dz] = axis.direction;
     const [px, py, pz] = axis.point;
