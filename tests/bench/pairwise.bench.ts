@@ -71,15 +71,6 @@ function loadCached(file: string): FragmentInput {
   return input;
 }
 
-function loadAxis(file: string): { direction: [number, number, number]; point: [number, number, number]; radius: number; support: number } {
-  const dir = join(tmpdir(), 'knitbone-pairwise-cache');
-  const key = join(dir, file.replace(/[^A-Za-z0-9]+/g, '_') + '.axis.json');
-  if (existsSync(key)) return JSON.parse(readFileSync(key, 'utf8'));
-  const axis = loadFragment(file).axis;
-  writeFileSync(key, JSON.stringify(axis));
-  return axis;
-}
-
 export interface ScoredMotion {
   set: string;
   a: string;
@@ -130,12 +121,6 @@ export default async function main(): Promise<void> {
     const prepared = new Map<string, PreparedFragment>();
     const usable = [...inputs.keys()];
     for (const no of usable) prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
-    if (process.env.KNITBONE_PAIRWISE_ANALYSIS_AXIS) {
-      for (const no of usable) {
-        const ax = loadAxis(join(dir, 'scans', `${no}.ply`));
-        prepared.get(no)!.axis = ax.support >= 0.5 && ax.radius > 0 ? { direction: ax.direction, point: ax.point, radius: ax.radius } : null;
-      }
-    }
     const faces: IndexedFace[] = [];
     usable.forEach((no, fi) => {
       const p = prepared.get(no)!;
