@@ -21,7 +21,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/5';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/6';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -54,6 +54,14 @@ export interface MatchParameters {
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
   axisGoodOverlap: number;
+  /**
+   * Such a hypothesis also skips the axis-direction search (false: that search always runs on two
+   * shaft pieces). false since method /6: on dev seeds 11-16, 15 of the 40 true joins with no
+   * coarse motion near the truth had been settled by a wrong shared-axis motion (fitted axis
+   * points off on partial arcs; tests/bench/coarse-miss-study.ts), and the direction search then
+   * finds 7 of them; about 5% more CPU per face pair (tests/bench/coarse-cost-exp.ts).
+   */
+  axisSettlesDirections: boolean;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** Hypotheses refined against the whole surface and scored. */
@@ -66,6 +74,10 @@ export interface MatchParameters {
    * 4th-8th by the screen's rank; best motion of the true pair correct on dev seeds 15 / 16 /
    * the committed sample 21 / 14 / 21 with 3 and 0.5, 24 / 19 / 26 with 8 and 0.3 (every face
    * pair through its own fine step: 25 / 20 / 28) for 1.1-1.3x the CPU (tests/bench/propose-gap.ts).
+   * 12 (was 8) since method /6, where the axis-direction search always runs on shaft pieces and
+   * adds wrong motions of high overlap to the screen: best motion of the true fragment pair
+   * correct through the shortlist on dev seeds 11-16, 178 / 315 with 8, 189 with 12 (169 before
+   * method /6), 1.02x the CPU on those pairs (tests/bench/coarse-miss-study.ts for the causes).
    */
   finePerFragmentPair: number;
   fineMinOverlap: number;
@@ -96,9 +108,10 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   pairVoteReferences: 30,
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
+  axisSettlesDirections: false,
   minOverlap: 0.08,
   fineHypotheses: 2,
-  finePerFragmentPair: 8,
+  finePerFragmentPair: 12,
   fineMinOverlap: 0.2,
   fineRatio: 0.3,
   icpSamples: 150,
@@ -170,12 +183,12 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
   // a small face is easily covered by a wrong turn about the axis: it never settles the search
   let settled = shafts && !small && good(refined, params.axisGoodOverlap);
-  if (a.axis && b.axis && params.directionPeaks > 0 && !settled) {
+  if (a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections)) {
     const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
     const more = refine(hyps.map((h) => h.transform));
     refined = refined.concat(more);
     // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
-    settled = params.directionGoodOverlap <= 1 && !small && good(more, params.directionGoodOverlap);
+    settled = settled || (params.directionGoodOverlap <= 1 && !small && good(more, params.directionGoodOverlap));
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {

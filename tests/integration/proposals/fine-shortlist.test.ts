@@ -3,7 +3,9 @@
  * all its face pairs. On a pair with several faces each the true motion need not be among the
  * screen's first three: this join of the generated sample (demo-data/sample, truth.json; a
  * transverse break, 118 mm^2 of contact, 4 x 4 faces) was lost when only 3 went on and is found
- * by every face pair's own fine step. The matcher sees only the scan files; the truth motion is
+ * by every face pair's own fine step; since method /6 (the axis-direction search runs on every
+ * pair of shaft pieces and adds wrong motions of high overlap) it is 11th by the screen's rank,
+ * lost with 8 going on and found with 12. The matcher sees only the scan files; the truth motion is
  * the generator's record of how it cut the bone.
  */
 import { readFileSync } from 'node:fs';
