@@ -5,7 +5,10 @@
  * before roughening, so the truth comes from the construction, not from our code.
  */
 import Module from 'manifold-3d';
-import type { TriangleMesh } from '../../../core/geometry/mesh';
+import { vertexRings } from '../../../core/geometry/adjacency';
+import { principalCurvatures } from '../../../core/geometry/curvature';
+import { triangleNormalsAndAreas, vertexNormals, type TriangleMesh } from '../../../core/geometry/mesh';
+import { triangleCentroids } from '../../../core/geometry/normal-filter';
 
 /** A plane cut: keeps the side the unit normal points into. */
 export interface PlaneCut {
@@ -145,4 +148,22 @@ export function fractureAgreement(
     if ((analysis.triangleClass[f] === 0 ? 1 : 0) === truth[src]) agree += inputAreas[src];
   }
   return agree / total;
+}
+
+/**
+ * What `settleAxisSide` reads of a mesh, per triangle: centroid, unit normal, area and mean
+ * curvature (the mean of its corners' (k1 + k2) / 2, as analyse-fragment.ts takes it).
+ */
+export function wallSideInputs(mesh: TriangleMesh): { centroids: Float32Array; normals: Float32Array; areas: Float64Array; meanCurvature: Float32Array } {
+  const { normals, areas } = triangleNormalsAndAreas(mesh);
+  const centroids = triangleCentroids(mesh.positions, mesh.triangles);
+  const curvature = principalCurvatures(mesh, vertexNormals(mesh), vertexRings(mesh));
+  const t = mesh.triangles;
+  const meanCurvature = new Float32Array(areas.length);
+  for (let f = 0; f < areas.length; f++) {
+    let s = 0;
+    for (let k = 0; k < 3; k++) s += curvature.k1[t[3 * f + k]] + curvature.k2[t[3 * f + k]];
+    meanCurvature[f] = s / 6;
+  }
+  return { centroids, normals, areas, meanCurvature };
 }

@@ -15,12 +15,8 @@
  * convex (mean curvature +1/24 against -1/14 per mm; do Carmo 1976, section 3-3).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { vertexRings } from '../../../core/geometry/adjacency';
-import { principalCurvatures } from '../../../core/geometry/curvature';
-import { triangleNormalsAndAreas, vertexNormals } from '../../../core/geometry/mesh';
-import { triangleCentroids } from '../../../core/geometry/normal-filter';
 import { settleAxisSide, type ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, offAxis, type BrokenTube } from './broken-tube';
+import { brokenTube, wallSideInputs, offAxis, type BrokenTube } from './broken-tube';
 
 const deg = Math.PI / 180;
 /** Unit normal (pointing into the kept piece) of the plane parallel to z through the inner point at 30 deg and the outer point at 12 deg from +y, on the side `s` (+1: x > 0). */
@@ -41,16 +37,7 @@ describe('shaft axis side on a splinter with bevelled breaks (outer face narrowe
     piece = await brokenTube({
       cuts: [bevelCut(1), bevelCut(-1), { normal: [0, 1, 0], offset: 2 }, { normal: [0, 0, 1], offset: -20 }, { normal: [0, 0, -1], offset: -20 }],
     });
-    ({ normals, areas } = triangleNormalsAndAreas(piece.mesh));
-    centroids = triangleCentroids(piece.mesh.positions, piece.mesh.triangles);
-    const curvature = principalCurvatures(piece.mesh, vertexNormals(piece.mesh), vertexRings(piece.mesh));
-    const t = piece.mesh.triangles;
-    meanCurvature = new Float32Array(areas.length);
-    for (let f = 0; f < areas.length; f++) {
-      let s = 0;
-      for (let k = 0; k < 3; k++) s += curvature.k1[t[3 * f + k]] + curvature.k2[t[3 * f + k]];
-      meanCurvature[f] = s / 6;
-    }
+    ({ centroids, normals, areas, meanCurvature } = wallSideInputs(piece.mesh));
   });
 
   it('is the piece described: outer face narrower than the medullary face', () => {

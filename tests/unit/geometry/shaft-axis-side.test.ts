@@ -11,13 +11,9 @@
  * nearly flat and its normal lines meet far away on either side about equally well.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { vertexRings } from '../../../core/geometry/adjacency';
 import { analyseFragment } from '../../../core/geometry/analyse-fragment';
-import { principalCurvatures } from '../../../core/geometry/curvature';
-import { triangleNormalsAndAreas, vertexNormals } from '../../../core/geometry/mesh';
-import { triangleCentroids } from '../../../core/geometry/normal-filter';
 import { fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, fractureAgreement, offAxis, type BrokenTube } from './broken-tube';
+import { brokenTube, wallSideInputs, fractureAgreement, offAxis, type BrokenTube } from './broken-tube';
 
 const half = (20 * Math.PI) / 180;
 
@@ -36,16 +32,7 @@ describe('shaft axis side on a flat wall (elliptic tube wedge)', () => {
       ],
       warp: (x, y, z) => [2 * x, 0.6 * y, z],
     });
-    ({ normals, areas } = triangleNormalsAndAreas(wedge.mesh));
-    centroids = triangleCentroids(wedge.mesh.positions, wedge.mesh.triangles);
-    const curvature = principalCurvatures(wedge.mesh, vertexNormals(wedge.mesh), vertexRings(wedge.mesh));
-    const t = wedge.mesh.triangles;
-    meanCurvature = new Float32Array(areas.length);
-    for (let f = 0; f < areas.length; f++) {
-      let s = 0;
-      for (let k = 0; k < 3; k++) s += curvature.k1[t[3 * f + k]] + curvature.k2[t[3 * f + k]];
-      meanCurvature[f] = s / 6;
-    }
+    ({ centroids, normals, areas, meanCurvature } = wallSideInputs(wedge.mesh));
   });
 
   it('is the flat side: the wedge spans y 4.2 to 7.2 mm and is wider than thick', () => {
