@@ -167,3 +167,13 @@ export function wallSideInputs(mesh: TriangleMesh): { centroids: Float32Array; n
   }
   return { centroids, normals, areas, meanCurvature };
 }
+
+/**
+ * The axis mirrored through the area centroid of the triangles (in x and y, at z = 0): where a
+ * fit lands when the normal lines meet on the wrong side of the wall.
+ */
+export function mirroredThroughCentroid<T extends { point: number[] | readonly number[] }>(axis: T, centroids: ArrayLike<number>, areas: ArrayLike<number>): T {
+  let cx = 0, cy = 0, w = 0;
+  for (let f = 0; f < areas.length; f++) { cx += areas[f] * centroids[3 * f]; cy += areas[f] * centroids[3 * f + 1]; w += areas[f]; }
+  return { ...axis, point: [2 * cx / w, 2 * cy / w, 0] };
+}

@@ -16,7 +16,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { settleAxisSide, type ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, wallSideInputs, offAxis, type BrokenTube } from './broken-tube';
+import { brokenTube, mirroredThroughCentroid, wallSideInputs, offAxis, type BrokenTube } from './broken-tube';
 
 const deg = Math.PI / 180;
 /** Unit normal (pointing into the kept piece) of the plane parallel to z through the inner point at 30 deg and the outer point at 12 deg from +y, on the side `s` (+1: x > 0). */
@@ -59,9 +59,7 @@ describe('shaft axis side on a splinter with bevelled breaks (outer face narrowe
 
   it('an axis fitted on the outer side (mirrored through the area centroid) is moved back to the z axis', () => {
     const truthAxis: ShaftAxis = { direction: [0, 0, 1], point: [0, 0, 0], radius: 12, support: 0.9 };
-    let cx = 0, cy = 0, w = 0;
-    for (let f = 0; f < areas.length; f++) { cx += areas[f] * centroids[3 * f]; cy += areas[f] * centroids[3 * f + 1]; w += areas[f]; }
-    const wrongSide: ShaftAxis = { ...truthAxis, point: [2 * cx / w, 2 * cy / w, 0] };
+    const wrongSide = mirroredThroughCentroid(truthAxis, centroids, areas);
     expect(wrongSide.point[1]).toBeGreaterThan(12); // beyond the outer surface
     const settled = settleAxisSide(wrongSide, centroids, normals, areas, meanCurvature);
     expect(offAxis(settled.point, settled.direction)).toBeLessThan(0.5);

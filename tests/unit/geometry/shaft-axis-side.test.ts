@@ -13,7 +13,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analyseFragment } from '../../../core/geometry/analyse-fragment';
 import { fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, wallSideInputs, fractureAgreement, offAxis, type BrokenTube } from './broken-tube';
+import { brokenTube, mirroredThroughCentroid, wallSideInputs, fractureAgreement, offAxis, type BrokenTube } from './broken-tube';
 
 const half = (20 * Math.PI) / 180;
 
@@ -47,9 +47,7 @@ describe('shaft axis side on a flat wall (elliptic tube wedge)', () => {
 
   it('an axis fitted on the outer side (mirrored through the area centroid) is moved back to the z axis', () => {
     const truthAxis: ShaftAxis = { direction: [0, 0, 1], point: [0, 0, 0], radius: 7.2, support: 0.9 };
-    let cy = 0, w = 0, cx = 0;
-    for (let f = 0; f < areas.length; f++) { cx += areas[f] * centroids[3 * f]; cy += areas[f] * centroids[3 * f + 1]; w += areas[f]; }
-    const wrongSide: ShaftAxis = { ...truthAxis, point: [2 * cx / w, 2 * cy / w, 0] };
+    const wrongSide = mirroredThroughCentroid(truthAxis, centroids, areas);
     expect(wrongSide.point[1]).toBeGreaterThan(7.2); // beyond the outer surface
     const settled = settleAxisSide(wrongSide, centroids, normals, areas, meanCurvature);
     expect(offAxis(settled.point, settled.direction)).toBeLessThan(0.5);
