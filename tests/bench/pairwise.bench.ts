@@ -19,6 +19,7 @@
  * KNITBONE_PAIRWISE_DUMP=<file.json> writes every scored motion with its components and whether
  * it is correct (the input of tests/bench/fit-score-model.ts).
  */
+import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir, loadavg } from 'node:os';
 import { join } from 'node:path';
@@ -31,6 +32,7 @@ import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type Fr
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { loadFragment } from '../../core/jobs/fragment-loader';
 import { reliability } from './calibration';
+import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
 
 interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 interface Truth { fragments: Array<{ catalogueNo: string; boneId: string }>; joins: TruthJoin[] }
@@ -60,11 +62,18 @@ function table(rows: Array<Record<string, string | number>>): void {
 const q = (xs: number[], p: number): number => (xs.length ? [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))] : NaN);
 const f = (x: number, d = 2): string => (Number.isFinite(x) ? x.toFixed(d) : '-');
 
-/** Analysed fragments are cached in the temporary folder (analysis is not what is measured here). */
+let analysisCode: string | undefined;
+
+/**
+ * Analysed fragments are cached in the temporary folder (analysis is not what is measured here),
+ * named by the scan's content and the analysis code, so neither a changed scan nor changed code
+ * reuses a stale analysis.
+ */
 function loadCached(file: string): FragmentInput {
   const dir = join(tmpdir(), 'knitbone-pairwise-cache');
   mkdirSync(dir, { recursive: true });
-  const key = join(dir, file.replace(/[^A-Za-z0-9]+/g, '_') + '.v8');
+  analysisCode ??= sourceHash(...ANALYSIS_FOLDERS);
+  const key = join(dir, createHash('sha256').update(readFileSync(file)).update(analysisCode).digest('hex').slice(0, 32) + '.v8');
   if (existsSync(key)) return deserialize(readFileSync(key)) as FragmentInput;
   const input = loadFragment(file).input;
   writeFileSync(key, serialize(input));

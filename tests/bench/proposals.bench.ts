@@ -30,10 +30,11 @@
  */
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { cpSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { openCatalogue } from '../../core/catalogue/catalogue';
 import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
+import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
 import { candidateRecall, type TruthJoin as StudyJoin } from './candidate-recall';
 import { studyFromCache, type StudyFragment } from './candidate-study';
 import { join } from 'node:path';
@@ -125,13 +126,6 @@ function progress(message: string): void {
   process.stderr.write(`[${new Date().toISOString().slice(11, 19)}] ${message}\n`);
 }
 
-/** Hash of the TypeScript sources in these folders of the repository (not their subfolders): changes when the code that made a cached result changes. */
-function sourceHash(...folders: string[]): string {
-  const h = createHash('sha256');
-  for (const d of folders) for (const f of readdirSync(join(root, d)).filter((x) => x.endsWith('.ts')).sort()) h.update(f).update(readFileSync(join(root, d, f)));
-  return h.digest('hex').slice(0, 12);
-}
-
 /** A generated assemblage with its catalogue and scans imported (kept between runs of the benchmark, named by content). */
 async function assemblage(n: number, seed: string): Promise<{ dir: string; gen: string; truth: Truth; importRow: Record<string, string | number> }> {
   const base = join(process.env.KNITBONE_BENCH_DIR ?? tmpdir(), 'knitbone-bench-proposals');
@@ -148,7 +142,7 @@ async function assemblage(n: number, seed: string): Promise<{ dir: string; gen: 
   const truthText = readFileSync(join(gen, 'truth.json'));
   const truth = JSON.parse(truthText.toString('utf8')) as Truth;
   // the imported catalogue depends on the scans (truth.json holds every scan's labels and pose) and on the analysis code
-  const importKey = createHash('sha256').update(truthText).update(sourceHash('core/geometry', 'core/geometry/parse', 'core/jobs', 'core/catalogue')).digest('hex').slice(0, 16);
+  const importKey = createHash('sha256').update(truthText).update(sourceHash(...ANALYSIS_FOLDERS, 'core/catalogue')).digest('hex').slice(0, 16);
   const dir = join(gen, `imported-${importKey}`);
   let importRow: Record<string, string | number> = { fragments: n, seed, step: 'import scans', note: 'reused from an earlier run' };
   if (!existsSync(join(dir, 'catalogue.ready'))) {
