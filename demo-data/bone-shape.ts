@@ -38,11 +38,21 @@ export class BoneShape {
     return quadratic(this.spec.cortical, z / this.length);
   }
 
-  /** Cross-section multiplier of the shaft at angle θ. */
+  /**
+   * Cross-section multiplier of the shaft at angle θ: an ellipse of semi-axes 1 + oval and
+   * 1 - oval (a flattened shaft stays convex; the polar form 1 + oval cos 2θ pinches into a
+   * waist once oval > 0.2), plus the triangular term and the slow wobble along the shaft.
+   */
   section(theta: number, z: number): number {
     const s = this.spec;
+    return ellipseRadius(1 + s.oval, 1 - s.oval, theta) + this.sectionDetail(theta, z);
+  }
+
+  /** The cos(3θ) and wobble terms of the section (a multiplier of the mean radius). */
+  private sectionDetail(theta: number, z: number): number {
+    const s = this.spec;
     const t = z / this.length;
-    return 1 + s.oval * Math.cos(2 * theta) + s.tri * Math.cos(3 * theta + 0.6) + (s.wobble ?? 0.03) * Math.sin(2 * theta + 5 * t);
+    return s.tri * Math.cos(3 * theta + 0.6) + (s.wobble ?? 0.03) * Math.sin(2 * theta + 5 * t);
   }
 
   /** Weights (0..1) of the proximal and distal swellings at z. */
@@ -82,7 +92,11 @@ export class BoneShape {
   innerRadius(z: number, angle: number): number {
     const theta = this.side === 'left' ? Math.PI - angle : angle;
     const zc = clamp(z, this.cavityStart, this.cavityEnd);
-    return Math.max(0.8, this.shaftRadius(zc) * this.section(theta, zc) - this.cortical(zc));
+    // The cavity's ellipse has the outer semi-axes less the wall, so the wall keeps its
+    // thickness around a flattened shaft instead of thinning the cavity into a waist.
+    const a = this.shaftRadius(zc), c = this.cortical(zc), e = this.spec.oval;
+    const cavity = ellipseRadius(a * (1 + e) - c, a * (1 - e) - c, theta) * (1 + this.sectionDetail(theta, zc));
+    return Math.max(0.8, cavity);
   }
 
   /** The largest outer radius between z0 and z1 (sampled). */
@@ -133,4 +147,9 @@ export function clamp01(x: number): number {
 }
 export function smoothstep(x: number): number {
   return x * x * (3 - 2 * x);
+}
+
+/** Distance from the centre to an ellipse of semi-axes a (along θ = 0) and b, at polar angle θ. */
+function ellipseRadius(a: number, b: number, theta: number): number {
+  return (a * b) / Math.hypot(b * Math.cos(theta), a * Math.sin(theta));
 }

@@ -75,20 +75,40 @@ describe('the bone surface the generator bevels against', () => {
     }
   });
 
-  it('an oval shaft R(theta) = R0 (1 + e cos 2 theta): the normal leans from radial by atan(R\'/R) (polar curve)', () => {
-    // For a polar curve r = R(theta) the angle between the normal and the radius has
-    // tan = -R'(theta) / R(theta) (any calculus text, the tangent of a polar curve).
-    const e = 0.2;
+  it('a flattened shaft is the ellipse x²/a² + y²/b² = 1 with a, b = R0 (1 ± e): the ray meets it there and the normal is the gradient (x/a², y/b²)', () => {
+    // Analytic geometry of the ellipse: a point at polar angle theta lies at distance
+    // ab / sqrt((b cos theta)² + (a sin theta)²), and the outward normal is the gradient of
+    // x²/a² + y²/b² (any analytic geometry text).
+    const e = 0.26;
     const shape = new BoneShape(tube(e));
     const frame = axisFrame([0, 0, 150], [0, 0, 1]);
-    for (const th of [0.3, 0.8, 1.2, 2.5]) {
-      const R = 12 * (1 + e * Math.cos(2 * th));
-      const dR = -24 * e * Math.sin(2 * th);
+    const a = 12 * (1 + e), b = 12 * (1 - e);
+    for (const th of [0.3, 0.8, 1.2, 1.5708, 2.5]) {
+      const R = (a * b) / Math.hypot(b * Math.cos(th), a * Math.sin(th));
       expect(outerRadiusOnRay(shape, frame, th, 0, 40)).toBeCloseTo(R, 4);
-      const n = outerNormal(shape, framePoint(frame, R, th, 0));
-      const eR: Vec3 = [Math.cos(th), Math.sin(th), 0];
-      const ePhi: Vec3 = [-Math.sin(th), Math.cos(th), 0];
-      expect(Math.atan2(dot(n, ePhi), dot(n, eR))).toBeCloseTo(Math.atan(-dR / R), 4);
+      const p = framePoint(frame, R, th, 0);
+      const x = R * Math.cos(th), y = R * Math.sin(th);
+      expect((x * x) / (a * a) + (y * y) / (b * b)).toBeCloseTo(1, 6);
+      const n = outerNormal(shape, p);
+      const g: Vec3 = [x / (a * a), y / (b * b), 0];
+      const gl = Math.hypot(g[0], g[1]);
+      expect(dot(n, [g[0] / gl, g[1] / gl, 0])).toBeCloseTo(1, 5);
     }
+  });
+
+  it('a flattened shaft stays convex and keeps its wall: the cavity is the ellipse of the outer semi-axes less the wall', () => {
+    // A convex closed curve has curvature of one sign; for a polar curve r(theta) the sign is
+    // that of r² + 2r'² - r r'' (curvature of a polar curve, any calculus text).
+    const shape = new BoneShape(tube(0.3));
+    const sign = (f: (t: number) => number, t: number) => {
+      const h = 1e-3, r = f(t), r1 = (f(t + h) - f(t - h)) / (2 * h), r2 = (f(t + h) - 2 * r + f(t - h)) / (h * h);
+      return r * r + 2 * r1 * r1 - r * r2;
+    };
+    for (let t = 0; t < 2 * Math.PI; t += 0.05) {
+      expect(sign((q) => shape.outerRadius(150, q), t)).toBeGreaterThan(0);
+      expect(sign((q) => shape.innerRadius(150, q), t)).toBeGreaterThan(0);
+    }
+    // Along both axes of the ellipse the wall is exactly the cortical thickness.
+    for (const t of [0, Math.PI / 2, Math.PI]) expect(shape.outerRadius(150, t) - shape.innerRadius(150, t)).toBeCloseTo(4, 6);
   });
 });
