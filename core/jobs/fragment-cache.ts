@@ -13,7 +13,8 @@ import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from '
 import { basename, dirname, join } from 'node:path';
 import type { FragmentAnalysis } from '../geometry/analyse-fragment';
 import type { FaceTraits, ShaftAxisLike } from '../geometry/proposals/face-traits';
-import type { FragmentInput, SamplingParameters } from '../geometry/proposals/prepared-fragment';
+import type { FragmentInput, PreparedParts, SamplingParameters } from '../geometry/proposals/prepared-fragment';
+import { FPFH_DIM } from '../geometry/registration/fpfh';
 import { KnitboneError } from '../host/errors';
 import { checkMatchableMesh, matchableFragment, type LengthUnit, type LoadedFragment } from './fragment-loader';
 
@@ -190,4 +191,67 @@ export function readTraits(dir: string, key: string, sampling: SamplingParameter
 
 export function writeTraits(dir: string, key: string, sampling: SamplingParameters, c: CachedTraits): void {
   writeAtomically(traitsFile(dir, key, sampling), JSON.stringify({ parents: c.parents, traits: c.traits.map((t) => ({ ...t, meanFpfh: [...t.meanFpfh] })) }));
+}
+
+/** Version of the stored prepared parts (prepared-fragment.ts, PreparedParts): parts stored under another version are prepared again. */
+export const PREPARED_CACHE_VERSION = 1;
+
+function preparedFile(dir: string, key: string, sampling: SamplingParameters): string {
+  return join(dir, `${key}.prepared${PREPARED_CACHE_VERSION}-${samplingKey(sampling)}.bin`);
+}
+
+/**
+ * A prepared fragment's parts at one sampling (samples, FPFH, descriptors, shaft axis), so that
+ * a worker that does not hold the fragment builds it from these and the mesh instead of
+ * preparing it again. Binary layout as writeFragment: uint32 header length, JSON header (spacing,
+ * axis, each face's parent and area, array lengths), then the float32 arrays in header order.
+ */
+export function writePrepared(dir: string, key: string, sampling: SamplingParameters, parts: PreparedParts): void {
+  const arrays: Float32Array[] = [parts.surfacePoints, parts.surfaceNormals];
+  for (const f of parts.faces) arrays.push(f.points, f.normals, f.fpfh, f.outline, f.descriptor);
+  const header = Buffer.from(JSON.stringify({ spacing: parts.spacing, axis: parts.axis, faces: parts.faces.map((f) => ({ parent: f.parent, area: f.area })), lengths: arrays.map((a) => a.length) }), 'utf8');
+  const pad = (4 - ((4 + header.length) % 4)) % 4;
+  let size = 4 + header.length + pad;
+  for (const a of arrays) size += a.byteLength;
+  const out = Buffer.alloc(size);
+  out.writeUInt32LE(header.length + pad, 0);
+  header.copy(out, 4);
+  out.fill(0x20, 4 + header.length, 4 + header.length + pad);
+  let at = 4 + header.length + pad;
+  for (const a of arrays) {
+    Buffer.from(a.buffer, a.byteOffset, a.byteLength).copy(out, at);
+    at += a.byteLength;
+  }
+  writeAtomically(preparedFile(dir, key, sampling), out);
+}
+
+/** The stored parts, or undefined when there are none for this sampling or the file does not hold what it should (then the fragment is prepared again). */
+export function readPrepared(dir: string, key: string, sampling: SamplingParameters): PreparedParts | undefined {
+  const file = preparedFile(dir, key, sampling);
+  if (!existsSync(file)) return undefined;
+  try {
+    const buf = readFileSync(file);
+    const hl = buf.readUInt32LE(0);
+    const header = JSON.parse(buf.subarray(4, 4 + hl).toString('utf8')) as { spacing: number; axis: PreparedParts['axis']; faces: Array<{ parent: number; area: number }>; lengths: number[] };
+    if (header.spacing !== sampling.spacing || header.lengths.length !== 2 + 5 * header.faces.length) return undefined;
+    const axis = header.axis;
+    if (axis !== null && !(Array.isArray(axis.direction) && axis.direction.length === 3 && Array.isArray(axis.point) && axis.point.length === 3 && typeof axis.radius === 'number')) return undefined;
+    let at = 4 + hl;
+    const arrays = header.lengths.map((n) => {
+      const copy = new ArrayBuffer(4 * n);
+      new Uint8Array(copy).set(buf.subarray(at, at + 4 * n));
+      at += 4 * n;
+      return new Float32Array(copy);
+    });
+    if (at !== buf.length) return undefined;
+    const faces = header.faces.map((f, i) => {
+      const [points, normals, fpfh, outline, descriptor] = arrays.slice(2 + 5 * i, 7 + 5 * i);
+      return { parent: f.parent, points, normals, fpfh, outline, area: f.area, descriptor };
+    });
+    const n3 = (a: Float32Array): boolean => a.length % 3 === 0;
+    if (!n3(arrays[0]) || arrays[1].length !== arrays[0].length || faces.some((f) => !n3(f.points) || f.normals.length !== f.points.length || f.fpfh.length !== (f.points.length / 3) * FPFH_DIM || !n3(f.outline))) return undefined;
+    return { spacing: header.spacing, surfacePoints: arrays[0], surfaceNormals: arrays[1], faces, axis: header.axis };
+  } catch {
+    return undefined;
+  }
 }

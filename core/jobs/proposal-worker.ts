@@ -11,8 +11,8 @@ import { parentPort, threadId } from 'node:worker_threads';
 import { KnitboneError } from '../host/errors';
 import { fragmentFaceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
 import { matchFragments, type FaceMatch, type MatchParameters } from '../geometry/proposals/pairwise-match';
-import { prepareFragment, type FragmentInput, type PreparedFragment, type SamplingParameters } from '../geometry/proposals/prepared-fragment';
-import { cachedFromLoaded, readFragment, writeFragment, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
+import { assemblePrepared, prepareFragment, preparedParts, type FragmentInput, type PreparedFragment, type SamplingParameters } from '../geometry/proposals/prepared-fragment';
+import { cachedFromLoaded, readFragment, readPrepared, writeFragment, writePrepared, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
 import { loadFragment, readScanBytes, type AnalysisChoices, type LengthUnit } from './fragment-loader';
 
 export interface ScanRef {
@@ -76,15 +76,28 @@ function analysedFragment(scan: ScanRef): { input: FragmentInput; summary: Fragm
   return remember(analysed, scan.scanId, entry);
 }
 
-/** Fragments this worker has prepared so far (each time one was not in its memory). */
+/** Fragments this worker has prepared so far (each time one was neither in its memory nor in the cache folder). */
 let preparations = 0;
 
+/**
+ * A prepared fragment: from memory, else built from the parts another worker (or an earlier run)
+ * stored in the cache folder, else prepared here (and its parts stored for the others).
+ */
 function preparedFragment(scan: ScanRef, sampling: SamplingParameters): PreparedFragment {
   const key = `${scan.scanId}@${sampling.spacing}/${sampling.fpfhRadiusSpacings}`;
   const hit = prepared.get(key);
   if (hit) return remember(prepared, key, hit);
+  const input = analysedFragment(scan).input;
+  const parts = scan.cache ? readPrepared(scan.cache.dir, scan.cache.key, sampling) : undefined;
+  if (parts) return remember(prepared, key, assemblePrepared(input, parts));
   preparations++;
-  return remember(prepared, key, prepareFragment(analysedFragment(scan).input, sampling));
+  const f = prepareFragment(input, sampling);
+  try {
+    if (scan.cache) writePrepared(scan.cache.dir, scan.cache.key, sampling, preparedParts(f));
+  } catch {
+    // the cache only saves time: a worker that cannot read it prepares the fragment itself
+  }
+  return remember(prepared, key, f);
 }
 
 function run(task: ProposalTask): AnalyseResult | DescribeResult | MatchResult {

@@ -100,10 +100,76 @@ export interface SamplingParameters {
 export const DEFAULT_FPFH_RADIUS_SPACINGS = 5;
 
 export function prepareFragment(input: FragmentInput, params: SamplingParameters): PreparedFragment {
+  return assemblePrepared(input, prepareParts(input, params));
+}
+
+/**
+ * What preparing a fragment computes that takes time (the samples, each face's FPFH and
+ * descriptor, the shaft axis fit), as plain arrays: with the fragment's mesh it is enough to
+ * build the prepared fragment again (assemblePrepared) without sampling or describing anything,
+ * so a propose worker can take a fragment that another worker prepared from the match cache.
+ */
+export interface PreparedParts {
+  spacing: number;
+  surfacePoints: Float32Array;
+  surfaceNormals: Float32Array;
+  faces: PreparedFaceParts[];
+  axis: ShaftFrame | null;
+}
+
+export interface PreparedFaceParts {
+  parent: number;
+  points: Float32Array;
+  normals: Float32Array;
+  fpfh: Float32Array;
+  outline: Float32Array;
+  area: number;
+  descriptor: Float32Array;
+}
+
+/** The parts of a prepared fragment (what assemblePrepared needs besides the mesh). */
+export function preparedParts(f: PreparedFragment): PreparedParts {
+  return {
+    spacing: f.spacing,
+    surfacePoints: f.surfacePoints,
+    surfaceNormals: f.surfaceNormals,
+    faces: f.faces.map((x) => ({ parent: x.parent, points: x.points, normals: x.normals, fpfh: x.fpfh, outline: x.outline, area: x.area, descriptor: x.descriptor })),
+    axis: f.axis,
+  };
+}
+
+/** The prepared fragment from its mesh and parts: search structures and what follows from the parts in a few passes. */
+export function assemblePrepared(input: FragmentInput, parts: PreparedParts): PreparedFragment {
   const { positions, triangles } = input;
-  const surface = new TargetSurface(positions, triangles);
+  const box = boundsOf(positions);
+  return {
+    surface: new TargetSurface(positions, triangles),
+    surfacePoints: parts.surfacePoints,
+    surfaceNormals: parts.surfaceNormals,
+    surfaceTree: new KdTree(parts.surfacePoints, 3),
+    faces: parts.faces.map((p, index): PreparedFace => {
+      const mirrored = mirrorFpfh(p.fpfh);
+      const featureIndex = evenSubset(p.points.length / 3, FEATURE_SAMPLES);
+      return {
+        index, parent: p.parent, points: p.points, normals: p.normals, fpfh: p.fpfh, tree: new KdTree(p.points, 3),
+        featureIndex,
+        featureFpfh: featureIndex ? gatherFeatures(p.fpfh, featureIndex) : p.fpfh,
+        mirroredFpfh: mirrored,
+        mirroredFeatureFpfh: featureIndex ? gatherFeatures(mirrored, featureIndex) : mirrored,
+        outline: p.outline, area: p.area, centroid: centroidOf(p.points), descriptor: p.descriptor,
+      };
+    }),
+    centroid: centroidOf(positions),
+    diagonal: Math.hypot(box[3] - box[0], box[4] - box[1], box[5] - box[2]),
+    spacing: parts.spacing,
+    axis: parts.axis,
+  };
+}
+
+function prepareParts(input: FragmentInput, params: SamplingParameters): PreparedParts {
+  const { positions, triangles } = input;
   const all = sampleTriangles(positions, triangles, params.spacing * 2.5);
-  const faces: PreparedFace[] = [];
+  const faces: PreparedFaceParts[] = [];
   input.faces.forEach((f, parent) => {
     const s = f.triangleIds && f.triangleIds.length
       ? sampleFaceTriangles(positions, triangles, f.triangleIds, params.spacing)
@@ -113,16 +179,7 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
     const outline = f.outline && f.outline.length >= 3 ? thinPolyline(f.outline, params.spacing * 0.5) : new Float32Array(0);
     const area = f.area ?? (s.points.length / 3) * params.spacing * params.spacing;
     const add = (points: Float32Array, normals: Float32Array, feats: Float32Array, line: Float32Array, a: number): void => {
-      const tree = new KdTree(points, 3);
-      const mirrored = mirrorFpfh(feats);
-      const featureIndex = evenSubset(points.length / 3, FEATURE_SAMPLES);
-      faces.push({
-        index: faces.length, parent, points, normals, fpfh: feats, tree,
-        featureIndex,
-        featureFpfh: featureIndex ? gatherFeatures(feats, featureIndex) : feats,
-        mirroredFpfh: mirrored,
-        mirroredFeatureFpfh: featureIndex ? gatherFeatures(mirrored, featureIndex) : mirrored,
-        outline: line, area: a, centroid: centroidOf(points), descriptor: faceDescriptor(points, normals, line, a, feats) });
+      faces.push({ parent, points, normals, fpfh: feats, outline: line, area: a, descriptor: faceDescriptor(points, normals, line, a, feats) });
     };
     add(s.points, s.normals, fpfh, outline, area);
     if (params.patches === false) return;
@@ -145,18 +202,7 @@ export function prepareFragment(input: FragmentInput, params: SamplingParameters
       add(P, N, F, Float32Array.from(line), (area * p.indices.length) / n);
     }
   });
-  const box = boundsOf(positions);
-  return {
-    surface,
-    surfacePoints: all.points,
-    surfaceNormals: all.normals,
-    surfaceTree: new KdTree(all.points, 3),
-    faces,
-    centroid: centroidOf(positions),
-    diagonal: Math.hypot(box[3] - box[0], box[4] - box[1], box[5] - box[2]),
-    spacing: params.spacing,
-    axis: shaftFrameOf(positions, triangles, input.faces),
-  };
+  return { spacing: params.spacing, surfacePoints: all.points, surfaceNormals: all.normals, faces, axis: shaftFrameOf(positions, triangles, input.faces) };
 }
 
 /** The piece's own shaft axis, fitted on the triangles that are not break face (all, when faces are not given by triangles). */
