@@ -55,6 +55,12 @@ export async function brokenTube(options: {
    * one while the tube walls stay where they were.
    */
   warp?: (x: number, y: number, z: number) => [number, number, number];
+  /**
+   * A lens-shaped medullary cavity instead of the round one: the intersection of two cylinders
+   * whose arcs meet at x = +-halfWidth (pointed ends: concave creases of the medullary surface
+   * running along the tube) and reach y = +-halfHeight. innerRadius is then not used.
+   */
+  lensCavity?: { halfWidth: number; halfHeight: number };
 }): Promise<BrokenTube> {
   if (!wasm) {
     wasm = await Module();
@@ -65,7 +71,19 @@ export async function brokenTube(options: {
   const edge = options.edgeLength ?? 1;
   const amp = options.roughness ?? 0.25;
   const outer = Manifold.cylinder(L, R, R, 96, true);
-  const inner = Manifold.cylinder(L + 2, r, r, 96, true);
+  let inner;
+  if (options.lensCavity) {
+    // Circle through (+-w, 0) and (0, h) centred at (0, -d): rho = (w² + h²) / 2h, d = rho - h.
+    const { halfWidth: w, halfHeight: h } = options.lensCavity;
+    const rho = (w * w + h * h) / (2 * h), d = rho - h;
+    const up = Manifold.cylinder(L + 2, rho, rho, 192, true).translate([0, -d, 0]);
+    const down = Manifold.cylinder(L + 2, rho, rho, 192, true).translate([0, d, 0]);
+    inner = up.intersect(down);
+    up.delete();
+    down.delete();
+  } else {
+    inner = Manifold.cylinder(L + 2, r, r, 96, true);
+  }
   let solid = outer.subtract(inner);
   outer.delete();
   inner.delete();
