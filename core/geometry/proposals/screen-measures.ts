@@ -2,8 +2,32 @@
  * Cheap measures of a screened motion (face samples and k-d trees only, no triangles), used to
  * pick which motions of a fragment pair go on to the fine step (pairwise-match.ts).
  */
-import type { RigidTransform } from '../registration/rigid-transform';
+import { applyToPoint, type RigidTransform } from '../registration/rigid-transform';
+import { axisAgreement } from '../registration/score';
+import { SIDE_FULL, SIDE_NONE, TRUSTED_RADIUS_RATIO } from '../registration/score-model';
+import type { ShaftFrame } from '../registration/shaft-axis-search';
 import type { PreparedFace } from './prepared-fragment';
+
+/**
+ * How well a screened motion of two shaft pieces agrees with their fitted shaft axes, 0..1:
+ * the outer surfaces of two joined pieces of one shaft continue one another, so under the true
+ * motion the two axis lines run about the same way (a small tilt: fitted directions of bowed or
+ * partial pieces differ by a few degrees) and lie on the same side of the wall seen from the
+ * join. 1 up to `tiltDeg[0]` degrees between the axes, falling to 0 at `tiltDeg[1]`, times the
+ * score's side rule (score-model.ts SIDE_NONE, SIDE_FULL); 1 when either piece has no axis or
+ * the fitted radii differ by more than TRUSTED_RADIUS_RATIO (a fit that far off places its axis
+ * anywhere). B's face centroid `centroidB` is where the axes are compared (as score.ts does).
+ */
+export function screenAxisConsistency(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, T: RigidTransform, centroidB: ArrayLike<number>, tiltDeg: readonly [number, number]): number {
+  if (!axisA || !axisB) return 1;
+  const c = applyToPoint(T, centroidB[0], centroidB[1], centroidB[2]);
+  const ax = axisAgreement(axisA, axisB, T, Float64Array.from(c));
+  if (!ax.axesCompared || ax.radiusRatio > TRUSTED_RADIUS_RATIO) return 1;
+  const clamp = (x: number): number => Math.min(1, Math.max(0, x));
+  const side = clamp((ax.axisSide - SIDE_NONE) / (SIDE_FULL - SIDE_NONE));
+  const tilt = clamp((tiltDeg[1] - ax.axisAngleDeg) / Math.max(1e-9, tiltDeg[1] - tiltDeg[0]));
+  return side * tilt;
+}
 
 /**
  * How firmly a screened motion locks the faces (as the score's interlock, score.ts, but on face
