@@ -11,6 +11,9 @@
  *           along the axis, share of the circumference (shaft pieces only; a figure missing on
  *           either side costs as much as a difference of one scale),
  *   wall:   log thickness of the bone wall along the face's rim (rim-wall-thickness.ts),
+ *   course: mean |cosine| of the face normals with the shaft axis, and their mean lean out from
+ *           the axis, which a partner shows with the opposite sign (compared as a sum; shaft
+ *           pieces only),
  *   texture: distance between the mean FPFH of one face and the mirrored mean FPFH of the other
  *           (a partner's normals point the other way).
  * The weights were chosen by a coordinate search (each weight x0, x0.5, x2 in turn, two rounds)
@@ -20,7 +23,11 @@
  * faces only part of its partner: figures of the face's extent (area, the two smaller extents)
  * and the radii about each piece's own fitted axis (its centre is uncertain on a narrow
  * splinter) then mislead more than they help, and their weight is 0; the wall beside the face
- * stays the same however the break is shared, and weighs most.
+ * stays the same however the break is shared, and weighs most. The two figures of the break's
+ * course were added later with scales and weights from a grid (axis cosine scale 0.025-0.1,
+ * lean 0.05-0.2, weights 0-2) on seed 14 at 200 fragments, where the recall varied little
+ * across the grid; they raised the candidate recall at k = 30 on seeds 14 and 15 at 200 and on
+ * seeds 11-16 at 30 (the commit gives the figures).
  */
 import { FPFH_DIM } from '../registration/fpfh';
 import { mirrorFpfh } from '../registration/ransac-alignment';
@@ -28,9 +35,11 @@ import { principalSpread, type FaceTraits } from './face-traits';
 
 /**
  * Name, scale (median |difference| across true breaks) and weight of each figure of
- * `descriptorFigures`; a weight of 0 leaves the figure out of the cost.
+ * `descriptorFigures`; a weight of 0 leaves the figure out of the cost. A figure marked
+ * `opposite` is seen by the partner with the other sign, so two faces are compared by the sum
+ * of their values, not the difference.
  */
-export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number }> = [
+export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number; opposite?: boolean }> = [
   { name: 'log area', scale: 0.51, weight: 0 },
   { name: 'log extent 1', scale: 0.31, weight: 1 },
   { name: 'log extent 2', scale: 0.35, weight: 0 },
@@ -43,6 +52,8 @@ export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; we
   { name: 'log span along axis', scale: 0.28, weight: 2 },
   { name: 'share of circumference', scale: 0.14, weight: 0.5 },
   { name: 'log wall thickness at the rim', scale: 0.1, weight: 4 },
+  { name: 'normal cosine with the axis', scale: 0.05, weight: 1 },
+  { name: 'normal lean out from the axis', scale: 0.1, weight: 0.5, opposite: true },
 ];
 /** Weight of the mean-FPFH distance (per unit of FPFH histogram mass). */
 export const TEXTURE_WEIGHT = 0.25;
@@ -64,6 +75,8 @@ export function descriptorFigures(t: FaceTraits): Float64Array {
     tube ? Math.log(tube.axialSpan + 1) : NaN,
     tube ? tube.arcShare : NaN,
     t.rimThickness !== undefined ? Math.log(t.rimThickness) : NaN,
+    tube?.axisCosine ?? NaN,
+    tube?.radialLean ?? NaN,
   );
 }
 
@@ -82,14 +95,14 @@ export function describeFace(t: FaceTraits): FaceDescriptor {
 export function partnerCost(a: FaceDescriptor, b: FaceDescriptor): number {
   let s = 0;
   for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) {
-    const { scale, weight } = DESCRIPTOR_FIGURES[c];
+    const { scale, weight, opposite } = DESCRIPTOR_FIGURES[c];
     if (weight === 0) continue;
     const x = a.figures[c], y = b.figures[c];
     if (Number.isNaN(x) || Number.isNaN(y)) {
       s += weight * MISSING_COST;
       continue;
     }
-    const z = (x - y) / scale;
+    const z = (opposite ? x + y : x - y) / scale;
     s += weight * Math.log1p(z * z);
   }
   let d = 0;

@@ -3,9 +3,13 @@
  * candidate index (design.md section 7, step 5). Both sides of a break are the same surface,
  * so they agree in size and in the scatter of their points and normals (normals flip, their
  * scatter does not); on a shaft, they also sit at the same distance from the shaft axis and
- * span the same cortical thickness, arc and length along the axis; the wall next to either
- * face is equally thick (rim-wall-thickness.ts). None of these depends on where the fragment
- * lies or how its scan file is numbered.
+ * span the same cortical thickness, arc and length along the axis, and the break runs the same
+ * way across the shaft: its normals make the same angle with the axis (a transverse break lies
+ * across it, a longitudinal one along it; the fracture outline of the trade) and lean the same
+ * way through the wall (the fracture angle against the bone surface, right or oblique), seen
+ * from the other side: the partner's normals point the other way, so its radial lean has the
+ * opposite sign. The wall next to either face is equally thick (rim-wall-thickness.ts). None of
+ * these depends on where the fragment lies or how its scan file is numbered.
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { FPFH_DIM } from '../registration/fpfh';
@@ -42,6 +46,18 @@ export interface FaceTraits {
     axialSpan: number;
     /** Share of the circumference the face covers (0-1), from 36 sectors about the axis. */
     arcShare: number;
+    /**
+     * Mean |cosine| between the face normals and the axis (0-1): 1 for a break straight across
+     * the shaft, 0 for one along it. The same on both sides of a break (normals flip, the
+     * absolute value does not). Absent in traits stored before it was measured.
+     */
+    axisCosine?: number;
+    /**
+     * Mean cosine between the face normals and the direction straight out from the axis (-1-1):
+     * 0 for a break square through the wall, positive when the face looks outwards. A partner's
+     * is the same with the opposite sign.
+     */
+    radialLean?: number;
   };
 }
 
@@ -68,6 +84,7 @@ export function faceTraits(points: Float32Array, normals: Float32Array, area: nu
     const [dx, dy, dz] = axis.direction;
     const [px, py, pz] = axis.point;
     const radial = new Float64Array(n), along = new Float64Array(n);
+    let axisCos = 0, lean = 0;
     const sectors = new Uint8Array(36);
     // two directions across the axis, for the sector angle
     let ux = 0, uy = 0, uz = 0;
@@ -81,6 +98,9 @@ export function faceTraits(points: Float32Array, normals: Float32Array, area: nu
       const rx = x - t * dx, ry = y - t * dy, rz = z - t * dz;
       radial[i] = Math.hypot(rx, ry, rz);
       along[i] = t;
+      const nx = normals[3 * i], ny = normals[3 * i + 1], nz = normals[3 * i + 2];
+      axisCos += Math.abs(nx * dx + ny * dy + nz * dz);
+      if (radial[i] > 0) lean += (nx * rx + ny * ry + nz * rz) / radial[i];
       const angle = Math.atan2(rx * vx + ry * vy + rz * vz, rx * ux + ry * uy + rz * uz);
       sectors[Math.min(35, Math.floor(((angle + Math.PI) / (2 * Math.PI)) * 36))] = 1;
     }
@@ -89,7 +109,7 @@ export function faceTraits(points: Float32Array, normals: Float32Array, area: nu
     const at = (xs: Float64Array, p: number): number => xs[Math.min(xs.length - 1, Math.floor(p * xs.length))];
     let covered = 0;
     for (const s of sectors) covered += s;
-    traits.tube = { outerRadius: at(radial, 0.9), innerRadius: at(radial, 0.1), axialSpan: at(along, 0.95) - at(along, 0.05), arcShare: covered / 36 };
+    traits.tube = { outerRadius: at(radial, 0.9), innerRadius: at(radial, 0.1), axialSpan: at(along, 0.95) - at(along, 0.05), arcShare: covered / 36, axisCosine: axisCos / n, radialLean: lean / n };
   }
   return traits;
 }

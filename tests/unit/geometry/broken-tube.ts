@@ -26,6 +26,8 @@ export interface ConeCut {
   baseZ: number;
   baseRadius: number;
   halfAngleDeg: number;
+  /** Keep the part outside the cone instead (the other side of the same break). */
+  keepOutside?: boolean;
 }
 
 export type Cut = PlaneCut | ConeCut;
@@ -34,6 +36,8 @@ export interface BrokenTube {
   mesh: TriangleMesh;
   /** 1 = fracture, 0 = original surface, per triangle. */
   truth: Uint8Array;
+  /** Index in `cuts` of the cut a fracture triangle lies on, -1 on original surface, per triangle. */
+  cutOf: Int8Array;
 }
 
 let wasm: Awaited<ReturnType<typeof Module>> | undefined;
@@ -51,6 +55,12 @@ export async function brokenTube(options: {
    * one while the tube walls stay where they were.
    */
   warp?: (x: number, y: number, z: number) => [number, number, number];
+  /**
+   * A lens-shaped medullary cavity instead of the round one: the intersection of two cylinders
+   * whose arcs meet at x = +-halfWidth (pointed ends: concave creases of the medullary surface
+   * running along the tube) and reach y = +-halfHeight. innerRadius is then not used.
+   */
+  lensCavity?: { halfWidth: number; halfHeight: number };
 }): Promise<BrokenTube> {
   if (!wasm) {
     wasm = await Module();
@@ -61,7 +71,19 @@ export async function brokenTube(options: {
   const edge = options.edgeLength ?? 1;
   const amp = options.roughness ?? 0.25;
   const outer = Manifold.cylinder(L, R, R, 96, true);
-  const inner = Manifold.cylinder(L + 2, r, r, 96, true);
+  let inner;
+  if (options.lensCavity) {
+    // Circle through (+-w, 0) and (0, h) centred at (0, -d): rho = (w² + h²) / 2h, d = rho - h.
+    const { halfWidth: w, halfHeight: h } = options.lensCavity;
+    const rho = (w * w + h * h) / (2 * h), d = rho - h;
+    const up = Manifold.cylinder(L + 2, rho, rho, 192, true).translate([0, -d, 0]);
+    const down = Manifold.cylinder(L + 2, rho, rho, 192, true).translate([0, d, 0]);
+    inner = up.intersect(down);
+    up.delete();
+    down.delete();
+  } else {
+    inner = Manifold.cylinder(L + 2, r, r, 96, true);
+  }
   let solid = outer.subtract(inner);
   outer.delete();
   inner.delete();
@@ -73,7 +95,7 @@ export async function brokenTube(options: {
       const ta = Math.tan((c.halfAngleDeg * Math.PI) / 180);
       const h = (c.baseRadius - 0.01) / ta;
       const cone = Manifold.cylinder(h, c.baseRadius, 0.01, 192, false).translate([0, 0, c.baseZ]);
-      next = solid.intersect(cone);
+      next = c.keepOutside ? solid.subtract(cone) : solid.intersect(cone);
       cone.delete();
     }
     solid.delete();
@@ -120,11 +142,13 @@ export async function brokenTube(options: {
   const triangles = Uint32Array.from(m.triVerts);
   const nt = triangles.length / 3;
   const truth = new Uint8Array(nt);
+  const cutOf = new Int8Array(nt).fill(-1);
   for (let f = 0; f < nt; f++) {
     const a = onCut[triangles[3 * f]], b = onCut[triangles[3 * f + 1]], c = onCut[triangles[3 * f + 2]];
     truth[f] = a >= 0 && a === b && b === c ? 1 : 0;
+    if (truth[f]) cutOf[f] = a;
   }
-  return { mesh: { positions, triangles }, truth };
+  return { mesh: { positions, triangles }, truth, cutOf };
 }
 
 /** Distance from the z axis (the tube's axis) of an axis line given by a point and a direction, at z = 0. */
