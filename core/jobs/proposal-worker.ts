@@ -112,7 +112,7 @@ function run(task: ProposalTask): AnalyseResult | DescribeResult | MatchResult {
       const before = preparations;
       const a = preparedFragment(task.a, task.sampling);
       const b = preparedFragment(task.b, task.sampling);
-      const matches = matchFragments(a, b, task.params, task.facePairs).slice(0, task.keep);
+      const matches = matchFragments(a, b, task.params, task.facePairs, task.keep);
       return { scanA: task.a.scanId, scanB: task.b.scanId, matches, worker: threadId, prepared: preparations - before, busyMs: performance.now() - t0 };
     }
   }

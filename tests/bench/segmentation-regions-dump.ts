@@ -55,6 +55,19 @@ for (const dir of dirs) {
       }
     }
     const wallDepth = typicalWallDepth(a.regions);
+    // Roughness away from the region's border: rings of triangles from it (the quadric fit of a
+    // vertex near a crease straddles it), area-weighted mean of min(4, roughness / median) at ring >= 2 and >= 3.
+    const ringOf = new Int32Array(reg.length).fill(-1);
+    let front: number[] = [];
+    for (let f = 0; f < reg.length; f++) for (let j = 0; j < 3; j++) { const g = topo.neighbours[3 * f + j]; if (g < 0 || reg[g] !== reg[f]) { ringOf[f] = 0; front.push(f); break; } }
+    for (let dd = 1; front.length; dd++) {
+      const next: number[] = [];
+      for (const f of front) for (let j = 0; j < 3; j++) { const g = topo.neighbours[3 * f + j]; if (g >= 0 && ringOf[g] < 0 && reg[g] === reg[f]) { ringOf[g] = dd; next.push(g); } }
+      front = next;
+    }
+    const triRough = Float32Array.from({ length: reg.length }, (_, f) => (a.curvature.roughness[t[3 * f]] + a.curvature.roughness[t[3 * f + 1]] + a.curvature.roughness[t[3 * f + 2]]) / 3);
+    const roughMedian = Float32Array.from(triRough).sort()[reg.length >> 1] || 1e-9;
+    const rin = [2, 3].map((k) => { const sum = new Float64Array(nr), w = new Float64Array(nr); for (let f = 0; f < reg.length; f++) if (ringOf[f] >= k) { sum[reg[f]] += areas[f] * Math.min(4, triRough[f] / roughMedian); w[reg[f]] += areas[f]; } return { sum, w }; });
     // Per region: area-weighted mean and median triangle curvedness sqrt((k1^2 + k2^2) / 2), mean 1 - raw.filtered normal.
     const k1 = a.curvature.k1, k2 = a.curvature.k2;
     const cv: number[][] = Array.from({ length: nr }, () => []);
@@ -79,6 +92,8 @@ for (const dir of dirs) {
         rays: r.rays, headOn: Number.isFinite(r.headOnShare) ? r.headOnShare : null,
         sharp: r.sharpBorderShare, out: r.outwardBorderShare, in: r.inwardBorderShare,
         curvd: cvSum[r.id] / (arSum[r.id] || 1), curvdMed: med(cv[r.id]), fragCurvd, rawDev: devSum[r.id] / (arSum[r.id] || 1),
+        roughIn2: rin[0].w[r.id] > 0 ? rin[0].sum[r.id] / rin[0].w[r.id] : null, roughIn2Share: rin[0].w[r.id] / (arSum[r.id] || 1),
+        roughIn3: rin[1].w[r.id] > 0 ? rin[1].sum[r.id] / rin[1].w[r.id] : null, roughIn3Share: rin[1].w[r.id] / (arSum[r.id] || 1),
         nb: [...nb[r.id].entries()].map(([s, [c, m]]) => [s, c, m]),
       }));
     }

@@ -15,7 +15,7 @@ import { searchAlongAxisDirections } from '../registration/axis-direction-search
 import { pointPairVoting } from '../registration/point-pair-voting';
 import { inOpposedContact } from '../registration/opposed-contact';
 import type { KdTree } from '../registration/nearest-neighbours';
-import { scoreJoin, type JoinScore, type ScoredSide } from '../registration/score';
+import { deferredScore, scoreJoin, type DeferredScore, type JoinScore, type ScoredSide } from '../registration/score';
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
@@ -244,30 +244,38 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
 export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, screened: CoarseMotion[], params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
-  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
-  const tol = params.contactToleranceSpacings * spacing;
   const out: FaceMatch[] = [];
   for (const r of screened) {
-    // fine rounds against A's triangles, on B's samples that the coarse motion put near A's face
-    // (first against A's face samples, cheap k-d queries; the last few rounds against the BVH)
-    const fine = nearFace(FB.points, FB.normals, r.transform, FA.tree, 2 * spacing, params.fineSamples);
-    const mid = icpPointToPlane(fine.points, fine.normals, faceSurfaceA, r.transform, {
-      maxDistance: 1.5 * spacing,
-      trim: params.icpTrim,
-      maxIterations: 20,
-      tolerance: 1e-4 * spacing,
-    });
-    const last = nearFace(FB.points, FB.normals, mid.transform, FA.tree, 1.5 * spacing, params.bvhSamples);
-    const icp = icpPointToPlane(last.points, last.normals, a.surface, mid.transform, {
-      maxDistance: 1.5 * spacing,
-      trim: params.icpTrim,
-      maxIterations: 8,
-      tolerance: 1e-4 * spacing,
-    });
-    const s = scoreJoin(side(a, FA), side(b, FB), icp.transform, { contactTolerance: tol, spacing });
-    out.push({ ...s, transform: icp.transform, faceA: FA.parent, faceB: FB.parent });
+    const T = fineTransform(a, fa, b, fb, r.transform, params);
+    const s = scoreJoin(side(a, FA), side(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+    out.push({ ...s, transform: T, faceA: FA.parent, faceB: FB.parent });
   }
   return distinctBest(out, 2 * spacing);
+}
+
+/**
+ * The fine rounds of one screened motion: trimmed point-to-plane ICP on B's samples that the
+ * motion put near A's face, first against A's face samples (cheap k-d queries), the last few
+ * rounds against A's triangles (BVH).
+ */
+function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): RigidTransform {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
+  const fine = nearFace(FB.points, FB.normals, start, FA.tree, 2 * spacing, params.fineSamples);
+  const mid = icpPointToPlane(fine.points, fine.normals, faceSurfaceA, start, {
+    maxDistance: 1.5 * spacing,
+    trim: params.icpTrim,
+    maxIterations: 20,
+    tolerance: 1e-4 * spacing,
+  });
+  const last = nearFace(FB.points, FB.normals, mid.transform, FA.tree, 1.5 * spacing, params.bvhSamples);
+  return icpPointToPlane(last.points, last.normals, a.surface, mid.transform, {
+    maxDistance: 1.5 * spacing,
+    trim: params.icpTrim,
+    maxIterations: 8,
+    tolerance: 1e-4 * spacing,
+  }).transform;
 }
 
 /**
@@ -347,20 +355,68 @@ function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
 /**
  * Every face pair (or the given ones) of A and B, merged, best first: every face pair is
  * screened, and only the fragment pair's few best screened motions are refined and scored.
+ * With `keep`, only the best `keep` are wanted: the same as the first `keep` of the whole list,
+ * with the interpenetration left out of the motions that cannot reach them (bestDistinct).
  */
 export function matchFragments(
   a: PreparedFragment,
   b: PreparedFragment,
   params: MatchParameters = DEFAULT_MATCH_PARAMETERS,
   facePairs?: Array<[number, number]>,
+  keep?: number,
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
   const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
   for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
-  const all: FaceMatch[] = [];
-  for (const s of fineShortlist(a, b, screened, params)) all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params));
-  return distinctBest(all, 2 * Math.max(a.spacing, b.spacing));
+  const spacing = Math.max(a.spacing, b.spacing);
+  const shortlist = fineShortlist(a, b, screened, params);
+  if (keep === undefined) {
+    const all: FaceMatch[] = [];
+    for (const s of shortlist) all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params));
+    return distinctBest(all, 2 * spacing);
+  }
+  const fine = shortlist.map((s): DeferredMatch => {
+    const FA = a.faces[s.i], FB = b.faces[s.j];
+    const transform = fineTransform(a, s.i, b, s.j, s.motion.transform, params);
+    const score = deferredScore(side(a, FA), side(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+    return { transform, faceA: FA.parent, faceB: FB.parent, score };
+  });
+  return bestDistinct(fine, keep, 2 * spacing);
+}
+
+/** A refined motion whose score is not complete yet (score.ts, deferredScore). */
+export interface DeferredMatch {
+  transform: RigidTransform;
+  faceA: number;
+  faceB: number;
+  score: DeferredScore;
+}
+
+/**
+ * The first `keep` of distinctBest over the completed motions, completing as few as it can:
+ * motions are completed in order of their upper bounds until every motion left sorts after the
+ * `keep`-th kept one (upper bound below its score, or both 0 and less contact). Such a motion
+ * cannot change the kept ones before it (distinctBest keeps or drops each motion by the better
+ * ones only), so the answer is the same as completing all.
+ */
+export function bestDistinct(list: DeferredMatch[], keep: number, shift: number): FaceMatch[] {
+  const done: Array<FaceMatch | undefined> = new Array(list.length);
+  const byUpper = list.map((_, i) => i).sort((p, q) => list[q].score.upper - list[p].score.upper);
+  let next = 0;
+  for (;;) {
+    const kept = distinctBest(done.filter((m): m is FaceMatch => m !== undefined), shift);
+    if (next >= byUpper.length) return kept.slice(0, keep);
+    if (kept.length >= keep) {
+      const last = kept[keep - 1];
+      // relative slack: the bound is exact in real numbers, and exp need not be monotone to the last bit
+      const after = (d: DeferredScore): boolean => (d.upper === 0 ? last.score > 0 || d.contactFraction < last.contactFraction : d.upper * (1 + 1e-9) < last.score);
+      if (byUpper.slice(next).every((i) => after(list[i].score))) return kept.slice(0, keep);
+    }
+    const i = byUpper[next++];
+    const m = list[i];
+    done[i] = { ...m.score.complete(), transform: m.transform, faceA: m.faceA, faceB: m.faceB };
+  }
 }
 
 /**

@@ -7,6 +7,7 @@
  */
 import { compose, transformFromTwist, type RigidTransform } from './rigid-transform';
 import type { ClosestPoint, ClosestPointSource } from './target-surface';
+import { sortIndicesByKey } from './sort-indices';
 
 export interface IcpOptions {
   /** Pairs farther apart than this are ignored (mm). */
@@ -52,7 +53,7 @@ export function icpPointToPlane(
   const qx = new Float64Array(n), qy = new Float64Array(n), qz = new Float64Array(n);
   const nx = new Float64Array(n), ny = new Float64Array(n), nz = new Float64Array(n);
   const dist = new Float64Array(n);
-  const order: number[] = [];
+  const indices = new Int32Array(n), scratch = new Int32Array(n);
   const cp = {} as ClosestPoint;
   let maxD = options.maxDistance;
   for (iter = 0; iter < maxIter; iter++) {
@@ -78,10 +79,10 @@ export function icpPointToPlane(
       m++;
     }
     if (m < 6) break;
-    order.length = 0;
-    for (let i = 0; i < m; i++) order.push(i);
+    for (let i = 0; i < m; i++) indices[i] = i;
     const keep = Math.max(6, Math.floor(m * trim));
-    if (keep < m) order.sort((a, b) => dist[a] - dist[b]);
+    // the kept pairs, nearest first (sums below run in this order)
+    const order = keep < m ? sortIndicesByKey(indices, m, dist, scratch) : indices;
     // Normal equations A^T A x = A^T b for x = (omega, t), row a = (p x n, n), b = -(p - q).n
     // (the 21 sums of the upper triangle and the 6 of A^T b in locals, each summed in sample order)
     // centre for conditioning

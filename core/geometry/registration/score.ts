@@ -46,6 +46,23 @@ export interface ScoreOptions {
 const MAX_FACE_SAMPLES = 400;
 
 export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): JoinScore {
+  return deferredScore(a, b, transform, options).complete();
+}
+
+/**
+ * A join's score with its costliest component, the interpenetration, left for later: `upper` is
+ * the highest score any interpenetration could give (the score with none, as the model's slope
+ * for it is negative), so a caller that needs only the best few motions can leave out the motions whose
+ * upper bound cannot reach them (pairwise-match.ts, bestDistinct). `complete()` gives exactly
+ * what scoreJoin gives.
+ */
+export interface DeferredScore {
+  upper: number;
+  contactFraction: number;
+  complete(): JoinScore;
+}
+
+export function deferredScore(a: ScoredSide, b: ScoredSide, transform: RigidTransform, options: ScoreOptions): DeferredScore {
   const tol = options.contactTolerance;
   const inv = invert(transform);
   const fb = stridedSamples(b.facePoints, b.faceNormals, MAX_FACE_SAMPLES), fa = stridedSamples(a.facePoints, a.faceNormals, MAX_FACE_SAMPLES);
@@ -60,17 +77,25 @@ export function scoreJoin(a: ScoredSide, b: ScoredSide, transform: RigidTransfor
   const contactFractionOther = Math.min(ca.share, cb.share);
   const gapSum = ca.gapSum + cb.gapSum, gapN = ca.gapN + cb.gapN;
   const gapRmsMm = gapN > 0 ? Math.sqrt(gapSum / gapN) : 3 * tol;
-  // only surface samples near the other piece's face can be inside it within a wall's depth
-  const penetrationMm = Math.max(
-    penetration(near(applyToPoints(transform, b.surfacePoints), a.facePoints, MAX_DEPTH_MM), a),
-    penetration(near(applyToPoints(inv, a.surfacePoints), b.facePoints, MAX_DEPTH_MM), b),
-  );
   const outlineAgreement = outlineMeeting(a.outline, applyToPoints(transform, b.outline), 2 * tol);
   const spacing = options.spacing ?? tol / 0.4;
   const contactAreaMm2 = Math.min(ca.share * (a.facePoints.length / 3), cb.share * (b.facePoints.length / 3)) * spacing * spacing;
   const axes = axisAgreement(a.axis, b.axis, transform, bFaceInA);
-  const components = { contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes };
-  return { score: scoreProbability(components), ...components };
+  const withPenetration = (penetrationMm: number): ScoreComponents => ({ contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes });
+  return {
+    // the model is linear in the capped interpenetration (0 to 3 mm, score-model.ts): its best is at an end
+    upper: Math.max(scoreProbability(withPenetration(0)), scoreProbability(withPenetration(3))),
+    contactFraction,
+    complete: (): JoinScore => {
+      // only surface samples near the other piece's face can be inside it within a wall's depth
+      const penetrationMm = Math.max(
+        penetration(near(applyToPoints(transform, b.surfacePoints), a.facePoints, MAX_DEPTH_MM), a),
+        penetration(near(applyToPoints(inv, a.surfacePoints), b.facePoints, MAX_DEPTH_MM), b),
+      );
+      const components = withPenetration(penetrationMm);
+      return { score: scoreProbability(components), ...components };
+    },
+  };
 }
 
 /**
@@ -180,24 +205,19 @@ function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, sur
 function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   const n = points.length / 3;
   if (n === 0) return 0;
-  const depths: number[] = [];
+  // depth of each sample (0 when outside), sorted numerically below (typed-array sort: same order, no comparator calls)
+  const depths = new Float64Array(n);
   const cp = {} as ClosestPoint;
   const q = [0, 0, 0];
   const P = other.surfacePoints, N = other.surfaceNormals;
   for (let i = 0; i < n; i++) {
     const x = points[3 * i], y = points[3 * i + 1], z = points[3 * i + 2];
     const hit = other.surface.closest(x, y, z, MAX_DEPTH_MM, cp);
-    if (!hit) {
-      depths.push(0);
-      continue;
-    }
+    if (!hit) continue;
     // direction from the surface to the sample against the mean normal of the samples around
     // the closest point (same side of a thin wall as the hit); rims, where that direction is
     // ambiguous, and samples farther than a cortical wall is thick are not counted
-    if (hit.distance > MAX_DEPTH_MM || hit.distance < 1e-9) {
-      depths.push(0);
-      continue;
-    }
+    if (hit.distance > MAX_DEPTH_MM || hit.distance < 1e-9) continue;
     q[0] = hit.x; q[1] = hit.y; q[2] = hit.z;
     const near = other.surfaceTree.nearest(q, 4);
     let mx = 0, my = 0, mz = 0;
@@ -208,10 +228,10 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
     }
     const ml = Math.hypot(mx, my, mz) || 1;
     const c = ((x - hit.x) * mx + (y - hit.y) * my + (z - hit.z) * mz) / (ml * hit.distance);
-    depths.push(c < -0.5 ? hit.distance : 0);
+    if (c < -0.5) depths[i] = hit.distance;
   }
-  depths.sort((p, q) => p - q);
-  return depths[Math.min(depths.length - 1, Math.floor(0.98 * depths.length))] ?? 0;
+  depths.sort();
+  return depths[Math.min(n - 1, Math.floor(0.98 * n))];
 }
 
 /** The points inside the bounding box of `around` grown by `margin`. */
