@@ -32,6 +32,12 @@ export interface RegionFigures {
   rayExitCosine: number;
   /** Rays from this region. */
   rays: number;
+  /**
+   * Share of this region's rays whose twin shot outward (into the air) meets the fragment
+   * again on a surface facing back at least `outwardFacingCosineMin` squarely (wall-rays.ts
+   * outwardCosine): a surface looking across a hollow at the other side of it.
+   */
+  outwardHitShare: number;
   /** Share of those rays that leave head-on (exit cosine at least headOnCosineMin): they crossed a wall. */
   headOnShare: number;
   /** Share of the region's border that is a crease (region-borders.ts). */
@@ -58,9 +64,10 @@ export function regionFigures(
   axis: ShaftAxis,
   rays: WallRays,
   headOnCosineMin: number,
+  outwardFacingCosineMin = 2,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
-    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
+    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
     originalCreaseBorderShare: NaN,
   }));
@@ -72,8 +79,10 @@ export function regionFigures(
   for (let f = 0; f < region.length; f++) roughSum[region[f]] += areas[f] * Math.min(4, triRoughness[f] / medianRough);
   const depths: number[][] = Array.from({ length: regionCount }, () => []);
   const cosines: number[][] = Array.from({ length: regionCount }, () => []);
+  const outwardHits = new Float64Array(regionCount);
   for (let k = 0; k < rays.triangles.length; k++) {
     const r = region[rays.triangles[k]];
+    if (rays.outwardCosine[k] >= outwardFacingCosineMin) outwardHits[r]++;
     depths[r].push(rays.distance[k]);
     cosines[r].push(rays.exitCosine[k]);
   }
@@ -82,6 +91,7 @@ export function regionFigures(
     if (d.length) {
       out[r].rayDepth = median(d);
       out[r].rayExitCosine = median(cosines[r]);
+      out[r].outwardHitShare = outwardHits[r] / d.length;
       out[r].headOnShare = cosines[r].filter((c) => c >= headOnCosineMin).length / d.length;
     }
   });
@@ -138,7 +148,8 @@ export function fractureEvidence(r: RegionFigures, settings: AnalysisSettings): 
   return settings.sharpBorderWeight * r.sharpBorderShare
     + settings.betweenWallsWeight * Math.min(r.outwardBorderShare, r.inwardBorderShare)
     + settings.roughnessWeight * (r.roughnessRatio - 1)
-    - settings.headOnWeight * headOn;
+    - settings.headOnWeight * headOn
+    - settings.outwardHitWeight * r.outwardHitShare;
 }
 
 export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {

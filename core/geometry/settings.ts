@@ -57,6 +57,15 @@ export const analysisSettingsSchema = z.object({
   headOnCosineMin: z.number().min(0).max(1).default(0.9),
   /** Weight of the share of a region's inward rays that cross a wall head-on (against fracture). */
   headOnWeight: z.number().min(0).default(5.4),
+  /**
+   * Weight of the share of a region's outward rays (shot into the air along the normal) that
+   * meet the fragment again (against fracture): the medullary surface looks across the cavity
+   * at its other side where the fragment holds it, as on a splinter from the narrow edge of a
+   * flattened shaft, whose flat cavity faces the fitted axis does not tell from break faces.
+   */
+  outwardHitWeight: z.number().min(0).default(3),
+  /** An outward ray counts for outwardHitWeight only when the surface it meets faces back at least this squarely (cosine). */
+  outwardFacingCosineMin: z.number().min(-1).max(1).default(0.5),
   /** Weight of the share of a region's border that is a crease (for fracture; creases: ridgeAngleDeg). */
   sharpBorderWeight: z.number().min(0).default(4.4),
   /** Weight of min(share of border with outward-facing regions, with inward-facing regions): a face between the walls. */
