@@ -65,6 +65,7 @@ export function regionFigures(
   rays: WallRays,
   headOnCosineMin: number,
   outwardFacingCosineMin = 2,
+  outwardAxialMax = 1,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
@@ -82,7 +83,11 @@ export function regionFigures(
   const outwardHits = new Float64Array(regionCount);
   for (let k = 0; k < rays.triangles.length; k++) {
     const r = region[rays.triangles[k]];
-    if (rays.outwardCosine[k] >= outwardFacingCosineMin) outwardHits[r]++;
+    // Only rays across the axis: the medullary surface runs along the shaft, while break
+    // faces that look at each other across a notch in the end of a shaft lean along it.
+    const f = rays.triangles[k];
+    const along = Math.abs(normals[3 * f] * axis.direction[0] + normals[3 * f + 1] * axis.direction[1] + normals[3 * f + 2] * axis.direction[2]);
+    if (rays.outwardCosine[k] >= outwardFacingCosineMin && (axis.support < 0.5 || along <= outwardAxialMax)) outwardHits[r]++;
     depths[r].push(rays.distance[k]);
     cosines[r].push(rays.exitCosine[k]);
   }

@@ -63,9 +63,14 @@ export const analysisSettingsSchema = z.object({
    * at its other side where the fragment holds it, as on a splinter from the narrow edge of a
    * flattened shaft, whose flat cavity faces the fitted axis does not tell from break faces.
    */
-  outwardHitWeight: z.number().min(0).default(3),
+  outwardHitWeight: z.number().min(0).default(6),
   /** An outward ray counts for outwardHitWeight only when the surface it meets faces back at least this squarely (cosine). */
   outwardFacingCosineMin: z.number().min(-1).max(1).default(0.5),
+  /**
+   * ... and only when it runs across the shaft axis: |cosine| of the ray with the axis at most
+   * this (where the axis fit holds; 0.342 = within 20 degrees of perpendicular).
+   */
+  outwardAxialMax: z.number().min(0).max(1).default(0.342),
   /** Weight of the share of a region's border that is a crease (for fracture; creases: ridgeAngleDeg). */
   sharpBorderWeight: z.number().min(0).default(4.4),
   /** Weight of min(share of border with outward-facing regions, with inward-facing regions): a face between the walls. */
