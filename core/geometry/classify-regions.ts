@@ -140,8 +140,12 @@ export function regionFigures(
  * - position in the wall: on a shaft a break face lies between the outer and the medullary
  *   surface and borders both; original surface borders only break faces.
  * - roughness: break surfaces are rougher than the fragment's typical surface.
+ * - looking across a hollow: a ray shot outward (into the air) from the medullary surface
+ *   crosses the cavity and meets its other side squarely where the fragment holds it; from
+ *   outer surface and from the break faces of a splinter it meets nothing (wall-rays.ts).
  * Evidence = sharpBorderWeight x crease share + betweenWallsWeight x min(outward, inward
- * border share) + roughnessWeight x (roughness ratio - 1) - headOnWeight x head-on share;
+ * border share) + roughnessWeight x (roughness ratio - 1) - headOnWeight x head-on share
+ * - outwardHitWeight x share of outward rays meeting the fragment;
  * above fractureEvidenceMin the region is a fracture face. Original regions facing away
  * from the shaft axis (or convex where there is no axis) are outer cortical, facing it (or
  * concave) medullary; smooth regions whose rays run much deeper than the wall is thick are
