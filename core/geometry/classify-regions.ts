@@ -66,6 +66,7 @@ export function regionFigures(
   headOnCosineMin: number,
   outwardFacingCosineMin = 2,
   outwardAxialMax = 1,
+  outwardRadialMax = 1,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
@@ -78,18 +79,31 @@ export function regionFigures(
   // fragment's median, each capped at 4 so that a few slivers cannot dominate a region.
   const roughSum = new Float64Array(regionCount);
   for (let f = 0; f < region.length; f++) roughSum[region[f]] += areas[f] * Math.min(4, triRoughness[f] / medianRough);
+  const [ax, ay, az] = axis.direction;
+  const [px, py, pz] = axis.point;
   const depths: number[][] = Array.from({ length: regionCount }, () => []);
   const cosines: number[][] = Array.from({ length: regionCount }, () => []);
   const outwardHits = new Float64Array(regionCount);
   for (let k = 0; k < rays.triangles.length; k++) {
     const r = region[rays.triangles[k]];
-    // Only rays across the axis: the medullary surface runs along the shaft, while break
-    // faces that look at each other across a notch in the end of a shaft lean along it.
-    const f = rays.triangles[k];
-    const along = Math.abs(normals[3 * f] * axis.direction[0] + normals[3 * f + 1] * axis.direction[1] + normals[3 * f + 2] * axis.direction[2]);
-    if (rays.outwardCosine[k] >= outwardFacingCosineMin && (axis.support < 0.5 || along <= outwardAxialMax)) outwardHits[r]++;
     depths[r].push(rays.distance[k]);
     cosines[r].push(rays.exitCosine[k]);
+    // Outward rays meeting the fragment count only across the axis: the medullary surface runs along the shaft, while break
+    // faces that look at each other across a notch in the end of a shaft lean along it.
+    // Nor from surface facing clearly away from the axis: the medullary surface does not, even
+    // where a poorly fitted centre leaves it facing neither in nor out.
+    const f = rays.triangles[k];
+    if (!(rays.outwardCosine[k] >= outwardFacingCosineMin)) continue;
+    if (axis.support >= 0.5) {
+      const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+      const along = nx * ax + ny * ay + nz * az;
+      if (Math.abs(along) > outwardAxialMax) continue;
+      const rx = centroids[3 * f] - px, ry = centroids[3 * f + 1] - py, rz = centroids[3 * f + 2] - pz;
+      const t = rx * ax + ry * ay + rz * az;
+      const qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+      if ((nx * qx + ny * qy + nz * qz) > outwardRadialMax * (Math.hypot(qx, qy, qz) || 1)) continue;
+    }
+    outwardHits[r]++;
   }
   depths.forEach((d, r) => {
     out[r].rays = d.length;
@@ -100,8 +114,6 @@ export function regionFigures(
       out[r].headOnShare = cosines[r].filter((c) => c >= headOnCosineMin).length / d.length;
     }
   });
-  const [ax, ay, az] = axis.direction;
-  const [px, py, pz] = axis.point;
   for (let f = 0; f < region.length; f++) {
     const r = out[region[f]];
     const w = areas[f];
@@ -145,7 +157,7 @@ export function regionFigures(
  *   outer surface and from the break faces of a splinter it meets nothing (wall-rays.ts).
  * Evidence = sharpBorderWeight x crease share + betweenWallsWeight x min(outward, inward
  * border share) + roughnessWeight x (roughness ratio - 1) - headOnWeight x head-on share
- * - outwardHitWeight x share of outward rays meeting the fragment;
+ * - outwardHitWeight x share of outward rays meeting the fragment (regions not clearly convex);
  * above fractureEvidenceMin the region is a fracture face. Original regions facing away
  * from the shaft axis (or convex where there is no axis) are outer cortical, facing it (or
  * concave) medullary; smooth regions whose rays run much deeper than the wall is thick are
@@ -158,7 +170,7 @@ export function fractureEvidence(r: RegionFigures, settings: AnalysisSettings): 
     + settings.betweenWallsWeight * Math.min(r.outwardBorderShare, r.inwardBorderShare)
     + settings.roughnessWeight * (r.roughnessRatio - 1)
     - settings.headOnWeight * headOn
-    - settings.outwardHitWeight * r.outwardHitShare;
+    - (r.meanCurvature <= settings.outwardMeanCurvatureMax ? settings.outwardHitWeight * r.outwardHitShare : 0);
 }
 
 export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {

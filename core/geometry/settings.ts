@@ -76,6 +76,21 @@ export const analysisSettingsSchema = z.object({
    * without this: 0.5 point of break face read as medullary).
    */
   outwardAxialMax: z.number().min(0).max(1).default(0.342),
+  /**
+   * ... and only from surface not facing clearly away from the axis: radial component of the
+   * normal at most this (where the axis fit holds). Break faces that look at each other across
+   * a notch can face out; the medullary surface faces in, or neither way where a poorly fitted
+   * centre (a splinter from the narrow edge of a flattened shaft) leaves it oblique.
+   */
+  outwardRadialMax: z.number().min(-1).max(1).default(0.3),
+  /**
+   * The outward-ray cue applies only to regions whose mean curvature (1/mm) is at most this:
+   * the medullary surface is concave (H = -1/2r about a round cavity, nearly 0 on a flat one;
+   * do Carmo 1976), while two break faces of a piece wider than half the shaft can look at
+   * each other across the cavity and are convex with their relief. 0.05 = a convex cylinder
+   * of 10 mm radius.
+   */
+  outwardMeanCurvatureMax: z.number().default(0.05),
   /** Weight of the share of a region's border that is a crease (for fracture; creases: ridgeAngleDeg). */
   sharpBorderWeight: z.number().min(0).default(4.4),
   /** Weight of min(share of border with outward-facing regions, with inward-facing regions): a face between the walls. */
