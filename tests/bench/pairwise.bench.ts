@@ -69,7 +69,7 @@ let analysisCode: string | undefined;
  * named by the scan's content and the analysis code, so neither a changed scan nor changed code
  * reuses a stale analysis.
  */
-function loadCached(file: string): FragmentInput {
+export function loadCached(file: string): FragmentInput {
   const dir = join(tmpdir(), 'knitbone-pairwise-cache');
   mkdirSync(dir, { recursive: true });
   analysisCode ??= sourceHash(...ANALYSIS_FOLDERS);

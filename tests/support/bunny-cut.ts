@@ -47,14 +47,15 @@ export async function cutBunny(options: Options & { scale?: number } = {}): Prom
  * A shaft-like piece: a tube (outer radius R, inner r, length L along y, analytic solid of
  * revolution built by manifold-3d) refined to about 1 mm edges, then cut like the bunny.
  */
-export async function cutTube(options: Options & { outerRadius?: number; innerRadius?: number; length?: number } = {}): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
+export async function cutTube(options: Options & { outerRadius?: number; innerRadius?: number; length?: number; lengthwise?: boolean } = {}): Promise<{ lower: CutPiece; upper: CutPiece; diagonal: number }> {
   const wasm = await kernel();
   const { Manifold } = wasm;
   const R = options.outerRadius ?? 12, r = options.innerRadius ?? 7, L = options.length ?? 90;
   const outer = Manifold.cylinder(L, R, R, 72, true);
   const inner = Manifold.cylinder(L + 2, r, r, 48, true);
   const tube = outer.subtract(inner);
-  const upright = tube.rotate([90, 0, 0]);
+  // upright along y (the cut y = const is across the tube), or lying along x (lengthwise: the cut splits the wall into two long strips)
+  const upright = options.lengthwise ? tube.rotate([0, 90, 0]) : tube.rotate([90, 0, 0]);
   const fine = upright.refineToLength(2);
   const m = fine.getMesh();
   for (const o of [outer, inner, tube, upright, fine]) o.delete();

@@ -19,9 +19,9 @@ import { deferredScore, scoreJoin, type DeferredScore, type JoinScore, type Scor
 import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
-import { screenInterlock } from './screen-measures';
+import { screenAxisConsistency, screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/6';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/7';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -62,6 +62,17 @@ export interface MatchParameters {
    * finds 7 of them; about 5% more CPU per face pair (tests/bench/coarse-cost-exp.ts).
    */
   axisSettlesDirections: boolean;
+  /**
+   * Screen ranking of two shaft pieces with trusted radii (screen-measures.ts
+   * screenAxisConsistency): a motion counts fully while its two fitted axes are tilted at most
+   * the first angle (degrees) against each other, not at all from the second on, and not at all
+   * when it puts the axes on opposite sides of the wall (the score's side rule). Since method /7:
+   * on dev seeds 11-16 correct motions of such pieces had axes within 11 degrees and on the same
+   * side, while a third of the wrong motions that outranked a correct one by overlap (and took
+   * its place in the fine step) had them 25 degrees and more apart or across the wall
+   * (tests/bench/screen-rank-study.ts). [0, 0] with a huge second angle: overlap alone.
+   */
+  screenAxisTiltDeg: [number, number];
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** Hypotheses refined against the whole surface and scored. */
@@ -109,6 +120,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
   axisSettlesDirections: false,
+  screenAxisTiltDeg: [20, 45],
   minOverlap: 0.08,
   fineHypotheses: 2,
   finePerFragmentPair: 12,
@@ -204,11 +216,15 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
       refined = refined.concat(refine(votes.map((h) => h.transform)));
     }
   }
-  // 3. early rejection, then the few best on to the fine step against the whole surface
-  refined.sort((p, q) => q.overlap - p.overlap);
+  // 3. early rejection, then the few best on to the fine step against the whole surface, ranked
+  // by overlap share times how well the motion agrees with the two pieces' shaft axes
+  const ranked = refined
+    .filter((r) => r.overlap >= params.minOverlap)
+    .map((r) => ({ r, rank: r.overlap * screenAxisConsistency(a.axis, b.axis, r.transform, FB.centroid, params.screenAxisTiltDeg) }))
+    .sort((p, q) => q.rank - p.rank);
   const kept: CoarseMotion[] = [];
-  for (const r of refined) {
-    if (r.overlap < params.minOverlap || (kept.length && r.overlap < 0.7 * kept[0].overlap)) break;
+  for (const { r, rank } of ranked) {
+    if (rank <= 0 || (kept.length && rank < 0.7 * ranked[0].rank)) break;
     if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;

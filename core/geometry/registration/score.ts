@@ -108,7 +108,7 @@ export function deferredScore(a: ScoredSide, b: ScoredSide, transform: RigidTran
  * directions from the join across to the two axes opposed: axisSide about -1). Also the ratio
  * of the two fitted radii (pieces of one shaft have about the same).
  */
-function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, transform: RigidTransform, bFaceInA: Float64Array | Float32Array): { axesCompared: number; axisOffset: number; axisAngleDeg: number; axisSide: number; radiusRatio: number } {
+export function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, transform: RigidTransform, bFaceInA: Float64Array | Float32Array): { axesCompared: number; axisOffset: number; axisAngleDeg: number; axisSide: number; radiusRatio: number } {
   if (!axisA || !axisB || !(axisA.radius > 0) || !(axisB.radius > 0) || bFaceInA.length < 3) return { axesCompared: 0, axisOffset: 0, axisAngleDeg: 0, axisSide: 1, radiusRatio: 1 };
   const n = bFaceInA.length / 3;
   const c = [0, 0, 0];
