@@ -113,8 +113,8 @@ export function analyseFragment(
   region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
   let regionCount = 0;
   for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
-  const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays);
-  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin);
+  const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
+  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin, settings.outwardFacingCosineMin, settings.outwardAxialMax, settings.outwardRadialMax);
   const regionFacing = Int8Array.from(figures, (r) => (axis.support < 0.5 ? 0 : r.radial >= settings.corticalRadialMin ? 1 : r.radial <= -settings.corticalRadialMin ? -1 : 0));
   const borders = regionBorders(mesh, topo.neighbours, filtered, region, regionCount, regionFacing, settings.ridgeAngleDeg);
   figures.forEach((r, i) => {

@@ -32,6 +32,12 @@ export interface RegionFigures {
   rayExitCosine: number;
   /** Rays from this region. */
   rays: number;
+  /**
+   * Share of this region's rays whose twin shot outward (into the air) meets the fragment
+   * again on a surface facing back at least `outwardFacingCosineMin` squarely (wall-rays.ts
+   * outwardCosine): a surface looking across a hollow at the other side of it.
+   */
+  outwardHitShare: number;
   /** Share of those rays that leave head-on (exit cosine at least headOnCosineMin): they crossed a wall. */
   headOnShare: number;
   /** Share of the region's border that is a crease (region-borders.ts). */
@@ -58,9 +64,12 @@ export function regionFigures(
   axis: ShaftAxis,
   rays: WallRays,
   headOnCosineMin: number,
+  outwardFacingCosineMin = 2,
+  outwardAxialMax = 1,
+  outwardRadialMax = 1,
 ): RegionFigures[] {
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
-    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0,
+    area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
     originalCreaseBorderShare: NaN,
   }));
@@ -70,23 +79,41 @@ export function regionFigures(
   // fragment's median, each capped at 4 so that a few slivers cannot dominate a region.
   const roughSum = new Float64Array(regionCount);
   for (let f = 0; f < region.length; f++) roughSum[region[f]] += areas[f] * Math.min(4, triRoughness[f] / medianRough);
+  const [ax, ay, az] = axis.direction;
+  const [px, py, pz] = axis.point;
   const depths: number[][] = Array.from({ length: regionCount }, () => []);
   const cosines: number[][] = Array.from({ length: regionCount }, () => []);
+  const outwardHits = new Float64Array(regionCount);
   for (let k = 0; k < rays.triangles.length; k++) {
     const r = region[rays.triangles[k]];
     depths[r].push(rays.distance[k]);
     cosines[r].push(rays.exitCosine[k]);
+    // Outward rays meeting the fragment count only across the axis: the medullary surface runs along the shaft, while break
+    // faces that look at each other across a notch in the end of a shaft lean along it.
+    // Nor from surface facing clearly away from the axis: the medullary surface does not, even
+    // where a poorly fitted centre leaves it facing neither in nor out.
+    const f = rays.triangles[k];
+    if (!(rays.outwardCosine[k] >= outwardFacingCosineMin)) continue;
+    if (axis.support >= 0.5) {
+      const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+      const along = nx * ax + ny * ay + nz * az;
+      if (Math.abs(along) > outwardAxialMax) continue;
+      const rx = centroids[3 * f] - px, ry = centroids[3 * f + 1] - py, rz = centroids[3 * f + 2] - pz;
+      const t = rx * ax + ry * ay + rz * az;
+      const qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+      if ((nx * qx + ny * qy + nz * qz) > outwardRadialMax * (Math.hypot(qx, qy, qz) || 1)) continue;
+    }
+    outwardHits[r]++;
   }
   depths.forEach((d, r) => {
     out[r].rays = d.length;
     if (d.length) {
       out[r].rayDepth = median(d);
       out[r].rayExitCosine = median(cosines[r]);
+      out[r].outwardHitShare = outwardHits[r] / d.length;
       out[r].headOnShare = cosines[r].filter((c) => c >= headOnCosineMin).length / d.length;
     }
   });
-  const [ax, ay, az] = axis.direction;
-  const [px, py, pz] = axis.point;
   for (let f = 0; f < region.length; f++) {
     const r = out[region[f]];
     const w = areas[f];
@@ -125,8 +152,12 @@ export function regionFigures(
  * - position in the wall: on a shaft a break face lies between the outer and the medullary
  *   surface and borders both; original surface borders only break faces.
  * - roughness: break surfaces are rougher than the fragment's typical surface.
+ * - looking across a hollow: a ray shot outward (into the air) from the medullary surface
+ *   crosses the cavity and meets its other side squarely where the fragment holds it; from
+ *   outer surface and from the break faces of a splinter it meets nothing (wall-rays.ts).
  * Evidence = sharpBorderWeight x crease share + betweenWallsWeight x min(outward, inward
- * border share) + roughnessWeight x (roughness ratio - 1) - headOnWeight x head-on share;
+ * border share) + roughnessWeight x (roughness ratio - 1) - headOnWeight x head-on share
+ * - outwardHitWeight x share of outward rays meeting the fragment (regions not clearly convex);
  * above fractureEvidenceMin the region is a fracture face. Original regions facing away
  * from the shaft axis (or convex where there is no axis) are outer cortical, facing it (or
  * concave) medullary; smooth regions whose rays run much deeper than the wall is thick are
@@ -138,7 +169,8 @@ export function fractureEvidence(r: RegionFigures, settings: AnalysisSettings): 
   return settings.sharpBorderWeight * r.sharpBorderShare
     + settings.betweenWallsWeight * Math.min(r.outwardBorderShare, r.inwardBorderShare)
     + settings.roughnessWeight * (r.roughnessRatio - 1)
-    - settings.headOnWeight * headOn;
+    - settings.headOnWeight * headOn
+    - (r.meanCurvature <= settings.outwardMeanCurvatureMax ? settings.outwardHitWeight * r.outwardHitShare : 0);
 }
 
 export function classifyRegion(r: RegionFigures, axis: ShaftAxis, settings: AnalysisSettings, wallDepth: number): SurfaceClass {

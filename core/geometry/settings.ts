@@ -57,6 +57,40 @@ export const analysisSettingsSchema = z.object({
   headOnCosineMin: z.number().min(0).max(1).default(0.9),
   /** Weight of the share of a region's inward rays that cross a wall head-on (against fracture). */
   headOnWeight: z.number().min(0).default(5.4),
+  /**
+   * Weight of the share of a region's outward rays (shot into the air along the normal) that
+   * meet the fragment again (against fracture): the medullary surface looks across the cavity
+   * at its other side where the fragment holds it, as on a splinter from the narrow edge of a
+   * flattened shaft, whose flat cavity faces the fitted axis does not tell from break faces.
+   * Chosen on dev seeds 11-16, 14 at 1.0 mm and 21 (4: no seed loses over 0.1 point; 6 gains
+   * seed 16 a little more but costs seed 12 0.3). 0 switches the outward rays off.
+   */
+  outwardHitWeight: z.number().min(0).default(4),
+  /** An outward ray counts for outwardHitWeight only when the surface it meets faces back at least this squarely (cosine). */
+  outwardFacingCosineMin: z.number().min(-1).max(1).default(0.5),
+  /**
+   * An outward ray counts for outwardHitWeight only when it runs across the shaft axis: |cosine|
+   * of the ray with the axis at most this (where the axis fit holds; 0.342 = within 20 degrees
+   * of perpendicular). The medullary surface runs along the shaft; break faces that look at
+   * each other across a notch or a bevel inside a whole shaft lean along it (dev seed 13
+   * without this: 0.5 point of break face read as medullary).
+   */
+  outwardAxialMax: z.number().min(0).max(1).default(0.342),
+  /**
+   * ... and only from surface not facing clearly away from the axis: radial component of the
+   * normal at most this (where the axis fit holds). Break faces that look at each other across
+   * a notch can face out; the medullary surface faces in, or neither way where a poorly fitted
+   * centre (a splinter from the narrow edge of a flattened shaft) leaves it oblique.
+   */
+  outwardRadialMax: z.number().min(-1).max(1).default(0.3),
+  /**
+   * The outward-ray cue applies only to regions whose mean curvature (1/mm) is at most this:
+   * the medullary surface is concave (H = -1/2r about a round cavity, nearly 0 on a flat one;
+   * do Carmo 1976), while two break faces of a piece wider than half the shaft can look at
+   * each other across the cavity and are convex with their relief. 0.05 = a convex cylinder
+   * of 10 mm radius.
+   */
+  outwardMeanCurvatureMax: z.number().default(0.05),
   /** Weight of the share of a region's border that is a crease (for fracture; creases: ridgeAngleDeg). */
   sharpBorderWeight: z.number().min(0).default(4.4),
   /** Weight of min(share of border with outward-facing regions, with inward-facing regions): a face between the walls. */

@@ -17,10 +17,19 @@ export interface WallRays {
   exitCosine: Float32Array;
   /** The triangle each ray leaves through (-1 when it leaves through none). */
   exitTriangle: Int32Array;
+  /**
+   * Per ray, where a second ray from the same triangle, shot the other way (along the outward
+   * normal, into the air), meets the fragment again: the cosine between that ray and the
+   * normal of the surface it meets, negated (1 = the two surfaces face each other squarely),
+   * or -2 when it meets nothing. The medullary surface looks across the cavity at its other
+   * side when the fragment holds some of it; outer surface and the break faces of a splinter
+   * lie on its outside and look into open air. Filled only when `outward` is asked for (all -2 otherwise).
+   */
+  outwardCosine: Float32Array;
 }
 
 /** Rays from an even stride of at most `maxRays` triangles, or from the triangles listed in `from`. */
-export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centroids: Float32Array, maxRays: number, from?: ArrayLike<number>): WallRays {
+export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centroids: Float32Array, maxRays: number, from?: ArrayLike<number>, outward = false): WallRays {
   const nt = triNormals.length / 3;
   const step = Math.max(1, Math.ceil(nt / maxRays));
   const geometry = new BufferGeometry();
@@ -31,12 +40,21 @@ export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centr
   const bvh = new MeshBVH(geometry, { indirect: true });
   const shooters = from ? Uint32Array.from(from) : Uint32Array.from({ length: Math.ceil(nt / step) }, (_, i) => i * step);
   const n = shooters.length;
-  const triangles = new Uint32Array(n), distance = new Float32Array(n), exitCosine = new Float32Array(n), exitTriangle = new Int32Array(n).fill(-1);
+  const triangles = new Uint32Array(n), distance = new Float32Array(n), exitCosine = new Float32Array(n), exitTriangle = new Int32Array(n).fill(-1), outwardCosine = new Float32Array(n).fill(-2);
   const ray = new Ray();
   for (let k = 0; k < n; k++) {
     const f = shooters[k];
     const nx = triNormals[3 * f], ny = triNormals[3 * f + 1], nz = triNormals[3 * f + 2];
     triangles[k] = f;
+    if (outward) {
+      ray.origin.set(centroids[3 * f] + nx * 1e-3, centroids[3 * f + 1] + ny * 1e-3, centroids[3 * f + 2] + nz * 1e-3);
+      ray.direction.set(nx, ny, nz);
+      const back = bvh.raycastFirst(ray, DoubleSide);
+      if (back && back.faceIndex !== undefined && back.faceIndex !== null && back.faceIndex !== f) {
+        const g = back.faceIndex;
+        outwardCosine[k] = -(nx * triNormals[3 * g] + ny * triNormals[3 * g + 1] + nz * triNormals[3 * g + 2]);
+      }
+    }
     ray.origin.set(centroids[3 * f] - nx * 1e-3, centroids[3 * f + 1] - ny * 1e-3, centroids[3 * f + 2] - nz * 1e-3);
     ray.direction.set(-nx, -ny, -nz);
     const hit = bvh.raycastFirst(ray, DoubleSide);
@@ -51,5 +69,5 @@ export function castWallRays(mesh: TriangleMesh, triNormals: Float32Array, centr
     exitCosine[k] = -(nx * triNormals[3 * g] + ny * triNormals[3 * g + 1] + nz * triNormals[3 * g + 2]);
   }
   geometry.dispose();
-  return { triangles, distance, exitCosine, exitTriangle };
+  return { triangles, distance, exitCosine, exitTriangle, outwardCosine };
 }
