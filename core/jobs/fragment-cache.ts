@@ -106,17 +106,9 @@ export function readSummary(dir: string, key: string): FragmentSummary | undefin
   }
 }
 
-/**
- * Binary layout: uint32 header length, JSON header (array lengths, face areas, summary), then
- * float32/uint32 arrays in header order, each padded to 4 bytes.
- */
-export function writeFragment(dir: string, key: string, f: CachedFragment): void {
-  const arrays: Array<Float32Array | Uint32Array> = [f.input.positions, f.input.triangles];
-  const faces = f.input.faces.map((x) => {
-    arrays.push(x.points, x.normals, x.outline ?? new Float32Array(0), x.triangleIds ?? new Uint32Array(0));
-    return { area: x.area ?? null };
-  });
-  const header = Buffer.from(JSON.stringify({ lengths: arrays.map((a) => a.length), kinds: arrays.map((a) => (a instanceof Uint32Array ? 'u' : 'f')), faces }), 'utf8');
+/** uint32 header length, the JSON header padded with spaces to 4 bytes, then the arrays' bytes in order (the layout of both cache files). */
+function packArrays(headerFields: object, arrays: ReadonlyArray<Float32Array | Uint32Array>): Buffer {
+  const header = Buffer.from(JSON.stringify(headerFields), 'utf8');
   const pad = (4 - ((4 + header.length) % 4)) % 4;
   let size = 4 + header.length + pad;
   for (const a of arrays) size += a.byteLength;
@@ -129,6 +121,20 @@ export function writeFragment(dir: string, key: string, f: CachedFragment): void
     Buffer.from(a.buffer, a.byteOffset, a.byteLength).copy(out, at);
     at += a.byteLength;
   }
+  return out;
+}
+
+/**
+ * Binary layout: uint32 header length, JSON header (array lengths, face areas, summary), then
+ * float32/uint32 arrays in header order, each padded to 4 bytes.
+ */
+export function writeFragment(dir: string, key: string, f: CachedFragment): void {
+  const arrays: Array<Float32Array | Uint32Array> = [f.input.positions, f.input.triangles];
+  const faces = f.input.faces.map((x) => {
+    arrays.push(x.points, x.normals, x.outline ?? new Float32Array(0), x.triangleIds ?? new Uint32Array(0));
+    return { area: x.area ?? null };
+  });
+  const out = packArrays({ lengths: arrays.map((a) => a.length), kinds: arrays.map((a) => (a instanceof Uint32Array ? 'u' : 'f')), faces }, arrays);
   writeAtomically(join(dir, `${key}.bin`), out);
   writeAtomically(join(dir, `${key}.json`), JSON.stringify(f.summary));
 }
@@ -209,19 +215,7 @@ function preparedFile(dir: string, key: string, sampling: SamplingParameters): s
 export function writePrepared(dir: string, key: string, sampling: SamplingParameters, parts: PreparedParts): void {
   const arrays: Float32Array[] = [parts.surfacePoints, parts.surfaceNormals];
   for (const f of parts.faces) arrays.push(f.points, f.normals, f.fpfh, f.outline, f.descriptor);
-  const header = Buffer.from(JSON.stringify({ spacing: parts.spacing, axis: parts.axis, faces: parts.faces.map((f) => ({ parent: f.parent, area: f.area })), lengths: arrays.map((a) => a.length) }), 'utf8');
-  const pad = (4 - ((4 + header.length) % 4)) % 4;
-  let size = 4 + header.length + pad;
-  for (const a of arrays) size += a.byteLength;
-  const out = Buffer.alloc(size);
-  out.writeUInt32LE(header.length + pad, 0);
-  header.copy(out, 4);
-  out.fill(0x20, 4 + header.length, 4 + header.length + pad);
-  let at = 4 + header.length + pad;
-  for (const a of arrays) {
-    Buffer.from(a.buffer, a.byteOffset, a.byteLength).copy(out, at);
-    at += a.byteLength;
-  }
+  const out = packArrays({ spacing: parts.spacing, axis: parts.axis, faces: parts.faces.map((f) => ({ parent: f.parent, area: f.area })), lengths: arrays.map((a) => a.length) }, arrays);
   writeAtomically(preparedFile(dir, key, sampling), out);
 }
 
