@@ -18,6 +18,11 @@
  * the face pairs aligned per assemblage (true joins first).
  * KNITBONE_PAIRWISE_DUMP=<file.json> writes every scored motion with its components and whether
  * it is correct (the input of tests/bench/fit-score-model.ts).
+ * KNITBONE_PAIRWISE_JOINS=<file.json> writes one record per true join for the study of misses
+ * and prints the missed joins by cause (missCause): its class, how much of the break each
+ * piece's best-holding face carries and how pure that face is (truth labels), and for joins
+ * lost in ranking the winning motion's components beside the best correct one's and the
+ * pieces' top 3.
  */
 import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -32,10 +37,12 @@ import { prepareFragment, spacingForFaces, DEFAULT_FPFH_RADIUS_SPACINGS, type Fr
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { loadFragment } from '../../core/jobs/fragment-loader';
 import { reliability } from './calibration';
+import { faceBreaks, type StudiedFragment } from './face-pair-study';
+import { parseMeshFile } from '../../core/geometry/parse/index';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
 
-interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
-interface Truth { fragments: Array<{ catalogueNo: string; boneId: string }>; joins: TruthJoin[] }
+interface TruthJoin { a: string; b: string; type: string; breakId?: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
+interface Truth { fragments: Array<{ catalogueNo: string; boneId: string; scanFile?: string; triangleLabels?: string }>; joins: TruthJoin[] }
 
 /**
  * Classes of a true join's outcome, by the first stage that lost the truth: a, no coarse
@@ -114,6 +121,7 @@ export default async function main(): Promise<void> {
   const cpuMs: number[] = [];
   const summary: Array<Record<string, string | number>> = [];
   const breakdown: Array<Record<string, string | number>> = [];
+  const joinRecords: Array<Record<string, unknown>> = [];
   for (const dir of dirs) {
     const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
     const names = truth.fragments.map((x) => x.catalogueNo);
@@ -137,6 +145,7 @@ export default async function main(): Promise<void> {
       fragmentFaceTraits(inputs.get(no)!, p, axis).forEach((traits, face) => faces.push({ fragment: fi, face, traits }));
     });
     const cands = candidateFacePairs(faces, { k: DEFAULT_K });
+    if (process.env.KNITBONE_PAIRWISE_JOINS) for (const no of usable) holderInputs.set(`${dir}|${no}`, prepared.get(no)!);
     const key = (x: string, y: string): string => (x < y ? `${x}|${y}` : `${y}|${x}`);
     const truthOf = new Map(truth.joins.filter((j) => j.type === 'conjoin').map((j) => [key(j.a, j.b), j]));
     // face pairs per fragment pair: candidates, plus every face pair of true joins
@@ -158,7 +167,7 @@ export default async function main(): Promise<void> {
       for (let i = 0; i < A.faces.length; i++) for (let k = 0; k < B.faces.length; k++) addPair(a, b, i, k);
     }
     let done = 0;
-    const traces = new Map<string, { truthOverlap: number; truthArea: number; coarseNear: boolean; refinedCorrect: boolean; keptCorrect: boolean; fineCorrect: boolean }>();
+    const traces = new Map<string, { truthOverlap: number; truthArea: number; coarseNear: boolean; refinedCorrect: boolean; keptCorrect: boolean; fineCorrect: boolean; bestCorrect?: FaceMatch; winner?: FaceMatch; coarseBest: [number, number]; refinedBest: { rot: number; trans: number; overlap: number; bestOverlap: number } }>();
     const best = new Map<string, FaceMatch & { correct: boolean }>();
     // true joins first, so a limited run still measures accuracy
     const ordered = [...work.values()].sort((x, y) => Number(truthOf.has(key(y.a, y.b))) - Number(truthOf.has(key(x.a, x.b))));
@@ -196,6 +205,13 @@ export default async function main(): Promise<void> {
           refinedCorrect: traced.refined.some((r) => near(r.transform, 5, 5)),
           keptCorrect: traced.kept.some((m) => near(m, 5, 5)),
           fineCorrect: ranked.some((m) => near(m.transform, 5, 5)),
+          bestCorrect: ranked.find((m) => near(m.transform, 5, 5)),
+          winner: ranked[0],
+          coarseBest: traced.coarse.map((m): [number, number] => [rotationErrorDegrees(m, t), displacementAt(m, t, B.centroid)]).sort((p, q) => p[0] / 5 + p[1] / 5 - q[0] / 5 - q[1] / 5)[0] ?? [NaN, NaN],
+          refinedBest: (() => {
+            const r = traced.refined.map((x) => ({ rot: rotationErrorDegrees(x.transform, t), trans: displacementAt(x.transform, t, B.centroid), overlap: x.overlap })).sort((p, q) => p.rot / 5 + p.trans / 5 - q.rot / 5 - q.trans / 5)[0];
+            return { ...(r ?? { rot: NaN, trans: NaN, overlap: NaN }), bestOverlap: Math.max(0, ...traced.refined.map((x) => x.overlap)) };
+          })(),
         });
       }
       list.forEach((m, rank) => {
@@ -235,6 +251,20 @@ export default async function main(): Promise<void> {
       else if (tr.truthOverlap < TRUTH_OVERLAP_MIN || tr.truthArea < TRUTH_AREA_MIN * (j.contactAreaMm2 ?? 0) * j.survivingFraction) cls = 'e break not in one face';
       else cls = 'a no coarse hypothesis';
       classes.set(cls, (classes.get(cls) ?? 0) + 1);
+      if (process.env.KNITBONE_PAIRWISE_JOINS) {
+        const comp = (m?: FaceMatch): Record<string, number> | undefined => {
+          if (!m) return undefined;
+          const { transform: _t, ...rest } = m;
+          return rest as unknown as Record<string, number>;
+        };
+        const rivals = (no: string): Array<{ pair: string; score: number; trueJoin: boolean; correct: boolean }> => pieceTop(no).map((pk) => ({ pair: pk, score: best.get(pk)!.score, trueJoin: truthOf.has(pk), correct: best.get(pk)!.correct }));
+        joinRecords.push({
+          set: dir.split(/[\\/]/).pop(), pair: k, breakId: j.breakId, pattern: j.pattern, contactAreaMm2: j.contactAreaMm2, survivingFraction: j.survivingFraction, cls,
+          truthOverlap: tr?.truthOverlap, truthAreaMm2: tr?.truthArea, coarseBest: tr?.coarseBest, refinedBest: tr?.refinedBest,
+          holders: { a: breakHolder(dir, truth, j.a, j.breakId), b: breakHolder(dir, truth, j.b, j.breakId) },
+          bestCorrect: comp(tr?.bestCorrect), winner: comp(tr?.winner), rivalsA: rivals(j.a), rivalsB: rivals(j.b),
+        });
+      }
       if (process.env.KNITBONE_PAIRWISE_VERBOSE) process.stdout.write(`${k} ${j.pattern} area ${j.contactAreaMm2} surv ${j.survivingFraction} truthOverlap ${f(tr?.truthOverlap ?? NaN)} held ${f(tr?.truthArea ?? NaN, 0)} mm2 -> ${cls}${m ? ` best score ${f(m.score)}` : ''}\n`);
     }
     breakdown.push({ assemblage: dir.split(/[\\/]/).pop()!, ...Object.fromEntries(classes) });
@@ -256,9 +286,76 @@ export default async function main(): Promise<void> {
   const high = motions.filter((m) => m.score > 0.8);
   process.stdout.write(`\nPrecision of motions scoring above 0.8: ${high.length ? f(high.filter((m) => m.correct).length / high.length, 3) : '-'} (${high.filter((m) => m.correct).length}/${high.length})\n`);
   if (process.env.KNITBONE_PAIRWISE_DUMP) writeFileSync(process.env.KNITBONE_PAIRWISE_DUMP, JSON.stringify(motions));
+  if (process.env.KNITBONE_PAIRWISE_JOINS) {
+    writeFileSync(process.env.KNITBONE_PAIRWISE_JOINS, JSON.stringify(joinRecords));
+    process.stdout.write('\nMissed true joins by cause (truth labels; surviving contact = contact area x surviving fraction)\n');
+    const rows = new Map<string, number[]>();
+    for (const r of joinRecords) {
+      const c = missCause(r as unknown as JoinRecord);
+      if (c === 'found') continue;
+      rows.set(c, [...(rows.get(c) ?? []), (r.contactAreaMm2 as number) * (r.survivingFraction as number)]);
+    }
+    table([...rows.entries()].sort((x, y) => y[1].length - x[1].length).map(([c, xs]) => ({ cause: c, joins: xs.length, 'surviving contact median mm2': f(q(xs, 0.5), 0), 'under 60 mm2': xs.filter((x) => x < 60).length })));
+  }
+}
+
+interface Holder { breakAreaMm2: number; faces: number; faceAreaMm2: number; purity: number; coverage: number }
+interface JoinRecord { cls: string; truthOverlap?: number; holders: { a?: Holder; b?: Holder } }
+
+/**
+ * A missed join's cause, finer than its class: the piece's best-holding face covers under half
+ * of its part of the break (segmentation split or lost it); no face pair has a fifth of a face
+ * in contact under the true motion (a sliver of contact: the faces merge several breaks, purity
+ * under one half, or the break meets several partners); else the stage that lost it.
+ */
+function missCause(r: JoinRecord): string {
+  if (r.cls === 'found' || r.cls === 'not run (limit)') return r.cls;
+  const ha = r.holders.a, hb = r.holders.b;
+  if (ha && hb && Math.min(ha.coverage, hb.coverage) < 0.5) return 'segmentation: break not held by one face';
+  if ((r.truthOverlap ?? 0) < TRUTH_OVERLAP_MIN || r.cls.startsWith('e')) return ha && hb && Math.min(ha.purity, hb.purity) < 0.5 ? 'sliver contact: face holds several breaks' : 'sliver contact: break meets several partners';
+  if (r.cls.startsWith('a')) return 'screen: no coarse motion near the truth';
+  if (r.cls.startsWith('b')) return 'ICP drifted from a near coarse motion';
+  if (r.cls.startsWith('c2')) return 'screen ranking dropped the correct motion';
+  if (r.cls.startsWith('c')) return 'score: wrong motion of the same pair ranked first';
+  return 'score: other fragment pairs ranked above';
 }
 
 function invertRigid(m: number[]): number[] {
   const tx = m[3], ty = m[7], tz = m[11];
   return [m[0], m[4], m[8], -(m[0] * tx + m[4] * ty + m[8] * tz), m[1], m[5], m[9], -(m[1] * tx + m[5] * ty + m[9] * tz), m[2], m[6], m[10], -(m[2] * tx + m[6] * ty + m[10] * tz), 0, 0, 0, 1];
+}
+
+const holderInputs = new Map<string, PreparedFragment>();
+
+/**
+ * How one piece's prepared faces hold a true break (truth triangle labels): the true break's area
+ * on the scan, the face with the most samples on it, that face's area (samples x spacing^2), its
+ * purity (share of its samples on this break) and the share of the break's area it covers.
+ */
+function breakHolder(dir: string, truth: Truth, no: string, breakId: number | undefined): { breakAreaMm2: number; faces: number; faceAreaMm2: number; purity: number; coverage: number } | undefined {
+  const p = holderInputs.get(`${dir}|${no}`);
+  const fr = truth.fragments.find((x) => x.catalogueNo === no);
+  if (!p || !fr?.triangleLabels || breakId === undefined) return undefined;
+  const file = join(dir, fr.scanFile ?? join('scans', `${no}.ply`));
+  const mesh = parseMeshFile(readFileSync(file), file).mesh;
+  const labels = Buffer.from(fr.triangleLabels, 'base64');
+  const P = mesh.positions, T = mesh.triangles;
+  let breakArea = 0;
+  for (let t = 0; t < T.length / 3; t++) {
+    if (labels[t] !== breakId + 10) continue;
+    const [i, j, k] = [T[3 * t], T[3 * t + 1], T[3 * t + 2]];
+    const u = [P[3 * j] - P[3 * i], P[3 * j + 1] - P[3 * i + 1], P[3 * j + 2] - P[3 * i + 2]];
+    const v = [P[3 * k] - P[3 * i], P[3 * k + 1] - P[3 * i + 1], P[3 * k + 2] - P[3 * i + 2]];
+    breakArea += 0.5 * Math.hypot(u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]);
+  }
+  const s: StudiedFragment = { no, input: undefined as unknown as FragmentInput, axis: null as unknown as StudiedFragment['axis'], labels, filePositions: P, fileTriangles: T };
+  const shares = faceBreaks(s, p);
+  let bestFace = -1, bestCount = 0;
+  shares.forEach((m, fi) => {
+    const c = (m.get(breakId) ?? 0) * (p.faces[fi].points.length / 3);
+    if (c > bestCount) { bestCount = c; bestFace = fi; }
+  });
+  if (bestFace < 0) return { breakAreaMm2: breakArea, faces: p.faces.length, faceAreaMm2: 0, purity: 0, coverage: 0 };
+  const n = p.faces[bestFace].points.length / 3;
+  return { breakAreaMm2: breakArea, faces: p.faces.length, faceAreaMm2: n * p.spacing * p.spacing, purity: shares[bestFace].get(breakId) ?? 0, coverage: Math.min(1, (bestCount * p.spacing * p.spacing) / Math.max(1e-9, breakArea)) };
 }

@@ -75,6 +75,10 @@ export interface MatchParameters {
   screenAxisTiltDeg: [number, number];
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
+  /** A face pair's screened motions go on to the fine step while their rank is at least this share of the best one's. */
+  screenKeepRatio: number;
+  /** Pairing distance of the screen's short ICP, in sample spacings. */
+  screenIcpDistanceSpacings: number;
   /** Hypotheses refined against the whole surface and scored. */
   fineHypotheses: number;
   /**
@@ -122,6 +126,8 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisSettlesDirections: false,
   screenAxisTiltDeg: [20, 45],
   minOverlap: 0.08,
+  screenKeepRatio: 0.7,
+  screenIcpDistanceSpacings: 3,
   fineHypotheses: 2,
   finePerFragmentPair: 12,
   fineMinOverlap: 0.2,
@@ -187,7 +193,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
       trace?.coarse.push(h);
-      const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: 3 * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
+      const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: params.screenIcpDistanceSpacings * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
       return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
     });
   let refined = refine(starts);
@@ -224,7 +230,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     .sort((p, q) => q.rank - p.rank);
   const kept: CoarseMotion[] = [];
   for (const { r, rank } of ranked) {
-    if (rank <= 0 || (kept.length && rank < 0.7 * ranked[0].rank)) break;
+    if (rank <= 0 || (kept.length && rank < params.screenKeepRatio * ranked[0].rank)) break;
     if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
