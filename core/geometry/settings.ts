@@ -118,7 +118,8 @@ export const analysisSettingsSchema = z.object({
   /** Weight of the crease length against original-surface regions as a share of the region's whole border. */
   contextOriginalCreaseWeight: z.number().default(2.89),
   /**
-   * Weight (against fracture) of how concave a region is: max(0, -mean curvature) per 1/mm,
+   * Weight (against fracture) of how concave a region is: max(0, -mean curvature -
+   * contextConcaveCurvatureMin) per 1/mm,
    * for regions whose inward rays cross a wall head-on at least `contextConcaveHeadOnMin` of the
    * time. The medullary surface curves inwards (mean curvature -1/2r about a round cavity of
    * radius r; do Carmo 1976, section 3-3), while a break face is rough but not concave as a
@@ -134,6 +135,13 @@ export const analysisSettingsSchema = z.object({
    * gate: 0.3 point of break face read as medullary).
    */
   contextConcaveHeadOnMin: z.number().min(0).max(1).default(0.2),
+  /**
+   * ...and only for the curvature beyond this (1/mm): the term is contextConcaveWeight x
+   * max(0, -mean curvature - this). 0.01 = a cavity of 50 mm radius; a break face winding
+   * round the shaft (tests/unit/geometry/region-context.test.ts: a rough piece of mean curvature
+   * -0.006/mm facing the axis squarely) is not concave beyond it. Dev figures are the same from 0 to 0.015.
+   */
+  contextConcaveCurvatureMin: z.number().min(0).default(0.01),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
