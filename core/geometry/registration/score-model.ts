@@ -81,11 +81,20 @@ export interface ScoreModel {
 }
 
 export const SCORE_MODEL: ScoreModel = {
-  methodVersion: 'axis-direction-fpfh-ransac-icp/4',
-  fittedOn: 'knitbone demo (generator with rim angles, 2 Dec 2026), 30 fragments each, 1.5 mm, seeds 11, 12, 13: 4889 motions (ranks 1-5 of every candidate and true fragment pair, 8 fine motions per fragment pair), 103 correct (within 5 degrees and 5 mm); checked on seeds 14, 15, 16: Brier 0.0061 (reliability 0.0002), against 0.0067 for the fit on the previous generator and for the model fitted for method /2',
-  intercept: -8.8496,
-  slopes: { contactFraction: -0.9307, contactFractionOther: -1.3753, logContactArea: 1.0430, gapRmsMm: -28.0593, penetrationMm: -0.8886, outlineAgreement: 5.9637, interlock: 65.5309, axisAngle: -2.3727, axisSideMismatch: -2.6387 },
+  methodVersion: 'axis-direction-fpfh-ransac-pair-vote-icp/7',
+  fittedOn: 'knitbone demo (generator with elliptic shafts, 2 Dec 2026), 30 fragments each, seeds 11-15 (spacing 1.5 mm; run spacing 1.2 mm, 0.85 on 12 and 15): 7979 motions (ranks 1-5 of every candidate and true fragment pair, each face pair through its own fine step), 214 correct (within 5 degrees and 5 mm); checked on seeds 16 and 21: Brier 0.0116 (reliability 0.0004) against 0.0123 (0.0013) for the fit of method /4, above 0.8 23/23 correct against 30/33',
+  intercept: -6.3928,
+  slopes: { contactFraction: -0.8664, contactFractionOther: -1.7292, logContactArea: 1.0481, gapRmsMm: -30.9317, penetrationMm: -0.6512, outlineAgreement: 4.8316, interlock: 48.2222, axisAngle: -3.0803, axisSideMismatch: -4.4996 },
 };
+
+/**
+ * What identifies a fit: its method version and coefficients (not the words of `fittedOn`). A
+ * proposal run keys its finished pairs on it (core/host/proposals/propose-run.ts), so a refit
+ * score makes a later run score the pairs again instead of mixing old and new scores.
+ */
+export function scoreModelKey(model: ScoreModel = SCORE_MODEL): string {
+  return JSON.stringify([model.methodVersion, model.intercept, FEATURE_NAMES.map((n) => model.slopes[n])]);
+}
 
 /**
  * Below this interlock the contact could slide or turn (flat or cylindrical faces): the motion

@@ -19,6 +19,7 @@ import type { Join } from '../../catalogue/records';
 import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../geometry/proposals/candidate-index';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../geometry/proposals/face-descriptor';
 import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
+import { scoreModelKey } from '../../geometry/registration/score-model';
 import { cycleAgreement, solvePoses, type PoseSolution } from '../../geometry/proposals/pose-graph';
 import { invert } from '../../geometry/registration/rigid-transform';
 import { startTypeScriptWorker } from '../../jobs/typescript-worker';
@@ -119,7 +120,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sampling = runSampling(usable.map((s) => analysedOk.get(s.scanId)!));
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;
-      const parameters = { method: METHOD_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
       // A pair is done for the parameters that decide its outcome; which pairs are aligned
       // (pruning, exhaustive) does not change a pair's result, so widening the search later
       // aligns only the pairs not aligned before.
