@@ -20,6 +20,10 @@ import type { ShaftAxis } from './shaft-axis';
  *   far more than a shaft of 5-20 mm radius does (contextCurvednessWeight);
  * - against fracture, how squarely it faces out from or into the fitted shaft axis: that is
  *   what the wall faces do, while a break crosses the wall (contextFacingWeight);
+ * - against fracture, how concave it is, when its inward rays cross a wall head-on often
+ *   enough (contextConcaveCurvatureMin beyond flat): the medullary surface curves inwards, a break face does not as a whole; unlike
+ *   the facing term this needs no shaft centre, which a splinter from the narrow edge of a
+ *   flattened shaft puts 10-14 mm off (contextConcaveWeight, contextConcaveHeadOnMin);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -67,7 +71,10 @@ function originalCreaseBorderShare(border: RegionBorder, fracture: boolean[]): n
 export function contextTerms(r: RegionFigures, shaft: boolean, settings: AnalysisSettings): number {
   const min = settings.corticalRadialMin;
   const facing = shaft && min < 1 ? Math.max(0, Math.abs(r.radial) - min) / (1 - min) : 0;
+  const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
+  const concave = headOn >= settings.contextConcaveHeadOnMin ? Math.max(0, -r.meanCurvature - settings.contextConcaveCurvatureMin) : 0;
   return settings.contextCurvednessWeight * r.curvedness
     - settings.contextFacingWeight * facing
+    - settings.contextConcaveWeight * concave
     + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare;
 }

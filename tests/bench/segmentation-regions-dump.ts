@@ -79,6 +79,8 @@ for (const dir of dirs) {
       cvSum[reg[f]] += areas[f] * c; arSum[reg[f]] += areas[f];
       devSum[reg[f]] += areas[f] * (1 - (normals[3 * f] * filtered[3 * f] + normals[3 * f + 1] * filtered[3 * f + 1] + normals[3 * f + 2] * filtered[3 * f + 2]));
     }
+    const nrm = new Float64Array(3 * nr);
+    for (let f = 0; f < reg.length; f++) for (let k = 0; k < 3; k++) nrm[3 * reg[f] + k] += areas[f] * filtered[3 * f + k];
     const med = (x: number[]): number => { const s = [...x].sort((p, q) => p - q); return s[Math.floor(s.length / 2)] ?? 0; };
     const allCv = cv.flat();
     const fragCurvd = med(allCv);
@@ -89,12 +91,13 @@ for (const dir of dirs) {
         fragArea: a.stats.area, axisSupport: a.axis.support, axisRadius: a.axis.radius, wallDepth,
         area: r.area, tris: r.triangleCount, radial: r.radial, axial: r.axial, rough: r.roughnessRatio, curv: r.meanCurvature,
         depth: Number.isFinite(r.rayDepth) ? r.rayDepth : null, exitCos: Number.isFinite(r.rayExitCosine) ? r.rayExitCosine : null,
-        rays: r.rays, headOn: Number.isFinite(r.headOnShare) ? r.headOnShare : null,
+        rays: r.rays, outHit: r.outwardHitShare, oCrease: r.originalCreaseBorderShare, curvdA: r.curvedness, headOn: Number.isFinite(r.headOnShare) ? r.headOnShare : null,
         sharp: r.sharpBorderShare, out: r.outwardBorderShare, in: r.inwardBorderShare,
         curvd: cvSum[r.id] / (arSum[r.id] || 1), curvdMed: med(cv[r.id]), fragCurvd, rawDev: devSum[r.id] / (arSum[r.id] || 1),
         roughIn2: rin[0].w[r.id] > 0 ? rin[0].sum[r.id] / rin[0].w[r.id] : null, roughIn2Share: rin[0].w[r.id] / (arSum[r.id] || 1),
         roughIn3: rin[1].w[r.id] > 0 ? rin[1].sum[r.id] / rin[1].w[r.id] : null, roughIn3Share: rin[1].w[r.id] / (arSum[r.id] || 1),
         nb: [...nb[r.id].entries()].map(([s, [c, m]]) => [s, c, m]),
+        nrm: (() => { const x = nrm[3 * r.id], y = nrm[3 * r.id + 1], z = nrm[3 * r.id + 2]; const l = Math.hypot(x, y, z) || 1; return [x / l, y / l, z / l]; })(),
       }));
     }
   }
