@@ -142,7 +142,8 @@ async function assemblage(n: number, seed: string): Promise<{ dir: string; gen: 
   const truthText = readFileSync(join(gen, 'truth.json'));
   const truth = JSON.parse(truthText.toString('utf8')) as Truth;
   // the imported catalogue depends on the scans (truth.json holds every scan's labels and pose) and on the analysis code
-  const importKey = createHash('sha256').update(truthText).update(sourceHash(...ANALYSIS_FOLDERS, 'core/catalogue')).digest('hex').slice(0, 16);
+  // (and on the describing of break faces that importing does for the next proposal run)
+  const importKey = createHash('sha256').update(truthText).update(sourceHash(...ANALYSIS_FOLDERS, 'core/catalogue')).update(readFileSync(join(root, 'core/host/proposals/describe-faces.ts'))).update(readFileSync(join(root, 'core/host/requests/scans.ts'))).digest('hex').slice(0, 16);
   const dir = join(gen, `imported-${importKey}`);
   let importRow: Record<string, string | number> = { fragments: n, seed, step: 'import scans', note: 'reused from an earlier run' };
   if (!existsSync(join(dir, 'catalogue.ready'))) {

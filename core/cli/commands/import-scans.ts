@@ -31,6 +31,7 @@ export function registerImportScans(program: Command): void {
         ) as {
           imported: Array<{ file: string; catalogueNo: string; scanId: number; fractureFaces: number; warnings: string[] }>;
           alreadyImported: unknown[];
+          describedForMatching: number;
           unmatched: string[];
           bad: Array<{ file?: string; line?: number; message: string }>;
           cancelled: boolean;
@@ -44,6 +45,7 @@ export function registerImportScans(program: Command): void {
           for (const w of s.warnings) process.stderr.write(`knitbone: ${s.file}: warning: ${w}\n`);
         }
         process.stdout.write(`${r.imported.length} imported, ${r.alreadyImported.length} already in the catalogue\n`);
+        if (r.describedForMatching) process.stdout.write(`break faces of ${r.describedForMatching} scans described for join proposals\n`);
         if (r.unmatched.length) process.stdout.write(`no specimen with these catalogue numbers: ${r.unmatched.join(', ')}\n`);
         for (const b of r.bad) process.stderr.write(`knitbone: ${b.file ?? ''}${b.line ? `, line ${b.line}` : ''}: ${b.message} (skipped)\n`);
         if (r.cancelled) process.stderr.write(`knitbone: cancelled; ${r.remaining.length} files not read yet: run the same command again to resume\n`);

@@ -28,7 +28,7 @@ export function registerPropose(program: Command): void {
           'proposals.run',
           { catalogue, workers, exhaustive: opts.exhaustive ?? false, minScore: Number(opts.minScore) },
           { onProgress: progress.onProgress, signal: abort.signal },
-        )) as { run: { scans: number; faces: number; candidatePairs: number; alignedPairs: number; skippedDone: number; skippedDecided: number; stored: number; cancelled: boolean; problems: Array<{ file: string; message: string }>; seconds: number; candidateFacePairs: number; alignedFacePairs: number; analysedScans: number; stageSeconds: { reading: number; describing: number; aligning: number }; aligningPreparations: number; workerBusySeconds: number[] } };
+        )) as { run: { scans: number; faces: number; candidatePairs: number; alignedPairs: number; skippedDone: number; skippedDecided: number; stored: number; cancelled: boolean; problems: Array<{ file: string; message: string }>; seconds: number; candidateFacePairs: number; alignedFacePairs: number; analysedScans: number; describedScans: number; stageSeconds: { reading: number; describing: number; aligning: number }; aligningPreparations: number; workerBusySeconds: number[] } };
       } finally {
         progress.finish();
         process.removeListener('SIGINT', onSigint);
@@ -38,7 +38,7 @@ export function registerPropose(program: Command): void {
       const line =
         `${r.scans} scans, ${r.faces} break faces, ${r.candidatePairs} candidate pairs; aligned ${r.alignedPairs}, ` +
         `skipped ${r.skippedDone} done before and ${r.skippedDecided} already decided; stored ${r.stored} proposals in ${r.seconds.toFixed(1)} s\n` +
-        `(${r.analysedScans} scans analysed, the others from the cache; ${r.candidateFacePairs} candidate face pairs, ${r.alignedFacePairs} aligned; ` +
+        `(${r.analysedScans} scans analysed and ${r.describedScans} described in this run, the others from the cache; ${r.candidateFacePairs} candidate face pairs, ${r.alignedFacePairs} aligned; ` +
         `reading ${r.stageSeconds.reading.toFixed(1)} s, describing ${r.stageSeconds.describing.toFixed(1)} s, aligning ${r.stageSeconds.aligning.toFixed(1)} s)\n` +
         `(while aligning: ${r.aligningPreparations} fragments prepared by the workers; workers busy ${r.workerBusySeconds.map((x) => x.toFixed(1)).join(' / ') || '-'} s of ${r.stageSeconds.aligning.toFixed(1)} s)\n`;
       if (r.cancelled) {

@@ -13,22 +13,20 @@
  */
 import { createHash } from 'node:crypto';
 import { availableParallelism } from 'node:os';
-import { dirname, isAbsolute, resolve } from 'node:path';
 import { withCatalogue, type Catalogue } from '../../catalogue/catalogue';
 import { ProposalPairRepository } from '../../catalogue/proposal-pairs';
-import type { Join, Scan } from '../../catalogue/records';
+import type { Join } from '../../catalogue/records';
 import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../geometry/proposals/candidate-index';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../geometry/proposals/face-descriptor';
 import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
 import { cycleAgreement, solvePoses, type PoseSolution } from '../../geometry/proposals/pose-graph';
 import { invert } from '../../geometry/registration/rigid-transform';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, runSpacing, type SamplingParameters } from '../../geometry/proposals/prepared-fragment';
 import { startTypeScriptWorker } from '../../jobs/typescript-worker';
 import { runPool, type PoolTask } from '../../jobs/affinity-pool';
 import { bandOrder } from '../../jobs/pair-order';
-import { cacheDirFor, fragmentKey, readSummary, readTraits } from '../../jobs/fragment-cache';
-import { WORKER_CACHE_SIZE, type AnalyseResult, type DescribeResult, type MatchResult, type ProposalTask, type ScanRef } from '../../jobs/proposal-worker';
-import type { LengthUnit } from '../../jobs/fragment-loader';
+import { readSummary } from '../../jobs/fragment-cache';
+import { WORKER_CACHE_SIZE, type AnalyseResult, type MatchResult, type ProposalTask } from '../../jobs/proposal-worker';
+import { describeFaces, latestScanRefs, runSampling } from './describe-faces';
 import type { RequestContext } from '../request';
 
 export interface ProposeOptions {
@@ -56,6 +54,8 @@ export interface ProposeOutcome {
     alignedFacePairs: number;
     /** Scans read and analysed in this run (the others came from the cache). */
     analysedScans: number;
+    /** Scans whose break faces were described in this run (the others' traits came from the cache: an earlier run, or importing the scans). */
+    describedScans: number;
     /** Wall seconds per stage. */
     stageSeconds: { reading: number; describing: number; aligning: number };
     /** While aligning: fragments prepared by the workers (a fragment not in a worker's memory is prepared again), and each worker's busy seconds (the rest of the stage it waited). */
@@ -75,26 +75,7 @@ export interface ProposeOutcome {
 export async function proposeJoins(options: ProposeOptions, ctx: RequestContext): Promise<ProposeOutcome> {
   const started = Date.now();
   return withCatalogue(options.catalogue, async (cat) => {
-    const base = dirname(cat.path);
-    // latest scan of each specimen
-    const latest = new Map<number, Scan>();
-    for (const s of cat.scans.list()) {
-      const old = latest.get(s.specimenId);
-      if (!old || s.id > old.id) latest.set(s.specimenId, s);
-    }
-    const cacheDir = cacheDirFor(cat.path);
-    const scans: ScanRef[] = [...latest.values()].map((s) => {
-      const settings = (s.stats as { settings?: Record<string, unknown> }).settings;
-      const corrections = [...cat.regionClasses.inForce(s.id).entries()];
-      return {
-        scanId: s.id,
-        file: isAbsolute(s.path) ? s.path : resolve(base, s.path),
-        units: s.units as LengthUnit,
-        cache: { dir: cacheDir, key: fragmentKey(s.contentHash, s.units, settings, corrections) },
-        choices: { settings, corrections },
-      };
-    });
-    const specimenOfScan = new Map([...latest.values()].map((s) => [s.id, s.specimenId]));
+    const { scans, specimenOfScan } = latestScanRefs(cat);
     const problems: ProposeOutcome['run']['problems'] = [];
     const workerCount = Math.max(1, Math.min(options.workers ?? availableParallelism(), 64));
     const workers = Array.from({ length: workerCount }, () => startTypeScriptWorker(new URL('../../jobs/proposal-worker.ts', import.meta.url)));
@@ -108,7 +89,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
     const outcome = (over: Partial<ProposeOutcome['run']>, parameters: Record<string, unknown> = {}, hash = ''): ProposeOutcome => ({
       proposals: cat.joins.list({ status: 'proposed' }),
       run: {
-        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, stored: 0,
+        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, describedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, stored: 0,
         cancelled: false, problems, parameters, parametersHash: hash, seconds: (Date.now() - started) / 1000, ...over,
       },
     });
@@ -135,8 +116,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       endStage('reading');
       if (a1.cancelled) return outcome({ cancelled: true });
       const usable = scans.filter((s) => analysedOk.has(s.scanId));
-      const spacing = runSpacing(usable.flatMap((s) => analysedOk.get(s.scanId)!.faceAreas));
-      const sampling: SamplingParameters = { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS };
+      const sampling = runSampling(usable.map((s) => analysedOk.get(s.scanId)!));
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;
       const parameters = { method: METHOD_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
@@ -149,22 +129,13 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       // 2. describe and index
       const faces: IndexedFace[] = [];
       const fragIndex = new Map(usable.map((s, i) => [s.scanId, i]));
-      const takeTraits = (r: DescribeResult): void => r.traits.forEach((traits, face) => faces.push({ fragment: fragIndex.get(r.scanId)!, face, traits }));
-      // faces described by an earlier run at this spacing come from the cache
-      const toDescribe = usable.filter((scan) => {
-        const cached = readTraits(scan.cache!.dir, scan.cache!.key, sampling);
-        if (cached) takeTraits({ scanId: scan.scanId, ...cached });
-        return !cached;
+      // faces described by an earlier run or by importing the scans, at this sampling, come from the cache
+      const d = await describeFaces(usable, sampling, {
+        workers, signal: ctx.signal,
+        onResult: (r) => r.traits.forEach((traits, face) => faces.push({ fragment: fragIndex.get(r.scanId)!, face, traits })),
+        onError: (scan, message) => problems.push({ scanId: scan.scanId, file: scan.file, message }),
+        onProgress: ctx.onProgress,
       });
-      const d = await runPool<ProposalTask, DescribeResult>(
-        toDescribe.map((scan) => ({ keys: [String(scan.scanId)], message: { kind: 'describe', scan, sampling } })),
-        {
-          workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
-          onResult: takeTraits,
-          onError: (message, i) => problems.push({ scanId: toDescribe[i].scanId, file: toDescribe[i].file, message }),
-          onProgress: (done, total) => ctx.onProgress({ stage: 'describing break faces', done, total }),
-        },
-      );
       endStage('describing');
       if (d.cancelled) return outcome({ cancelled: true }, parameters, parametersHash);
       const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive });
@@ -221,7 +192,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       });
       endStage('aligning');
       return outcome(
-        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, stored, cancelled: m.cancelled },
+        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, describedScans: d.described, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, stored, cancelled: m.cancelled },
         parameters,
         parametersHash,
       );

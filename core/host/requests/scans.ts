@@ -8,6 +8,7 @@ import { MESH_EXTENSIONS } from '../../geometry/parse/index';
 import { cacheDirFor } from '../../jobs/fragment-cache';
 import { analyseScanFile, ScanFileFailure, type ScanFileJob, type ScanFileProblem, type ScanFileResult } from '../../jobs/analyse-scan-file';
 import { runInWorkerPool } from '../../jobs/worker-pool';
+import { describeForMatching } from '../proposals/describe-faces';
 import { KnitboneError, type Problem } from '../errors';
 import { defineRequest } from '../request';
 
@@ -170,8 +171,11 @@ export const scanRequests = {
           }),
         );
         const remaining = todo.filter((_, i) => !results.has(i)).map((t) => t.file).filter((f) => !bad.some((b) => b.file === f));
+        // what the next proposal run would describe first, described now (describe-faces.ts)
+        const describedForMatching = outcome.cancelled || imported.length === 0 ? 0 : await describeForMatching(cat, { workers: input.workers, signal: ctx.signal, onProgress: ctx.onProgress });
         return {
           imported,
+          describedForMatching,
           alreadyImported: already,
           unmatched,
           bad,

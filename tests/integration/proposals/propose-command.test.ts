@@ -11,6 +11,8 @@ import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { openCatalogue } from '../../../core/catalogue/catalogue';
 import { applyToPoints, compose, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom, type RigidTransform } from '../../../core/geometry/registration/rigid-transform';
+import { latestScanRefs, runSampling } from '../../../core/host/proposals/describe-faces';
+import { readSummary, readTraits } from '../../../core/jobs/fragment-cache';
 import { cutTube } from '../../support/bunny-cut';
 import { writePly } from '../../support/write-ply';
 
@@ -47,6 +49,20 @@ beforeAll(async () => {
 interface JoinOut { id: number; a: string; b: string; status: string; score: number; transform: number[] }
 
 describe('knitbone propose', () => {
+  it('importing the scans described their break faces at the sampling a run will use', () => {
+    const cat = openCatalogue(catalogue);
+    const { scans } = latestScanRefs(cat);
+    cat.close();
+    const summaries = scans.map((s) => readSummary(s.cache!.dir, s.cache!.key)!);
+    expect(summaries.every((s) => s && !s.problem)).toBe(true);
+    const sampling = runSampling(summaries);
+    for (const s of scans) {
+      const t = readTraits(s.cache!.dir, s.cache!.key, sampling);
+      expect(t).toBeDefined();
+      expect(t!.traits.length).toBeGreaterThan(0);
+    }
+  });
+
   it('proposes the true joins as each piece\'s best, with the motion that puts B on A', () => {
     const r = run('propose', catalogue, '--workers', '2', '--json');
     expect(r.status).toBe(0);
@@ -75,8 +91,8 @@ describe('knitbone propose', () => {
     cat.close();
     const r = run('propose', catalogue, '--workers', '1');
     expect(r.status).toBe(0);
-    // importing the scan analysed it and kept what matching needs: no scan is read again
-    expect(r.stdout).toMatch(/\(0 scans analysed/);
+    // importing the scan analysed it and described the faces: no scan is read or described again
+    expect(r.stdout).toMatch(/\(0 scans analysed and 0 described in this run/);
     // every fragment was prepared by the first run, or while describing the new scan, and its
     // parts kept in the match cache: none is prepared again while aligning; and the worker's busy
     // time lies within the aligning stage
