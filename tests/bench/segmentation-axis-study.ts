@@ -9,6 +9,22 @@ import { join } from 'node:path';
 import { analyseFragment } from '../../core/geometry/analyse-fragment';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
 import { parseMeshFile } from '../../core/geometry/parse/index';
+import { BufferAttribute, BufferGeometry, DoubleSide, Ray, Vector3 } from 'three';
+import { MeshBVH } from 'three-mesh-bvh';
+
+/** Whether a point lies inside the closed mesh: crossings of rays in three directions, majority of parities. */
+function inside(positions: Float32Array, triangles: Uint32Array, p: number[]): boolean {
+  const g = new BufferGeometry();
+  g.setAttribute('position', new BufferAttribute(positions, 3));
+  g.setIndex(new BufferAttribute(triangles.slice(), 1));
+  const bvh = new MeshBVH(g, { indirect: true });
+  let odd = 0;
+  for (const d of [[0.31, 0.52, 0.79], [-0.6, 0.7, -0.39], [0.83, -0.45, 0.33]]) {
+    const ray = new Ray(new Vector3(p[0], p[1], p[2]), new Vector3(d[0], d[1], d[2]).normalize());
+    if (bvh.raycast(ray, DoubleSide).length % 2 === 1) odd++;
+  }
+  return odd >= 2;
+}
 
 interface Truth { fragments: Array<{ catalogueNo: string; scanFile: string; triangleLabels: string; element: string; poseBoneToScan: number[] }> }
 const [dir, elements, json] = process.argv.slice(2);
@@ -35,6 +51,6 @@ for (const frag of truth.fragments) {
   const r = [a.axis.point[0] - org[0], a.axis.point[1] - org[1], a.axis.point[2] - org[2]];
   const t = r[0] * dir3[0] + r[1] * dir3[1] + r[2] * dir3[2];
   const off = Math.hypot(r[0] - t * dir3[0], r[1] - t * dir3[1], r[2] - t * dir3[2]);
-  console.log(`${frag.catalogueNo} ${frag.element.padEnd(11)} agree ${(100 * agree / total).toFixed(1).padStart(5)} area ${total.toFixed(0).padStart(6)} axis ${ang.toFixed(0).padStart(3)} deg off ${off.toFixed(1).padStart(5)} mm R ${a.axis.radius.toFixed(1).padStart(5)} support ${a.axis.support.toFixed(2)}`);
+  console.log(`${frag.catalogueNo} ${frag.element.padEnd(11)} agree ${(100 * agree / total).toFixed(1).padStart(5)} area ${total.toFixed(0).padStart(6)} axis ${ang.toFixed(0).padStart(3)} deg off ${off.toFixed(1).padStart(5)} mm R ${a.axis.radius.toFixed(1).padStart(5)} support ${a.axis.support.toFixed(2)} centre ${inside(a.mesh.positions, a.mesh.triangles, a.axis.point) ? 'IN MATERIAL' : 'in air'}`);
 }
 console.log(`all ${(100 * agreeAll / areaAll).toFixed(2)}`);
