@@ -12,6 +12,7 @@ import { describe, expect, it } from 'vitest';
 import { brokenTube, type Cut } from '../broken-tube';
 import { breakFaceFromLabels } from '../../../support/break-face-from-labels';
 import { candidateFacePairs, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
+import { describeFace, partnerCost } from '../../../../core/geometry/proposals/face-descriptor';
 import { fragmentFaceTraits, type FaceTraits } from '../../../../core/geometry/proposals/face-traits';
 import { prepareFragment } from '../../../../core/geometry/proposals/prepared-fragment';
 
@@ -75,5 +76,24 @@ describe('the course of a break across the shaft', () => {
     // the face's best partner is fragment 1, not the mirror image (fragment 2), although the mirror image's length matches better
     expect(pairs.some((p) => p.a === 0 && p.b === 1)).toBe(true);
     expect(pairs.some((p) => p.a === 0 && p.b === 2)).toBe(false);
+  }, 60_000);
+  it("weighs the lean through the wall above a difference in length: a partner met along three quarters of the face ranks ahead of a whole strip leaning half as much", async () => {
+    // The face: a tube split lengthwise by the plane x = 4 mm (piece x >= 4), as above; its
+    // normal -x makes cosine -4/rho with the direction out from the axis at distance rho
+    // (analytic geometry), so the face leans in by about 0.44 (rho 7-12 mm). Its partner, the
+    // piece x <= 4, broken again across at z = 20 mm: 60 of the tube's 80 mm (75% of the
+    // face's length; the generator's assemblages at 200 fragments are full of such partners).
+    // The decoy: a tube of the same size split by the plane x = 2 (piece x <= 2): a whole strip,
+    // of the same length as the face, leaning out by 2/rho, about half the partner's lean.
+    // Smooth cuts, so texture cannot tell them apart. The weights were fitted on generated
+    // assemblages (face-descriptor.ts); before, the length outweighed the lean and the decoy won.
+    const [face] = await breakFaces([{ normal: [1, 0, 0], offset: 4 }], 0);
+    const [partner] = await breakFaces([{ normal: [-1, 0, 0], offset: -4 }, { normal: [0, 0, -1], offset: -20 }], 0);
+    const [decoy] = await breakFaces([{ normal: [-1, 0, 0], offset: -2 }], 0);
+    expect(partner.tube!.radialLean!).toBeGreaterThan(0.35);
+    expect(decoy.tube!.radialLean!).toBeGreaterThan(0.15);
+    expect(decoy.tube!.radialLean!).toBeLessThan(0.3);
+    // the face's own list ranks the partner first (the decoy's list may still hold the face)
+    expect(partnerCost(describeFace(face), describeFace(partner))).toBeLessThan(partnerCost(describeFace(face), describeFace(decoy)));
   }, 60_000);
 });
