@@ -13,7 +13,7 @@ import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
-import { facingGroups, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
+import { facingGroups, fitMedialSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
@@ -105,8 +105,11 @@ export function analyseFragment(
   }
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
-  const axis = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean,
-    { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
+  const axis = fitMedialSegment(
+    settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean,
+      { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare }),
+    centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain,
+  );
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
   let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);

@@ -1,5 +1,5 @@
 import type { AnalysisSettings } from './settings';
-import type { ShaftAxis } from './shaft-axis';
+import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
 import type { SurfaceClass } from './surface-classes';
 import type { WallRays } from './wall-rays';
 
@@ -80,7 +80,7 @@ export function regionFigures(
   const roughSum = new Float64Array(regionCount);
   for (let f = 0; f < region.length; f++) roughSum[region[f]] += areas[f] * Math.min(4, triRoughness[f] / medianRough);
   const [ax, ay, az] = axis.direction;
-  const [px, py, pz] = axis.point;
+  const q: [number, number, number] = [0, 0, 0];
   const depths: number[][] = Array.from({ length: regionCount }, () => []);
   const cosines: number[][] = Array.from({ length: regionCount }, () => []);
   const outwardHits = new Float64Array(regionCount);
@@ -98,9 +98,7 @@ export function regionFigures(
       const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
       const along = nx * ax + ny * ay + nz * az;
       if (Math.abs(along) > outwardAxialMax) continue;
-      const rx = centroids[3 * f] - px, ry = centroids[3 * f + 1] - py, rz = centroids[3 * f + 2] - pz;
-      const t = rx * ax + ry * ay + rz * az;
-      const qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+      const [qx, qy, qz] = offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
       if ((nx * qx + ny * qy + nz * qz) > outwardRadialMax * (Math.hypot(qx, qy, qz) || 1)) continue;
     }
     outwardHits[r]++;
@@ -117,9 +115,7 @@ export function regionFigures(
   for (let f = 0; f < region.length; f++) {
     const r = out[region[f]];
     const w = areas[f];
-    const rx = centroids[3 * f] - px, ry = centroids[3 * f + 1] - py, rz = centroids[3 * f + 2] - pz;
-    const t = rx * ax + ry * ay + rz * az;
-    const qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+    const [qx, qy, qz] = offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
     const ql = Math.hypot(qx, qy, qz) || 1;
     const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
     r.area += w;

@@ -51,6 +51,13 @@ export const analysisSettingsSchema = z.object({
   axisSideAreaRatio: z.number().min(0).max(10).default(0.5),
   /** A mirrored shaft centre is kept only when at least this share as much surface faces it squarely as faced the fitted one. */
   axisSideFacingShare: z.number().min(0).max(10).default(0.6),
+  /**
+   * Medial segment of a flattened shaft (shaft-axis.ts, fitMedialSegment): lengths tried, as
+   * multiples of the fitted radius (empty: none)...
+   */
+  medialSegmentLengths: z.array(z.number().positive()).default([0.5, 1, 1.5]),
+  /** ...and the least gain in squarely facing area (share of a point centre's) for one to be kept. */
+  medialSegmentGain: z.number().min(0).default(0.1),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

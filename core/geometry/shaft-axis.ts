@@ -20,6 +20,79 @@ export interface ShaftAxis {
   radius: number;
   /** Share of the area whose normal is within 20 degrees of perpendicular to the axis. */
   support: number;
+  /**
+   * A flattened section's medial segment (fitMedialSegment): from `point` along `direction`
+   * (across the axis) for `length` mm. Radial directions are then taken from the nearest point
+   * of the segment instead of from the axis line. Absent: the axis line alone.
+   */
+  medial?: { direction: [number, number, number]; length: number };
+}
+
+/**
+ * Offset of a point from the shaft axis across it: from the nearest point of the axis line,
+ * or of the medial segment when the axis has one. Writes into `out` and returns it.
+ */
+export function offsetFromAxis(axis: ShaftAxis, x: number, y: number, z: number, out: [number, number, number]): [number, number, number] {
+  const [ax, ay, az] = axis.direction;
+  const rx = x - axis.point[0], ry = y - axis.point[1], rz = z - axis.point[2];
+  const t = rx * ax + ry * ay + rz * az;
+  let qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+  const m = axis.medial;
+  if (m) {
+    const s = Math.min(m.length, Math.max(0, qx * m.direction[0] + qy * m.direction[1] + qz * m.direction[2]));
+    qx -= s * m.direction[0]; qy -= s * m.direction[1]; qz -= s * m.direction[2];
+  }
+  out[0] = qx; out[1] = qy; out[2] = qz;
+  return out;
+}
+
+/** Area of the triangles within 20 degrees of perpendicular to the axis facing squarely (|radial| > 0.8) away from or towards it. */
+function squareArea(centroids: Float32Array, normals: Float32Array, areas: Float64Array, axis: ShaftAxis): number {
+  const [ax, ay, az] = axis.direction;
+  const q: [number, number, number] = [0, 0, 0];
+  let area = 0;
+  for (let f = 0; f < areas.length; f++) {
+    const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+    if (Math.abs(nx * ax + ny * ay + nz * az) > 0.342) continue;
+    offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
+    if (Math.abs(q[0] * nx + q[1] * ny + q[2] * nz) > 0.8 * Math.hypot(q[0], q[1], q[2])) area += areas[f];
+  }
+  return area;
+}
+
+/**
+ * The medial segment of a flattened shaft (an elliptic section of semi-axes a > b): the normal
+ * lines of an ellipse cross its major axis within a - b²/a of the centre (the evolute's cusps),
+ * so no single centre is met by all of them, and on a splinter from the narrow edge the fitted
+ * centre is that edge's centre of curvature while the flat outer and medullary faces, whose
+ * normals are parallel, face it obliquely. Radial directions taken from the nearest point of a
+ * segment running from the fitted centre away from the fragment (w: from the area centroid to
+ * the centre) make the flat faces face squarely again and leave a break across the wall facing
+ * neither way. The length is the one of `lengths` (multiples of the fitted radius) that makes
+ * the most surface face squarely, and is kept only when it adds at least `gain` of the area a
+ * point centre gives (a round shaft gains nothing: its wall faces face the centre already).
+ */
+export function fitMedialSegment(
+  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, lengths: number[], gain: number, supportMin = 0.5,
+): ShaftAxis {
+  if (!(axis.support >= supportMin) || !(axis.radius > 0) || lengths.length === 0) return axis;
+  let mx = 0, my = 0, mz = 0, total = 0;
+  for (let f = 0; f < areas.length; f++) {
+    mx += areas[f] * centroids[3 * f]; my += areas[f] * centroids[3 * f + 1]; mz += areas[f] * centroids[3 * f + 2]; total += areas[f];
+  }
+  if (!(total > 0)) return axis;
+  const w = offsetFromAxis({ ...axis, medial: undefined }, mx / total, my / total, mz / total, [0, 0, 0]);
+  const wl = Math.hypot(w[0], w[1], w[2]);
+  if (!(wl > 1e-9)) return axis;
+  const direction: [number, number, number] = [-w[0] / wl, -w[1] / wl, -w[2] / wl];
+  const base = squareArea(centroids, normals, areas, axis);
+  let best = axis, bestArea = base * (1 + gain);
+  for (const k of lengths) {
+    const trial: ShaftAxis = { ...axis, medial: { direction, length: k * axis.radius } };
+    const a = squareArea(centroids, normals, areas, trial);
+    if (a > bestArea) { best = trial; bestArea = a; }
+  }
+  return best;
 }
 
 /**
@@ -287,12 +360,9 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
   const nt = centroids.length / 3;
   const out = new Uint8Array(nt);
   if (axis.support < 0.5) return out;
-  const [ax, ay, az] = axis.direction;
-  const [px, py, pz] = axis.point;
+  const q: [number, number, number] = [0, 0, 0];
   for (let f = 0; f < nt; f++) {
-    const rx = centroids[3 * f] - px, ry = centroids[3 * f + 1] - py, rz = centroids[3 * f + 2] - pz;
-    const t = rx * ax + ry * ay + rz * az;
-    const qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+    const [qx, qy, qz] = offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
     const ql = Math.hypot(qx, qy, qz) || 1;
     const radial = (normals[3 * f] * qx + normals[3 * f + 1] * qy + normals[3 * f + 2] * qz) / ql;
     out[f] = radial >= radialMin ? 1 : radial <= -radialMin ? 2 : 0;

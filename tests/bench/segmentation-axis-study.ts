@@ -51,6 +51,6 @@ for (const frag of truth.fragments) {
   const r = [a.axis.point[0] - org[0], a.axis.point[1] - org[1], a.axis.point[2] - org[2]];
   const t = r[0] * dir3[0] + r[1] * dir3[1] + r[2] * dir3[2];
   const off = Math.hypot(r[0] - t * dir3[0], r[1] - t * dir3[1], r[2] - t * dir3[2]);
-  console.log(`${frag.catalogueNo} ${frag.element.padEnd(11)} agree ${(100 * agree / total).toFixed(1).padStart(5)} area ${total.toFixed(0).padStart(6)} axis ${ang.toFixed(0).padStart(3)} deg off ${off.toFixed(1).padStart(5)} mm R ${a.axis.radius.toFixed(1).padStart(5)} support ${a.axis.support.toFixed(2)} centre ${inside(a.mesh.positions, a.mesh.triangles, a.axis.point) ? 'IN MATERIAL' : 'in air'}`);
+  console.log(`${frag.catalogueNo} ${frag.element.padEnd(11)} agree ${(100 * agree / total).toFixed(1).padStart(5)} area ${total.toFixed(0).padStart(6)} axis ${ang.toFixed(0).padStart(3)} deg off ${off.toFixed(1).padStart(5)} mm R ${a.axis.radius.toFixed(1).padStart(5)} support ${a.axis.support.toFixed(2)} medial ${a.axis.medial ? a.axis.medial.length.toFixed(1) : "-"} centre ${inside(a.mesh.positions, a.mesh.triangles, a.axis.point) ? 'IN MATERIAL' : 'in air'}`);
 }
 console.log(`all ${(100 * agreeAll / areaAll).toFixed(2)}`);
