@@ -4,6 +4,7 @@
  * each face pair's own fine step (as pairwise.bench.ts) against the fragment pair's fine
  * shortlist (matchFragments, as the propose worker). Usage:
  *   npx tsx tests/bench/propose-gap.ts <generated-dir>[,<dir>...] [params-json]
+ * KNITBONE_PATCH_OPTIONS='{"minShare":0.05}' changes how faces are split into patches (prepared-fragment.ts).
  * SKIP_PF=1 leaves out the per-face-pair side, SKIP_SL=1 the shortlist side; QUIET=1 prints only the totals.
  */
 import { readFileSync } from 'node:fs';
@@ -26,7 +27,7 @@ for (const fr of truth.fragments) {
 const spacing = runSpacing([...inputs.values()].flatMap((x) => x.faces.map((y) => y.area ?? 0)));
 const params = { ...DEFAULT_MATCH_PARAMETERS, ...(extra ? JSON.parse(extra) : {}) };
 const prepared = new Map<string, PreparedFragment>();
-const prep = (no: string): PreparedFragment => prepared.get(no) ?? prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS })).get(no)!;
+const prep = (no: string): PreparedFragment => prepared.get(no) ?? prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS, ...(process.env.KNITBONE_PATCH_OPTIONS ? { patchOptions: JSON.parse(process.env.KNITBONE_PATCH_OPTIONS) as object } : {}) })).get(no)!;
 const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && inputs.has(j.a) && inputs.has(j.b));
 joins += eligible.length;
 const ok = (m: FaceMatch | undefined, t: number[], c: [number, number, number]): boolean => !!m && rotationErrorDegrees(m.transform, t) < 5 && displacementAt(m.transform, t, c) < 5;

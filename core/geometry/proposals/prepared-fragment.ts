@@ -95,6 +95,8 @@ export interface SamplingParameters {
   fpfhRadiusSpacings: number;
   /** Also match patches of faces that turn sharply (default true). */
   patches?: boolean;
+  /** How faces are split into patches (face-patches.ts; defaults: 20 and 40 degrees, 12% of the face, 40 samples). */
+  patchOptions?: { angleDeg?: number; meanAngleDeg?: number; minShare?: number; minSamples?: number };
 }
 
 export const DEFAULT_FPFH_RADIUS_SPACINGS = 5;
@@ -183,7 +185,7 @@ function prepareParts(input: FragmentInput, params: SamplingParameters): Prepare
     };
     add(s.points, s.normals, fpfh, outline, area);
     if (params.patches === false) return;
-    const patches = splitIntoPatches(s.points, s.normals, params.spacing, { angleDeg: 20, meanAngleDeg: 40 });
+    const patches = splitIntoPatches(s.points, s.normals, params.spacing, { angleDeg: 20, meanAngleDeg: 40, ...params.patchOptions });
     if (patches.length < 2) return;
     const n = s.points.length / 3;
     for (const p of patches) {
