@@ -13,7 +13,7 @@ import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
-import { facingGroups, fitMedialSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
+import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
@@ -74,6 +74,8 @@ export function analyseFragment(
   input: TriangleMesh,
   overrides: Partial<AnalysisSettings> = {},
   regionClassOverrides: ReadonlyMap<number, SurfaceClass> = new Map(),
+  /** Studies only (tests/bench): replaces the fitted shaft axis, e.g. by the generator's. */
+  axisOverride?: (fitted: ShaftAxis) => ShaftAxis,
 ): FragmentAnalysis {
   const settings = analysisSettings(overrides);
   const welded = weldVertices(input, settings.weldToleranceMm);
@@ -105,18 +107,22 @@ export function analyseFragment(
   }
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
-  const axis = fitMedialSegment(
-    settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean,
-      { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare }),
-    centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain,
-  );
+  const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
+  const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean,
+    { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
+  const fittedAxis = settings.sectionSegmentReaches.length > 0
+    ? fitSectionSegment(settled, centroids, filtered, areas, rays, {
+      reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin, neitherWeight: settings.sectionSegmentNeitherWeight,
+      supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays,
+    })
+    : fitMedialSegment(settled, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
   let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);
   region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
   let regionCount = 0;
   for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
-  const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
   const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin, settings.outwardFacingCosineMin, settings.outwardAxialMax, settings.outwardRadialMax);
   const regionFacing = Int8Array.from(figures, (r) => (axis.support < 0.5 ? 0 : r.radial >= settings.corticalRadialMin ? 1 : r.radial <= -settings.corticalRadialMin ? -1 : 0));
   const borders = regionBorders(mesh, topo.neighbours, filtered, region, regionCount, regionFacing, settings.ridgeAngleDeg);

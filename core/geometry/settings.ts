@@ -58,6 +58,21 @@ export const analysisSettingsSchema = z.object({
   medialSegmentLengths: z.array(z.number().positive()).default([0.5, 1, 1.5]),
   /** ...and the least gain in squarely facing area (share of a point centre's) for one to be kept. */
   medialSegmentGain: z.number().min(0).default(0.1),
+  /**
+   * Medial segment fitted in direction and extent (shaft-axis.ts, fitSectionSegment): reaches
+   * tried each way from the start, as multiples of the fragment's width across the axis (empty: off)...
+   */
+  sectionSegmentReaches: z.array(z.number().min(0)).default([0.15, 0.3, 0.5, 0.75]),
+  /** ...directions across the axis tried (over 180 degrees)... */
+  sectionSegmentDirections: z.number().int().min(1).default(12),
+  /** ...weight of the rays that cross no wall head-on facing neither way (break faces)... */
+  sectionSegmentNeitherWeight: z.number().min(0).default(0),
+  /** ...only on fragments whose axis support is at least this (pieces with much of a bone end are left with the point centre)... */
+  sectionSegmentSupportMin: z.number().min(0).max(1).default(0.65),
+  /** ...scored on an even sample of at most this many wall rays... */
+  sectionSegmentMaxRays: z.number().int().positive().default(4000),
+  /** ...and the least gain in score (share of the point centre's) for a segment to be kept. */
+  sectionSegmentGain: z.number().min(0).default(0.1),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

@@ -380,3 +380,131 @@ function weightedMedian(values: Array<[number, number]>): number {
   }
   return values.length ? values[values.length - 1][0] : 0;
 }
+
+/** What fitSectionSegment reads of the inward wall rays (wall-rays.ts). */
+export interface SectionRays { triangles: Uint32Array; exitCosine: Float32Array; exitTriangle: Int32Array }
+
+/**
+ * The medial segment of a flattened shaft fitted in direction and extent together (compare
+ * fitMedialSegment, which only tries lengths along the line from the area centroid to the
+ * centre). The wall rays say which surface is wall: an inward ray that leaves through the
+ * other face of the wall head-on joins two triangles of which one must face out from the
+ * shaft and the other in; a segment inside the wall makes both face out, a centre beside the
+ * fragment makes them face obliquely. Rays that do not cross a wall head-on come mostly from
+ * break faces, which should face neither way. Score of a model: area of wall pairs facing
+ * squarely (|radial| >= 0.8) and oppositely plus area of the other rays' triangles facing
+ * neither way. Candidates: segments through the point centre or the area centroid, in
+ * `directions` directions across the axis, reaching each way by `reaches` times the
+ * fragment's width across the axis, then refined by coordinate search. Kept only when it
+ * scores at least `gain` more than the point centre.
+ */
+export function fitSectionSegment(
+  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: SectionRays,
+  options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; supportMin: number; maxRows: number },
+): ShaftAxis {
+  if (!(axis.support >= options.supportMin) || options.reaches.length === 0 || options.directions < 1) return axis;
+  const [ax, ay, az] = axis.direction;
+  let ux: number, uy: number, uz: number;
+  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
+  const ul = Math.hypot(ux, uy, uz);
+  ux /= ul; uy /= ul; uz /= ul;
+  const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
+  // 2D rows: position and unit normal across the axis of the shooter (and of the exit for a wall pair).
+  const px: number[] = [], py: number[] = [], mx: number[] = [], my: number[] = [], w: number[] = [];
+  const ex: number[] = [], ey: number[] = [], enx: number[] = [], eny: number[] = [];
+  let uMin = Infinity, uMax = -Infinity, vMin = Infinity, vMax = -Infinity, cu = 0, cv = 0, total = 0;
+  const project = (f: number): [number, number, number, number, boolean] => {
+    const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
+    const mu = nx * ux + ny * uy + nz * uz, mv = nx * vx + ny * vy + nz * vz;
+    const ml = Math.hypot(mu, mv) || 1;
+    return [
+      centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz,
+      centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz,
+      mu / ml, mv / ml, Math.abs(nx * ax + ny * ay + nz * az) <= 0.342,
+    ];
+  };
+  // An even sample of at most `maxRows` rays.
+  const stride = Math.max(1, Math.ceil(rays.triangles.length / options.maxRows));
+  for (let k = 0; k < rays.triangles.length; k += stride) {
+    const f = rays.triangles[k];
+    const [x, y, nu, nv, across] = project(f);
+    uMin = Math.min(uMin, x); uMax = Math.max(uMax, x); vMin = Math.min(vMin, y); vMax = Math.max(vMax, y);
+    cu += areas[f] * x; cv += areas[f] * y; total += areas[f];
+    if (!across) continue;
+    const g = rays.exitTriangle[k];
+    px.push(x); py.push(y); mx.push(nu); my.push(nv); w.push(areas[f]);
+    if (g >= 0 && rays.exitCosine[k] >= options.headOnCosineMin) {
+      const [gx, gy, gu, gv] = project(g);
+      ex.push(gx); ey.push(gy); enx.push(gu); eny.push(gv);
+    } else {
+      ex.push(NaN); ey.push(0); enx.push(0); eny.push(0);
+    }
+  }
+  const n = w.length;
+  if (n < 10 || !(total > 0)) return axis;
+  cu /= total; cv /= total;
+  const width = Math.max(uMax - uMin, vMax - vMin);
+  const c0u = axis.point[0] * ux + axis.point[1] * uy + axis.point[2] * uz;
+  const c0v = axis.point[0] * vx + axis.point[1] * vy + axis.point[2] * vz;
+  // Radial component of a 2D normal at (x, y) against the segment from (su, sv) along (du, dv), lengths h1 forward, h2 back.
+  const radial = (x: number, y: number, nu: number, nv: number, su: number, sv: number, du: number, dv: number, h1: number, h2: number): number => {
+    const rx = x - su, ry = y - sv;
+    const s = Math.min(h1, Math.max(-h2, rx * du + ry * dv));
+    const qx = rx - s * du, qy = ry - s * dv;
+    return (qx * nu + qy * nv) / (Math.hypot(qx, qy) || 1e-9);
+  };
+  const score = (su: number, sv: number, theta: number, h1: number, h2: number): number => {
+    const du = Math.cos(theta), dv = Math.sin(theta);
+    let s = 0;
+    for (let k = 0; k < n; k++) {
+      const r = radial(px[k], py[k], mx[k], my[k], su, sv, du, dv, h1, h2);
+      if (Number.isNaN(ex[k])) {
+        if (Math.abs(r) < 0.8) s += options.neitherWeight * w[k];
+      } else {
+        const re = radial(ex[k], ey[k], enx[k], eny[k], su, sv, du, dv, h1, h2);
+        if (Math.abs(r) >= 0.8 && Math.abs(re) >= 0.8 && r * re < 0) s += w[k];
+      }
+    }
+    return s;
+  };
+  type Model = { su: number; sv: number; theta: number; h1: number; h2: number; s: number };
+  // Grid over starts, directions and reaches (points only when `reaches` is [0]), then coordinate search.
+  const search = (reaches: number[]): Model => {
+    let best: Model = { su: c0u, sv: c0v, theta: 0, h1: 0, h2: 0, s: score(c0u, c0v, 0, 0, 0) };
+    for (const [su, sv] of [[c0u, c0v], [cu, cv]]) {
+      for (let i = 0; i < (reaches.length > 1 ? options.directions : 1); i++) {
+        const theta = (Math.PI * i) / options.directions;
+        for (const k1 of reaches) for (const k2 of reaches) {
+          const s = score(su, sv, theta, k1 * width, k2 * width);
+          if (s > best.s) best = { su, sv, theta, h1: k1 * width, h2: k2 * width, s };
+        }
+      }
+    }
+    let step = 0.1 * width, turn = Math.PI / (2 * options.directions);
+    const lengths = reaches.length > 1;
+    for (let round = 0; round < 40 && step > 0.01 * width; round++) {
+      let moved = false;
+      const tries: Array<[number, number, number, number, number]> = [[step, 0, 0, 0, 0], [-step, 0, 0, 0, 0], [0, step, 0, 0, 0], [0, -step, 0, 0, 0]];
+      if (lengths) tries.push([0, 0, turn, 0, 0], [0, 0, -turn, 0, 0], [0, 0, 0, step, 0], [0, 0, 0, -step, 0], [0, 0, 0, 0, step], [0, 0, 0, 0, -step]);
+      for (const [a, b, t, c, d] of tries) {
+        const h1 = best.h1 + c, h2 = best.h2 + d;
+        if (h1 < 0 || h2 < 0) continue;
+        const s = score(best.su + a, best.sv + b, best.theta + t, h1, h2);
+        if (s > best.s) { best = { su: best.su + a, sv: best.sv + b, theta: best.theta + t, h1, h2, s }; moved = true; }
+      }
+      if (!moved) { step /= 2; turn /= 2; }
+    }
+    return best;
+  };
+  // A segment must beat the best point centre under the same score, not only the consensus one.
+  const bestPoint = search([0]);
+  const best = search([0, ...options.reaches]);
+  if (!(best.s > bestPoint.s * (1 + options.gain))) return axis;
+  const du = Math.cos(best.theta), dv = Math.sin(best.theta);
+  const d3: [number, number, number] = [du * ux + dv * vx, du * uy + dv * vy, du * uz + dv * vz];
+  const t = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
+  const su = best.su - best.h2 * du, sv = best.sv - best.h2 * dv;
+  const point: [number, number, number] = [su * ux + sv * vx + t * ax, su * uy + sv * vy + t * ay, su * uz + sv * vz + t * az];
+  const length = best.h1 + best.h2;
+  return { ...axis, point, medial: length > 0 ? { direction: d3, length } : undefined };
+}
