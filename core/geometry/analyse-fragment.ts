@@ -110,12 +110,15 @@ export function analyseFragment(
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
   const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance), centroids, filtered, areas, triMean,
     { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
-  const fittedAxis = settings.sectionSegmentReaches.length > 0
+  // The segment fitted in direction and extent where it is kept, else the one along the line from the area centroid to the centre.
+  const sectioned = settings.sectionSegmentReaches.length > 0
     ? fitSectionSegment(settled, centroids, filtered, areas, rays, {
-      reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin, neitherWeight: settings.sectionSegmentNeitherWeight,
+      reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin,
+      neitherWeight: settings.sectionSegmentNeitherWeight, neitherLossMax: settings.sectionSegmentNeitherLossMax,
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays,
     })
-    : fitMedialSegment(settled, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+    : settled;
+  const fittedAxis = sectioned.medial ? sectioned : fitMedialSegment(settled, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);

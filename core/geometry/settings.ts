@@ -67,6 +67,8 @@ export const analysisSettingsSchema = z.object({
   sectionSegmentDirections: z.number().int().min(1).default(12),
   /** ...weight of the rays that cross no wall head-on facing neither way (break faces)... */
   sectionSegmentNeitherWeight: z.number().min(0).default(0),
+  /** ...refused when it turns more than this share of the rays crossing no wall head-on to face out or in, against the point centre (2: no veto)... */
+  sectionSegmentNeitherLossMax: z.number().min(0).default(2),
   /** ...only on fragments whose axis support is at least this (pieces with much of a bone end are left with the point centre)... */
   sectionSegmentSupportMin: z.number().min(0).max(1).default(0.65),
   /** ...scored on an even sample of at most this many wall rays... */

@@ -400,7 +400,7 @@ export interface SectionRays { triangles: Uint32Array; exitCosine: Float32Array;
  */
 export function fitSectionSegment(
   axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: SectionRays,
-  options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; supportMin: number; maxRows: number },
+  options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; neitherLossMax: number; supportMin: number; maxRows: number },
 ): ShaftAxis {
   if (!(axis.support >= options.supportMin) || options.reaches.length === 0 || options.directions < 1) return axis;
   const [ax, ay, az] = axis.direction;
@@ -500,6 +500,17 @@ export function fitSectionSegment(
   const bestPoint = search([0]);
   const best = search([0, ...options.reaches]);
   if (!(best.s > bestPoint.s * (1 + options.gain))) return axis;
+  // Veto: the segment may not turn the rays that cross no wall head-on (mostly break faces)
+  // to face out or in more than the point centre did.
+  const neither = (su: number, sv: number, theta: number, h1: number, h2: number): number => {
+    const du = Math.cos(theta), dv = Math.sin(theta);
+    let s = 0;
+    for (let k = 0; k < n; k++) if (Number.isNaN(ex[k]) && Math.abs(radial(px[k], py[k], mx[k], my[k], su, sv, du, dv, h1, h2)) < 0.8) s += w[k];
+    return s;
+  };
+  let loose = 0;
+  for (let k = 0; k < n; k++) if (Number.isNaN(ex[k])) loose += w[k];
+  if (neither(best.su, best.sv, best.theta, best.h1, best.h2) < neither(c0u, c0v, 0, 0, 0) - options.neitherLossMax * loose) return axis;
   const du = Math.cos(best.theta), dv = Math.sin(best.theta);
   const d3: [number, number, number] = [du * ux + dv * vx, du * uy + dv * vy, du * uz + dv * vz];
   const t = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
