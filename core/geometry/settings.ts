@@ -165,6 +165,23 @@ export const analysisSettingsSchema = z.object({
   faceSplitMinAreaMm2: z.number().min(0).default(120),
   /** ...and so does one with less border than this (mm) against outer bone surface, where its fracture angle is read (3 samples at anglePlaneRadiusMm spacing and some). */
   faceSplitMinOuterEdgeMm: z.number().min(0).default(12),
+  /**
+   * Break faces are also cut at corners of their rim against the outer surface (face-corner-split.ts):
+   * where the rim's direction over faceCornerWindowMm before and after a point differs by more
+   * than this (180: never), the face is cut from there to its other rim (pieces keep
+   * faceSplitMinAreaMm2 and faceSplitMinOuterEdgeMm).
+   */
+  faceCornerAngleDeg: z.number().positive().max(180).default(35),
+  /** Rim length (mm) either side of a point over which its turn is measured. */
+  faceCornerWindowMm: z.number().positive().default(4),
+  /** A corner cut is kept only when the two pieces' mean normals differ by at least this (degrees). */
+  faceCornerMinNormalDeg: z.number().min(0).max(180).default(20),
+  /** Each piece of a corner cut keeps at least this area (mm²)... */
+  faceCornerMinAreaMm2: z.number().min(0).default(60),
+  /** ...and this much rim (mm) against the outer surface. */
+  faceCornerMinOuterEdgeMm: z.number().min(0).default(12),
+  /** At most this many corner cuts per face. */
+  faceCornerMaxCuts: z.number().int().min(0).default(3),
   /** Original surface whose rays run this many times deeper than the typical wall: articular end. */
   articularDepthRatio: z.number().positive().default(3),
   /**
