@@ -10,8 +10,10 @@ import type { TriangleMesh } from './mesh';
  * the face is cut there along the shortest path over the face's interior edges from the
  * corner to its rim on the other side (any border that is not outer surface: the medullary
  * rim, another face). A cut is kept only when both pieces keep at least `minFaceArea` (mm²)
- * and `minOuterEdge` (mm) of rim against the outer surface (where the fracture angle is read:
- * the same limits as face-split.ts) and their mean normals differ by at least `minNormalDeg`.
+ * and `minOuterEdge` (mm) of rim against the outer surface (where the fracture angle is read)
+ * and their mean normals differ by at least `minNormalDeg` (a rough single break also turns
+ * along its rim; two breaks meeting at a corner face different ways as a whole even where
+ * their surfaces run into each other without a crease).
  *
  * `faceGroup` is the face group of each triangle (-1: not fracture); faces are connected
  * triangles of one group. Returns new groups (split pieces get new ids; others keep theirs).
