@@ -72,7 +72,7 @@ export const analysisSettingsSchema = z.object({
   /** ...only on fragments whose axis support is at least this (pieces with much of a bone end are left with the point centre)... */
   sectionSegmentSupportMin: z.number().min(0).max(1).default(0.65),
   /** ...scored on an even sample of at most this many wall rays... */
-  sectionSegmentMaxRays: z.number().int().positive().default(1500),
+  sectionSegmentMaxRays: z.number().int().positive().default(4000),
   /** ...and the least gain in score (share of the point centre's) for a segment to be kept. */
   sectionSegmentGain: z.number().min(0).default(0.1),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
