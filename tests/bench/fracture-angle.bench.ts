@@ -18,6 +18,7 @@ import { loadavg } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { analyseFragment } from '../../core/geometry/analyse-fragment';
+import type { AnalysisSettings } from '../../core/geometry/settings';
 import { fractureFaces, type FractureFace } from '../../core/geometry/fracture-faces';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
 import { triangleCentroids } from '../../core/geometry/normal-filter';
@@ -61,7 +62,7 @@ function scoreSample(dir: string): SampleAngles {
   };
   for (const frag of truth.fragments) {
     const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const a = analyseFragment(parsed.mesh);
+    const a = analyseFragment(parsed.mesh, JSON.parse(process.env.KNITBONE_SEGMENTATION_SETTINGS ?? '{}') as Partial<AnalysisSettings>);
     const input = Buffer.from(frag.triangleLabels, 'base64');
     const nt = a.triangleClass.length;
     const labels = new Uint8Array(nt);
