@@ -17,21 +17,13 @@
  */
 import { readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { analyseFragment } from '../../core/geometry/analyse-fragment';
-import type { AnalysisSettings } from '../../core/geometry/settings';
 import { fractureFaces, type AngleSampleTrace } from '../../core/geometry/fracture-faces';
-import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
+import { analyseLabelled, dominantBreak, type Truth, type TruthBreak } from './fracture-angle.bench';
 import { triangleCentroids } from '../../core/geometry/normal-filter';
-import { parseMeshFile } from '../../core/geometry/parse/index';
 import { offsetFromAxis } from '../../core/geometry/shaft-axis';
 import { SURFACE_CLASSES } from '../../core/geometry/surface-classes';
 import { buildTopology } from '../../core/geometry/topology';
 
-interface TruthBreak { id: number; age: string; pattern: string; nominalBevelDeg: number }
-interface Truth {
-  fragments: Array<{ catalogueNo: string; scanFile: string; boneId: string; triangleLabels: string }>;
-  bones: Array<{ boneId: string; breaks: TruthBreak[] }>;
-}
 type V = [number, number, number];
 const FRACTURE_BASE = 10;
 const OUTER = SURFACE_CLASSES.indexOf('outer-cortical');
@@ -59,25 +51,14 @@ for (const dir of dirs) {
   for (const b of truth.bones) breaks.set(b.boneId, new Map(b.breaks.map((x) => [x.id, x])));
   for (const frag of truth.fragments) {
     if (process.env.KNITBONE_STUDY_FRAG && frag.catalogueNo !== process.env.KNITBONE_STUDY_FRAG) continue;
-    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const a = analyseFragment(parsed.mesh, JSON.parse(process.env.KNITBONE_SEGMENTATION_SETTINGS ?? '{}') as Partial<AnalysisSettings>);
-    const input = Buffer.from(frag.triangleLabels, 'base64');
-    const nt = a.triangleClass.length;
-    const labels = new Uint8Array(nt);
-    for (let f = 0; f < nt; f++) labels[f] = input[a.sourceTriangle[f]];
-    const { normals, areas } = triangleNormalsAndAreas(a.mesh);
-    const expected = (b: TruthBreak): string => (Math.abs(b.nominalBevelDeg) > a.settings.rightAngleToleranceDeg ? 'oblique' : 'right');
+    const { a, labels, normals, areas, expected } = analyseLabelled(dir, frag);
+    const nt = labels.length;
     const boneBreaks = breaks.get(frag.boneId);
     const wanted: Array<{ face: number; br: TruthBreak; purity: number; exp: string }> = [];
     for (const face of a.fractureFaces) {
-      const byBreak = new Map<number, number>();
-      let faceArea = 0;
-      for (const t of face.triangleIds) {
-        faceArea += areas[t];
-        if (labels[t] >= FRACTURE_BASE) byBreak.set(labels[t] - FRACTURE_BASE, (byBreak.get(labels[t] - FRACTURE_BASE) ?? 0) + areas[t]);
-      }
-      if (byBreak.size === 0) continue;
-      const [breakId, breakArea] = [...byBreak.entries()].sort((x, y) => y[1] - x[1])[0];
+      const dominant = dominantBreak(face, labels, areas);
+      if (!dominant) continue;
+      const { breakId, breakArea, faceArea } = dominant;
       const br = boneBreaks?.get(breakId);
       if (!br) continue;
       const exp = expected(br);
