@@ -1,6 +1,7 @@
 import { vertexRings } from './adjacency';
 import { originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
+import { splitFacesAtCorners } from './face-corner-split';
 import { fractureFaceGroups } from './face-split';
 import { fractureFaces, type FractureFace } from './fracture-faces';
 import { enclosedVolume, surfaceArea } from './measure';
@@ -152,8 +153,18 @@ export function analyseFragment(
     minFaceArea: settings.faceSplitMinAreaMm2,
     minOuterEdge: settings.faceSplitMinOuterEdgeMm,
   });
-  const faceGroup = new Int32Array(nt);
-  for (let f = 0; f < nt; f++) faceGroup[f] = groupOfRegion[region[f]];
+  const regionGroup = new Int32Array(nt);
+  for (let f = 0; f < nt; f++) regionGroup[f] = groupOfRegion[region[f]];
+  // ...and cut where their rim against the outer surface turns sharply (face-corner-split.ts).
+  const outerCode = surfaceClassCode('outer-cortical');
+  const faceGroup = splitFacesAtCorners(mesh, topo.neighbours, filtered, areas, regionGroup, (f) => triangleClass[f] === outerCode, {
+    cornerAngleDeg: settings.faceCornerAngleDeg,
+    windowMm: settings.faceCornerWindowMm,
+    minFaceArea: settings.faceCornerMinAreaMm2,
+    minOuterEdge: settings.faceCornerMinOuterEdgeMm,
+    minNormalDeg: settings.faceCornerMinNormalDeg,
+    maxCuts: settings.faceCornerMaxCuts,
+  });
   const faces = fractureFaces({
     faceGroup,
     mesh,

@@ -14,6 +14,7 @@
  * Assemblages: KNITBONE_PAIRWISE_DIRS (comma separated folders written by `knitbone demo`), or
  * else generated here from seeds KNITBONE_PAIRWISE_SEEDS (default "4242,777"; these seeds are
  * never used to fit the score) with KNITBONE_PAIRWISE_FRAGMENTS fragments (default 30).
+ * KNITBONE_PAIRWISE_SPACING fixes the sample spacing (mm) instead of the rung the face areas pick.
  * KNITBONE_PAIRWISE_PARAMS='{"axisPeaks": 3}' overrides matching parameters; KNITBONE_PAIRWISE_LIMIT caps
  * the face pairs aligned per assemblage (true joins first).
  * KNITBONE_PAIRWISE_DUMP=<file.json> writes every scored motion with its components and whether
@@ -134,7 +135,8 @@ export default async function main(): Promise<void> {
       }
     }
     const raw = spacingForFaces([...inputs.values()].flatMap((x) => x.faces.map((y) => y.area ?? 0)));
-    const spacing = SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / raw)) < Math.abs(Math.log(best / raw)) ? v : best), SPACING_LADDER[0]);
+    // KNITBONE_PAIRWISE_SPACING fixes the spacing (to compare segmentations whose face areas would pick different rungs)
+    const spacing = Number(process.env.KNITBONE_PAIRWISE_SPACING) || SPACING_LADDER.reduce((best, v) => (Math.abs(Math.log(v / raw)) < Math.abs(Math.log(best / raw)) ? v : best), SPACING_LADDER[0]);
     const prepared = new Map<string, PreparedFragment>();
     const usable = [...inputs.keys()];
     for (const no of usable) prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));

@@ -154,6 +154,18 @@ export interface MatchTrace {
   coarse: RigidTransform[];
   refined: Array<{ transform: RigidTransform; overlap: number }>;
   kept: RigidTransform[];
+  /** When given, wall ms spent per step of the screen are added here (tests/bench/screen-stages.ts). */
+  times?: Record<string, number>;
+}
+
+/** f(), its wall time added to times[step] when timing. */
+function timed<T>(times: Record<string, number> | undefined, step: string, f: () => T): T {
+  if (!times) return f();
+  const t = process.cpuUsage();
+  const out = f();
+  const u = process.cpuUsage(t);
+  times[step] = (times[step] ?? 0) + (u.user + u.system) / 1000;
+  return out;
 }
 
 function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
@@ -184,7 +196,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
   const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
   if (shafts) {
-    for (const h of searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) })) starts.push(h.transform);
+    for (const h of timed(trace?.times, 'shared axis', () => searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) }))) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const small = smallPair(FA, FB, params);
@@ -193,8 +205,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const refine = (list: RigidTransform[]): CoarseMotion[] =>
     list.map((h) => {
       trace?.coarse.push(h);
-      const icp = icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: params.screenIcpDistanceSpacings * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing });
-      return { transform: icp.transform, overlap: overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing) };
+      const icp = timed(trace?.times, 'short icp', () => icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: params.screenIcpDistanceSpacings * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing }));
+      return { transform: icp.transform, overlap: timed(trace?.times, 'overlap share', () => overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing)) };
     });
   let refined = refine(starts);
   // shaft pieces whose fitted axis points or radii disagree (partial arcs): the axis directions only
@@ -202,7 +214,7 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   // a small face is easily covered by a wrong turn about the axis: it never settles the search
   let settled = shafts && !small && good(refined, params.axisGoodOverlap);
   if (a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections)) {
-    const hyps = searchAlongAxisDirections(a.axis.direction, FA.points, FA.normals, b.axis.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg });
+    const hyps = timed(trace?.times, 'axis directions', () => searchAlongAxisDirections(a.axis!.direction, FA.points, FA.normals, b.axis!.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg }));
     const more = refine(hyps.map((h) => h.transform));
     refined = refined.concat(more);
     // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
@@ -210,15 +222,15 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {
-    const hyps = ransacAlignFaces(
+    const hyps = timed(trace?.times, 'ransac', () => ransacAlignFaces(
       { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFeatureFpfh: FB.mirroredFeatureFpfh },
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, featureFpfh: FA.featureFpfh },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
-    );
+    ));
     refined = refined.concat(refine(hyps.map((h) => h.transform)));
     // point pair features: on a small face FPFH histograms over a radius as wide as the face barely differ, pair features still do
     if (params.pairVoteHypotheses > 0 && small) {
-      const votes = pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: params.pairVoteHypotheses });
+      const votes = timed(trace?.times, 'pair voting', () => pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: params.pairVoteHypotheses }));
       refined = refined.concat(refine(votes.map((h) => h.transform)));
     }
   }

@@ -72,25 +72,25 @@ function toFrame(v: Float64Array, count: number, x: V3, y: V3, z: V3): Float64Ar
 }
 
 interface VoteTable {
+  /** Per slot: the bin's key (-1: empty) and its count of votes. */
   tKey: Float64Array;
   tCount: Int32Array;
-  tC: Float64Array;
-  tS: Float64Array;
-  tX: Float64Array;
-  tY: Float64Array;
-  tZ: Float64Array;
+  /** Slots in the order their bins got their first vote. */
   used: Int32Array;
+  /** Per vote, in voting order: its bin's slot. */
+  voteSlot: Int32Array;
 }
 
-/** Vote tables by size, kept between searches (each search leaves its bins empty again: key -1, sums 0). */
+/** Vote tables by size, kept between searches (each search leaves its bins empty again: key -1, count 0). */
 const tables = new Map<number, VoteTable>();
 
-function voteTable(size: number): VoteTable {
+function voteTable(size: number, votes: number): VoteTable {
   let t = tables.get(size);
   if (!t) {
-    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), tC: new Float64Array(size), tS: new Float64Array(size), tX: new Float64Array(size), tY: new Float64Array(size), tZ: new Float64Array(size), used: new Int32Array(size) };
+    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), used: new Int32Array(size), voteSlot: new Int32Array(votes) };
     tables.set(size, t);
   }
+  if (t.voteSlot.length < votes) t.voteSlot = new Int32Array(votes);
   return t;
 }
 
@@ -131,7 +131,8 @@ export function searchAlongAxisDirections(
   let size = 1024;
   while (size < 2 * A.count * B.count) size <<= 1;
   const mask = size - 1;
-  const { tKey, tCount, tC, tS, tX, tY, tZ, used } = voteTable(size);
+  const { tKey, tCount, used, voteSlot } = voteTable(size, A.count * B.count);
+  const peaks = options.peaks ?? 3;
   const found: DirectionHypothesis[] = [];
   for (const flip of [false, true]) {
     const f: 1 | -1 = flip ? -1 : 1;
@@ -150,35 +151,49 @@ export function searchAlongAxisDirections(
       const za1 = rotateAbout(directionA, xa0, a1), ya1 = rotateAbout(ya0, xa0, a1);
       const za: V3 = rotateAbout(za1, ya1, a2), xa: V3 = rotateAbout(xa0, ya1, a2), ya = ya1;
       const aP = toFrame(Ap, A.count, xa, ya, za), aN = toFrame(A.n, A.count, xa, ya, za);
-      // A's normal across the axis, reversed: where B's must point after the turn
-      const phiA = new Float64Array(A.count).fill(NaN), cA = new Float64Array(A.count), sA = new Float64Array(A.count);
+      // A's normal across the axis, reversed: where B's must point after the turn; only the
+      // samples where that is defined, packed in their order (the votes come in the same order)
+      const vA = new Int32Array(A.count), phiA = new Float64Array(A.count), cA = new Float64Array(A.count), sA = new Float64Array(A.count);
+      const xA = new Float64Array(A.count), yA = new Float64Array(A.count), zA = new Float64Array(A.count), nzA = new Float64Array(A.count);
+      let nA = 0;
       for (let j = 0; j < A.count; j++) {
         const p = -aN[3 * j], q = -aN[3 * j + 1], h = Math.hypot(p, q);
         if (h < 0.3) continue;
-        phiA[j] = Math.atan2(q, p); cA[j] = p / h; sA[j] = q / h;
+        vA[nA] = j; phiA[nA] = Math.atan2(q, p); cA[nA] = p / h; sA[nA] = q / h;
+        xA[nA] = aP[3 * j]; yA[nA] = aP[3 * j + 1]; zA[nA] = aP[3 * j + 2]; nzA[nA] = aN[3 * j + 2];
+        nA++;
       }
-      let nUsed = 0;
+      // Each pair of samples whose normals can be opposed votes for one (turn, translation) bin.
+      // Counting comes first, with each vote's bin noted; the sums that make a bin's motion
+      // are taken afterwards for the few best bins only, over their votes in voting order (the
+      // same sums, added in the same order, as summing every bin while voting).
+      let nUsed = 0, nVotes = 0;
       for (let i = 0; i < B.count; i++) {
         if (Number.isNaN(phiB[i])) continue;
         const w = bN[3 * i + 2];
         const bx = bP[3 * i], by = bP[3 * i + 1], bz = bP[3 * i + 2];
-        for (let j = 0; j < A.count; j++) {
-          if (Number.isNaN(phiA[j]) || Math.abs(w + aN[3 * j + 2]) > 0.3) continue;
+        const pB = phiB[i], cBi = cB[i], sBi = sB[i];
+        for (let k = 0; k < nA; k++) {
+          if (Math.abs(w + nzA[k]) > 0.3) continue;
           // turn that makes B's normal across the axis point opposite to A's
-          let th = phiA[j] - phiB[i];
+          let th = phiA[k] - pB;
           if (th < 0) th += 2 * Math.PI;
-          const c = cA[j] * cB[i] + sA[j] * sB[i], s = sA[j] * cB[i] - cA[j] * sB[i];
-          const tx = aP[3 * j] - (c * bx - s * by), ty = aP[3 * j + 1] - (s * bx + c * by), tz = aP[3 * j + 2] - bz;
-          const kt = Math.floor(th / dTh) % nTh;
+          const c = cA[k] * cBi + sA[k] * sBi, s = sA[k] * cBi - cA[k] * sBi;
+          const tx = xA[k] - (c * bx - s * by), ty = yA[k] - (s * bx + c * by), tz = zA[k] - bz;
+          // th in [0, 2 pi]: its bin is at most nTh, which is bin 0 again
+          let kt = Math.floor(th / dTh);
+          if (kt >= nTh) kt -= nTh;
           const key = ((kt * nb + Math.round(tx / bs) + half) * nb + Math.round(ty / bs) + half) * nb + Math.round(tz / bs) + half;
-          let h = (Math.imul(key | 0, 0x9e3779b1) ^ Math.floor(key / 4294967296)) & mask;
-          while (tKey[h] !== -1 && tKey[h] !== key) h = (h + 1) & mask;
-          if (tKey[h] === -1) { tKey[h] = key; used[nUsed++] = h; }
-          tCount[h]++; tC[h] += c; tS[h] += s; tX[h] += tx; tY[h] += ty; tZ[h] += tz;
+          // (the slot only decides where a bin is kept, never which bins win)
+          let h = Math.imul(key | 0, 0x9e3779b1) & mask;
+          let at = tKey[h];
+          while (at !== -1 && at !== key) { h = (h + 1) & mask; at = tKey[h]; }
+          if (at === -1) { tKey[h] = key; used[nUsed++] = h; }
+          tCount[h]++;
+          voteSlot[nVotes++] = h;
         }
       }
       // the best bins of this flip and tilt: the motion is the mean turn and translation of their votes
-      const peaks = options.peaks ?? 3;
       const best: number[] = [];
       for (let k = 0; k < nUsed; k++) {
         const h = used[k];
@@ -189,19 +204,39 @@ export function searchAlongAxisDirections(
           if (best.length > peaks) best.length = peaks;
         }
       }
-      for (const h of best) {
-        const n = tCount[h];
-        const transform = motion([xa, ya, za], [xb, yb, zb], f, Math.atan2(tS[h], tC[h]), [tX[h] / n, tY[h] / n, tZ[h] / n], ca, cb);
-        found.push({ transform, votes: n, flip, tiltDeg: [t1, t2] });
+      if (best.length) {
+        const sums = best.map(() => [0, 0, 0, 0, 0]);
+        const b0 = best[0], b1 = best.length > 1 ? best[1] : -1, b2 = best.length > 2 ? best[2] : -1;
+        let v = 0;
+        for (let i = 0; i < B.count; i++) {
+          if (Number.isNaN(phiB[i])) continue;
+          const w = bN[3 * i + 2];
+          const bx = bP[3 * i], by = bP[3 * i + 1], bz = bP[3 * i + 2];
+          const cBi = cB[i], sBi = sB[i];
+          for (let k = 0; k < nA; k++) {
+            if (Math.abs(w + nzA[k]) > 0.3) continue;
+            const h = voteSlot[v++];
+            const b = h === b0 ? 0 : h === b1 ? 1 : h === b2 ? 2 : best.length > 3 ? best.indexOf(h) : -1;
+            if (b < 0) continue;
+            const c = cA[k] * cBi + sA[k] * sBi, s = sA[k] * cBi - cA[k] * sBi;
+            const S = sums[b];
+            S[0] += c; S[1] += s; S[2] += xA[k] - (c * bx - s * by); S[3] += yA[k] - (s * bx + c * by); S[4] += zA[k] - bz;
+          }
+        }
+        best.forEach((h, b) => {
+          const n = tCount[h], S = sums[b];
+          const transform = motion([xa, ya, za], [xb, yb, zb], f, Math.atan2(S[1], S[0]), [S[2] / n, S[3] / n, S[4] / n], ca, cb);
+          found.push({ transform, votes: n, flip, tiltDeg: [t1, t2] });
+        });
       }
       for (let k = 0; k < nUsed; k++) {
         const h = used[k];
-        tKey[h] = -1; tCount[h] = 0; tC[h] = 0; tS[h] = 0; tX[h] = 0; tY[h] = 0; tZ[h] = 0;
+        tKey[h] = -1; tCount[h] = 0;
       }
     }
   }
   found.sort((x, y) => y.votes - x.votes);
-  return found.slice(0, options.peaks ?? 3);
+  return found.slice(0, peaks);
 }
 
 /**

@@ -91,10 +91,9 @@ function frames(s: Oriented): Float64Array {
 }
 
 /**
- * Feature key of the pair (i, j) of one face (or -1 when the pair is too short or too long),
- * and in `alpha[0]` the angle of j about i's normal in i's frame (atan2 of its z and y).
+ * Feature key of the pair (i, j) of one face (or -1 when the pair is too short or too long).
  */
-function pairKey(s: Oriented, R: Float64Array, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number, alpha: Float64Array): number {
+function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number): number {
   const dx = s.p[3 * j] - s.p[3 * i], dy = s.p[3 * j + 1] - s.p[3 * i + 1], dz = s.p[3 * j + 2] - s.p[3 * i + 2];
   const d = Math.hypot(dx, dy, dz);
   const kd = Math.floor(d / dStep);
@@ -105,13 +104,18 @@ function pairKey(s: Oriented, R: Float64Array, i: number, j: number, dStep: numb
   const a1 = Math.acos(Math.max(-1, Math.min(1, n1x * ux + n1y * uy + n1z * uz)));
   const a2 = Math.acos(Math.max(-1, Math.min(1, n2x * ux + n2y * uy + n2z * uz)));
   const a3 = Math.acos(Math.max(-1, Math.min(1, n1x * n2x + n1y * n2y + n1z * n2z)));
+  const q1 = Math.min(aBins - 1, Math.floor(a1 / aStep)), q2 = Math.min(aBins - 1, Math.floor(a2 / aStep)), q3 = Math.min(aBins - 1, Math.floor(a3 / aStep));
+  return ((kd * aBins + q1) * aBins + q2) * aBins + q3;
+}
+
+/** The angle of sample j about sample i's normal in i's frame (atan2 of its z and y there). */
+function pairAngle(s: Oriented, R: Float64Array, i: number, j: number): number {
+  const dx = s.p[3 * j] - s.p[3 * i], dy = s.p[3 * j + 1] - s.p[3 * i + 1], dz = s.p[3 * j + 2] - s.p[3 * i + 2];
   const o = 9 * i;
   // j in i's frame: only the y and z parts matter (the turn about x)
   const vy = R[o + 3] * dx + R[o + 4] * dy + R[o + 5] * dz;
   const vz = R[o + 6] * dx + R[o + 7] * dy + R[o + 8] * dz;
-  alpha[0] = Math.atan2(vz, vy);
-  const q1 = Math.min(aBins - 1, Math.floor(a1 / aStep)), q2 = Math.min(aBins - 1, Math.floor(a2 / aStep)), q3 = Math.min(aBins - 1, Math.floor(a3 / aStep));
-  return ((kd * aBins + q1) * aBins + q2) * aBins + q3;
+  return Math.atan2(vz, vy);
 }
 
 /**
@@ -135,48 +139,63 @@ export function pointPairVoting(
   const cap = options.maxLargerSamples ?? 4 * max;
   if (nB <= nA) {
     const A = strided(faceAPoints, faceANormals, Math.min(cap, nA / step), false);
-    const B = strided(faceBPoints, faceBNormals, Math.min(cap, nB / step), true);
-    return vote(A, B, options);
+    return vote(A, filedFace(faceBPoints, faceBNormals, Math.min(cap, nB / step), options), options);
   }
   // B is the larger face: file A's pairs, vote with B's, and turn the motions round
-  const A = strided(faceAPoints, faceANormals, Math.min(cap, nA / step), true);
   const B = strided(faceBPoints, faceBNormals, Math.min(cap, nB / step), false);
-  return vote(B, A, options).map((h) => ({ transform: invert(h.transform), votes: h.votes }));
+  return vote(B, filedFace(faceAPoints, faceANormals, Math.min(cap, nA / step), options), options).map((h) => ({ transform: invert(h.transform), votes: h.votes }));
 }
 
-/** Motions carrying the filed face B (normals already reversed) onto the searched face A, best voted first. */
-function vote(A: Oriented, B: Oriented, options: PointPairVotingOptions): PairVoteHypothesis[] {
-  if (A.count < 4 || B.count < 4) return [];
+/**
+ * The smaller face's pairs filed by feature, with its samples (normals reversed) and frames.
+ * Pairs up to the face's own extent are filed; a vote looks up only pairs shorter than the
+ * smaller extent of its two faces, whose keys come first (the distance bin is the key's leading
+ * part), so the same table serves every partner: pairs of one key in the same order as filing
+ * for that partner alone.
+ */
+interface FiledFace {
+  s: Oriented;
+  R: Float64Array;
+  extent: number;
+  /** Pairs of key k are start[k] .. start[k + 1] - 1: their first sample and angle about its normal. */
+  start: Int32Array;
+  pairRef: Uint16Array;
+  pairAlpha: Float32Array;
+}
+
+/**
+ * Filed faces by their points array and settings: a face meets some twenty partners in a propose
+ * run and, when it is the smaller face, is filed the same way for each. The options that shape
+ * the table are part of the key; the samples taken depend on the face and `max` only.
+ */
+const filedFaces = new WeakMap<ArrayLike<number>, Map<string, FiledFace>>();
+
+function filedFace(points: ArrayLike<number>, normals: ArrayLike<number>, max: number, options: PointPairVotingOptions): FiledFace {
   const dStep = options.distanceStep ?? options.spacing;
-  const aStep = ((options.angleStepDeg ?? 12) * Math.PI) / 180;
+  const aStepDeg = options.angleStepDeg ?? 12;
+  const key = `${max} ${dStep} ${aStepDeg}`;
+  let byKey = normalsOf.get(points) === normals ? filedFaces.get(points) : undefined;
+  const hit = byKey?.get(key);
+  if (hit) return hit;
+  const s = strided(points, normals, max, true);
+  const R = frames(s);
+  const aStep = (aStepDeg * Math.PI) / 180;
   const aBins = Math.ceil(Math.PI / aStep) + 1;
-  const nTurn = options.turnBins ?? 30;
-  const dTurn = (2 * Math.PI) / nTurn;
-  // pairs longer than the smaller face's extent cannot lie inside the shared patch
-  const extent = (s: Oriented): number => {
-    let c0 = 0, c1 = 0, c2 = 0;
-    for (let i = 0; i < s.count; i++) { c0 += s.p[3 * i]; c1 += s.p[3 * i + 1]; c2 += s.p[3 * i + 2]; }
-    c0 /= s.count; c1 /= s.count; c2 /= s.count;
-    let r = 0;
-    for (let i = 0; i < s.count; i++) r = Math.max(r, Math.hypot(s.p[3 * i] - c0, s.p[3 * i + 1] - c1, s.p[3 * i + 2] - c2));
-    return 2 * r;
-  };
-  const dBins = Math.floor(Math.min(extent(A), extent(B)) / dStep) + 1;
-  const RA = frames(A), RB = frames(B);
-  const alpha = new Float64Array(1);
-  // B's pairs filed by feature (a counting sort on the key): pairs of key k are start[k] .. start[k + 1] - 1
-  const nPairs = B.count * (B.count - 1);
+  const extent = extentOf(s);
+  const dBins = Math.floor(extent / dStep) + 1;
+  // a counting sort on the key
+  const nPairs = s.count * (s.count - 1);
   const keyOf = new Int32Array(nPairs), refOf = new Uint16Array(nPairs), alphaOf = new Float32Array(nPairs);
   const keySpace = dBins * aBins * aBins * aBins;
   const start = new Int32Array(keySpace + 1);
   let m = 0;
-  for (let i = 0; i < B.count; i++) {
-    for (let j = 0; j < B.count; j++) {
+  for (let i = 0; i < s.count; i++) {
+    for (let j = 0; j < s.count; j++) {
       if (i === j) continue;
-      const key = pairKey(B, RB, i, j, dStep, aStep, dBins, aBins, alpha);
-      if (key < 0) continue;
-      keyOf[m] = key; refOf[m] = i; alphaOf[m] = alpha[0];
-      start[key + 1]++;
+      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins);
+      if (k < 0) continue;
+      keyOf[m] = k; refOf[m] = i; alphaOf[m] = pairAngle(s, R, i, j);
+      start[k + 1]++;
       m++;
     }
   }
@@ -188,34 +207,74 @@ function vote(A: Oriented, B: Oriented, options: PointPairVotingOptions): PairVo
     pairRef[at] = refOf[k];
     pairAlpha[at] = alphaOf[k];
   }
+  // kept while the face lives (weakly, by its points array)
+  const filed: FiledFace = { s, R, extent, start, pairRef, pairAlpha };
+  if (!byKey) {
+    byKey = new Map();
+    filedFaces.set(points, byKey);
+    normalsOf.set(points, normals);
+  }
+  byKey.set(key, filed);
+  return filed;
+}
+
+/** The normals a cached filed face was made with (a points array met again with other normals is filed anew). */
+const normalsOf = new WeakMap<ArrayLike<number>, ArrayLike<number>>();
+
+/** Twice the largest distance of a sample from the samples' centroid. */
+function extentOf(s: Oriented): number {
+  let c0 = 0, c1 = 0, c2 = 0;
+  for (let i = 0; i < s.count; i++) { c0 += s.p[3 * i]; c1 += s.p[3 * i + 1]; c2 += s.p[3 * i + 2]; }
+  c0 /= s.count; c1 /= s.count; c2 /= s.count;
+  let r = 0;
+  for (let i = 0; i < s.count; i++) r = Math.max(r, Math.hypot(s.p[3 * i] - c0, s.p[3 * i + 1] - c1, s.p[3 * i + 2] - c2));
+  return 2 * r;
+}
+
+/** Motions carrying the filed face B (normals already reversed) onto the searched face A, best voted first. */
+function vote(A: Oriented, filed: FiledFace, options: PointPairVotingOptions): PairVoteHypothesis[] {
+  const B = filed.s, RB = filed.R, { start, pairRef, pairAlpha } = filed;
+  if (A.count < 4 || B.count < 4) return [];
+  const dStep = options.distanceStep ?? options.spacing;
+  const aStep = ((options.angleStepDeg ?? 12) * Math.PI) / 180;
+  const aBins = Math.ceil(Math.PI / aStep) + 1;
+  const nTurn = options.turnBins ?? 30;
+  const dTurn = (2 * Math.PI) / nTurn;
+  // pairs longer than the smaller face's extent cannot lie inside the shared patch
+  const dBins = Math.floor(Math.min(extentOf(A), filed.extent) / dStep) + 1;
+  const RA = frames(A);
   const stride = Math.max(1, Math.ceil(A.count / (options.references ?? 60)));
   const acc = new Int32Array(B.count * nTurn);
-  const touched: number[] = [];
+  const touched = new Int32Array(B.count * nTurn);
+  let nTouched = 0;
   const poses: Array<{ transform: RigidTransform; votes: number }> = [];
   for (let r = 0; r < A.count; r += stride) {
     for (let j = 0; j < A.count; j++) {
       if (j === r) continue;
-      const key = pairKey(A, RA, r, j, dStep, aStep, dBins, aBins, alpha);
+      const key = pairKey(A, r, j, dStep, aStep, dBins, aBins);
       if (key < 0) continue;
-      const aS = alpha[0];
+      const aS = pairAngle(A, RA, r, j);
       for (let k = start[key], end = start[key + 1]; k < end; k++) {
         let th = aS - pairAlpha[k];
         if (th < 0) th += 2 * Math.PI;
         if (th >= 2 * Math.PI) th -= 2 * Math.PI;
-        const cell = pairRef[k] * nTurn + (Math.floor(th / dTurn) % nTurn);
-        if (acc[cell] === 0) touched.push(cell);
+        // th in [0, 2 pi): its bin is at most nTurn (rounding), which is bin 0 again
+        let bin = Math.floor(th / dTurn);
+        if (bin >= nTurn) bin -= nTurn;
+        const cell = pairRef[k] * nTurn + bin;
+        if (acc[cell] === 0) touched[nTouched++] = cell;
         acc[cell]++;
       }
     }
     // this reference point's best (B sample, turn)
     let best = -1, votes = 0;
-    for (const c of touched) if (acc[c] > votes) { votes = acc[c]; best = c; }
+    for (let t = 0; t < nTouched; t++) { const c = touched[t]; if (acc[c] > votes) { votes = acc[c]; best = c; } }
     if (best >= 0 && votes >= 3) {
       const i = Math.floor(best / nTurn), th = ((best % nTurn) + 0.5) * dTurn;
       poses.push({ transform: poseOf(A, RA, r, B, RB, i, th), votes });
     }
-    for (const c of touched) acc[c] = 0;
-    touched.length = 0;
+    for (let t = 0; t < nTouched; t++) acc[touched[t]] = 0;
+    nTouched = 0;
   }
   // cluster the poses (Drost et al.: poses within a rotation and translation threshold), summing votes
   poses.sort((p, q) => q.votes - p.votes);

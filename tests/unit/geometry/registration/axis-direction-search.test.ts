@@ -65,4 +65,17 @@ describe('the search along the two axis directions', () => {
     again.forEach((h, k) => h.transform.forEach((v, i) => expect(v).toBe(first[k].transform[i])));
     expect(rotationErrorDegrees(again[0].transform, truth)).toBeLessThan(6);
   });
+
+  it('gives the same best motion when asked for more peaks than three (each peak the mean of its own votes)', () => {
+    const A = face(lower, identity), B = face(upper, M);
+    const dB = Array.from(applyToDirections(M, Float32Array.from([0, -1, 0]))) as [number, number, number];
+    const three = searchAlongAxisDirections([0, 1, 0], A.points, A.normals, dB, B.points, B.normals, { spacing });
+    const six = searchAlongAxisDirections([0, 1, 0], A.points, A.normals, dB, B.points, B.normals, { spacing, peaks: 6 });
+    expect(six.length).toBe(6);
+    for (let k = 1; k < six.length; k++) expect(six[k].votes).toBeLessThanOrEqual(six[k - 1].votes);
+    expect(six[0].votes).toBe(three[0].votes);
+    six[0].transform.forEach((v, i) => expect(v).toBe(three[0].transform[i]));
+    // distinct bins give distinct motions
+    expect(rotationErrorDegrees(six[4].transform, six[0].transform) + displacementAt(six[4].transform, six[0].transform, [0, 0, 0])).toBeGreaterThan(0.5);
+  });
 });

@@ -99,6 +99,27 @@ describe('point pair feature voting on small break faces', () => {
     expect(turned[0] * na[0] + turned[1] * na[1] + turned[2] * na[2]).toBeLessThan(-0.9);
   });
 
+  it('answers the same for a face filed once and met again by partners of other extents (the filed pairs are kept per face)', () => {
+    const spacing = 1;
+    const M = motions[0][1];
+    const { A: small, B: large } = patches(tube.lower, tube.upper, M, spacing, 0, 5, 10);
+    const { B: mid } = patches(tube.lower, tube.upper, M, spacing, 0, 5, 7);
+    const copy = (f: Face): Face => ({ points: f.points.slice(), normals: f.normals.slice() });
+    // the small face is filed against each partner (it is the smaller one), first against the largest
+    const runs = [large, mid, large].map((partner) => pointPairVoting(small.points, small.normals, partner.points, partner.normals, { spacing }));
+    // fresh copies of the arrays: filed anew, as on the first meeting
+    const fresh = [large, mid].map((partner) => { const f = copy(small); return pointPairVoting(f.points, f.normals, partner.points, partner.normals, { spacing }); });
+    expect(runs[0]).toEqual(fresh[0]);
+    expect(runs[1]).toEqual(fresh[1]);
+    expect(runs[2]).toEqual(runs[0]);
+    // the same face with other normals is another face
+    const flipped = Float32Array.from(small.normals, (v) => -v);
+    const f = copy(small);
+    expect(pointPairVoting(small.points, flipped, large.points, large.normals, { spacing })).toEqual(pointPairVoting(f.points, Float32Array.from(small.normals, (v) => -v), large.points, large.normals, { spacing }));
+    expect(runs[0].length).toBeGreaterThan(0);
+    expect(rotationErrorDegrees(runs[0][0].transform, invert(M))).toBeLessThan(5);
+  });
+
   it('returns nothing for faces of fewer than four samples', () => {
     const one = Float32Array.from([0, 0, 0, 1, 0, 0, 0, 1, 0]);
     const up = Float32Array.from([0, 0, 1, 0, 0, 1, 0, 0, 1]);
