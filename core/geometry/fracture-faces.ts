@@ -14,6 +14,8 @@ export interface FractureFace {
   id: number;
   /** Triangles of the analysed (welded) mesh that form the face. */
   triangleIds: Uint32Array;
+  /** Pieces of the face cut at corners of its outer rim (face-corner-split.ts, facePieceCornerAngleDeg), for the matcher; absent when not cut. */
+  pieces?: Uint32Array[];
   /** Resampled points on the face (fixed spacing) and their normals, xyz each. */
   points: Float32Array;
   normals: Float32Array;

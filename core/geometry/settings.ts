@@ -174,6 +174,12 @@ export const analysisSettingsSchema = z.object({
    * spacing (DEVELOPERS.md, face split).
    */
   faceCornerAngleDeg: z.number().positive().max(180).default(180),
+  /**
+   * The same corner cuts made for the matcher only: pieces matched besides the whole face
+   * (prepared-fragment.ts; 180: none). Dev seeds 11 + 13: pairwise top 3 75 -> 77 of 114 for
+   * 1.5x the face pairs.
+   */
+  facePieceCornerAngleDeg: z.number().positive().max(180).default(35),
   /** Rim length (mm) either side of a point over which its turn is measured. */
   faceCornerWindowMm: z.number().positive().default(4),
   /** A corner cut is kept only when the two pieces' mean normals differ by at least this (degrees). */
