@@ -174,6 +174,15 @@ export function analyseFragment(
     minNormalDeg: settings.faceCornerMinNormalDeg,
     maxCuts: settings.faceCornerMaxCuts,
   });
+  // Pieces of each face cut at its outer rim's corners, for the matcher only (matched besides the whole face).
+  const pieceGroup = settings.facePieceCornerAngleDeg >= 180 ? faceGroup : splitFacesAtCorners(mesh, topo.neighbours, filtered, areas, faceGroup, (f) => triangleClass[f] === outerCode, {
+    cornerAngleDeg: settings.facePieceCornerAngleDeg,
+    windowMm: settings.faceCornerWindowMm,
+    minFaceArea: settings.faceCornerMinAreaMm2,
+    minOuterEdge: settings.faceCornerMinOuterEdgeMm,
+    minNormalDeg: settings.faceCornerMinNormalDeg,
+    maxCuts: settings.faceCornerMaxCuts,
+  });
   const faces = fractureFaces({
     faceGroup,
     mesh,
@@ -188,6 +197,11 @@ export function analyseFragment(
     samples,
     settings,
   });
+  for (const face of faces) {
+    const byPiece = new Map<number, number[]>();
+    for (const f of face.triangleIds) { const g = pieceGroup[f]; (byPiece.get(g) ?? byPiece.set(g, []).get(g)!).push(f); }
+    if (byPiece.size > 1) face.pieces = [...byPiece.values()].map((x) => Uint32Array.from(x));
+  }
   return {
     mesh,
     sourceTriangle,

@@ -1,7 +1,7 @@
 import type { TriangleMesh } from './mesh';
 import type { SurfaceSamples } from './resample';
 import type { AnalysisSettings } from './settings';
-import type { ShaftAxis } from './shaft-axis';
+import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
 import { SURFACE_CLASSES, type SurfaceClass } from './surface-classes';
 
 /** Villa & Mahieu 1991 fracture angle category of a face. */
@@ -14,6 +14,8 @@ export interface FractureFace {
   id: number;
   /** Triangles of the analysed (welded) mesh that form the face. */
   triangleIds: Uint32Array;
+  /** Pieces of the face cut at corners of its outer rim (face-corner-split.ts, facePieceCornerAngleDeg), for the matcher; absent when not cut. */
+  pieces?: Uint32Array[];
   /** Resampled points on the face (fixed spacing) and their normals, xyz each. */
   points: Float32Array;
   normals: Float32Array;
@@ -56,6 +58,23 @@ interface FaceContext {
   settings: AnalysisSettings;
   /** Face group per triangle (face-split.ts): fracture triangles of different groups are different faces. */
   faceGroup?: Int32Array;
+  /** Studies only: called with each angle sample's parts (tests/bench/fracture-angle-study.ts). */
+  angleTrace?: (sample: AngleSampleTrace) => void;
+}
+
+/** One angle sample's parts, for studies: the edge point, the two normals it was read from, the angle. */
+export interface AngleSampleTrace {
+  face: number;
+  point: Vec3;
+  /** The break face's normal used (outward). */
+  faceNormal: Vec3;
+  /** The bone surface's fitted normal at the edge, and the one used after the shaft check. */
+  surfaceFit: Vec3;
+  surfaceUsed: Vec3;
+  /** The mean normal of the triangles the fit kept, and that mean carried to the edge by the shaft's radial turn (undefined off the shaft). */
+  surfaceMean: Vec3;
+  surfaceTurned?: Vec3;
+  angleDeg: number;
 }
 
 const FRACTURE = 0;
@@ -147,7 +166,7 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
         if (g >= 0 && cls !== FRACTURE && (cls === OUTER || cls === ARTICULAR || !hasOuter(ctx))) {
           const mx = (p[3 * a] + p[3 * b]) / 2, my = (p[3 * a + 1] + p[3 * b + 1]) / 2, mz = (p[3 * a + 2] + p[3 * b + 2]) / 2;
           if (!(Math.hypot(mx - lastX, my - lastY, mz - lastZ) < step)) {
-            const angle = edgeAngle(ctx, f, g, mx, my, mz);
+            const angle = edgeAngle(ctx, id, f, g, mx, my, mz);
             if (angle !== undefined) { angleSamples.push(angle); lastX = mx; lastY = my; lastZ = mz; }
           }
         }
@@ -240,9 +259,15 @@ function hasOuter(ctx: FaceContext): boolean {
  *   plane and evaluated at m (sideNormalAtEdge). A mean normal would be the normal some
  *   2 mm away from the edge: on a shaft of radius R that leans by about 2/R radians (7 to 8
  *   degrees on a 12 mm shaft wherever the edge runs along the shaft), which made bevelled
- *   splinter edges read nearer to 90 than they are.
+ *   splinter edges read nearer to 90 than they are. Where the edge runs across the shaft
+ *   (|edge direction . axis| at most angleMeanEdgeAxisMax) and the shaft model holds there,
+ *   the mean normal of the triangles the fit kept, turned by the shaft's radial turn from
+ *   their centroid to m (radialTurn), is used instead: across the shaft the wall hardly
+ *   curves in the direction across the edge, so the fit's extrapolation adds nothing but the
+ *   scatter of 10-20 triangles at a jagged rim times its lever (1-3.5 mm out to 0), which made
+ *   right-angled transverse faces read oblique.
  */
-function edgeAngle(ctx: FaceContext, f: number, g: number, mx: number, my: number, mz: number): number | undefined {
+function edgeAngle(ctx: FaceContext, faceId: number, f: number, g: number, mx: number, my: number, mz: number): number | undefined {
   const r2 = ctx.settings.anglePlaneRadiusMm ** 2;
   const otherClass = ctx.triClass[g];
   const seen = new Set<number>([f, g]);
@@ -279,11 +304,22 @@ function edgeAngle(ctx: FaceContext, f: number, g: number, mx: number, my: numbe
     return dx * dx + dy * dy + dz * dz - along * along >= skip2;
   };
   const nf = meanNormal(ctx, fractureSide.filter(away));
-  let ns = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
-  if (!nf || !ns) return undefined;
+  const side = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
+  if (!nf || !side) return undefined;
+  let ns = side.fit;
+  // Across the shaft, the mean normal carried to the edge by the shaft model (see above).
+  const [ax, ay, az] = ctx.axis.direction;
+  if (otherClass === OUTER && tl > 0.05 && ctx.settings.angleMeanEdgeAxisMax > 0 && Math.abs(tx * ax + ty * ay + tz * az) <= ctx.settings.angleMeanEdgeAxisMax) {
+    ns = radialTurn(ctx, side.mean, side.centroid, mx, my, mz) ?? ns;
+  }
   if (otherClass === OUTER) ns = shaftCheckedNormal(ctx, ns, mx, my, mz);
   const dot = nf[0] * ns[0] + nf[1] * ns[1] + nf[2] * ns[2];
-  return 180 - (Math.acos(Math.max(-1, Math.min(1, dot))) * 180) / Math.PI;
+  const angle = 180 - (Math.acos(Math.max(-1, Math.min(1, dot))) * 180) / Math.PI;
+  if (ctx.angleTrace) {
+    const surfaceTurned = otherClass === OUTER ? radialTurn(ctx, side.mean, side.centroid, mx, my, mz) : undefined;
+    ctx.angleTrace({ face: faceId, point: [mx, my, mz], faceNormal: nf, surfaceFit: side.fit, surfaceUsed: ns, surfaceMean: side.mean, surfaceTurned, angleDeg: angle });
+  }
+  return angle;
 }
 
 type Vec3 = [number, number, number];
@@ -320,6 +356,63 @@ function meanNormal(ctx: FaceContext, tris: number[]): Vec3 | undefined {
   return l > 0 ? [sx / l, sy / l, sz / l] : undefined;
 }
 
+interface SideNormal {
+  /** The fitted normal at the edge point. */
+  fit: Vec3;
+  /** Area-weighted mean normal and centroid of the triangles the fit kept. */
+  mean: Vec3;
+  centroid: Vec3;
+}
+
+/** The bone surface's fitted normal at the edge point m (fittedSideNormal), with the mean normal and centroid of the triangles the fit kept. */
+function sideNormalAtEdge(ctx: FaceContext, tris: number[], mx: number, my: number, mz: number, t: Vec3): SideNormal | undefined {
+  const n = meanNormal(ctx, tris);
+  if (!n) return undefined;
+  const { fit, keep } = fittedSideNormal(ctx, tris, n, mx, my, mz, t);
+  const kept = keep ? tris.filter((_, i) => keep[i]) : tris;
+  const mean = (kept.length ? meanNormal(ctx, kept) : undefined) ?? n;
+  const centroid = areaCentroid(ctx, kept.length ? kept : tris);
+  return { fit, mean, centroid };
+}
+
+function areaCentroid(ctx: FaceContext, tris: number[]): Vec3 {
+  let sx = 0, sy = 0, sz = 0, sw = 0;
+  for (const h of tris) {
+    const w = ctx.areas[h];
+    sx += w * ctx.centroids[3 * h]; sy += w * ctx.centroids[3 * h + 1]; sz += w * ctx.centroids[3 * h + 2]; sw += w;
+  }
+  return sw > 0 ? [sx / sw, sy / sw, sz / sw] : [NaN, NaN, NaN];
+}
+
+/**
+ * The mean normal n of a patch of shaft surface centred at c, carried to the edge point m by the
+ * turn of the shaft's radial direction from c to m (a cylinder's normal is radial): undefined
+ * where the shaft model does not hold (axis support under angleShaftSupportMin, or c or m off
+ * the fitted shaft by more than angleShaftRadiusTolerance).
+ */
+function radialTurn(ctx: FaceContext, n: Vec3, c: Vec3, mx: number, my: number, mz: number): Vec3 | undefined {
+  const { axis, settings } = ctx;
+  if (!(axis.support >= settings.angleShaftSupportMin) || !(axis.radius > 0)) return undefined;
+  const a = offsetFromAxis(axis, c[0], c[1], c[2], [0, 0, 0]);
+  const b = offsetFromAxis(axis, mx, my, mz, [0, 0, 0]);
+  const al = Math.hypot(a[0], a[1], a[2]), bl = Math.hypot(b[0], b[1], b[2]);
+  if (!(al > 0 && bl > 0)) return undefined;
+  if (Math.abs(al / axis.radius - 1) > settings.angleShaftRadiusTolerance || Math.abs(bl / axis.radius - 1) > settings.angleShaftRadiusTolerance) return undefined;
+  const u: Vec3 = [a[0] / al, a[1] / al, a[2] / al], v: Vec3 = [b[0] / bl, b[1] / bl, b[2] / bl];
+  return rotateLike(n, u, v);
+}
+
+/** n turned by the smallest rotation that takes the unit vector u to the unit vector v (Rodrigues). */
+function rotateLike(n: Vec3, u: Vec3, v: Vec3): Vec3 {
+  const kx = u[1] * v[2] - u[2] * v[1], ky = u[2] * v[0] - u[0] * v[2], kz = u[0] * v[1] - u[1] * v[0];
+  const s = Math.hypot(kx, ky, kz), c = u[0] * v[0] + u[1] * v[1] + u[2] * v[2];
+  if (!(s > 1e-9)) return n;
+  const ex = kx / s, ey = ky / s, ez = kz / s;
+  const dot = ex * n[0] + ey * n[1] + ez * n[2];
+  const cx = ey * n[2] - ez * n[1], cy = ez * n[0] - ex * n[2], cz = ex * n[1] - ey * n[0];
+  return [n[0] * c + cx * s + ex * dot * (1 - c), n[1] * c + cy * s + ey * dot * (1 - c), n[2] * c + cz * s + ez * dot * (1 - c)];
+}
+
 /**
  * Unit normal of a smooth surface at the point m (an edge point, not inside the patch):
  * weighted least squares fit of each normal component as a + b s1 + c s2 over the triangles'
@@ -332,9 +425,8 @@ function meanNormal(ctx: FaceContext, tris: number[]): Vec3 | undefined {
  * that extrapolates would follow, are left out. Falls back to the mean normal when the patch is
  * too small or degenerate (all centroids on a line). t: the edge direction (unit, or zero).
  */
-function sideNormalAtEdge(ctx: FaceContext, tris: number[], mx: number, my: number, mz: number, [tx, ty, tz]: Vec3): Vec3 | undefined {
-  const n = meanNormal(ctx, tris);
-  if (!n || tris.length < 6) return n;
+function fittedSideNormal(ctx: FaceContext, tris: number[], n: Vec3, mx: number, my: number, mz: number, [tx, ty, tz]: Vec3): { fit: Vec3; keep?: Uint8Array } {
+  if (tris.length < 6) return { fit: n };
   const [nx, ny, nz] = n;
   // Tangent basis (e1, e2) of the patch.
   let e1x: number, e1y: number, e1z: number;
@@ -359,6 +451,7 @@ function sideNormalAtEdge(ctx: FaceContext, tris: number[], mx: number, my: numb
     return d2 - along * along >= far2 ? 1 : 0;
   });
   let fit = fitLinearNormals(ctx, tris, s1, s2, far) ?? fitLinearNormals(ctx, tris, s1, s2, new Uint8Array(tris.length).fill(1));
+  let kept: Uint8Array | undefined;
   if (fit) {
     const first = fit;
     const keep = Uint8Array.from(tris, (h, i) => {
@@ -369,10 +462,11 @@ function sideNormalAtEdge(ctx: FaceContext, tris: number[], mx: number, my: numb
       return l > 0 && (px * ctx.triNormals[3 * h] + py * ctx.triNormals[3 * h + 1] + pz * ctx.triNormals[3 * h + 2]) / l >= cosMax ? 1 : 0;
     });
     fit = fitLinearNormals(ctx, tris, s1, s2, keep) ?? first;
+    kept = keep;
   }
-  if (!fit) return n;
+  if (!fit) return { fit: n };
   const l = Math.hypot(fit[0], fit[1], fit[2]);
-  return l > 0 ? [fit[0] / l, fit[1] / l, fit[2] / l] : n;
+  return { fit: l > 0 ? [fit[0] / l, fit[1] / l, fit[2] / l] : n, keep: kept };
 }
 
 /**

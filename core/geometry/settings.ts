@@ -191,6 +191,12 @@ export const analysisSettingsSchema = z.object({
    * spacing (DEVELOPERS.md, face split).
    */
   faceCornerAngleDeg: z.number().positive().max(180).default(180),
+  /**
+   * The same corner cuts made for the matcher only: pieces matched besides the whole face
+   * (prepared-fragment.ts; 180: none). Dev seeds 11 + 13: pairwise top 3 75 -> 77 of 114 for
+   * 1.5x the face pairs.
+   */
+  facePieceCornerAngleDeg: z.number().positive().max(180).default(35),
   /** Rim length (mm) either side of a point over which its turn is measured. */
   faceCornerWindowMm: z.number().positive().default(4),
   /** A corner cut is kept only when the two pieces' mean normals differ by at least this (degrees). */
@@ -235,6 +241,16 @@ export const analysisSettingsSchema = z.object({
   angleShaftSupportMin: z.number().min(0).max(1).default(0.75),
   angleShaftRadiusTolerance: z.number().min(0).default(0.25),
   angleFitShaftMaxDeg: z.number().positive().max(180).default(40),
+  /**
+   * At an edge against outer cortical surface that runs across the shaft (|edge direction .
+   * shaft axis| at most this: within 30 degrees of square to the axis), on a fragment and at a
+   * point where the shaft check above holds, the bone surface's normal at the edge is the mean
+   * normal of the fit's triangles turned by the shaft's radial turn from their centroid to the
+   * edge point, not the fit extrapolated to the edge: the wall hardly curves across such an
+   * edge, and the extrapolation multiplies the scatter of a jagged rim's 10-20 triangles
+   * (fracture-faces.ts). 0 switches it off. Dev seeds 11-16, 14 at 1.0 mm, 21 (fracture-angle benchmark).
+   */
+  angleMeanEdgeAxisMax: z.number().min(0).max(1).default(0.5),
   /** Mean |outline tangent . shaft axis| below this: a transverse outline. */
   outlineTransverseMax: z.number().min(0).max(1).default(0.3),
   /** Mean |outline tangent . shaft axis| above this: a curved / V-shaped outline. */

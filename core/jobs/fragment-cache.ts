@@ -19,7 +19,7 @@ import { KnitboneError } from '../host/errors';
 import { checkMatchableMesh, matchableFragment, type LengthUnit, type LoadedFragment } from './fragment-loader';
 
 /** Bump when what is stored, or how the analysis that produced it works, changes. */
-export const FRAGMENT_CACHE_VERSION = 'fragment-cache/1';
+export const FRAGMENT_CACHE_VERSION = 'fragment-cache/2';
 
 export interface FragmentSummary {
   faceAreas: number[];
@@ -132,8 +132,10 @@ export function writeFragment(dir: string, key: string, f: CachedFragment): void
   const arrays: Array<Float32Array | Uint32Array> = [f.input.positions, f.input.triangles];
   const faces = f.input.faces.map((x) => {
     arrays.push(x.points, x.normals, x.outline ?? new Float32Array(0), x.triangleIds ?? new Uint32Array(0));
-    return { area: x.area ?? null };
+    return { area: x.area ?? null, pieces: x.pieces?.length ?? 0 };
   });
+  // the faces' pieces (triangle ids) after all faces, in face order
+  for (const x of f.input.faces) for (const piece of x.pieces ?? []) arrays.push(piece);
   const out = packArrays({ lengths: arrays.map((a) => a.length), kinds: arrays.map((a) => (a instanceof Uint32Array ? 'u' : 'f')), faces }, arrays);
   writeAtomically(join(dir, `${key}.bin`), out);
   writeAtomically(join(dir, `${key}.json`), JSON.stringify(f.summary));
@@ -146,7 +148,7 @@ export function readFragment(dir: string, key: string): CachedFragment | undefin
   try {
     const buf = readFileSync(file);
     const hl = buf.readUInt32LE(0);
-    const header = JSON.parse(buf.subarray(4, 4 + hl).toString('utf8')) as { lengths: number[]; kinds: Array<'u' | 'f'>; faces: Array<{ area: number | null }> };
+    const header = JSON.parse(buf.subarray(4, 4 + hl).toString('utf8')) as { lengths: number[]; kinds: Array<'u' | 'f'>; faces: Array<{ area: number | null; pieces?: number }> };
     let at = 4 + hl;
     const arrays = header.lengths.map((n, i) => {
       const bytes = buf.subarray(at, at + 4 * n);
@@ -156,13 +158,15 @@ export function readFragment(dir: string, key: string): CachedFragment | undefin
       return header.kinds[i] === 'u' ? new Uint32Array(copy) : new Float32Array(copy);
     });
     if (at !== buf.length) return undefined;
+    let pieceAt = 2 + 4 * header.faces.length;
     const input: FragmentInput = {
       positions: arrays[0] as Float32Array,
       triangles: arrays[1] as Uint32Array,
       faces: header.faces.map((x, i) => {
         const o = 2 + 4 * i;
         const tri = arrays[o + 3] as Uint32Array;
-        return { points: arrays[o] as Float32Array, normals: arrays[o + 1] as Float32Array, outline: arrays[o + 2] as Float32Array, area: x.area ?? undefined, triangleIds: tri.length ? tri : undefined };
+        const pieces = arrays.slice(pieceAt, (pieceAt += x.pieces ?? 0)) as Uint32Array[];
+        return { points: arrays[o] as Float32Array, normals: arrays[o + 1] as Float32Array, outline: arrays[o + 2] as Float32Array, area: x.area ?? undefined, triangleIds: tri.length ? tri : undefined, ...(pieces.length ? { pieces } : {}) };
       }),
     };
     return { summary, input };
@@ -200,7 +204,7 @@ export function writeTraits(dir: string, key: string, sampling: SamplingParamete
 }
 
 /** Version of the stored prepared parts (prepared-fragment.ts, PreparedParts): parts stored under another version are prepared again. */
-export const PREPARED_CACHE_VERSION = 1;
+export const PREPARED_CACHE_VERSION = 2;
 
 function preparedFile(dir: string, key: string, sampling: SamplingParameters): string {
   return join(dir, `${key}.prepared${PREPARED_CACHE_VERSION}-${samplingKey(sampling)}.bin`);

@@ -18,6 +18,7 @@ import { loadavg } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { analyseFragment } from '../../core/geometry/analyse-fragment';
+import type { AnalysisSettings } from '../../core/geometry/settings';
 import { fractureFaces, type FractureFace } from '../../core/geometry/fracture-faces';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
 import { triangleCentroids } from '../../core/geometry/normal-filter';
@@ -25,8 +26,8 @@ import { parseMeshFile } from '../../core/geometry/parse/index';
 import { SURFACE_CLASSES } from '../../core/geometry/surface-classes';
 import { buildTopology } from '../../core/geometry/topology';
 
-interface TruthBreak { id: number; age: string; pattern: string; nominalBevelDeg: number }
-interface Truth {
+export interface TruthBreak { id: number; age: string; pattern: string; nominalBevelDeg: number }
+export interface Truth {
   fragments: Array<{ catalogueNo: string; scanFile: string; boneId: string; triangleLabels: string }>;
   bones: Array<{ boneId: string; breaks: TruthBreak[] }>;
 }
@@ -46,6 +47,35 @@ const tally = (): Tally => ({ faces: 0, agree: 0 });
 const add = (t: Tally, ok: boolean): void => { t.faces++; if (ok) t.agree++; };
 const show = (t: Tally): string => (t.faces ? `${((100 * t.agree) / t.faces).toFixed(1)} % (${t.agree}/${t.faces})` : '-');
 
+/**
+ * One generated fragment analysed (settings overrides from KNITBONE_SEGMENTATION_SETTINGS), its
+ * truth labels per analysed triangle, triangle normals and areas, and the angle class expected
+ * of a break (a bevel beyond the right-angle tolerance is oblique).
+ */
+export function analyseLabelled(dir: string, frag: Truth['fragments'][number]) {
+  const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
+  const a = analyseFragment(parsed.mesh, JSON.parse(process.env.KNITBONE_SEGMENTATION_SETTINGS ?? '{}') as Partial<AnalysisSettings>);
+  const input = Buffer.from(frag.triangleLabels, 'base64');
+  const labels = new Uint8Array(a.triangleClass.length);
+  for (let f = 0; f < labels.length; f++) labels[f] = input[a.sourceTriangle[f]];
+  const { normals, areas } = triangleNormalsAndAreas(a.mesh);
+  const expected = (b: TruthBreak): string => (Math.abs(b.nominalBevelDeg) > a.settings.rightAngleToleranceDeg ? 'oblique' : 'right');
+  return { a, labels, normals, areas, expected };
+}
+
+/** The break covering most of a found face's area (truth labels per analysed triangle), or undefined when none does. */
+export function dominantBreak(face: FractureFace, labels: Uint8Array, areas: Float64Array): { breakId: number; breakArea: number; faceArea: number } | undefined {
+  const byBreak = new Map<number, number>();
+  let faceArea = 0;
+  for (const t of face.triangleIds) {
+    faceArea += areas[t];
+    if (labels[t] >= FRACTURE_BASE) byBreak.set(labels[t] - FRACTURE_BASE, (byBreak.get(labels[t] - FRACTURE_BASE) ?? 0) + areas[t]);
+  }
+  if (byBreak.size === 0) return undefined;
+  const [breakId, breakArea] = [...byBreak.entries()].sort((x, y) => y[1] - x[1])[0];
+  return { breakId, breakArea, faceArea };
+}
+
 interface SampleAngles { found: Tally; pure: Tally; trueFaces: Tally; byPattern: Map<string, { found: Tally; trueFaces: Tally }> }
 
 function scoreSample(dir: string): SampleAngles {
@@ -60,25 +90,14 @@ function scoreSample(dir: string): SampleAngles {
     return v;
   };
   for (const frag of truth.fragments) {
-    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const a = analyseFragment(parsed.mesh);
-    const input = Buffer.from(frag.triangleLabels, 'base64');
-    const nt = a.triangleClass.length;
-    const labels = new Uint8Array(nt);
-    for (let f = 0; f < nt; f++) labels[f] = input[a.sourceTriangle[f]];
-    const { normals, areas } = triangleNormalsAndAreas(a.mesh);
-    const expected = (b: TruthBreak): string => (Math.abs(b.nominalBevelDeg) > a.settings.rightAngleToleranceDeg ? 'oblique' : 'right');
+    const { a, labels, normals, areas, expected } = analyseLabelled(dir, frag);
+    const nt = labels.length;
     const boneBreaks = breaks.get(frag.boneId);
     // Faces the segmentation found.
     for (const face of a.fractureFaces) {
-      const byBreak = new Map<number, number>();
-      let faceArea = 0;
-      for (const t of face.triangleIds) {
-        faceArea += areas[t];
-        if (labels[t] >= FRACTURE_BASE) byBreak.set(labels[t] - FRACTURE_BASE, (byBreak.get(labels[t] - FRACTURE_BASE) ?? 0) + areas[t]);
-      }
-      if (byBreak.size === 0) continue;
-      const [breakId, breakArea] = [...byBreak.entries()].sort((x, y) => y[1] - x[1])[0];
+      const dominant = dominantBreak(face, labels, areas);
+      if (!dominant) continue;
+      const { breakId, breakArea, faceArea } = dominant;
       const br = boneBreaks?.get(breakId);
       if (!br) continue;
       const ok = face.angleClass === expected(br);

@@ -7,7 +7,7 @@ import type { FragmentInput } from './prepared-fragment';
 
 export interface AnalysisForMatching {
   mesh: { positions: Float32Array; triangles: Uint32Array };
-  fractureFaces: ReadonlyArray<{ points: Float32Array; normals: Float32Array; outlines: Float32Array[]; area: number; triangleIds?: Uint32Array }>;
+  fractureFaces: ReadonlyArray<{ points: Float32Array; normals: Float32Array; outlines: Float32Array[]; area: number; triangleIds?: Uint32Array; pieces?: Uint32Array[] }>;
 }
 
 export function fragmentFromAnalysis(a: AnalysisForMatching): FragmentInput {
@@ -23,7 +23,7 @@ export function fragmentFromAnalysis(a: AnalysisForMatching): FragmentInput {
         outline.set(o, at);
         at += o.length;
       }
-      return { points: f.points, normals: f.normals, outline, area: f.area, triangleIds: f.triangleIds };
+      return { points: f.points, normals: f.normals, outline, area: f.area, triangleIds: f.triangleIds, ...(f.pieces ? { pieces: f.pieces } : {}) };
     }),
   };
 }

@@ -23,6 +23,8 @@ export interface BreakFaceInput {
   area?: number;
   /** The face's triangles (indices into the fragment's triangles): when given, the face is sampled from them. */
   triangleIds?: Uint32Array;
+  /** Pieces of the face (triangle ids) cut at corners of its outer rim: matched as patches besides the face. */
+  pieces?: Uint32Array[];
 }
 
 export interface FragmentInput {
@@ -185,6 +187,12 @@ function prepareParts(input: FragmentInput, params: SamplingParameters): Prepare
     };
     add(s.points, s.normals, fpfh, outline, area);
     if (params.patches === false) return;
+    const nFace = s.points.length / 3;
+    for (const piece of f.pieces ?? []) {
+      const ps = sampleFaceTriangles(positions, triangles, piece, params.spacing);
+      if (ps.points.length < 3 * 40) continue;
+      add(ps.points, ps.normals, computeFpfh(ps.points, ps.normals, params.spacing * params.fpfhRadiusSpacings), outlineNear(ps.points, outline, params.spacing), (area * ps.points.length) / 3 / Math.max(1, nFace));
+    }
     const patches = splitIntoPatches(s.points, s.normals, params.spacing, { angleDeg: 20, meanAngleDeg: 40, ...params.patchOptions });
     if (patches.length < 2) return;
     const n = s.points.length / 3;
@@ -195,16 +203,20 @@ function prepareParts(input: FragmentInput, params: SamplingParameters): Prepare
         N.set(s.normals.subarray(3 * i, 3 * i + 3), 3 * k);
         F.set(fpfh.subarray(FPFH_DIM * i, FPFH_DIM * i + FPFH_DIM), FPFH_DIM * k);
       });
-      // outline points next to the patch
-      const pt = new KdTree(P, 3);
-      const line: number[] = [];
-      for (let i = 0; i < outline.length; i += 3) {
-        if (pt.nearestOne([outline[i], outline[i + 1], outline[i + 2]], (1.5 * params.spacing) ** 2).index >= 0) line.push(outline[i], outline[i + 1], outline[i + 2]);
-      }
-      add(P, N, F, Float32Array.from(line), (area * p.indices.length) / n);
+      add(P, N, F, outlineNear(P, outline, params.spacing), (area * p.indices.length) / n);
     }
   });
   return { spacing: params.spacing, surfacePoints: all.points, surfaceNormals: all.normals, faces, axis: shaftFrameOf(positions, triangles, input.faces) };
+}
+
+/** The outline points next to a patch's samples (within 1.5 spacings). */
+function outlineNear(points: Float32Array, outline: Float32Array, spacing: number): Float32Array {
+  const pt = new KdTree(points, 3);
+  const line: number[] = [];
+  for (let i = 0; i < outline.length; i += 3) {
+    if (pt.nearestOne([outline[i], outline[i + 1], outline[i + 2]], (1.5 * spacing) ** 2).index >= 0) line.push(outline[i], outline[i + 1], outline[i + 2]);
+  }
+  return Float32Array.from(line);
 }
 
 /** The piece's own shaft axis, fitted on the triangles that are not break face (all, when faces are not given by triangles). */

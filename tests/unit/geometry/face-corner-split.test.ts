@@ -11,6 +11,7 @@
 import { describe, expect, it } from 'vitest';
 import { splitFacesAtCorners, type CornerSplitSettings } from '../../../core/geometry/face-corner-split';
 import { triangleNormalsAndAreas, type TriangleMesh } from '../../../core/geometry/mesh';
+import { prepareFragment } from '../../../core/geometry/proposals/prepared-fragment';
 import { buildTopology } from '../../../core/geometry/topology';
 
 const SIZE = 40;
@@ -93,5 +94,36 @@ describe('break faces cut at corners of the outer rim', () => {
     const low = (x: number): number => 8 + Math.max(0, x - 20) * k;
     const bent = split((x, y) => y > low(x) && y < low(x) + 6 && x > 2 && x < 38, (x, y) => y < low(x));
     expect(new Set([...bent.group].filter((g) => g >= 0)).size).toBe(1);
+  });
+});
+
+describe('the matcher matches corner pieces besides the whole face', () => {
+  it('prepareFragment adds one patch per piece, sampled from that piece only', () => {
+    const inL = (x: number, y: number): boolean => (y > 10 && y < 16 && x > 10 && x < 36) || (x > 10 && x < 16 && y > 10 && y < 36);
+    const { mesh, group } = split(inL, (x, y) => y < 10 || x < 10);
+    const face: number[] = [];
+    const byGroup = new Map<number, number[]>();
+    for (let f = 0; f < group.length; f++) {
+      if (group[f] < 0) continue;
+      face.push(f);
+      (byGroup.get(group[f]) ?? byGroup.set(group[f], []).get(group[f])!).push(f);
+    }
+    const pieces = [...byGroup.values()].map((x) => Uint32Array.from(x));
+    expect(pieces.length).toBe(2);
+    const input = { positions: mesh.positions, triangles: mesh.triangles, faces: [{ points: new Float32Array(0), normals: new Float32Array(0), triangleIds: Uint32Array.from(face), area: face.length / 2, pieces }] };
+    const sampling = { spacing: 0.5, fpfhRadiusSpacings: 5 };
+    const withPieces = prepareFragment(input, sampling);
+    const without = prepareFragment({ ...input, faces: [{ ...input.faces[0], pieces: undefined }] }, sampling);
+    expect(withPieces.faces.length).toBe(without.faces.length + 2);
+    // The added faces: every sample on its own arm's side of the cut x = y (within half a cell).
+    const added = withPieces.faces.slice(without.faces.length);
+    const sides = added.map((f) => {
+      let below = 0, above = 0;
+      for (let i = 0; i < f.points.length; i += 3) { if (f.points[i] - f.points[i + 1] > 0.5) below++; else if (f.points[i + 1] - f.points[i] > 0.5) above++; }
+      expect(f.parent).toBe(0);
+      expect(Math.min(below, above)).toBe(0);
+      return below > above ? 'A' : 'B';
+    });
+    expect(new Set(sides).size).toBe(2);
   });
 });

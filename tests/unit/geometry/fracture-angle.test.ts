@@ -42,6 +42,39 @@ function weightedMedian(rows: Array<[number, number]>): number {
   return NaN;
 }
 
+/**
+ * The analysis's inputs to fractureFaces for `a`, with the outer wall's triangle normals turned
+ * by `tiltDeg` each, in directions round the radial one that step by the golden angle from
+ * triangle to triangle (no two neighbours alike, no trend across the rim): what a rough,
+ * scanned periosteal surface does to the normals of a few triangles beside a jagged rim.
+ */
+function scatteredOuterNormals(a: FragmentAnalysis, tiltDeg: number) {
+  const { normals, areas } = triangleNormalsAndAreas(a.mesh);
+  const centroids = triangleCentroids(a.mesh.positions, a.mesh.triangles);
+  const outer = SURFACE_CLASSES.indexOf('outer-cortical');
+  const tilt = (tiltDeg * Math.PI) / 180;
+  let turned = 0;
+  for (let t = 0; t < areas.length; t++) {
+    if (a.triangleClass[t] !== outer) continue;
+    const rho = Math.hypot(centroids[3 * t], centroids[3 * t + 1]);
+    const ex = centroids[3 * t] / rho, ey = centroids[3 * t + 1] / rho;
+    const psi = t * 2.399963229728653;
+    // Tangent direction cos(psi) e_phi + sin(psi) e_z, with e_phi = (-ey, ex, 0).
+    normals[3 * t] = Math.cos(tilt) * ex - Math.sin(tilt) * Math.cos(psi) * ey;
+    normals[3 * t + 1] = Math.cos(tilt) * ey + Math.sin(tilt) * Math.cos(psi) * ex;
+    normals[3 * t + 2] = Math.sin(tilt) * Math.sin(psi);
+    turned++;
+  }
+  const topo = buildTopology(a.mesh);
+  return {
+    turned,
+    ctx: {
+      mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
+      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings: a.settings,
+    },
+  };
+}
+
 describe('fracture angle against analytic geometry (smooth cuts through a tube, R = 12 mm)', () => {
   let transverse: FragmentAnalysis, radialChord: FragmentAnalysis, offsetChord: FragmentAnalysis;
   let cone: FragmentAnalysis, wavy: FragmentAnalysis, bevelledWavy: FragmentAnalysis, tilted: FragmentAnalysis;
@@ -148,6 +181,24 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
       expect(a).toBeLessThan(71);
     }
     expect(face!.angleClass).toBe('oblique');
+  });
+
+  it('across the shaft, scattered surface normals at the rim do not tilt the angle: a transverse cut still reads 90', () => {
+    // The transverse cut again (90 degrees all round, closed form), with every outer-wall
+    // triangle normal turned 15 degrees (scatteredOuterNormals). Their mean over a patch beside
+    // the rim stays near radial; a linear fit extrapolated 1-3.5 mm out to the edge multiplies
+    // their scatter (samples down to 58 degrees, median 79, without angleMeanEdgeAxisMax).
+    const { turned, ctx } = scatteredOuterNormals(transverse, 15);
+    expect(turned).toBeGreaterThan(500);
+    const faceOf = (settings: typeof ctx.settings) => fractureFaces({ ...ctx, settings }).sort((x, y) => y.area - x.area)[0];
+    const face = faceOf(ctx.settings);
+    expect(face.anglesDeg.length).toBeGreaterThan(15);
+    expect(face.medianAngleDeg).toBeGreaterThan(84);
+    for (const a of folded(face)) expect(a).toBeGreaterThan(78);
+    expect(face.angleClass).toBe('right');
+    // Switched off, the extrapolated fit scatters (the same check, failing).
+    const off = faceOf({ ...ctx.settings, angleMeanEdgeAxisMax: 0 });
+    expect(Math.min(...folded(off))).toBeLessThan(70);
   });
 
   it('a failed bone-surface fit at the rim (normals turned 50 degrees off the wall) is caught by the shaft check', () => {

@@ -39,6 +39,25 @@ describe('fragment cache', () => {
     expect(readTraits(dir, 'k1', { ...sampling, spacing: 0.85 })).toBeUndefined();
   });
 
+  it('reads back the pieces of faces cut at rim corners, each with its own face', () => {
+    const withPieces: CachedFragment = {
+      ...fragment,
+      input: {
+        ...fragment.input,
+        faces: [
+          { ...fragment.input.faces[0] },
+          { ...fragment.input.faces[1], triangleIds: Uint32Array.of(0, 1), pieces: [Uint32Array.of(0), Uint32Array.of(1)] },
+          { ...fragment.input.faces[0], pieces: [Uint32Array.of(1, 0), Uint32Array.of(0)] },
+        ],
+      },
+    };
+    writeFragment(dir, 'k-pieces', withPieces);
+    const back = readFragment(dir, 'k-pieces')!;
+    expect(back.input.faces[0].pieces).toBeUndefined();
+    expect(back.input.faces[1].pieces).toEqual([Uint32Array.of(0), Uint32Array.of(1)]);
+    expect(back.input.faces[2].pieces).toEqual([Uint32Array.of(1, 0), Uint32Array.of(0)]);
+  });
+
   it('keys change with the scan content, units, settings and region corrections', () => {
     const base = fragmentKey('abc', 'mm', { smoothing: 2 }, [[3, 'fracture']]);
     expect(fragmentKey('abc', 'mm', { smoothing: 2 }, [[3, 'fracture']])).toBe(base);
