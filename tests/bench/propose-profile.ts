@@ -6,15 +6,14 @@
  * through matchFragments split into its stages (screen every face pair, shortlist, fine step).
  * Prints CPU seconds per stage and per face pair; OUT.json gets every fragment pair's best 3.
  */
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { loadavg, tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { deserialize, serialize } from 'node:v8';
 import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { DEFAULT_MATCH_PARAMETERS, distinctBest, fineShortlist, refineFacePair, screenFacePair, type CoarseMotion, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
-import { loadFragment } from '../../core/jobs/fragment-loader';
+import { loadCached } from './pairwise.bench';
 import { displacementAt, invert as invertRigid, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
 
 const dir = process.argv[2];
@@ -22,15 +21,11 @@ const out = process.argv[3];
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
 interface TruthJoin { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }>; joins: TruthJoin[] };
-const cacheDir = join(tmpdir(), 'knitbone-pairwise-cache');
-mkdirSync(cacheDir, { recursive: true });
 const inputs: Array<{ no: string; input: FragmentInput }> = [];
 for (const { catalogueNo: no } of truth.fragments) {
   const file = join(dir, 'scans', `${no}.ply`);
-  const key = join(cacheDir, file.replace(/[^A-Za-z0-9]+/g, '_') + '.v8');
   try {
-    const input = existsSync(key) ? (deserialize(readFileSync(key)) as FragmentInput) : loadFragment(file).input;
-    if (!existsSync(key)) writeFileSync(key, serialize(input));
+    const input = loadCached(file);
     inputs.push({ no, input });
   } catch {
     // refused scans take no part

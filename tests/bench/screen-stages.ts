@@ -6,19 +6,16 @@
  * KNITBONE_PROFILE_PAIRS limits the fragment pairs per folder; KNITBONE_STAGE_ROUNDS=n screens
  * them n times and keeps each step's least time (the machine is shared: the least is the steadiest).
  */
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { loadavg, tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { deserialize, serialize } from 'node:v8';
 import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { DEFAULT_MATCH_PARAMETERS, screenFacePair } from '../../core/geometry/proposals/pairwise-match';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
-import { loadFragment } from '../../core/jobs/fragment-loader';
+import { loadCached } from './pairwise.bench';
 
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
-const cacheDir = join(tmpdir(), 'knitbone-pairwise-cache');
-mkdirSync(cacheDir, { recursive: true });
 const rounds = Number(process.env.KNITBONE_STAGE_ROUNDS ?? 1);
 const totals: Record<string, number> = {};
 let facePairs = 0;
@@ -29,10 +26,8 @@ for (const dir of process.argv.slice(2)) {
   const inputs: FragmentInput[] = [];
   for (const { catalogueNo: no } of truth.fragments) {
     const file = join(dir, 'scans', `${no}.ply`);
-    const key = join(cacheDir, file.replace(/[^A-Za-z0-9]+/g, '_') + '.v8');
     try {
-      const input = existsSync(key) ? (deserialize(readFileSync(key)) as FragmentInput) : loadFragment(file).input;
-      if (!existsSync(key)) writeFileSync(key, serialize(input));
+      const input = loadCached(file);
       inputs.push(input);
     } catch {
       // refused scans take no part
