@@ -17,9 +17,20 @@ export interface ProposalPairRecord {
 export class ProposalPairRepository {
   constructor(private readonly cat: Catalogue) {}
 
-  /** Pairs done with these parameters, as "scanA:scanB" keys (scanA < scanB). */
+  /**
+   * Pairs done with these parameters, as "scanA:scanB" keys (scanA < scanB). A pair stops
+   * counting as done when a region of either scan has been corrected since (scan_region_class,
+   * migration 0020): the correction changes that scan's break faces, so the pair is aligned
+   * again. Nothing is deleted; the next run's record updates the row.
+   */
   doneKeys(parametersHash: string): Set<string> {
-    const rows = this.cat.db.prepare('SELECT scan_a, scan_b FROM proposal_pair WHERE parameters_hash = ?').all(parametersHash) as Array<{ scan_a: number; scan_b: number }>;
+    const rows = this.cat.db
+      .prepare(
+        `SELECT p.scan_a, p.scan_b FROM proposal_pair p
+         WHERE p.parameters_hash = ?
+           AND NOT EXISTS (SELECT 1 FROM scan_region_class c WHERE c.scan_id IN (p.scan_a, p.scan_b) AND c.created_at >= p.done_at)`,
+      )
+      .all(parametersHash) as Array<{ scan_a: number; scan_b: number }>;
     return new Set(rows.map((r) => `${r.scan_a}:${r.scan_b}`));
   }
 

@@ -25,7 +25,7 @@ import { invert } from '../../geometry/registration/rigid-transform';
 import { startTypeScriptWorker } from '../../jobs/typescript-worker';
 import { runPool, type PoolTask } from '../../jobs/affinity-pool';
 import { bandOrder } from '../../jobs/pair-order';
-import { readSummary } from '../../jobs/fragment-cache';
+import { PREPARED_CACHE_VERSION, readSummary } from '../../jobs/fragment-cache';
 import { WORKER_CACHE_SIZE, type AnalyseResult, type MatchResult, type ProposalTask } from '../../jobs/proposal-worker';
 import { describeFaces, latestScanRefs, runSampling } from './describe-faces';
 import type { RequestContext } from '../request';
@@ -120,7 +120,9 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sampling = runSampling(usable.map((s) => analysedOk.get(s.scanId)!));
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;
-      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      // prepared: how faces become samples, patches and corner pieces (fragment-cache.ts); a change
+      // there changes every pair's outcome, so pairs done before it are aligned again
+      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
       // A pair is done for the parameters that decide its outcome; which pairs are aligned
       // (pruning, exhaustive) does not change a pair's result, so widening the search later
       // aligns only the pairs not aligned before.

@@ -2,7 +2,8 @@
  * `knitbone propose` end to end on a small catalogue (issue 6, item 2): a tube (analytic solid
  * built with manifold-3d, a reference library) cut in two by a rough surface, plus one piece of
  * another cut tube with no partner present; scanned pieces moved by known rigid motions. The true joins must be each piece's best
- * proposal with the right motion; a second run must only skip; a decided join is never touched.
+ * proposal with the right motion; a second run must only skip; a region correction makes that scan's
+ * pairs new again; a decided join is never touched.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
@@ -106,6 +107,27 @@ describe('knitbone propose', () => {
     const added = rows.slice(before.n);
     expect(added.length).toBeGreaterThan(0);
     for (const p of added) expect([p.scan_a, p.scan_b]).toContain(newScan.id);
+  }, 400_000);
+
+  it('after a region of one scan is corrected, a run aligns again only the pairs that include it', () => {
+    const cat = openCatalogue(catalogue);
+    const scan = cat.scans.list().find((s) => s.path.includes('T-1a'))!;
+    const region = ((scan.stats.regions ?? []) as Array<{ id: number; surfaceClass: 'fracture' | 'outer-cortical' | 'medullary' | 'articular' }>)[0];
+    // the analyst confirms the class the segmentation gave: the faces stay, but the scan's
+    // analysis is now the analyst's and the pairs made before it are not taken as done
+    const correction = cat.regionClasses.correct(scan.id, region.id, region.surfaceClass, 'test');
+    cat.close();
+    const r = run('propose', catalogue, '--workers', '1');
+    expect(r.status).toBe(0);
+    const aligned = Number(/aligned (\d+),/.exec(r.stdout)![1]);
+    expect(aligned).toBeGreaterThan(0);
+    const again = openCatalogue(catalogue);
+    const redone = again.db.prepare('SELECT scan_a, scan_b FROM proposal_pair WHERE done_at >= ?').all(correction.createdAt) as Array<{ scan_a: number; scan_b: number }>;
+    again.close();
+    expect(redone.length).toBeGreaterThan(0);
+    for (const p of redone) expect([p.scan_a, p.scan_b]).toContain(scan.id);
+    // and a further run takes them as done again
+    expect(run('propose', catalogue, '--workers', '1').stdout).toMatch(/aligned 0,/);
   }, 400_000);
 
   it('never touches a decided join, even when parameters change', () => {
