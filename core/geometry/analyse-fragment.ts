@@ -166,23 +166,18 @@ export function analyseFragment(
   for (let f = 0; f < nt; f++) regionGroup[f] = groupOfRegion[region[f]];
   // ...and cut where their rim against the outer surface turns sharply (face-corner-split.ts).
   const outerCode = surfaceClassCode('outer-cortical');
-  const faceGroup = splitFacesAtCorners(mesh, topo.neighbours, filtered, areas, regionGroup, (f) => triangleClass[f] === outerCode, {
-    cornerAngleDeg: settings.faceCornerAngleDeg,
+  const isOuter = (f: number): boolean => triangleClass[f] === outerCode;
+  const cutAtCorners = (groups: Int32Array, cornerAngleDeg: number): Int32Array => splitFacesAtCorners(mesh, topo.neighbours, filtered, areas, groups, isOuter, {
+    cornerAngleDeg,
     windowMm: settings.faceCornerWindowMm,
     minFaceArea: settings.faceCornerMinAreaMm2,
     minOuterEdge: settings.faceCornerMinOuterEdgeMm,
     minNormalDeg: settings.faceCornerMinNormalDeg,
     maxCuts: settings.faceCornerMaxCuts,
   });
+  const faceGroup = cutAtCorners(regionGroup, settings.faceCornerAngleDeg);
   // Pieces of each face cut at its outer rim's corners, for the matcher only (matched besides the whole face).
-  const pieceGroup = settings.facePieceCornerAngleDeg >= 180 ? faceGroup : splitFacesAtCorners(mesh, topo.neighbours, filtered, areas, faceGroup, (f) => triangleClass[f] === outerCode, {
-    cornerAngleDeg: settings.facePieceCornerAngleDeg,
-    windowMm: settings.faceCornerWindowMm,
-    minFaceArea: settings.faceCornerMinAreaMm2,
-    minOuterEdge: settings.faceCornerMinOuterEdgeMm,
-    minNormalDeg: settings.faceCornerMinNormalDeg,
-    maxCuts: settings.faceCornerMaxCuts,
-  });
+  const pieceGroup = settings.facePieceCornerAngleDeg >= 180 ? faceGroup : cutAtCorners(faceGroup, settings.facePieceCornerAngleDeg);
   const faces = fractureFaces({
     faceGroup,
     mesh,

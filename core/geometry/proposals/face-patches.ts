@@ -12,6 +12,9 @@ export interface Patch {
   indices: number[];
 }
 
+/** The fewest samples a patch (or a face's corner piece, prepared-fragment.ts) is matched with. */
+export const MIN_PATCH_SAMPLES = 40;
+
 export function splitIntoPatches(points: Float32Array, normals: Float32Array, spacing: number, options: { angleDeg?: number; meanAngleDeg?: number; minShare?: number; minSamples?: number } = {}): Patch[] {
   const n = points.length / 3;
   const tree = new KdTree(points, 3);
@@ -54,6 +57,6 @@ export function splitIntoPatches(points: Float32Array, normals: Float32Array, sp
     }
     patches.push({ indices: members });
   }
-  const minSamples = Math.max(options.minSamples ?? 40, (options.minShare ?? 0.12) * n);
+  const minSamples = Math.max(options.minSamples ?? MIN_PATCH_SAMPLES, (options.minShare ?? 0.12) * n);
   return patches.filter((p) => p.indices.length >= minSamples).sort((a, b) => b.indices.length - a.indices.length);
 }

@@ -154,11 +154,11 @@ export interface MatchTrace {
   coarse: RigidTransform[];
   refined: Array<{ transform: RigidTransform; overlap: number }>;
   kept: RigidTransform[];
-  /** When given, wall ms spent per step of the screen are added here (tests/bench/screen-stages.ts). */
+  /** When given, CPU ms spent per step of the screen are added here (tests/bench/screen-stages.ts). */
   times?: Record<string, number>;
 }
 
-/** f(), its wall time added to times[step] when timing. */
+/** f(), its CPU time (ms) added to times[step] when timing. */
 function timed<T>(times: Record<string, number> | undefined, step: string, f: () => T): T {
   if (!times) return f();
   const t = process.cpuUsage();

@@ -4,7 +4,7 @@
  * descriptor per face for the candidate index. Pure: typed arrays in, typed arrays out.
  */
 import { computeFpfh, FPFH_DIM } from '../registration/fpfh';
-import { splitIntoPatches } from './face-patches';
+import { MIN_PATCH_SAMPLES, splitIntoPatches } from './face-patches';
 import { KdTree } from '../registration/nearest-neighbours';
 import { gatherFeatures, mirrorFpfh } from '../registration/ransac-alignment';
 import { TargetSurface } from '../registration/target-surface';
@@ -190,7 +190,7 @@ function prepareParts(input: FragmentInput, params: SamplingParameters): Prepare
     const nFace = s.points.length / 3;
     for (const piece of f.pieces ?? []) {
       const ps = sampleFaceTriangles(positions, triangles, piece, params.spacing);
-      if (ps.points.length < 3 * 40) continue;
+      if (ps.points.length < 3 * MIN_PATCH_SAMPLES) continue;
       add(ps.points, ps.normals, computeFpfh(ps.points, ps.normals, params.spacing * params.fpfhRadiusSpacings), outlineNear(ps.points, outline, params.spacing), (area * ps.points.length) / 3 / Math.max(1, nFace));
     }
     const patches = splitIntoPatches(s.points, s.normals, params.spacing, { angleDeg: 20, meanAngleDeg: 40, ...params.patchOptions });
