@@ -16,7 +16,9 @@
  * never used to fit the score) with KNITBONE_PAIRWISE_FRAGMENTS fragments (default 30).
  * KNITBONE_PAIRWISE_SPACING fixes the sample spacing (mm) instead of the rung the face areas pick.
  * KNITBONE_PAIRWISE_PARAMS='{"axisPeaks": 3}' overrides matching parameters; KNITBONE_PAIRWISE_LIMIT caps
- * the face pairs aligned per assemblage (true joins first).
+ * the face pairs aligned per assemblage (true joins first); KNITBONE_PAIRWISE_TRUE_ONLY=1 aligns only the
+ * true joins' fragment pairs (a quick check of "found (best of pair)" and classes a-c; top 3 and d
+ * need the other pairs).
  * KNITBONE_PAIRWISE_DUMP=<file.json> writes every scored motion with its components and whether
  * it is correct (the input of tests/bench/fit-score-model.ts).
  * KNITBONE_PAIRWISE_JOINS=<file.json> writes one record per true join for the study of misses
@@ -169,7 +171,7 @@ export default async function main(): Promise<void> {
       for (let i = 0; i < A.faces.length; i++) for (let k = 0; k < B.faces.length; k++) addPair(a, b, i, k);
     }
     let done = 0;
-    const traces = new Map<string, { truthOverlap: number; truthArea: number; coarseNear: boolean; refinedCorrect: boolean; keptCorrect: boolean; fineCorrect: boolean; bestCorrect?: FaceMatch; winner?: FaceMatch; coarseBest: [number, number]; refinedBest: { rot: number; trans: number; overlap: number; bestOverlap: number } }>();
+    const traces = new Map<string, { truthOverlap: number; truthArea: number; coarseNear: boolean; refinedCorrect: boolean; keptCorrect: boolean; fineCorrect: boolean; bestCorrect?: FaceMatch; winner?: FaceMatch; winnerErr?: [number, number]; coarseBest: [number, number]; refinedBest: { rot: number; trans: number; overlap: number; bestOverlap: number } }>();
     const best = new Map<string, FaceMatch & { correct: boolean }>();
     // true joins first, so a limited run still measures accuracy
     const ordered = [...work.values()].sort((x, y) => Number(truthOf.has(key(y.a, y.b))) - Number(truthOf.has(key(x.a, x.b))));
@@ -177,6 +179,7 @@ export default async function main(): Promise<void> {
       if (done >= limit) break;
       const A = prepared.get(w.a)!, B = prepared.get(w.b)!;
       const tj = truthOf.get(key(w.a, w.b));
+      if (process.env.KNITBONE_PAIRWISE_TRUE_ONLY && !tj) continue;
       const want = tj ? (tj.a === w.a ? tj.transformBToA : undefined) : undefined;
       const wantInv = tj && !want ? tj.transformBToA : undefined; // truth maps A(=tj.a) <- B; here a is tj.b
       const all: FaceMatch[] = [];
@@ -209,6 +212,7 @@ export default async function main(): Promise<void> {
           fineCorrect: ranked.some((m) => near(m.transform, 5, 5)),
           bestCorrect: ranked.find((m) => near(m.transform, 5, 5)),
           winner: ranked[0],
+          winnerErr: ranked[0] ? [rotationErrorDegrees(ranked[0].transform, t), displacementAt(ranked[0].transform, t, B.centroid)] : undefined,
           coarseBest: traced.coarse.map((m): [number, number] => [rotationErrorDegrees(m, t), displacementAt(m, t, B.centroid)]).sort((p, q) => p[0] / 5 + p[1] / 5 - q[0] / 5 - q[1] / 5)[0] ?? [NaN, NaN],
           refinedBest: (() => {
             const r = traced.refined.map((x) => ({ rot: rotationErrorDegrees(x.transform, t), trans: displacementAt(x.transform, t, B.centroid), overlap: x.overlap })).sort((p, q) => p.rot / 5 + p.trans / 5 - q.rot / 5 - q.trans / 5)[0];
@@ -264,7 +268,7 @@ export default async function main(): Promise<void> {
           set: dir.split(/[\\/]/).pop(), pair: k, breakId: j.breakId, pattern: j.pattern, contactAreaMm2: j.contactAreaMm2, survivingFraction: j.survivingFraction, cls,
           truthOverlap: tr?.truthOverlap, truthAreaMm2: tr?.truthArea, coarseBest: tr?.coarseBest, refinedBest: tr?.refinedBest,
           holders: { a: breakHolder(dir, truth, j.a, j.breakId), b: breakHolder(dir, truth, j.b, j.breakId) },
-          bestCorrect: comp(tr?.bestCorrect), winner: comp(tr?.winner), rivalsA: rivals(j.a), rivalsB: rivals(j.b),
+          bestCorrect: comp(tr?.bestCorrect), winner: comp(tr?.winner), winnerErr: tr?.winnerErr, rivalsA: rivals(j.a), rivalsB: rivals(j.b),
         });
       }
       if (process.env.KNITBONE_PAIRWISE_VERBOSE) process.stdout.write(`${k} ${j.pattern} area ${j.contactAreaMm2} surv ${j.survivingFraction} truthOverlap ${f(tr?.truthOverlap ?? NaN)} held ${f(tr?.truthArea ?? NaN, 0)} mm2 -> ${cls}${m ? ` best score ${f(m.score)}` : ''}\n`);

@@ -102,8 +102,23 @@ export interface MatchParameters {
   fineSamples: number;
   /** Samples of B's face in the last rounds against A's triangles (BVH). */
   bvhSamples: number;
-  /** Share of ICP pairs kept each round. */
+  /** Rounds of the fine step against A's face samples, then against A's triangles (BVH). */
+  fineIterations: number;
+  bvhIterations: number;
+  /** Share of ICP pairs kept each round (screen). */
   icpTrim: number;
+  /** Share of ICP pairs kept each round of the fine step. */
+  fineTrim: number;
+  /**
+   * When above 0, the fine step chooses its kept share each round (icp-point-to-plane.ts
+   * autoTrimLambda), at least fineTrimMin, instead of fineTrim. 2 (was a fixed 0.7): of the true
+   * joins on dev seeds 11-16 and 21 whose best motion landed 5-12 degrees off the truth (a face
+   * opened like a book: the fixed trim dropped the far pairs that would close it), 8 of 18 became
+   * correct (1 with the fixed trim; a fixed 0.95 gave 9 but lost 6 of 90 found joins, this 3)
+   * (tests/bench/fine-accuracy-study.ts).
+   */
+  fineTrimLambda: number;
+  fineTrimMin: number;
   /** Contact tolerance in sample spacings. */
   contactToleranceSpacings: number;
   seed: number;
@@ -135,7 +150,12 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
+  fineIterations: 20,
+  bvhIterations: 8,
   icpTrim: 0.7,
+  fineTrim: 0.7,
+  fineTrimLambda: 2,
+  fineTrimMin: 0.5,
   contactToleranceSpacings: 0.4,
   seed: 1,
 };
@@ -283,15 +303,19 @@ function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
   const fine = nearFace(FB.points, FB.normals, start, FA.tree, 2 * spacing, params.fineSamples);
   const mid = icpPointToPlane(fine.points, fine.normals, faceSurfaceA, start, {
     maxDistance: 1.5 * spacing,
-    trim: params.icpTrim,
-    maxIterations: 20,
+    trim: params.fineTrim,
+    autoTrimLambda: params.fineTrimLambda,
+    autoTrimMin: params.fineTrimMin,
+    maxIterations: params.fineIterations,
     tolerance: 1e-4 * spacing,
   });
   const last = nearFace(FB.points, FB.normals, mid.transform, FA.tree, 1.5 * spacing, params.bvhSamples);
   return icpPointToPlane(last.points, last.normals, a.surface, mid.transform, {
     maxDistance: 1.5 * spacing,
-    trim: params.icpTrim,
-    maxIterations: 8,
+    trim: params.fineTrim,
+    autoTrimLambda: params.fineTrimLambda,
+    autoTrimMin: params.fineTrimMin,
+    maxIterations: params.bvhIterations,
     tolerance: 1e-4 * spacing,
   }).transform;
 }

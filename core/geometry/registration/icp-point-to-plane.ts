@@ -14,6 +14,16 @@ export interface IcpOptions {
   maxDistance: number;
   /** Share of the closest pairs kept each round (0..1]. */
   trim?: number;
+  /**
+   * Choose the share kept each round from the pairs' distances instead (overlap estimated as in
+   * the trimmed ICP of Chetverikov et al. 2005 and the fractional RMSD of Phillips et al. 2007,
+   * both from memory): the share f in [autoTrimMin, 1] that minimises
+   * sqrt(mean squared distance of the f nearest pairs) / f^autoTrimLambda. A contact that covers
+   * most of the paired samples keeps nearly all of them (a fixed trim throws away the far pairs
+   * that would close a face opened like a book); a small contact keeps few. 0: fixed `trim`.
+   */
+  autoTrimLambda?: number;
+  autoTrimMin?: number;
   /** Keep pairs whose normals meet at more than this angle (degrees); 180 means exactly opposed. */
   minNormalAngleDeg?: number;
   /** true (default): source and target normals must be opposed; false: aligned. */
@@ -45,6 +55,8 @@ export function icpPointToPlane(
   const opposed = options.opposedNormals ?? true;
   const maxIter = options.maxIterations ?? 40;
   const tol = options.tolerance ?? 1e-4;
+  const lambda = options.autoTrimLambda ?? 0;
+  const autoMin = options.autoTrimMin ?? 0.4;
   let T = initial.slice();
   let rms = Infinity;
   let inliers = 0;
@@ -80,9 +92,10 @@ export function icpPointToPlane(
     }
     if (m < 6) break;
     for (let i = 0; i < m; i++) indices[i] = i;
-    const keep = Math.max(6, Math.floor(m * trim));
+    let keep = Math.max(6, Math.floor(m * trim));
     // the kept pairs, nearest first (sums below run in this order)
-    const order = keep < m ? sortIndicesByKey(indices, m, dist, scratch) : indices;
+    const order = keep < m || lambda > 0 ? sortIndicesByKey(indices, m, dist, scratch) : indices;
+    if (lambda > 0) keep = Math.min(m, Math.max(6, autoTrimKeep(order, m, dist, autoMin, lambda)));
     // Normal equations A^T A x = A^T b for x = (omega, t), row a = (p x n, n), b = -(p - q).n
     // (the 21 sums of the upper triangle and the 6 of A^T b in locals, each summed in sample order)
     // centre for conditioning
@@ -147,6 +160,24 @@ export function icpPointToPlane(
     }
   }
   return { transform: T, rms, inliers, iterations: iter };
+}
+
+/**
+ * Pairs kept by the fractional-RMSD rule (see IcpOptions.autoTrimLambda): of the m pairs sorted
+ * nearest first in `order`, the count k >= minShare m minimising sqrt(mean of the k smallest
+ * squared distances) / (k/m)^lambda.
+ */
+export function autoTrimKeep(order: ArrayLike<number>, m: number, dist: ArrayLike<number>, minShare: number, lambda: number): number {
+  const from = Math.max(1, Math.ceil(minShare * m));
+  let sum = 0, best = Infinity, keep = m;
+  for (let k = 1; k <= m; k++) {
+    const d = dist[order[k - 1]];
+    sum += d * d;
+    if (k < from) continue;
+    const v = Math.sqrt(sum / k) / Math.pow(k / m, lambda);
+    if (v < best) { best = v; keep = k; }
+  }
+  return keep;
 }
 
 /** Solve a symmetric positive (semi)definite 6x6 system by Gaussian elimination with pivoting. */
