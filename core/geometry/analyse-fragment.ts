@@ -14,6 +14,7 @@ import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
+import { refineFractureBorder } from './border-refine';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
@@ -146,6 +147,13 @@ export function analyseFragment(
     figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
     settings.minFaceAreaMm2,
   ).map((c, id) => regionClassOverrides.get(id) ?? c);
+  // Border triangles to the side whose normals they share (border-refine.ts); the analyst's corrected regions stay as they are.
+  region = refineFractureBorder(topo.neighbours, filtered, areas, region, classes.map((c) => c === 'fracture'), {
+    rings: settings.borderRefineRings, referenceRing: settings.borderRefineReferenceRing, passes: settings.borderRefinePasses, minPatchArea: settings.minFaceAreaMm2,
+  }, (r) => regionClassOverrides.has(r));
+  // Area and triangle count as refined; the other figures are those the regions were classed by.
+  for (const fig of figures) { fig.area = 0; fig.triangleCount = 0; }
+  for (let f = 0; f < nt; f++) { figures[region[f]].area += areas[f]; figures[region[f]].triangleCount++; }
   const regions: SurfaceRegion[] = figures.map((fig, id) => {
     const surfaceClass = classes[id];
     return { id, ...fig, surfaceClass, kind: surfaceClass === 'fracture' ? 'fracture' : 'original' };
