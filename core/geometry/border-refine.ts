@@ -19,8 +19,8 @@
  * `referenceRing` steps inside their own kind's side (so the border strip itself does not
  * vote); the triangle changes side when its normal is closer to the other kind's mean. A
  * moved triangle joins the region of a neighbour of the other kind. `passes` passes let the
- * border move that many triangles. Triangles of locked regions (the analyst's corrections)
- * neither move nor receive others.
+ * border move that many triangles. The caller passes the program's classes, not the analyst's
+ * corrections, so a region stays the same set of triangles when it is corrected.
  */
 export interface BorderRefineOptions {
   rings: number;
@@ -41,7 +41,6 @@ export function refineFractureBorder(
   region: Uint32Array,
   fractureRegion: ArrayLike<boolean>,
   options: BorderRefineOptions,
-  locked: (region: number) => boolean = () => false,
 ): Uint32Array {
   const nt = areas.length;
   const out = region.slice();
@@ -81,7 +80,6 @@ export function refineFractureBorder(
     }
     const moves: Array<[number, number]> = [];
     for (const f of border) {
-      if (locked(out[f])) continue;
       // After the first pass only where the last moves can have changed what the triangle sees.
       if (pass > 0 && dirty[f] !== pass) continue;
       sum.fill(0);
@@ -114,10 +112,10 @@ export function refineFractureBorder(
       const cOwn = (nx * sum[3 * own] + ny * sum[3 * own + 1] + nz * sum[3 * own + 2]) / lo;
       const cOther = (nx * sum[3 * other] + ny * sum[3 * other + 1] + nz * sum[3 * other + 2]) / lt;
       if (!(cOther > cOwn)) continue;
-      // Join the region of a neighbour across the border (the first one found that is not locked).
+      // Join the region of a neighbour across the border (the first one found).
       for (let j = 0; j < 3; j++) {
         const g = neighbours[3 * f + j];
-        if (g >= 0 && kind[g] === other && !locked(out[g])) { moves.push([f, out[g]]); break; }
+        if (g >= 0 && kind[g] === other) { moves.push([f, out[g]]); break; }
       }
     }
     if (moves.length === 0) break;

@@ -58,12 +58,9 @@ describe('border refinement between break face and bone surface', () => {
     });
   }
 
-  it('leaves a correct border where it is, and leaves locked regions alone', () => {
+  it('leaves a correct border where it is', () => {
     const region = Uint32Array.from(tube.truth);
     const refined = refineFractureBorder(neighbours, normals, areas, region, [false, true], options);
     expect(agreement(refined, tube.truth, areas)).toBeGreaterThan(0.995);
-    const start = Uint32Array.from(shifted(tube.truth, neighbours, 1, 2));
-    const locked = refineFractureBorder(neighbours, normals, areas, start, [false, true], options, (r) => r === 1);
-    expect(Array.from(locked)).toEqual(Array.from(start));
   });
 });
