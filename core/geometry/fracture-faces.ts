@@ -275,8 +275,10 @@ function hasOuter(ctx: FaceContext): boolean {
  * angle in the plane across the edge). 90 is a right-angled break; below or above is oblique.
  * Each side uses its triangles within anglePlaneRadiusMm of m, leaving out those closer than
  * anglePlaneSkipMm to the edge line (the worn crease and the rim along it).
- * - Fracture side: the area-weighted mean normal (a plane fit): the face is a narrow, rough
- *   band, nominally flat across it at this scale.
+ * - Fracture side: the area-weighted mean normal (a plane fit) of its triangles within
+ *   angleFaceRadiusMm (2.5 mm) of m: the face is a narrow, rough band, nominally flat across it
+ *   at this scale, but a front that turns through the wall (a splinter face whose slope about
+ *   the axis per mm of radius is constant runs nearer radial deeper in) is read nearer the rim.
  * - Bone surface side: the normal field fitted as linear in position over the side's tangent
  *   plane and evaluated at m (sideNormalAtEdge). A mean normal would be the normal some
  *   2 mm away from the edge: on a shaft of radius R that leans by about 2/R radians (7 to 8
@@ -325,7 +327,10 @@ function edgeAngle(ctx: FaceContext, faceId: number, f: number, g: number, mx: n
     const along = dx * tx + dy * ty + dz * tz;
     return dx * dx + dy * dy + dz * dz - along * along >= skip2;
   };
-  const nf = meanNormal(ctx, fractureSide.filter(away));
+  // The break face's side only out to angleFaceRadiusMm: a front that turns through the wall is read near the rim.
+  const face2 = ctx.settings.angleFaceRadiusMm ** 2;
+  const near = (h: number): boolean => (ctx.centroids[3 * h] - mx) ** 2 + (ctx.centroids[3 * h + 1] - my) ** 2 + (ctx.centroids[3 * h + 2] - mz) ** 2 <= face2;
+  const nf = meanNormal(ctx, fractureSide.filter((h) => away(h) && near(h)));
   const side = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
   if (!nf || !side) return undefined;
   let ns = side.fit;

@@ -241,6 +241,16 @@ export const analysisSettingsSchema = z.object({
    * 856 of 913 faces of the right class, check seeds 120-129 926 -> 930 of 992, none lost.
    */
   angleMinSpacingMm: z.number().positive().default(0.8),
+  /**
+   * The break face's normal at an angle sample is the mean of its triangles within this distance
+   * (mm; at most anglePlaneRadiusMm, which bounds both sides) of the edge point: a front that
+   * turns through the wall (bevelled at the rim, squarer deeper in) is read nearer the rim
+   * (closed form in fracture-angle.test.ts: 55 degrees at the rim, read 80 with 3.5 mm, 75 with
+   * 2.5). Dev seeds 11-16, 14 at 1.0 mm, 21, 101-103: 856 -> 864 of 913 faces of the right class,
+   * check seeds 120-129 930 -> 943 of 992 (right-angled faces 296 -> 295 of 332 on both); 2 mm
+   * 1807 of 1905 but right-angled 290, 3 mm 1801 (297).
+   */
+  angleFaceRadiusMm: z.number().positive().default(2.5),
   /** Triangles closer than this to the edge are left out of the plane fits (worn, rounded crease). */
   anglePlaneSkipMm: z.number().min(0).default(1),
   /**

@@ -201,6 +201,26 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
     expect(Math.min(...folded(off))).toBeLessThan(70);
   });
 
+  it('a front that curves through the wall is read near the rim: bevelled 35 degrees there, right-angled 2.5 mm in, oblique', async () => {
+    // The transverse cut bent by z += tan(b) u - tan(b) u^2 / (2 D), u = R - rho the depth into
+    // the wall from the outer surface (a shift along the axis, so the walls stay cylinders):
+    // the front's slope along the radius is tan(b) (1 - u / D), so it meets the outer wall at
+    // 90 - b = 55 degrees (closed form) and runs square to the wall from u = D = 2.5 mm on, as a
+    // splinter face that turns through the wall does. A break-face normal averaged out to 3.5 mm
+    // from the edge point reads 80 (right); out to angleFaceRadiusMm (2.5 mm) about 75.
+    const b = (35 * Math.PI) / 180, D = 2.5;
+    const bend = (x: number, y: number, z: number): [number, number, number] => {
+      const u = R - Math.hypot(x, y);
+      return [x, y, z + Math.tan(b) * u - (Math.tan(b) * u * u) / (2 * D)];
+    };
+    const a = await analyse([{ normal: [0, 0, 1], offset: -30 }], bend);
+    const face = largest(a);
+    expect(face.anglesDeg.length).toBeGreaterThan(15);
+    expect(face.medianAngleDeg).toBeGreaterThan(55);
+    expect(face.medianAngleDeg).toBeLessThan(78);
+    expect(face.angleClass).toBe('oblique');
+  }, 30_000);
+
   it('a short rim against the outer surface is sampled more densely: a 5 mm stretch of the 60-degree chord still reads oblique', () => {
     // The chord 6 mm off the axis again (90 - asin(6/12) = 60 degrees at the outer rim, closed
     // form), with the outer wall left as outer surface only along 5 mm of one rim (the rest
