@@ -168,6 +168,18 @@ export const analysisSettingsSchema = z.object({
   contextConcaveCurvatureMin: z.number().min(0).default(0.01),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
+  /**
+   * Border refinement (border-refine.ts), after the regions are classed: passes in which a
+   * triangle at the border between break face and bone surface changes side when its
+   * (filtered) normal is closer to the other side's mean normal nearby; each pass moves the
+   * border by at most one triangle. 0 switches it off. Chosen on dev seeds 12, 15, 16, 21
+   * (3-8 passes within 0.05 point of each other).
+   */
+  borderRefinePasses: z.number().int().min(0).max(20).default(5),
+  /** ...the mean normals of each side over the triangles within this many edge steps of the border triangle... */
+  borderRefineRings: z.number().int().min(1).max(20).default(7),
+  /** ...counting only triangles at least this many edge steps inside their own side (the border strip does not vote). */
+  borderRefineReferenceRing: z.number().int().min(0).max(10).default(2),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
   /**
