@@ -14,6 +14,7 @@ import { growRegions, mergeSmallRegions } from './regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
+import { refineFractureBorder } from './border-refine';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
@@ -139,13 +140,22 @@ export function analyseFragment(
   // Each region judged by itself, then again with the border it has with original surface
   // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
   const fracture = settleFractureRegions(figures, borders, axis, settings);
-  const classes = absorbSmallFractureRegions(
+  const programClasses = absorbSmallFractureRegions(
     region,
     topo.neighbours,
     areas,
     figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
     settings.minFaceAreaMm2,
-  ).map((c, id) => regionClassOverrides.get(id) ?? c);
+  );
+  const classes = programClasses.map((c, id) => regionClassOverrides.get(id) ?? c);
+  // Border triangles to the side whose normals they share (border-refine.ts), by the program's
+  // classes, so that a region is the same set of triangles whether or not the analyst corrected it.
+  region = refineFractureBorder(topo.neighbours, filtered, areas, region, programClasses.map((c) => c === 'fracture'), {
+    rings: settings.borderRefineRings, referenceRing: settings.borderRefineReferenceRing, passes: settings.borderRefinePasses, minPatchArea: settings.minFaceAreaMm2,
+  });
+  // Area and triangle count as refined; the other figures are those the regions were classed by.
+  for (const fig of figures) { fig.area = 0; fig.triangleCount = 0; }
+  for (let f = 0; f < nt; f++) { figures[region[f]].area += areas[f]; figures[region[f]].triangleCount++; }
   const regions: SurfaceRegion[] = figures.map((fig, id) => {
     const surfaceClass = classes[id];
     return { id, ...fig, surfaceClass, kind: surfaceClass === 'fracture' ? 'fracture' : 'original' };

@@ -126,17 +126,17 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
   let outlineLength = 0;
   let alignSum = 0, alignLen = 0;
   const [ax, ay, az] = ctx.axis.direction;
-  const angleSamples: number[] = [];
   const step = settings.anglePlaneRadiusMm;
+  // The edges where the angle may be read, in outline order: loop, face triangle, triangle across, midpoint xyz.
+  const rim: number[] = [];
+  let loop = 0;
   for (const [, startList] of nextOf) {
     while (startList.length) {
       const pts: number[] = [];
       const across: number[] = [];
       let h = startList.pop()!;
-      // Samples at least `step` apart in space (not along the boundary path, which zigzags over
-      // the triangles by more or less depending on how the outline crosses them).
-      let lastX = NaN, lastY = NaN, lastZ = NaN;
       let chordStart = -1;
+      loop++;
       for (let guard = 0; guard < 4 * tris.length + 8; guard++) {
         const f = Math.floor(h / 3), j = h % 3;
         const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
@@ -164,11 +164,7 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
         // The angle is read against the bone's outer surface (periosteal or articular), or
         // against any original surface on a fragment that has no outer surface left.
         if (g >= 0 && cls !== FRACTURE && (cls === OUTER || cls === ARTICULAR || !hasOuter(ctx))) {
-          const mx = (p[3 * a] + p[3 * b]) / 2, my = (p[3 * a + 1] + p[3 * b + 1]) / 2, mz = (p[3 * a + 2] + p[3 * b + 2]) / 2;
-          if (!(Math.hypot(mx - lastX, my - lastY, mz - lastZ) < step)) {
-            const angle = edgeAngle(ctx, id, f, g, mx, my, mz);
-            if (angle !== undefined) { angleSamples.push(angle); lastX = mx; lastY = my; lastZ = mz; }
-          }
+          rim.push(loop, f, g, (p[3 * a] + p[3 * b]) / 2, (p[3 * a + 1] + p[3 * b + 1]) / 2, (p[3 * a + 2] + p[3 * b + 2]) / 2);
         }
         const cont = nextOf.get(b);
         if (!cont || cont.length === 0) break;
@@ -177,6 +173,13 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
       outlines.push(Float32Array.from(pts));
       outlineNeighbours.push(Uint8Array.from(across));
     }
+  }
+  const angleSamples = rimAngles(ctx, id, rim, step);
+  // Too few samples for a class at that spacing (a short rim against the outer surface): the
+  // rim is sampled again more densely, down to angleMinSpacingMm, rather than left unread.
+  for (let spacing = step / 2; angleSamples.length < settings.angleMinSamples && spacing >= settings.angleMinSpacingMm; spacing /= 2) {
+    const denser = rimAngles(ctx, id, rim, spacing);
+    if (denser.length > angleSamples.length) angleSamples.splice(0, angleSamples.length, ...denser);
   }
   // Width of a band with this area and perimeter (rectangle: P = 2L + 2w, A = L w).
   const disc = outlineLength * outlineLength - 16 * area;
@@ -190,7 +193,7 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
   // but with many right-angled samples is mixed.
   const medianAngleDeg = folded.length ? [...folded].sort((x, y) => x - y)[Math.floor(folded.length / 2)] : NaN;
   let angleClass: AngleClass = 'indeterminate';
-  if (folded.length >= 3) {
+  if (folded.length >= settings.angleMinSamples) {
     if (90 - medianAngleDeg <= settings.rightAngleToleranceDeg) angleClass = 'right';
     else if (rightShare <= settings.obliqueShareMax) angleClass = 'oblique';
     else angleClass = 'mixed';
@@ -235,6 +238,25 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
   };
 }
 
+/**
+ * Angles read at rim edges (rim: loop, face triangle, triangle across, midpoint xyz per edge,
+ * in outline order) at least `spacing` apart in space from the last sample of the same loop
+ * (in space, not along the boundary path, which zigzags over the triangles by more or less
+ * depending on how the outline crosses them).
+ */
+function rimAngles(ctx: FaceContext, id: number, rim: number[], spacing: number): number[] {
+  const out: number[] = [];
+  let lastLoop = -1, lastX = NaN, lastY = NaN, lastZ = NaN;
+  for (let i = 0; i < rim.length; i += 6) {
+    const [loop, f, g, mx, my, mz] = [rim[i], rim[i + 1], rim[i + 2], rim[i + 3], rim[i + 4], rim[i + 5]];
+    if (loop !== lastLoop) { lastLoop = loop; lastX = NaN; lastY = NaN; lastZ = NaN; }
+    if (Math.hypot(mx - lastX, my - lastY, mz - lastZ) < spacing) continue;
+    const angle = edgeAngle(ctx, id, f, g, mx, my, mz);
+    if (angle !== undefined) { out.push(angle); lastX = mx; lastY = my; lastZ = mz; }
+  }
+  return out;
+}
+
 const outerPresent = new WeakMap<Uint8Array, boolean>();
 /** Whether the fragment has any outer surface (periosteal or articular) left. */
 function hasOuter(ctx: FaceContext): boolean {
@@ -253,8 +275,10 @@ function hasOuter(ctx: FaceContext): boolean {
  * angle in the plane across the edge). 90 is a right-angled break; below or above is oblique.
  * Each side uses its triangles within anglePlaneRadiusMm of m, leaving out those closer than
  * anglePlaneSkipMm to the edge line (the worn crease and the rim along it).
- * - Fracture side: the area-weighted mean normal (a plane fit): the face is a narrow, rough
- *   band, nominally flat across it at this scale.
+ * - Fracture side: the area-weighted mean normal (a plane fit) of its triangles within
+ *   angleFaceRadiusMm (2.5 mm) of m: the face is a narrow, rough band, nominally flat across it
+ *   at this scale, but a front that turns through the wall (a splinter face whose slope about
+ *   the axis per mm of radius is constant runs nearer radial deeper in) is read nearer the rim.
  * - Bone surface side: the normal field fitted as linear in position over the side's tangent
  *   plane and evaluated at m (sideNormalAtEdge). A mean normal would be the normal some
  *   2 mm away from the edge: on a shaft of radius R that leans by about 2/R radians (7 to 8
@@ -303,7 +327,10 @@ function edgeAngle(ctx: FaceContext, faceId: number, f: number, g: number, mx: n
     const along = dx * tx + dy * ty + dz * tz;
     return dx * dx + dy * dy + dz * dz - along * along >= skip2;
   };
-  const nf = meanNormal(ctx, fractureSide.filter(away));
+  // The break face's side only out to angleFaceRadiusMm: a front that turns through the wall is read near the rim.
+  const face2 = ctx.settings.angleFaceRadiusMm ** 2;
+  const near = (h: number): boolean => (ctx.centroids[3 * h] - mx) ** 2 + (ctx.centroids[3 * h + 1] - my) ** 2 + (ctx.centroids[3 * h + 2] - mz) ** 2 <= face2;
+  const nf = meanNormal(ctx, fractureSide.filter((h) => away(h) && near(h)));
   const side = sideNormalAtEdge(ctx, surfaceSide.filter(away), mx, my, mz, [tx, ty, tz]);
   if (!nf || !side) return undefined;
   let ns = side.fit;

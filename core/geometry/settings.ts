@@ -168,6 +168,18 @@ export const analysisSettingsSchema = z.object({
   contextConcaveCurvatureMin: z.number().min(0).default(0.01),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
+  /**
+   * Border refinement (border-refine.ts), after the regions are classed: passes in which a
+   * triangle at the border between break face and bone surface changes side when its
+   * (filtered) normal is closer to the other side's mean normal nearby; each pass moves the
+   * border by at most one triangle. 0 switches it off. Chosen on dev seeds 12, 15, 16, 21
+   * (3-8 passes within 0.05 point of each other).
+   */
+  borderRefinePasses: z.number().int().min(0).max(20).default(5),
+  /** ...the mean normals of each side over the triangles within this many edge steps of the border triangle... */
+  borderRefineRings: z.number().int().min(1).max(20).default(7),
+  /** ...counting only triangles at least this many edge steps inside their own side (the border strip does not vote). */
+  borderRefineReferenceRing: z.number().int().min(0).max(10).default(2),
   /** Connected fracture patches smaller than this (mm²) take the class of the surface around them (small-faces.ts). */
   minFaceAreaMm2: z.number().min(0).default(10),
   /**
@@ -219,6 +231,26 @@ export const analysisSettingsSchema = z.object({
   obliqueShareMax: z.number().min(0).max(1).default(0.45),
   /** Radius of the plane fits either side of a break edge (also the spacing of the samples). */
   anglePlaneRadiusMm: z.number().positive().default(3.5),
+  /** A face needs this many angle samples for a class (fewer: indeterminate)... */
+  angleMinSamples: z.number().int().min(1).default(3),
+  /**
+   * ...and a face with fewer at anglePlaneRadiusMm spacing (a rim against the outer surface under
+   * about 3 x 3.5 mm) is sampled again at half, a quarter... of it, down to this spacing (mm;
+   * above anglePlaneRadiusMm: never). The samples then share triangles, but a short rim is read.
+   * Only faces that had too few samples change: dev seeds 11-16, 14 at 1.0 mm, 21, 101-103 850 ->
+   * 856 of 913 faces of the right class, check seeds 120-129 926 -> 930 of 992, none lost.
+   */
+  angleMinSpacingMm: z.number().positive().default(0.8),
+  /**
+   * The break face's normal at an angle sample is the mean of its triangles within this distance
+   * (mm; at most anglePlaneRadiusMm, which bounds both sides) of the edge point: a front that
+   * turns through the wall (bevelled at the rim, squarer deeper in) is read nearer the rim
+   * (closed form in fracture-angle.test.ts: 55 degrees at the rim, read 80 with 3.5 mm, 75 with
+   * 2.5). Dev seeds 11-16, 14 at 1.0 mm, 21, 101-103: 856 -> 864 of 913 faces of the right class,
+   * check seeds 120-129 930 -> 943 of 992 (right-angled faces 296 -> 295 of 332 on both); 2 mm
+   * 1807 of 1905 but right-angled 290, 3 mm 1801 (297).
+   */
+  angleFaceRadiusMm: z.number().positive().default(2.5),
   /** Triangles closer than this to the edge are left out of the plane fits (worn, rounded crease). */
   anglePlaneSkipMm: z.number().min(0).default(1),
   /**

@@ -28,7 +28,8 @@ export interface ScanRef {
 export type ProposalTask =
   | { kind: 'analyse'; scan: ScanRef }
   | { kind: 'describe'; scan: ScanRef; sampling: SamplingParameters }
-  | { kind: 'match'; a: ScanRef; b: ScanRef; facePairs: Array<[number, number]>; sampling: SamplingParameters; params: MatchParameters; keep: number };
+  /** keep: best distinct motions wanted; a pair whose best scores below minScore (not stored as a proposal) answers with that one alone. */
+  | { kind: 'match'; a: ScanRef; b: ScanRef; facePairs: Array<[number, number]>; sampling: SamplingParameters; params: MatchParameters; keep: number; minScore?: number };
 
 export interface AnalyseResult extends FragmentSummary {
   scanId: number;
@@ -125,7 +126,7 @@ function run(task: ProposalTask): AnalyseResult | DescribeResult | MatchResult {
       const before = preparations;
       const a = preparedFragment(task.a, task.sampling);
       const b = preparedFragment(task.b, task.sampling);
-      const matches = matchFragments(a, b, task.params, task.facePairs, task.keep);
+      const matches = matchFragments(a, b, task.params, task.facePairs, task.keep, task.minScore);
       return { scanA: task.a.scanId, scanB: task.b.scanId, matches, worker: threadId, prepared: preparations - before, busyMs: performance.now() - t0 };
     }
   }

@@ -296,7 +296,7 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
  * motion put near A's face, first against A's face samples (cheap k-d queries), the last few
  * rounds against A's triangles (BVH).
  */
-function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): RigidTransform {
+export function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): RigidTransform {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
@@ -398,7 +398,9 @@ function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
  * Every face pair (or the given ones) of A and B, merged, best first: every face pair is
  * screened, and only the fragment pair's few best screened motions are refined and scored.
  * With `keep`, only the best `keep` are wanted: the same as the first `keep` of the whole list,
- * with the interpenetration left out of the motions that cannot reach them (bestDistinct).
+ * with the interpenetration left out of the motions that cannot reach them (bestDistinct); with
+ * `minScore` as well, a pair whose best motion scores below it gets that motion alone (what a
+ * propose run stores of such a pair).
  */
 export function matchFragments(
   a: PreparedFragment,
@@ -406,6 +408,7 @@ export function matchFragments(
   params: MatchParameters = DEFAULT_MATCH_PARAMETERS,
   facePairs?: Array<[number, number]>,
   keep?: number,
+  minScore = 0,
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
@@ -424,7 +427,7 @@ export function matchFragments(
     const score = deferredScore(side(a, FA), side(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
     return { transform, faceA: FA.parent, faceB: FB.parent, score };
   });
-  return bestDistinct(fine, keep, 2 * spacing);
+  return bestDistinct(fine, keep, 2 * spacing, minScore);
 }
 
 /** A refined motion whose score is not complete yet (score.ts, deferredScore). */
@@ -441,19 +444,23 @@ export interface DeferredMatch {
  * `keep`-th kept one (upper bound below its score, or both 0 and less contact). Such a motion
  * cannot change the kept ones before it (distinctBest keeps or drops each motion by the better
  * ones only), so the answer is the same as completing all.
+ * With `minScore`, a pair whose best motion scores below it wants that motion alone (a propose
+ * run stores no proposal for it, only its best score): once the first kept motion is settled
+ * below minScore, only it is returned, and the motions after it are not completed.
  */
-export function bestDistinct(list: DeferredMatch[], keep: number, shift: number): FaceMatch[] {
+export function bestDistinct(list: DeferredMatch[], keep: number, shift: number, minScore = 0): FaceMatch[] {
   const done: Array<FaceMatch | undefined> = new Array(list.length);
   const byUpper = list.map((_, i) => i).sort((p, q) => list[q].score.upper - list[p].score.upper);
   let next = 0;
+  // relative slack: the bound is exact in real numbers, and exp need not be monotone to the last bit
+  const sortsAfter = (d: DeferredScore, last: FaceMatch): boolean => (d.upper === 0 ? last.score > 0 || d.contactFraction < last.contactFraction : d.upper * (1 + 1e-9) < last.score);
   for (;;) {
     const kept = distinctBest(done.filter((m): m is FaceMatch => m !== undefined), shift);
-    if (next >= byUpper.length) return kept.slice(0, keep);
+    if (next >= byUpper.length) return kept.slice(0, kept.length && kept[0].score < minScore ? 1 : keep);
+    if (kept.length >= 1 && kept[0].score < minScore && byUpper.slice(next).every((i) => sortsAfter(list[i].score, kept[0]))) return kept.slice(0, 1);
     if (kept.length >= keep) {
       const last = kept[keep - 1];
-      // relative slack: the bound is exact in real numbers, and exp need not be monotone to the last bit
-      const after = (d: DeferredScore): boolean => (d.upper === 0 ? last.score > 0 || d.contactFraction < last.contactFraction : d.upper * (1 + 1e-9) < last.score);
-      if (byUpper.slice(next).every((i) => after(list[i].score))) return kept.slice(0, keep);
+      if (byUpper.slice(next).every((i) => sortsAfter(list[i].score, last))) return kept.slice(0, keep);
     }
     const i = byUpper[next++];
     const m = list[i];

@@ -25,8 +25,17 @@ export class KdTree {
       // place of the generic layout (same traversal and arithmetic, so the same answers)
       this.points3 = new Float64Array(3 * this.count);
       for (let k = 0; k < this.count; k++) for (let d = 0; d < 3; d++) this.points3[3 * k + d] = data[this.order[k] * 3 + d];
+      // the points' bounding box: a query farther from it than its radius has no answer
+      const box = this.box3;
+      for (let k = 0; k < 3 * this.count; k += 3) for (let d = 0; d < 3; d++) {
+        const v = this.points3[k + d];
+        if (v < box[d]) box[d] = v;
+        if (v > box[3 + d]) box[3 + d] = v;
+      }
     }
   }
+
+  private readonly box3 = Float64Array.of(Infinity, Infinity, Infinity, -Infinity, -Infinity, -Infinity);
 
   private readonly points3: Float64Array | undefined;
 
@@ -156,7 +165,13 @@ export class KdTree {
     this.bestIndex = -1;
     this.bestDist2 = maxDist2;
     if (this.count > 0) {
-      if (this.points3) this.visitOne3(q[0], q[1], q[2], 0, this.count);
+      if (this.points3) {
+        const x = q[0], y = q[1], z = q[2], b = this.box3;
+        const dx = x < b[0] ? b[0] - x : x > b[3] ? x - b[3] : 0;
+        const dy = y < b[1] ? b[1] - y : y > b[4] ? y - b[4] : 0;
+        const dz = z < b[2] ? b[2] - z : z > b[5] ? z - b[5] : 0;
+        if (dx * dx + dy * dy + dz * dz <= maxDist2) this.visitOne3(x, y, z, 0, this.count);
+      }
       else this.visitOne(q, 0, this.count);
     }
     return { index: this.bestIndex, dist2: this.bestIndex < 0 ? Infinity : this.bestDist2 };

@@ -156,6 +156,8 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       }
       const poses = refitPoses(accepted);
       let skippedDone = 0, skippedDecided = 0;
+      // a pair whose best motion scores below this is recorded as done but not proposed
+      const minScore = options.minScore ?? 0.05;
       const tasks: PoolTask<ProposalTask>[] = [];
       for (const list of grouped.values()) {
         const A = usable[list[0].a], B = usable[list[0].b];
@@ -163,7 +165,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         if (done.has(`${sa.scanId}:${sb.scanId}`)) { skippedDone++; continue; }
         if (decided.has(pairKey(specimenOfScan.get(sa.scanId)!, specimenOfScan.get(sb.scanId)!))) { skippedDecided++; continue; }
         const facePairs: Array<[number, number]> = list.map((c) => (sa === A ? [c.faceA, c.faceB] : [c.faceB, c.faceA]));
-        tasks.push({ keys: [String(sa.scanId), String(sb.scanId)], message: { kind: 'match', a: sa, b: sb, facePairs, sampling, params, keep: 3 } });
+        tasks.push({ keys: [String(sa.scanId), String(sb.scanId)], message: { kind: 'match', a: sa, b: sb, facePairs, sampling, params, keep: 3, minScore } });
       }
       // keep pairs that share fragments near each other in the queue (worker caches; pair-order.ts)
       const slot = new Map(usable.map((u, i) => [String(u.scanId), i]));
@@ -178,7 +180,6 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         const msg = t.message as Extract<ProposalTask, { kind: 'match' }>;
         return [`${msg.a.scanId}:${msg.b.scanId}`, msg.facePairs.length];
       }));
-      const minScore = options.minScore ?? 0.05;
       const m = await runPool<ProposalTask, MatchResult>(tasks, {
         workers, cacheSize: WORKER_CACHE_SIZE, signal: ctx.signal,
         onResult: (r) => {

@@ -201,6 +201,66 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
     expect(Math.min(...folded(off))).toBeLessThan(70);
   });
 
+  it('a front that curves through the wall is read near the rim: bevelled 35 degrees there, right-angled 2.5 mm in, oblique', async () => {
+    // The transverse cut bent by z += tan(b) u - tan(b) u^2 / (2 D), u = R - rho the depth into
+    // the wall from the outer surface (a shift along the axis, so the walls stay cylinders):
+    // the front's slope along the radius is tan(b) (1 - u / D), so it meets the outer wall at
+    // 90 - b = 55 degrees (closed form) and runs square to the wall from u = D = 2.5 mm on, as a
+    // splinter face that turns through the wall does. A break-face normal averaged out to 3.5 mm
+    // from the edge point reads 80 (right); out to angleFaceRadiusMm (2.5 mm) about 75.
+    const b = (35 * Math.PI) / 180, D = 2.5;
+    const bend = (x: number, y: number, z: number): [number, number, number] => {
+      const u = R - Math.hypot(x, y);
+      return [x, y, z + Math.tan(b) * u - (Math.tan(b) * u * u) / (2 * D)];
+    };
+    const a = await analyse([{ normal: [0, 0, 1], offset: -30 }], bend);
+    const face = largest(a);
+    expect(face.anglesDeg.length).toBeGreaterThan(15);
+    expect(face.medianAngleDeg).toBeGreaterThan(55);
+    expect(face.medianAngleDeg).toBeLessThan(78);
+    expect(face.angleClass).toBe('oblique');
+  }, 30_000);
+
+  it('a short rim against the outer surface is sampled more densely: a 5 mm stretch of the 60-degree chord still reads oblique', () => {
+    // The chord 6 mm off the axis again (90 - asin(6/12) = 60 degrees at the outer rim, closed
+    // form), with the outer wall left as outer surface only along 5 mm of one rim (the rest
+    // relabelled medullary, where no angle is read): at anglePlaneRadiusMm (3.5 mm) spacing that
+    // rim holds at most 2 samples, too few for a class; sampled at half and a quarter of it, it
+    // holds enough, each still reading the closed form.
+    const a = offsetChord;
+    const chord = alongAxis(a);
+    const { normals, areas } = triangleNormalsAndAreas(a.mesh);
+    const centroids = triangleCentroids(a.mesh.positions, a.mesh.triangles);
+    let zc = 0;
+    for (const t of chord.triangleIds) zc += centroids[3 * t + 2] / chord.triangleIds.length;
+    const outer = SURFACE_CLASSES.indexOf('outer-cortical'), medullary = SURFACE_CLASSES.indexOf('medullary');
+    const triClass = Uint8Array.from(a.triangleClass, (c, t) => (c === outer && !(centroids[3 * t + 1] > 0 && Math.abs(centroids[3 * t + 2] - zc) < 2.5) ? medullary : c));
+    const faceGroup = new Int32Array(areas.length).fill(-1);
+    for (const f of a.fractureFaces) for (const t of f.triangleIds) faceGroup[t] = f.id;
+    const topo = buildTopology(a.mesh);
+    const faceOf = (settings: typeof a.settings) => fractureFaces({
+      faceGroup, mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass,
+      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings,
+    }).find((f) => f.triangleIds.includes(chord.triangleIds[0]))!;
+    const expected = 90 - deg(Math.asin(6 / R));
+    const face = faceOf(a.settings);
+    // A class needs 3 samples (angleMinSamples).
+    expect(face.anglesDeg.length).toBeGreaterThanOrEqual(3);
+    for (const x of folded(face)) expect(Math.abs(x - expected)).toBeLessThan(3);
+    expect(face.angleClass).toBe('oblique');
+    // At the plane radius's spacing only, the stretch is too short for a class.
+    const sparse = faceOf({ ...a.settings, angleMinSpacingMm: 100 });
+    expect(sparse.anglesDeg.length).toBeLessThan(3);
+    expect(sparse.angleClass).toBe('indeterminate');
+    // The whole rim (the analysis's own classes) has enough samples at that spacing: read as before.
+    const whole = (settings: typeof a.settings) => fractureFaces({
+      faceGroup, mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
+      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings,
+    }).find((f) => f.triangleIds.includes(chord.triangleIds[0]))!.anglesDeg;
+    expect(whole(a.settings).length).toBeGreaterThan(3);
+    expect(Array.from(whole(a.settings))).toEqual(Array.from(whole({ ...a.settings, angleMinSpacingMm: 100 })));
+  });
+
   it('a failed bone-surface fit at the rim (normals turned 50 degrees off the wall) is caught by the shaft check', () => {
     // The transverse cut again, with the outer wall's triangle normals within 5 mm of the cut
     // turned by 50 degrees towards the axis direction (what a chipped or rounded rim does to a

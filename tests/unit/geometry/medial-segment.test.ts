@@ -41,11 +41,13 @@ describe('a piece from the narrow edge of an elliptic tube', () => {
   });
 
   it('reads the flat faces as bone surface (agreement with the construction)', () => {
-    // Measured: 0.992 with the segment, 0.958 without it.
-    const withSegment = fractureAgreement(analyseFragment(piece.mesh), piece.truth, areas);
-    const without = fractureAgreement(analyseFragment(piece.mesh, { medialSegmentLengths: [], sectionSegmentReaches: [] }), piece.truth, areas);
+    // Measured: 0.992 with the segment, 0.958 without it, both without the border refinement
+    // (border-refine.ts), which moves the rim triangles the point centre misreads (0.983 without the segment).
+    const withSegment = fractureAgreement(analyseFragment(piece.mesh, { borderRefinePasses: 0 }), piece.truth, areas);
+    const without = fractureAgreement(analyseFragment(piece.mesh, { medialSegmentLengths: [], sectionSegmentReaches: [], borderRefinePasses: 0 }), piece.truth, areas);
     expect(withSegment).toBeGreaterThan(0.98);
     expect(withSegment).toBeGreaterThan(without + 0.02);
+    expect(fractureAgreement(analyseFragment(piece.mesh), piece.truth, areas)).toBeGreaterThan(0.98);
   });
 
   it('leaves a round tube without a segment', async () => {
@@ -79,10 +81,12 @@ describe('half of an elliptic tube cut through its axis', () => {
 
   it('reads walls and the break as the construction says', () => {
     // Measured: 0.993 with the fitted segment; 0.975 with the point centre (the segment along
-    // the line from the area centroid to the centre, fitMedialSegment, is not taken here).
-    const fitted = fractureAgreement(analyseFragment(piece.mesh), piece.truth, areas);
-    const without = fractureAgreement(analyseFragment(piece.mesh, { sectionSegmentReaches: [] }), piece.truth, areas);
+    // the line from the area centroid to the centre, fitMedialSegment, is not taken here), both
+    // without the border refinement (border-refine.ts), which narrows the gap.
+    const fitted = fractureAgreement(analyseFragment(piece.mesh, { borderRefinePasses: 0 }), piece.truth, areas);
+    const without = fractureAgreement(analyseFragment(piece.mesh, { sectionSegmentReaches: [], borderRefinePasses: 0 }), piece.truth, areas);
     expect(fitted).toBeGreaterThan(0.985);
     expect(fitted).toBeGreaterThan(without + 0.01);
+    expect(fractureAgreement(analyseFragment(piece.mesh), piece.truth, areas)).toBeGreaterThan(0.985);
   });
 });

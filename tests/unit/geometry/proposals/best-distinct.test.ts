@@ -59,6 +59,42 @@ describe('bestDistinct', () => {
   });
 });
 
+describe('bestDistinct with a minimum score', () => {
+  it('gives the first k of distinctBest when the best reaches the minimum, else the best alone, completing fewer', () => {
+    let completedWith = 0, completedWithout = 0;
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.record({
+            turn: fc.integer({ min: 0, max: 4 }), shift: fc.integer({ min: 0, max: 4 }),
+            score: fc.oneof(fc.constant(0), fc.constantFrom(0.02, 0.05, 0.2), fc.double({ min: 0, max: 0.1, noNaN: true })),
+            slack: fc.oneof(fc.constant(0), fc.double({ min: 0, max: 0.1, noNaN: true })),
+            contact: fc.constantFrom(0.1, 0.4, 0.9),
+          }),
+          { maxLength: 14 },
+        ),
+        fc.integer({ min: 1, max: 4 }),
+        fc.constantFrom(0.05, 0.1),
+        (motions, keep, minScore) => {
+          const shift = 2;
+          const make = (count: () => void): DeferredMatch[] => motions.map((m, i) => ({
+            transform: transformFrom(rotationAboutAxis([0, 0, 1], (m.turn * 2.5 * Math.PI) / 180), [1.5 * m.shift, 0, 0]),
+            faceA: i, faceB: 0,
+            score: { upper: m.score === 0 ? 0 : Math.min(1, m.score + m.slack), contactFraction: m.contact, complete: () => { count(); return components(m.score, m.contact); } },
+          }));
+          const full: FaceMatch[] = distinctBest(motions.map((m, i) => ({ ...components(m.score, m.contact), transform: make(() => {})[i].transform, faceA: i, faceB: 0 })), shift);
+          const want = full.length && full[0].score < minScore ? full.slice(0, 1) : full.slice(0, keep);
+          expect(bestDistinct(make(() => completedWith++), keep, shift, minScore)).toEqual(want);
+          expect(bestDistinct(make(() => completedWithout++), keep, shift)).toEqual(full.slice(0, keep));
+        },
+      ),
+      { numRuns: 500 },
+    );
+    // the point of it: below the minimum only the best is settled
+    expect(completedWith).toBeLessThan(0.9 * completedWithout);
+  });
+});
+
 describe('on a cut Stanford bunny', () => {
   let lower: CutPiece, upper: CutPiece, otherUpper: CutPiece, spacing: number;
   const prepare = (piece: CutPiece, motion: number[]): PreparedFragment => {

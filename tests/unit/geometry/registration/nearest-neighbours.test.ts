@@ -84,3 +84,28 @@ describe('nearest one in 3 dimensions', () => {
     );
   });
 });
+
+describe('nearest one in 3 dimensions, queries outside the points\' box', () => {
+  it('answers as brute force, a point exactly at the radius included, and nothing farther', () => {
+    // integer points, so distances are exact: a query beside the box at exactly the radius
+    // from the nearest point must find it (the search counts a point at the radius)
+    const P = Float32Array.from([0, 0, 0, 4, 0, 0, 0, 3, 0, 4, 3, 2, 2, 1, 1]);
+    const tree = new KdTree(P, 3);
+    for (const [q, max2, want] of [
+      [[-2, 0, 0], 4, 0], [[-2, 0, 0], 3.999, -1], [[7, 3, 2], 9, 3], [[7, 3, 2], 8, -1], [[4, 3, 6], 16, 3], [[0, -4, 0], 16, 0], [[0, -4, 0], 15.99, -1],
+    ] as Array<[number[], number, number]>) {
+      expect(tree.nearestOne(q, max2).index).toBe(want);
+    }
+    fc.assert(
+      fc.property(fc.integer({ min: -12, max: 16 }), fc.integer({ min: -12, max: 15 }), fc.integer({ min: -12, max: 14 }), fc.integer({ min: 0, max: 120 }), (x, y, z, max2) => {
+        const q = [x, y, z];
+        const d = [0, 1, 2, 3, 4].map((i) => (x - P[3 * i]) ** 2 + (y - P[3 * i + 1]) ** 2 + (z - P[3 * i + 2]) ** 2);
+        const best = Math.min(...d);
+        const got = tree.nearestOne(q, max2);
+        if (best > max2) expect(got.index).toBe(-1);
+        else expect(got.dist2).toBe(best);
+      }),
+      { numRuns: 400 },
+    );
+  });
+});
