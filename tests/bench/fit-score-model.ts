@@ -5,6 +5,8 @@
  *   KNITBONE_PAIRWISE_DIRS=<demo dirs> KNITBONE_PAIRWISE_DUMP=motions.json npm run bench -- pairwise
  *   npx tsx tests/bench/fit-score-model.ts --fit s11,s12,s13 motions.json [more.json ...]
  *
+ * `--fixture <file.json>` also writes the checked sets' motions (components and truth) for
+ * tests/unit/geometry/registration/score-calibration.test.ts.
  * `--fit` names the assemblages (folder names) the model is fitted on; every other assemblage
  * in the files is only checked. Only development seeds go in here; held-out seeds are for the
  * calibration table of the benchmark. Prints the coefficients to paste into score-model.ts, then
@@ -19,11 +21,14 @@
  * with a small ridge penalty on the slopes of standardised features. Deterministic: the same
  * files give the same coefficients.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { reliability, table } from './calibration';
-import { FEATURE_NAMES, scoreFeatures, scoreProbability, type ScoreComponents, type ScoreModel } from '../../core/geometry/registration/score-model';
+import { FEATURE_NAMES, SCORE_MODEL, scoreFeatures, scoreProbability, type ScoreComponents, type ScoreModel } from '../../core/geometry/registration/score-model';
 
-interface Motion { set: string; a: string; b: string; trueJoin: boolean; correct: boolean; score: number; components: Record<string, number> }
+/** The score components a fixture keeps (ScoreComponents, in this order). */
+export const COMPONENT_FIELDS = ['contactFraction', 'contactFractionOther', 'contactAreaMm2', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngleDeg', 'axisSide', 'radiusRatio'] as const satisfies ReadonlyArray<keyof ScoreComponents>;
+
+export interface Motion { set: string; a: string; b: string; trueJoin: boolean; correct: boolean; score: number; components: Record<string, number> }
 
 function solve(A: number[][], b: number[]): number[] {
   const n = b.length;
@@ -47,7 +52,7 @@ function solve(A: number[][], b: number[]): number[] {
 }
 
 /** Logistic regression by IRLS with ridge penalty `lambda` on standardised slopes; returns raw-unit intercept and slopes. */
-function fitLogistic(X: number[][], y: number[], lambda = 0.5): { intercept: number; slopes: number[]; standardised: number[] } {
+export function fitLogistic(X: number[][], y: number[], lambda = 0.5): { intercept: number; slopes: number[]; standardised: number[] } {
   const d = X[0].length;
   const mean = new Array<number>(d).fill(0), sd = new Array<number>(d).fill(0);
   for (const x of X) x.forEach((v, k) => (mean[k] += v / X.length));
@@ -90,7 +95,7 @@ function report(title: string, p: number[], y: number[]): void {
  * piece by best score (else class d, outranked by other pairs). An estimate from the dump (each
  * pair's ranks 1-5 only); the benchmark re-run gives the real counts.
  */
-function ranking(list: Motion[], scores: number[]): { pairs: number; firstInPair: number; top3: number } {
+export function ranking(list: Motion[], scores: number[]): { pairs: number; firstInPair: number; top3: number } {
   const best = new Map<string, { score: number; correct: boolean; trueJoin: boolean; a: string; b: string; set: string; anyCorrect: boolean }>();
   list.forEach((m, i) => {
     const k = `${m.set}|${m.a}|${m.b}`;
@@ -129,20 +134,23 @@ function main(): void {
   const args = process.argv.slice(2);
   const at = args.indexOf('--fit');
   const fitSets = at >= 0 ? args.splice(at, 2)[1].split(',') : undefined;
+  const fx = args.indexOf('--fixture');
+  const fixture = fx >= 0 ? args.splice(fx, 2)[1] : undefined;
   const files = args;
   const setName = (s: string): string => s.split(/[\\/]/).pop()!;
   const motions: Motion[] = files.flatMap((f) => JSON.parse(readFileSync(f, 'utf8')) as Motion[]);
   const fitted = motions.filter((m) => !fitSets || fitSets.includes(setName(m.set)));
   const checked = motions.filter((m) => fitSets && !fitSets.includes(setName(m.set)));
+  // inputs as the model in score-model.ts reads them (its interlock cap)
   const X = fitted.map((m) => scoreFeatures(m.components as unknown as ScoreComponents));
   const y = fitted.map((m) => (m.correct ? 1 : 0));
   const fit = fitLogistic(X, y);
   const sets = [...new Set(fitted.map((m) => setName(m.set)))];
   process.stdout.write(`fitted on ${sets.join(', ')}: ${fitted.length} motions (${y.filter((v) => v).length} correct) from ${files.join(', ')}\n`);
   process.stdout.write(`  fittedOn: '... seeds ${sets.join(', ')}: ${fitted.length} motions (ranks 1-5 of every candidate and true fragment pair), ${y.filter((v) => v).length} correct (within 5 degrees and 5 mm)',\n`);
-  process.stdout.write(`  intercept: ${fit.intercept.toFixed(4)},\n  slopes: { ${FEATURE_NAMES.map((n, k) => `${n}: ${fit.slopes[k].toFixed(4)}`).join(', ')} },\n`);
+  process.stdout.write(`  interlockCap: ${SCORE_MODEL.interlockCap},\n  intercept: ${fit.intercept.toFixed(4)},\n  slopes: { ${FEATURE_NAMES.map((n, k) => `${n}: ${fit.slopes[k].toFixed(4)}`).join(', ')} },\n`);
   process.stdout.write(`standardised slopes (per standard deviation of the feature): ${FEATURE_NAMES.map((n, k) => `${n} ${fit.standardised[k].toFixed(2)}`).join(', ')}\n`);
-  const model: ScoreModel = { methodVersion: '', fittedOn: '', intercept: fit.intercept, slopes: Object.fromEntries(FEATURE_NAMES.map((n, k) => [n, fit.slopes[k]])) as ScoreModel['slopes'] };
+  const model: ScoreModel = { methodVersion: '', fittedOn: '', interlockCap: SCORE_MODEL.interlockCap, intercept: fit.intercept, slopes: Object.fromEntries(FEATURE_NAMES.map((n, k) => [n, fit.slopes[k]])) as ScoreModel['slopes'] };
   const predict = (list: Motion[]): number[] => list.map((m) => scoreProbability(m.components as unknown as ScoreComponents, model));
   const truth = (list: Motion[]): number[] => list.map((m) => (m.correct ? 1 : 0));
   report('Fitted sets, score as recorded', fitted.map((m) => m.score), truth(fitted));
@@ -151,6 +159,20 @@ function main(): void {
     const names = [...new Set(checked.map((m) => setName(m.set)))];
     report(`Checked sets (${names.join(', ')}; not fitted), score as recorded`, checked.map((m) => m.score), truth(checked));
     report(`Checked sets (${names.join(', ')}; not fitted), new model`, predict(checked), truth(checked));
+  }
+  if (fixture && checked.length) {
+    // the checked sets' motions for tests/unit/geometry/registration/score-calibration.test.ts; a wrong
+    // motion that both the recorded score and the new model put under 0.001 is left out (it adds
+    // under 1e-6 to either Brier score), which keeps the file small
+    const p = predict(checked);
+    const keep = checked.filter((m, i) => m.correct || m.score >= 1e-3 || p[i] >= 1e-3);
+    const r = (x: number): number => Number(x.toPrecision(5));
+    writeFileSync(fixture, JSON.stringify({
+      source: `pairwise benchmark dump of development sets ${[...new Set(checked.map((m) => setName(m.set)))].join(', ')} (not fitted): motions ranked 1-5 of every candidate and true fragment pair; left out: ${checked.length - keep.length} wrong motions scoring under 0.001 under both the recorded and the new model`,
+      fields: [...COMPONENT_FIELDS, 'correct'],
+      motions: keep.map((m) => [...COMPONENT_FIELDS.map((k) => r(m.components[k])), m.correct ? 1 : 0]),
+    }) + '\n');
+    process.stdout.write(`\nwrote ${keep.length} of ${checked.length} checked motions to ${fixture}\n`);
   }
   process.stdout.write('\nRanking estimated from the dump (benchmark classes c and d)\n');
   rankingLine('  fitted sets, score as recorded', fitted, fitted.map((m) => m.score));
@@ -161,4 +183,4 @@ function main(): void {
   }
 }
 
-main();
+if (process.argv[1]?.endsWith('fit-score-model.ts')) main();

@@ -21,7 +21,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/7';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
 export interface MatchParameters {
   ransacIterations: number;
@@ -119,6 +119,11 @@ export interface MatchParameters {
    */
   fineTrimLambda: number;
   fineTrimMin: number;
+  /**
+   * A fragment pair's best this many refined motions are also refined from the other side
+   * (polishBothWays: A's face onto B's surface) and the better scored of the two kept (0: never).
+   */
+  polishBest: number;
   /** Contact tolerance in sample spacings. */
   contactToleranceSpacings: number;
   seed: number;
@@ -156,6 +161,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineTrim: 0.7,
   fineTrimLambda: 2,
   fineTrimMin: 0.5,
+  polishBest: 3,
   contactToleranceSpacings: 0.4,
   seed: 1,
 };
@@ -321,6 +327,20 @@ export function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragme
 }
 
 /**
+ * One refined motion polished from the other side: the fine step run with A's face samples
+ * moved onto B's surface (from the inverse of `m`), turned back into B -> A and scored. The
+ * better scored of the two is returned (the fine step is not symmetric: it pairs only the moving
+ * face's samples, so a face that covers part of the other is closed from one side only).
+ */
+export function polishBothWays(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, m: FaceMatch, params: MatchParameters = DEFAULT_MATCH_PARAMETERS): FaceMatch {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const T = invert(fineTransform(b, fb, a, fa, invert(m.transform), params));
+  const s = scoreJoin(side(a, FA), side(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+  return s.score > m.score ? { ...s, transform: T, faceA: FA.parent, faceB: FB.parent } : m;
+}
+
+/**
  * Contact of two faces under a motion, with every sample (for the benchmark): the better side's
  * share of its samples in contact (as overlapShare) and the contact area that side's count stands for.
  */
@@ -416,18 +436,35 @@ export function matchFragments(
   for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
   const spacing = Math.max(a.spacing, b.spacing);
   const shortlist = fineShortlist(a, b, screened, params);
+  // which prepared faces (piece or patch) each refined motion came from, for polishing
+  const origin = new Map<FaceMatch, [number, number]>();
   if (keep === undefined) {
     const all: FaceMatch[] = [];
-    for (const s of shortlist) all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params));
-    return distinctBest(all, 2 * spacing);
+    for (const s of shortlist) for (const m of refineFacePair(a, s.i, b, s.j, [s.motion], params)) {
+      origin.set(m, [s.i, s.j]);
+      all.push(m);
+    }
+    return polishRanked(a, b, distinctBest(all, 2 * spacing), origin, params, spacing);
   }
   const fine = shortlist.map((s): DeferredMatch => {
     const FA = a.faces[s.i], FB = b.faces[s.j];
     const transform = fineTransform(a, s.i, b, s.j, s.motion.transform, params);
     const score = deferredScore(side(a, FA), side(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
-    return { transform, faceA: FA.parent, faceB: FB.parent, score };
+    return { transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j };
   });
-  return bestDistinct(fine, keep, 2 * spacing, minScore);
+  const best = bestDistinct(fine, keep, 2 * spacing, minScore, origin);
+  return params.polishBest > 0 ? polishRanked(a, b, best, origin, params, spacing).slice(0, best.length) : best;
+}
+
+/** The first params.polishBest of `ranked` polished from the other side (polishBothWays), the list ranked again. */
+export function polishRanked(a: PreparedFragment, b: PreparedFragment, ranked: FaceMatch[], origin: Map<FaceMatch, [number, number]>, params: MatchParameters, spacing: number): FaceMatch[] {
+  const n = Math.min(params.polishBest, ranked.length);
+  if (n <= 0) return ranked;
+  const head = ranked.slice(0, n).map((m) => {
+    const o = origin.get(m);
+    return o ? polishBothWays(a, o[0], b, o[1], m, params) : m;
+  });
+  return distinctBest([...head, ...ranked.slice(n)], 2 * spacing);
 }
 
 /** A refined motion whose score is not complete yet (score.ts, deferredScore). */
@@ -436,6 +473,9 @@ export interface DeferredMatch {
   faceA: number;
   faceB: number;
   score: DeferredScore;
+  /** The prepared faces (piece or patch indices) of A and B it came from, when known. */
+  i?: number;
+  j?: number;
 }
 
 /**
@@ -448,7 +488,7 @@ export interface DeferredMatch {
  * run stores no proposal for it, only its best score): once the first kept motion is settled
  * below minScore, only it is returned, and the motions after it are not completed.
  */
-export function bestDistinct(list: DeferredMatch[], keep: number, shift: number, minScore = 0): FaceMatch[] {
+export function bestDistinct(list: DeferredMatch[], keep: number, shift: number, minScore = 0, origin?: Map<FaceMatch, [number, number]>): FaceMatch[] {
   const done: Array<FaceMatch | undefined> = new Array(list.length);
   const byUpper = list.map((_, i) => i).sort((p, q) => list[q].score.upper - list[p].score.upper);
   let next = 0;
@@ -465,6 +505,7 @@ export function bestDistinct(list: DeferredMatch[], keep: number, shift: number,
     const i = byUpper[next++];
     const m = list[i];
     done[i] = { ...m.score.complete(), transform: m.transform, faceA: m.faceA, faceB: m.faceB };
+    if (origin && m.i !== undefined && m.j !== undefined) origin.set(done[i]!, [m.i, m.j]);
   }
 }
 
