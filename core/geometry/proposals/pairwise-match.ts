@@ -122,6 +122,11 @@ export interface MatchParameters {
   /**
    * A fragment pair's best this many refined motions are also refined from the other side
    * (polishBothWays: A's face onto B's surface) and the better scored of the two kept (0: never).
+   * 3 since method /8: pairwise benchmark on dev seeds 11-16 and 21 (each face pair through its
+   * own fine step, then the pair's best 3 polished; same score model), true joins in a piece's
+   * top 3 241 -> 250 of 379, best of pair 257 -> 261, precision above 0.8 144/157 -> 150/163,
+   * rotation error p95 of correct best motions 3.41 -> 3.06 degrees, for 0.62 ms per face pair
+   * (5% of 11.8).
    */
   polishBest: number;
   /** Contact tolerance in sample spacings. */
