@@ -5,6 +5,12 @@ export interface ProposalPairRecord {
   scanB: number;
   parametersHash: string;
   methodVersion: string;
+  /**
+   * The best motion's score when it reaches the run's minimum score (the proposal's geometry
+   * score); null when no motion reached it: a propose worker stops as soon as no motion can
+   * (score upper bounds, pairwise-match.ts bestDistinct), so no exact figure is worked out for
+   * such a pair. Rows written before 3 Dec 2026 may hold a score below the minimum instead.
+   */
   bestScore: number | null;
   joinId: number | null;
   doneAt: string;

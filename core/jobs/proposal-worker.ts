@@ -28,7 +28,7 @@ export interface ScanRef {
 export type ProposalTask =
   | { kind: 'analyse'; scan: ScanRef }
   | { kind: 'describe'; scan: ScanRef; sampling: SamplingParameters }
-  /** keep: best distinct motions wanted; a pair whose best scores below minScore (not stored as a proposal) answers with that one alone. */
+  /** keep: best distinct motions wanted; a pair none of whose motions reaches minScore (not stored as a proposal) answers with none (pairwise-match.ts bestDistinct). */
   | { kind: 'match'; a: ScanRef; b: ScanRef; facePairs: Array<[number, number]>; sampling: SamplingParameters; params: MatchParameters; keep: number; minScore?: number };
 
 export interface AnalyseResult extends FragmentSummary {

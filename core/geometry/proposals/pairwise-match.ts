@@ -399,8 +399,8 @@ function sameShaft(ra: number, rb: number, maxRatio: number): boolean {
  * screened, and only the fragment pair's few best screened motions are refined and scored.
  * With `keep`, only the best `keep` are wanted: the same as the first `keep` of the whole list,
  * with the interpenetration left out of the motions that cannot reach them (bestDistinct); with
- * `minScore` as well, a pair whose best motion scores below it gets that motion alone (what a
- * propose run stores of such a pair).
+ * `minScore` as well, a pair whose best motion scores below it gets no motion (a propose run
+ * stores no proposal for it), found with as few scores completed as bestDistinct can.
  */
 export function matchFragments(
   a: PreparedFragment,
@@ -444,9 +444,11 @@ export interface DeferredMatch {
  * `keep`-th kept one (upper bound below its score, or both 0 and less contact). Such a motion
  * cannot change the kept ones before it (distinctBest keeps or drops each motion by the better
  * ones only), so the answer is the same as completing all.
- * With `minScore`, a pair whose best motion scores below it wants that motion alone (a propose
- * run stores no proposal for it, only its best score): once the first kept motion is settled
- * below minScore, only it is returned, and the motions after it are not completed.
+ * With `minScore` above 0, a pair none of whose motions reaches it gets no motion at all (a
+ * propose run stores no proposal for it): once every completed motion scores below minScore and
+ * every motion left has an upper bound below it, the answer is empty and nothing more is
+ * completed (when no upper bound reaches minScore, nothing is completed at all). A pair whose
+ * best reaches minScore gets the same first `keep` as without it.
  */
 export function bestDistinct(list: DeferredMatch[], keep: number, shift: number, minScore = 0): FaceMatch[] {
   const done: Array<FaceMatch | undefined> = new Array(list.length);
@@ -454,10 +456,11 @@ export function bestDistinct(list: DeferredMatch[], keep: number, shift: number,
   let next = 0;
   // relative slack: the bound is exact in real numbers, and exp need not be monotone to the last bit
   const sortsAfter = (d: DeferredScore, last: FaceMatch): boolean => (d.upper === 0 ? last.score > 0 || d.contactFraction < last.contactFraction : d.upper * (1 + 1e-9) < last.score);
+  const belowMinimum = (d: DeferredScore): boolean => d.upper * (1 + 1e-9) < minScore;
   for (;;) {
     const kept = distinctBest(done.filter((m): m is FaceMatch => m !== undefined), shift);
-    if (next >= byUpper.length) return kept.slice(0, kept.length && kept[0].score < minScore ? 1 : keep);
-    if (kept.length >= 1 && kept[0].score < minScore && byUpper.slice(next).every((i) => sortsAfter(list[i].score, kept[0]))) return kept.slice(0, 1);
+    if (minScore > 0 && (kept.length === 0 || kept[0].score < minScore) && byUpper.slice(next).every((i) => belowMinimum(list[i].score))) return [];
+    if (next >= byUpper.length) return kept.slice(0, keep);
     if (kept.length >= keep) {
       const last = kept[keep - 1];
       if (byUpper.slice(next).every((i) => sortsAfter(list[i].score, last))) return kept.slice(0, keep);

@@ -281,7 +281,7 @@ function storeResult(
       } else joinId = cat.joins.insert({ specimenA: specA, specimenB: specB, status: 'proposed', ...fields }, undefined, 'propose').id;
       stored = true;
     }
-    pairs.record({ scanA: r.scanA, scanB: r.scanB, parametersHash: run.parametersHash, methodVersion: METHOD_VERSION, bestScore: best ? best.score : null, joinId });
+    pairs.record({ scanA: r.scanA, scanB: r.scanB, parametersHash: run.parametersHash, methodVersion: METHOD_VERSION, bestScore: best && best.score >= run.minScore ? best.score : null, joinId });
     return stored;
   });
 }

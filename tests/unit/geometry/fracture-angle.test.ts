@@ -65,13 +65,20 @@ function scatteredOuterNormals(a: FragmentAnalysis, tiltDeg: number) {
     normals[3 * t + 2] = Math.sin(tilt) * Math.sin(psi);
     turned++;
   }
-  const topo = buildTopology(a.mesh);
+  return { turned, ctx: faceInputs(a, { triNormals: normals }) };
+}
+
+/**
+ * fractureFaces' inputs as the analysis of `a` gives them (smooth faces: roughness 1), with any
+ * of the per-triangle arrays replaced (turned normals, relabelled classes, given face groups).
+ */
+function faceInputs(a: FragmentAnalysis, over: { triNormals?: Float32Array; triClass?: Uint8Array; faceGroup?: Int32Array } = {}) {
+  const { normals, areas } = triangleNormalsAndAreas(a.mesh);
+  const centroids = triangleCentroids(a.mesh.positions, a.mesh.triangles);
   return {
-    turned,
-    ctx: {
-      mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
-      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings: a.settings,
-    },
+    mesh: a.mesh, neighbours: buildTopology(a.mesh).neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
+    triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings: a.settings,
+    ...over,
   };
 }
 
@@ -229,7 +236,7 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
     // holds enough, each still reading the closed form.
     const a = offsetChord;
     const chord = alongAxis(a);
-    const { normals, areas } = triangleNormalsAndAreas(a.mesh);
+    const { areas } = triangleNormalsAndAreas(a.mesh);
     const centroids = triangleCentroids(a.mesh.positions, a.mesh.triangles);
     let zc = 0;
     for (const t of chord.triangleIds) zc += centroids[3 * t + 2] / chord.triangleIds.length;
@@ -237,11 +244,8 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
     const triClass = Uint8Array.from(a.triangleClass, (c, t) => (c === outer && !(centroids[3 * t + 1] > 0 && Math.abs(centroids[3 * t + 2] - zc) < 2.5) ? medullary : c));
     const faceGroup = new Int32Array(areas.length).fill(-1);
     for (const f of a.fractureFaces) for (const t of f.triangleIds) faceGroup[t] = f.id;
-    const topo = buildTopology(a.mesh);
-    const faceOf = (settings: typeof a.settings) => fractureFaces({
-      faceGroup, mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass,
-      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings,
-    }).find((f) => f.triangleIds.includes(chord.triangleIds[0]))!;
+    const faceOf = (settings: typeof a.settings) => fractureFaces({ ...faceInputs(a, { triClass, faceGroup }), settings })
+      .find((f) => f.triangleIds.includes(chord.triangleIds[0]))!;
     const expected = 90 - deg(Math.asin(6 / R));
     const face = faceOf(a.settings);
     // A class needs 3 samples (angleMinSamples).
@@ -253,10 +257,8 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
     expect(sparse.anglesDeg.length).toBeLessThan(3);
     expect(sparse.angleClass).toBe('indeterminate');
     // The whole rim (the analysis's own classes) has enough samples at that spacing: read as before.
-    const whole = (settings: typeof a.settings) => fractureFaces({
-      faceGroup, mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
-      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings,
-    }).find((f) => f.triangleIds.includes(chord.triangleIds[0]))!.anglesDeg;
+    const whole = (settings: typeof a.settings) => fractureFaces({ ...faceInputs(a, { faceGroup }), settings })
+      .find((f) => f.triangleIds.includes(chord.triangleIds[0]))!.anglesDeg;
     expect(whole(a.settings).length).toBeGreaterThan(3);
     expect(Array.from(whole(a.settings))).toEqual(Array.from(whole({ ...a.settings, angleMinSpacingMm: 100 })));
   });
@@ -285,11 +287,7 @@ describe('fracture angle against analytic geometry (smooth cuts through a tube, 
       turned++;
     }
     expect(turned).toBeGreaterThan(50);
-    const topo = buildTopology(a.mesh);
-    const faceOf = (settings: typeof a.settings) => fractureFaces({
-      mesh: a.mesh, neighbours: topo.neighbours, triNormals: normals, areas, centroids, triClass: a.triangleClass,
-      triRoughness: new Float32Array(areas.length).fill(1), medianRoughness: 1, axis: a.axis, samples: a.samples, settings,
-    }).sort((x, y) => y.area - x.area)[0];
+    const faceOf = (settings: typeof a.settings) => fractureFaces({ ...faceInputs(a, { triNormals: normals }), settings }).sort((x, y) => y.area - x.area)[0];
     expect(a.axis.support).toBeGreaterThanOrEqual(a.settings.angleShaftSupportMin);
     const checked = faceOf(a.settings);
     expect(checked.medianAngleDeg).toBeGreaterThan(88);

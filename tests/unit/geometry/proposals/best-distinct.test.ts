@@ -60,8 +60,8 @@ describe('bestDistinct', () => {
 });
 
 describe('bestDistinct with a minimum score', () => {
-  it('gives the first k of distinctBest when the best reaches the minimum, else the best alone, completing fewer', () => {
-    let completedWith = 0, completedWithout = 0;
+  it('gives the first k of distinctBest when the best reaches the minimum, else nothing, completing fewer', () => {
+    let completedWith = 0, completedWithout = 0, belowWith = 0, belowWithout = 0;
     fc.assert(
       fc.property(
         fc.array(
@@ -83,15 +83,36 @@ describe('bestDistinct with a minimum score', () => {
             score: { upper: m.score === 0 ? 0 : Math.min(1, m.score + m.slack), contactFraction: m.contact, complete: () => { count(); return components(m.score, m.contact); } },
           }));
           const full: FaceMatch[] = distinctBest(motions.map((m, i) => ({ ...components(m.score, m.contact), transform: make(() => {})[i].transform, faceA: i, faceB: 0 })), shift);
-          const want = full.length && full[0].score < minScore ? full.slice(0, 1) : full.slice(0, keep);
+          const below = full.length > 0 && full[0].score < minScore;
+          const want = below ? [] : full.slice(0, keep);
+          const n0 = completedWith, n1 = completedWithout;
           expect(bestDistinct(make(() => completedWith++), keep, shift, minScore)).toEqual(want);
           expect(bestDistinct(make(() => completedWithout++), keep, shift)).toEqual(full.slice(0, keep));
+          if (below) {
+            belowWith += completedWith - n0;
+            belowWithout += completedWithout - n1;
+            // every motion whose bound reaches the minimum may need completing, no other
+            expect(completedWith - n0).toBeLessThanOrEqual(motions.filter((m) => m.score !== 0 && Math.min(1, m.score + m.slack) * (1 + 1e-9) >= minScore).length);
+          }
         },
       ),
       { numRuns: 500 },
     );
-    // the point of it: below the minimum only the best is settled
+    // the point of it: a pair below the minimum is settled with far fewer scores completed
+    expect(belowWith).toBeLessThan(0.5 * belowWithout);
     expect(completedWith).toBeLessThan(0.9 * completedWithout);
+  });
+
+  it('completes no score when no upper bound reaches the minimum', () => {
+    let completed = 0;
+    const list: DeferredMatch[] = [0.01, 0.03, 0.049].map((upper, i) => ({
+      transform: transformFrom(rotationAboutAxis([0, 0, 1], (i * 10 * Math.PI) / 180), [0, 0, 0]),
+      faceA: i, faceB: 0,
+      score: { upper, contactFraction: 0.5, complete: () => { completed++; return components(upper / 2, 0.5); } },
+    }));
+    expect(bestDistinct(list, 3, 2, 0.05)).toEqual([]);
+    expect(completed).toBe(0);
+    expect(bestDistinct(list, 3, 2)).toHaveLength(3);
   });
 });
 
