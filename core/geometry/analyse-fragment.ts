@@ -117,7 +117,7 @@ export function analyseFragment(
     ? fitSectionSegment(settled, centroids, filtered, areas, rays, {
       reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin,
       neitherWeight: settings.sectionSegmentNeitherWeight, neitherLossMax: settings.sectionSegmentNeitherLossMax,
-      supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin,
+      supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
     })
     : settled;
   const fittedAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);

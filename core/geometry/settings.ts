@@ -83,6 +83,11 @@ export const analysisSettingsSchema = z.object({
   sectionPointGain: z.number().min(0).default(0.3),
   /** ...on fragments whose axis support is at least this. */
   sectionPointSupportMin: z.number().min(0).max(1).default(0.5),
+  /**
+   * ...and only when the normal lines passing it (within shaftCentreTolerance of their distance,
+   * weight 1 - x²) weigh at least this share of those passing the consensus centre.
+   */
+  sectionPointLineShareMin: z.number().min(0).default(0.8),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
