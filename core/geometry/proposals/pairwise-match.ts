@@ -73,6 +73,19 @@ export interface MatchParameters {
    * (tests/bench/screen-rank-study.ts). [0, 0] with a huge second angle: overlap alone.
    */
   screenAxisTiltDeg: [number, number];
+  /**
+   * Which way round the screen moves one face onto the other: 'given' (B's face onto A's; the
+   * default, also when left out), 'smaller' (the face with fewer samples onto the other), 'both'
+   * (both ways, the motions of A onto B turned round, then ranked together). Left out of the
+   * defaults so that the propose run's parameters hash is unchanged. 'smaller' measured against
+   * 'given' on dev seeds 11-16 and 21 (pairwise benchmark): true joins in a piece's top 3 241 ->
+   * 245, best of pair 257 -> 259, precision above 0.8 144/157 -> 144/156, the same CPU; but it
+   * loses the analytic off-axis tube of tests/unit/geometry/proposals/off-axis-screen.test.ts
+   * (3 of 4 offsets: the axis-direction search run the other way round finds no motion near the
+   * truth) and one motion of the cut bunny in best-distinct.test.ts, and on the committed sample
+   * it is no better; 'both' keeps them but costs 1.5x the screen (DEVELOPERS.md).
+   */
+  screenWays?: 'given' | 'smaller' | 'both';
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** A face pair's screened motions go on to the fine step while their rank is at least this share of the best one's. */
@@ -211,6 +224,45 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
  */
 export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS, trace?: MatchTrace): CoarseMotion[] {
   const FA = a.faces[fa], FB = b.faces[fb];
+  const ways = params.screenWays ?? 'given';
+  const reverse = ways === 'both' || (ways === 'smaller' && FB.points.length > FA.points.length);
+  const forward = ways !== 'smaller' || !reverse;
+  let refined: CoarseMotion[] = forward ? coarseMotions(a, fa, b, fb, params, trace) : [];
+  if (reverse) {
+    // A's face moved onto B's, each motion turned round (B onto A): the coarse stages and the
+    // short ICP are not symmetric in the two faces
+    const back: MatchTrace | undefined = trace ? { coarse: [], refined: [], kept: [], ...(trace.times ? { times: trace.times } : {}) } : undefined;
+    const turned = coarseMotions(b, fb, a, fa, params, back).map((r) => ({ transform: invert(r.transform), overlap: r.overlap }));
+    if (trace && back) {
+      trace.coarse.push(...back.coarse.map(invert));
+      trace.refined.push(...turned);
+    }
+    refined = refined.concat(turned);
+  }
+  // 3. early rejection, then the few best on to the fine step against the whole surface, ranked
+  // by overlap share times how well the motion agrees with the two pieces' shaft axes
+  const spacing = Math.max(a.spacing, b.spacing);
+  const ranked = refined
+    .filter((r) => r.overlap >= params.minOverlap)
+    .map((r) => ({ r, rank: r.overlap * screenAxisConsistency(a.axis, b.axis, r.transform, FB.centroid, params.screenAxisTiltDeg) }))
+    .sort((p, q) => q.rank - p.rank);
+  const kept: CoarseMotion[] = [];
+  for (const { r, rank } of ranked) {
+    if (rank <= 0 || (kept.length && rank < params.screenKeepRatio * ranked[0].rank)) break;
+    if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
+    kept.push(r);
+    if (kept.length >= params.fineHypotheses) break;
+  }
+  if (trace) trace.kept.push(...kept.map((k) => k.transform));
+  return kept;
+}
+
+/**
+ * The screen's coarse motions of B's face onto A's face (steps 1-2 of screenFacePair), each after
+ * the short ICP with its overlap share; every one is added to the trace.
+ */
+function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters, trace?: MatchTrace): CoarseMotion[] {
+  const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const starts: RigidTransform[] = [];
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
@@ -254,24 +306,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
       refined = refined.concat(refine(votes.map((h) => h.transform)));
     }
   }
-  // 3. early rejection, then the few best on to the fine step against the whole surface, ranked
-  // by overlap share times how well the motion agrees with the two pieces' shaft axes
-  const ranked = refined
-    .filter((r) => r.overlap >= params.minOverlap)
-    .map((r) => ({ r, rank: r.overlap * screenAxisConsistency(a.axis, b.axis, r.transform, FB.centroid, params.screenAxisTiltDeg) }))
-    .sort((p, q) => q.rank - p.rank);
-  const kept: CoarseMotion[] = [];
-  for (const { r, rank } of ranked) {
-    if (rank <= 0 || (kept.length && rank < params.screenKeepRatio * ranked[0].rank)) break;
-    if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
-    kept.push(r);
-    if (kept.length >= params.fineHypotheses) break;
-  }
-  if (trace) {
-    trace.refined.push(...refined);
-    trace.kept.push(...kept.map((k) => k.transform));
-  }
-  return kept;
+  trace?.refined.push(...refined);
+  return refined;
 }
 
 /**
