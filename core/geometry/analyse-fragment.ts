@@ -117,10 +117,10 @@ export function analyseFragment(
     ? fitSectionSegment(settled, centroids, filtered, areas, rays, {
       reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin,
       neitherWeight: settings.sectionSegmentNeitherWeight, neitherLossMax: settings.sectionSegmentNeitherLossMax,
-      supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays,
+      supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
     })
     : settled;
-  const fittedAxis = sectioned.medial ? sectioned : fitMedialSegment(settled, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  const fittedAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);

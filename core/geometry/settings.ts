@@ -75,6 +75,19 @@ export const analysisSettingsSchema = z.object({
   sectionSegmentMaxRays: z.number().int().positive().default(4000),
   /** ...and the least gain in score (share of the point centre's) for a segment to be kept. */
   sectionSegmentGain: z.number().min(0).default(0.1),
+  /**
+   * Where no segment is kept: the point centre found by the same wall-ray search replaces the
+   * consensus centre when it scores at least this share more (shaft-axis.ts, fitSectionSegment;
+   * large: never).
+   */
+  sectionPointGain: z.number().min(0).default(0.3),
+  /** ...on fragments whose axis support is at least this. */
+  sectionPointSupportMin: z.number().min(0).max(1).default(0.5),
+  /**
+   * ...and only when the normal lines passing it (within shaftCentreTolerance of their distance,
+   * weight 1 - x²) weigh at least this share of those passing the consensus centre.
+   */
+  sectionPointLineShareMin: z.number().min(0).default(0.8),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

@@ -396,13 +396,20 @@ export interface SectionRays { triangles: Uint32Array; exitCosine: Float32Array;
  * neither way. Candidates: segments through the point centre or the area centroid, in
  * `directions` directions across the axis, reaching each way by `reaches` times the
  * fragment's width across the axis, then refined by coordinate search. Kept only when it
- * scores at least `gain` more than the point centre.
+ * scores at least `gain` more than the point centre. Where no segment is kept, the best point
+ * centre of the same search (points only, from the consensus centre and the area centroid)
+ * replaces the consensus centre when it scores at least `pointGain` more (and the support is
+ * at least `pointSupportMin`) and keeps `pointLineShareMin` of its normal-line support: on a lobed section (a tibia's, r = ρ (1 + e cos 3θ)) the wall
+ * normals lean up to atan(3e) from radial and their meeting point lands beside the axis, or,
+ * where bevelled break faces outweigh the wall, inside the wall itself.
  */
 export function fitSectionSegment(
   axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: SectionRays,
-  options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; neitherLossMax: number; supportMin: number; maxRows: number },
+  options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; neitherLossMax: number; supportMin: number; maxRows: number; pointGain?: number; pointSupportMin?: number; pointLineShareMin?: number; centreTolerance?: number },
 ): ShaftAxis {
-  if (!(axis.support >= options.supportMin) || options.reaches.length === 0 || options.directions < 1) return axis;
+  const segmentAllowed = axis.support >= options.supportMin;
+  const pointAllowed = options.pointGain !== undefined && axis.support >= (options.pointSupportMin ?? options.supportMin);
+  if (!(segmentAllowed || pointAllowed) || options.reaches.length === 0 || options.directions < 1) return axis;
   const [ax, ay, az] = axis.direction;
   let ux: number, uy: number, uz: number;
   if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
@@ -498,8 +505,33 @@ export function fitSectionSegment(
   };
   // A segment must beat the best point centre under the same score, not only the consensus one.
   const bestPoint = search([0]);
-  const best = search([0, ...options.reaches]);
-  if (!(best.s > bestPoint.s * (1 + options.gain))) return axis;
+  const best = segmentAllowed ? search([0, ...options.reaches]) : bestPoint;
+  const t0 = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
+  const at = (su: number, sv: number): [number, number, number] => [su * ux + sv * vx + t0 * ax, su * uy + sv * vy + t0 * ay, su * uz + sv * vz + t0 * az];
+  if (!segmentAllowed || !(best.s > bestPoint.s * (1 + options.gain))) {
+    const consensus = score(c0u, c0v, 0, 0, 0);
+    // Normal lines passing the point within centreTolerance times their distance (weight 1 - x², as
+    // consensusCentre scores): the searched point must keep pointLineShareMin of the consensus
+    // centre's, or a round wall whose normals meet at the consensus centre is given up for
+    // surface (a lens-shaped cavity's flat faces) that faces another point more squarely.
+    const lines = (cu0: number, cv0: number): number => {
+      let t = 0;
+      for (let k = 0; k < n; k++) {
+        const ru = cu0 - px[k], rv = cv0 - py[k];
+        const d = Math.hypot(ru, rv);
+        if (d < 1e-6) continue;
+        const x = Math.abs(ru * my[k] - rv * mx[k]) / ((options.centreTolerance ?? 0.45) * d);
+        if (x < 1) t += w[k] * (1 - x * x);
+      }
+      return t;
+    };
+    if (pointAllowed && bestPoint.s > consensus * (1 + options.pointGain!)
+      && lines(bestPoint.su, bestPoint.sv) >= (options.pointLineShareMin ?? 0) * lines(c0u, c0v)) {
+      const point = at(bestPoint.su, bestPoint.sv);
+      return { ...axis, point, radius: outerRadius(centroids, normals, areas, axis.direction, point) };
+    }
+    return axis;
+  }
   // Veto: the segment may not turn the rays that cross no wall head-on (mostly break faces)
   // to face out or in more than the point centre did.
   const neither = (su: number, sv: number, theta: number, h1: number, h2: number): number => {
