@@ -280,6 +280,26 @@ export function settleAxisSide(
 }
 
 /**
+ * Area of the normal lines (through (qu, qv) along the unit (pu, pv), in the section plane)
+ * that pass the point (cu, cv) within `tolerance` times their distance from it, each weighted
+ * 1 - x^2 by its miss x in those units; lines farther than `reach` or through the point itself
+ * count nothing. The score of a candidate axis centre (consensusCentre, fitSectionSegment).
+ */
+function normalLineSupport(
+  cu: number, cv: number, qu: number[], qv: number[], pu: number[], pv: number[], w: number[], tolerance: number, reach: number,
+): number {
+  let score = 0;
+  for (let k = 0; k < w.length; k++) {
+    const ru = cu - qu[k], rv = cv - qv[k];
+    const d = Math.hypot(ru, rv);
+    if (d > reach || d < 1e-6) continue;
+    const x = Math.abs(ru * pv[k] - rv * pu[k]) / (tolerance * d);
+    if (x < 1) score += w[k] * (1 - x * x);
+  }
+  return score;
+}
+
+/**
  * Candidate centres (u, v across the axis) where the normal lines of two random wall
  * triangles meet; each is scored by the area of triangles whose normal line passes within
  * `tolerance` times their distance of it (biweight) (at most twice the fragment's width away); the best is
@@ -317,15 +337,7 @@ function consensusCentre(
     const du = qu[j] - qu[i], dv = qv[j] - qv[i];
     const s = (du * -pv[j] + dv * pu[j]) / det;
     const cu = qu[i] + s * pu[i], cv = qv[i] + s * pv[i];
-    let score = 0;
-    for (let k = 0; k < n; k++) {
-      const ru = cu - qu[k], rv = cv - qv[k];
-      const d = Math.hypot(ru, rv);
-      if (d > reach || d < 1e-6) continue;
-      const miss = Math.abs(ru * pv[k] - rv * pu[k]);
-      const x = miss / (tolerance * d);
-      if (x < 1) score += w[k] * (1 - x * x);
-    }
+    const score = normalLineSupport(cu, cv, qu, qv, pu, pv, w, tolerance, reach);
     if (score > best) { best = score; bu = cu; bv = cv; }
   }
   if (best <= 0) return undefined;
@@ -514,17 +526,7 @@ export function fitSectionSegment(
     // consensusCentre scores): the searched point must keep pointLineShareMin of the consensus
     // centre's, or a round wall whose normals meet at the consensus centre is given up for
     // surface (a lens-shaped cavity's flat faces) that faces another point more squarely.
-    const lines = (cu0: number, cv0: number): number => {
-      let t = 0;
-      for (let k = 0; k < n; k++) {
-        const ru = cu0 - px[k], rv = cv0 - py[k];
-        const d = Math.hypot(ru, rv);
-        if (d < 1e-6) continue;
-        const x = Math.abs(ru * my[k] - rv * mx[k]) / ((options.centreTolerance ?? 0.45) * d);
-        if (x < 1) t += w[k] * (1 - x * x);
-      }
-      return t;
-    };
+    const lines = (cu0: number, cv0: number): number => normalLineSupport(cu0, cv0, px, py, mx, my, w, options.centreTolerance ?? 0.45, Infinity);
     if (pointAllowed && bestPoint.s > consensus * (1 + options.pointGain!)
       && lines(bestPoint.su, bestPoint.sv) >= (options.pointLineShareMin ?? 0) * lines(c0u, c0v)) {
       const point = at(bestPoint.su, bestPoint.sv);
