@@ -16,6 +16,7 @@ import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { refineFractureBorder } from './border-refine';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
+import { fitEllipseSection } from './shaft-section';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
@@ -120,7 +121,12 @@ export function analyseFragment(
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
     })
     : settled;
-  const fittedAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  // An elliptic section where it makes the wall face out and in clearly better (shaft-section.ts).
+  const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
+    supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, gain: settings.ellipseSectionGain,
+    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps,
+  });
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);

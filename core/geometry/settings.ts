@@ -88,6 +88,21 @@ export const analysisSettingsSchema = z.object({
    * weight 1 - x²) weigh at least this share of those passing the consensus centre.
    */
   sectionPointLineShareMin: z.number().min(0).default(0.8),
+  /**
+   * Elliptic section of a flattened shaft (shaft-section.ts, fitEllipseSection): fitted on
+   * fragments whose axis support is at least this (large: off)...
+   */
+  ellipseSectionSupportMin: z.number().min(0).default(0.65),
+  /** ...kept only when the outer ellipse's axis ratio (major / minor) is at least this (a round shaft keeps the round model)... */
+  ellipseSectionRatioMin: z.number().min(1).default(1.3),
+  /** ...and its wall pairs facing squarely and oppositely weigh at least this share more than under the axis fitted before... */
+  ellipseSectionGain: z.number().min(0).default(0.1),
+  /** ...read on an even sample of at most this many wall rays (and as many triangles)... */
+  ellipseSectionMaxRays: z.number().int().positive().default(3000),
+  /** ...surface within this distance (mm) of the outer or cavity ellipse, facing as it does, counts as explained by it. */
+  ellipseSectionToleranceMm: z.number().positive().default(1.5),
+  /** ...centres also tried on a grid of (2 n + 1)² points an eighth of the fragment's width apart about the wall's middle (0: none). */
+  ellipseSectionGridSteps: z.number().int().min(0).default(12),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

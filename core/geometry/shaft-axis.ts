@@ -1,6 +1,7 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { mulberry32 } from './seeded-random';
 import { analysisSettings } from './settings';
+import { ellipseOffset, type EllipseSection } from './shaft-section';
 
 /**
  * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
@@ -26,6 +27,12 @@ export interface ShaftAxis {
    * of the segment instead of from the axis line. Absent: the axis line alone.
    */
   medial?: { direction: [number, number, number]; length: number };
+  /**
+   * A flattened section (shaft-section.ts, fitEllipseSection): outer and cavity ellipses about
+   * `point`. Radial directions are then the normals of the family of ellipses between them
+   * (takes the place of `medial`). Absent: a round section.
+   */
+  section?: EllipseSection;
 }
 
 /**
@@ -37,6 +44,11 @@ export function offsetFromAxis(axis: ShaftAxis, x: number, y: number, z: number,
   const rx = x - axis.point[0], ry = y - axis.point[1], rz = z - axis.point[2];
   const t = rx * ax + ry * ay + rz * az;
   let qx = rx - t * ax, qy = ry - t * ay, qz = rz - t * az;
+  const e = axis.section;
+  if (e) {
+    const mj = e.major;
+    return ellipseOffset(e, [ay * mj[2] - az * mj[1], az * mj[0] - ax * mj[2], ax * mj[1] - ay * mj[0]], qx, qy, qz, out);
+  }
   const m = axis.medial;
   if (m) {
     const s = Math.min(m.length, Math.max(0, qx * m.direction[0] + qy * m.direction[1] + qz * m.direction[2]));

@@ -61,6 +61,12 @@ export async function brokenTube(options: {
    * running along the tube) and reach y = +-halfHeight. innerRadius is then not used.
    */
   lensCavity?: { halfWidth: number; halfHeight: number };
+  /**
+   * An elliptic section instead of the round one: outer and cavity ellipses about the axis with
+   * semi-axes (along x, along y), e.g. a flattened shaft with a slit-like cavity. outerRadius,
+   * innerRadius and lensCavity are then not used.
+   */
+  ellipticSection?: { outer: [number, number]; inner: [number, number] };
 }): Promise<BrokenTube> {
   if (!wasm) {
     wasm = await Module();
@@ -70,9 +76,12 @@ export async function brokenTube(options: {
   const R = options.outerRadius ?? 12, r = options.innerRadius ?? 7, L = options.length ?? 80;
   const edge = options.edgeLength ?? 1;
   const amp = options.roughness ?? 0.25;
-  const outer = Manifold.cylinder(L, R, R, 96, true);
+  const es = options.ellipticSection;
+  const outer = es ? Manifold.cylinder(L, es.outer[1], es.outer[1], 192, true).scale([es.outer[0] / es.outer[1], 1, 1]) : Manifold.cylinder(L, R, R, 96, true);
   let inner;
-  if (options.lensCavity) {
+  if (es) {
+    inner = Manifold.cylinder(L + 2, es.inner[1], es.inner[1], 192, true).scale([es.inner[0] / es.inner[1], 1, 1]);
+  } else if (options.lensCavity) {
     // Circle through (+-w, 0) and (0, h) centred at (0, -d): rho = (w² + h²) / 2h, d = rho - h.
     const { halfWidth: w, halfHeight: h } = options.lensCavity;
     const rho = (w * w + h * h) / (2 * h), d = rho - h;

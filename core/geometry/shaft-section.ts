@@ -1,0 +1,495 @@
+import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
+import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
+
+/**
+ * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
+ * plane across the shaft axis, sharing centre (the axis point) and orientation, with semi-axes
+ * (A, B) outside and (Ai, Bi) inside. The wall between them is read as the family of ellipses
+ * E(t) with semi-axes a(t) = Ai + t (A - Ai), b(t) = Bi + t (B - Bi): E(0) is the cavity, E(1)
+ * the outer surface, and every point across the axis lies on exactly one E(t) (a(t), b(t) grow
+ * with t). The direction in which a point "faces out from the axis" is the outward normal of
+ * the E(t) through it, (x / a², y / b²) in the section's frame: it is the surface normal on the
+ * outer and on the cavity surface, and runs along the wall (so across a break through the
+ * wall) in between. For a round section (A = B, Ai = Bi) it is the radial direction.
+ */
+export interface EllipseSection {
+  /** Unit direction of the major semi-axes, across the axis. */
+  major: [number, number, number];
+  /** Outer surface semi-axes (major, minor), mm. */
+  outer: [number, number];
+  /** Medullary cavity semi-axes (major, minor), mm; each smaller than the outer one. */
+  inner: [number, number];
+}
+
+/**
+ * t of the family ellipse E(t) through the in-plane point (x, y) (x along the major axis): the
+ * root of x²/a(t)² + y²/b(t)² = 1, found by bisection between the t where a or b reaches zero
+ * and a t far outside (the left side falls with t).
+ */
+export function sectionLevel(s: EllipseSection, x: number, y: number): number {
+  const [A, B] = s.outer, [Ai, Bi] = s.inner;
+  const da = A - Ai, db = B - Bi;
+  let lo = Math.max(-Ai / da, -Bi / db) + 1e-9;
+  const r = Math.hypot(x, y);
+  let hi = 1 + r / Math.min(da, db) + 1;
+  const f = (t: number): number => {
+    const a = Ai + t * da, b = Bi + t * db;
+    return (x / a) ** 2 + (y / b) ** 2 - 1;
+  };
+  if (f(lo) <= 0) return lo;
+  for (let i = 0; i < 48 && hi - lo > 1e-7; i++) {
+    const mid = 0.5 * (lo + hi);
+    if (f(mid) > 0) lo = mid; else hi = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+/**
+ * Offset from the axis under an elliptic section: a vector across the axis along the outward
+ * normal of the family ellipse through the point, of length the mean radius of that ellipse
+ * ((a + b) / 2: the outer surface lies at about the fitted radius, as under a round section).
+ * (qx, qy, qz): the point's offset from the axis line, across it; `minor` = axis x major.
+ */
+export function ellipseOffset(
+  s: EllipseSection, minor: [number, number, number], qx: number, qy: number, qz: number, out: [number, number, number],
+): [number, number, number] {
+  const x = qx * s.major[0] + qy * s.major[1] + qz * s.major[2];
+  const y = qx * minor[0] + qy * minor[1] + qz * minor[2];
+  const t = sectionLevel(s, x, y);
+  const a = s.inner[0] + t * (s.outer[0] - s.inner[0]), b = s.inner[1] + t * (s.outer[1] - s.inner[1]);
+  const gx = x / (a * a), gy = y / (b * b);
+  const gl = Math.hypot(gx, gy);
+  if (!(gl > 0)) { out[0] = qx; out[1] = qy; out[2] = qz; return out; }
+  const k = (0.5 * (a + b)) / gl;
+  out[0] = k * (gx * s.major[0] + gy * minor[0]);
+  out[1] = k * (gx * s.major[1] + gy * minor[1]);
+  out[2] = k * (gx * s.major[2] + gy * minor[2]);
+  return out;
+}
+
+/** What fitEllipseSection reads of the inward wall rays (wall-rays.ts). */
+export interface EllipseRays { triangles: Uint32Array; exitCosine: Float32Array; exitTriangle: Int32Array }
+
+/** Cut-offs of fitEllipseSection (settings.ts, ellipseSection*). */
+export interface EllipseFitOptions {
+  /** Least axis support (share of the area along the axis) for a fit. */
+  supportMin: number;
+  /** Least ratio of the outer semi-axes (major / minor) for an ellipse to be kept. */
+  ratioMin: number;
+  /** Least gain in wall-pair score over the axis as fitted before (share of its score). */
+  gain: number;
+  /** An inward ray that leaves with at least this cosine against the exit surface crossed the wall head-on. */
+  headOnCosineMin: number;
+  /** Most wall pairs and surface triangles read (even samples). */
+  maxRows: number;
+  /** Surface within this distance (mm) of an ellipse, with its normal, is explained by it. */
+  distanceTolerance: number;
+  /** Centres tried on a grid of (2 gridSteps + 1)² points, width / 8 apart, about the wall's middle (0: none). */
+  gridSteps: number;
+}
+
+interface Rows {
+  n: number;
+  /** Shooter and exit triangle of each wall pair (3D, for the final score). */
+  f: number[]; g: number[];
+  /** In-plane positions and unit normals of both, and the shooter's area. */
+  px: Float64Array; py: Float64Array; nx: Float64Array; ny: Float64Array;
+  qx: Float64Array; qy: Float64Array; mx: Float64Array; my: Float64Array; w: Float64Array;
+}
+
+/** A section model in the plane: centre, major direction angle, and the squared axis ratios (a/b)² outside and inside. */
+interface PlaneModel { cu: number; cv: number; phi: number; rhoOut: number; rhoIn: number }
+
+/**
+ * Squared axis ratio ρ = (a/b)² of the ellipses about (cu, cv), major axis at angle phi, whose
+ * normals (x, ρ y) (section frame) best match the given unit normals in the least-squares
+ * sense of the cross product: nx ρ y - ny x = 0, so ρ = Σ w (nx y)(ny x) / Σ w (nx y)².
+ */
+function ratioFit(sumNum: number, sumDen: number): number {
+  const rho = sumDen > 1e-12 ? sumNum / sumDen : 1;
+  return Math.min(64, Math.max(1 / 64, rho));
+}
+
+/**
+ * Model of the wall pairs under centre (cu, cv) and major axis angle phi: of each pair the
+ * member farther from the centre is the outer surface, the nearer the cavity's; the ratios
+ * are fitted in closed form (ratioFit) for each, and the cost is the area-weighted misfit of
+ * the normals, 1 - cos of the angle to the model's outward (outer) or inward (cavity) normal,
+ * each capped at 1 (a pair the model reads the wrong way round costs no more than a break).
+ */
+function planeModel(r: Rows, cu: number, cv: number, phi: number): PlaneModel {
+  const c = Math.cos(phi), s = Math.sin(phi);
+  let no = 0, dOut = 0, ni = 0, dIn = 0;
+  for (let k = 0; k < r.n; k++) {
+    const [ox, oy, onx, ony, ix, iy, inx, iny] = split(r, k, cu, cv, c, s);
+    no += r.w[k] * (onx * oy) * (ony * ox); dOut += r.w[k] * (onx * oy) ** 2;
+    ni += r.w[k] * (inx * iy) * (iny * ix); dIn += r.w[k] * (inx * iy) ** 2;
+  }
+  const rhoOut = ratioFit(no, dOut), rhoIn = ratioFit(ni, dIn);
+  return { cu, cv, phi, rhoOut, rhoIn };
+}
+
+/** Pair k in the section frame about (cu, cv) (x along cos/sin): outer x, y, normal; then the cavity member's. */
+function split(r: Rows, k: number, cu: number, cv: number, c: number, s: number): number[] {
+  const ax = r.px[k] - cu, ay = r.py[k] - cv, bx = r.qx[k] - cu, by = r.qy[k] - cv;
+  const a = [ax * c + ay * s, -ax * s + ay * c, r.nx[k] * c + r.ny[k] * s, -r.nx[k] * s + r.ny[k] * c];
+  const b = [bx * c + by * s, -bx * s + by * c, r.mx[k] * c + r.my[k] * s, -r.mx[k] * s + r.my[k] * c];
+  return ax * ax + ay * ay >= bx * bx + by * by ? [...a, ...b] : [...b, ...a];
+}
+
+/**
+ * An elliptic section fitted to the wall of a flattened shaft (outer surface and medullary
+ * cavity, shared centre and orientation; see EllipseSection). Read from the wall pairs of the
+ * inward rays (a ray that leaves through the other wall face head-on joins a triangle of the
+ * outer surface and one of the cavity's). For a centre and an orientation, the ellipse ratio of
+ * each surface has a closed form from its normals (the normal of x²/a² + y²/b² = 1 at (x, y) is
+ * along (x/a², y/b²): a linear condition on (a/b)², as the direct ellipse fits of Fitzgibbon,
+ * Pilu & Fisher 1999 and Halir & Flusser 1998 are linear in the conic's coefficients, here on
+ * the normals instead of the points); the centre and orientation are then searched (from the
+ * axis as fitted, its medial segment's middle and the wall's mean, coordinate search), and the
+ * sizes are the area-weighted medians of the members' ellipse radii. The section is kept only
+ * when its outer ratio is at least `ratioMin` (a round shaft keeps the round model exactly) and
+ * it makes the wall pairs face squarely (|radial| >= 0.8) and oppositely on at least `gain`
+ * more area than the axis as fitted before.
+ */
+export function fitEllipseSection(
+  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: EllipseRays, options: EllipseFitOptions,
+): ShaftAxis {
+  if (!(axis.support >= options.supportMin) || rays.triangles.length === 0) return axis;
+  const [ax, ay, az] = axis.direction;
+  let ux: number, uy: number, uz: number;
+  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
+  const ul = Math.hypot(ux, uy, uz);
+  ux /= ul; uy /= ul; uz /= ul;
+  const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
+  const across = (f: number): boolean => Math.abs(normals[3 * f] * ax + normals[3 * f + 1] * ay + normals[3 * f + 2] * az) <= 0.342;
+  const rows: Rows = { n: 0, f: [], g: [], px: new Float64Array(0), py: new Float64Array(0), nx: new Float64Array(0), ny: new Float64Array(0), qx: new Float64Array(0), qy: new Float64Array(0), mx: new Float64Array(0), my: new Float64Array(0), w: new Float64Array(0) };
+  const stride = Math.max(1, Math.ceil(rays.triangles.length / options.maxRows));
+  for (let k = 0; k < rays.triangles.length; k += stride) {
+    const f = rays.triangles[k], g = rays.exitTriangle[k];
+    if (g < 0 || !(rays.exitCosine[k] >= options.headOnCosineMin) || !across(f) || !across(g)) continue;
+    rows.f.push(f); rows.g.push(g);
+  }
+  const n = rows.f.length;
+  if (n < 20) return axis;
+  rows.n = n;
+  for (const key of ['px', 'py', 'nx', 'ny', 'qx', 'qy', 'mx', 'my', 'w'] as const) rows[key] = new Float64Array(n);
+  let su = 0, sv = 0, sw = 0, uMin = Infinity, uMax = -Infinity, vMin = Infinity, vMax = -Infinity;
+  const plane = (f: number): number[] => {
+    const x = centroids[3 * f], y = centroids[3 * f + 1], z = centroids[3 * f + 2];
+    const nu = normals[3 * f] * ux + normals[3 * f + 1] * uy + normals[3 * f + 2] * uz;
+    const nv = normals[3 * f] * vx + normals[3 * f + 1] * vy + normals[3 * f + 2] * vz;
+    const l = Math.hypot(nu, nv) || 1;
+    return [x * ux + y * uy + z * uz, x * vx + y * vy + z * vz, nu / l, nv / l];
+  };
+  for (let k = 0; k < n; k++) {
+    const [p0, p1, p2, p3] = plane(rows.f[k]);
+    const [q0, q1, q2, q3] = plane(rows.g[k]);
+    rows.px[k] = p0; rows.py[k] = p1; rows.nx[k] = p2; rows.ny[k] = p3;
+    rows.qx[k] = q0; rows.qy[k] = q1; rows.mx[k] = q2; rows.my[k] = q3;
+    rows.w[k] = areas[rows.f[k]];
+    su += rows.w[k] * (p0 + q0) / 2; sv += rows.w[k] * (p1 + q1) / 2; sw += rows.w[k];
+    uMin = Math.min(uMin, p0, q0); uMax = Math.max(uMax, p0, q0); vMin = Math.min(vMin, p1, q1); vMax = Math.max(vMax, p1, q1);
+  }
+  const width = Math.max(uMax - uMin, vMax - vMin);
+  if (!(sw > 0) || !(width > 0)) return axis;
+  const toPlane = (p: [number, number, number]): [number, number] => [p[0] * ux + p[1] * uy + p[2] * uz, p[0] * vx + p[1] * vy + p[2] * vz];
+  const starts: Array<[number, number]> = [toPlane(axis.point)];
+  if (axis.medial) {
+    const m = axis.medial;
+    const h = m.length / 2;
+    starts.push(toPlane([axis.point[0] + h * m.direction[0], axis.point[1] + h * m.direction[1], axis.point[2] + h * m.direction[2]]));
+  }
+  // Surface rows: an even sample of the triangles whose normals run across the axis.
+  const surf: number[] = [];
+  const sstride = Math.max(1, Math.ceil(areas.length / options.maxRows));
+  for (let f = 0; f < areas.length; f += sstride) {
+    if (!across(f)) continue;
+    const [x, y, nu, nv] = plane(f);
+    surf.push(x, y, nu, nv, areas[f]);
+  }
+  const tol = options.distanceTolerance;
+  const ellipses = (cu: number, cv: number, phi: number): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol);
+  // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
+  {
+    const c0 = starts[0];
+    const outer: number[] = [], inner: number[] = [];
+    for (let k = 0; k < n; k++) {
+      const [ox, oy, , , ix, iy] = split(rows, k, c0[0], c0[1], 1, 0);
+      outer.push(ox + c0[0], oy + c0[1], rows.w[k]);
+      inner.push(ix + c0[0], iy + c0[1], rows.w[k]);
+    }
+    const fo = directEllipseFit(outer), fi = directEllipseFit(inner);
+    if (dbg()) console.error('direct', JSON.stringify({ fo, fi }));
+    for (const fit of [fo, fi]) if (fit && Math.hypot(fit.cu - c0[0], fit.cv - c0[1]) < 4 * width) starts.push([fit.cu, fit.cv]);
+  }
+  let best: Ellipses | undefined;
+  for (const [cu, cv] of starts) {
+    for (let i = 0; i < 12; i++) {
+      const e = ellipses(cu, cv, (Math.PI * i) / 12);
+      if (e && (!best || e.score > best.score)) best = e;
+    }
+  }
+  // A grid of centres about the wall's middle, each with the orientation its normals give, on a sample of the rows.
+  if (options.gridSteps > 0) {
+    const few = subsample(rows, 300), fewSurf = subsampleSurf(surf, 600);
+    const step = width / 8, mu = su / sw, mv = sv / sw;
+    let gridBest: Ellipses | undefined;
+    for (let i = -options.gridSteps; i <= options.gridSteps; i++) {
+      for (let j = -options.gridSteps; j <= options.gridSteps; j++) {
+        const cu = mu + i * step, cv = mv + j * step;
+        const phi = orientationAt(few, cu, cv);
+        if (phi === undefined) continue;
+        const e = evaluate(few, fewSurf, cu, cv, phi, tol);
+        if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
+      }
+    }
+    if (gridBest) {
+      const e = ellipses(gridBest.cu, gridBest.cv, gridBest.phi);
+      if (dbg()) console.error('grid', JSON.stringify(gridBest), e?.score);
+      if (e && (!best || e.score > best.score)) best = e;
+    }
+  }
+  if (!best) return axis;
+  let step = 0.05 * width, turn = Math.PI / 24;
+  for (let round = 0; round < 60 && step > 0.005 * width; round++) {
+    let moved = false;
+    for (const [a, b, t] of [[step, 0, 0], [-step, 0, 0], [0, step, 0], [0, -step, 0], [0, 0, turn], [0, 0, -turn]]) {
+      const trial = ellipses(best.cu + a, best.cv + b, best.phi + t);
+      if (trial && trial.score > best.score) { best = trial; moved = true; }
+    }
+    if (!moved) { step /= 2; turn /= 2; }
+  }
+  const e = best;
+  if (dbg()) console.error('ell', JSON.stringify({ n, width, e, start: starts[0] }));
+  const tr = (globalThis as { ELLTRUE?: Ellipses }).ELLTRUE;
+  if (tr) console.error('true explained', explained(surf, tr, tol), 'pm', JSON.stringify(planeModel(rows, tr.cu, tr.cv, tr.phi)), 'ellipses()', JSON.stringify(ellipses(tr.cu, tr.cv, tr.phi)));
+  if (!(e.A / e.B >= options.ratioMin)) return axis;
+  // The round model's own explained area: circles (or the medial segment's offsets) about the axis at the medians of the surface facing out and in.
+  const round = explainedRound(axis, centroids, normals, areas, sstride, across, tol);
+  if (dbg()) { let tot = 0; for (let k = 4; k < surf.length; k += 5) tot += surf[k]; console.error('ell explained', e.score, round, 'of', tot, 'ratio', e.A / e.B, 'inner', e.Ai / e.Bi); }
+  if (!(e.score > round * (1 + options.gain))) return axis;
+  const c = Math.cos(e.phi), s = Math.sin(e.phi);
+  const t0 = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
+  const point: [number, number, number] = [e.cu * ux + e.cv * vx + t0 * ax, e.cu * uy + e.cv * vy + t0 * ay, e.cu * uz + e.cv * vz + t0 * az];
+  const major: [number, number, number] = [c * ux + s * vx, c * uy + s * vy, c * uz + s * vz];
+  return { ...axis, point, radius: (e.A + e.B) / 2, medial: undefined, section: { major, outer: [e.A, e.B], inner: [e.Ai, e.Bi] } };
+}
+
+/** The model of evaluate() at centre (cu, cv) and angle phi: ratios from the wall pairs' normals, sizes their medians, scored by explained(). */
+function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number): Ellipses | undefined {
+  const n = rows.n;
+  const pm = planeModel(rows, cu, cv, phi);
+  let { rhoOut, rhoIn } = pm;
+  let ph = phi;
+  if (rhoOut < 1 && rhoIn <= 1) { ph += Math.PI / 2; rhoOut = 1 / rhoOut; rhoIn = 1 / rhoIn; }
+  if (!(rhoOut >= 1 && rhoIn >= 1)) return undefined;
+  const c = Math.cos(ph), s = Math.sin(ph);
+  const outA: Array<[number, number]> = [], inA: Array<[number, number]> = [];
+  for (let k = 0; k < n; k++) {
+    const [ox, oy, , , ix, iy] = split(rows, k, cu, cv, c, s);
+    outA.push([Math.sqrt(ox * ox + rhoOut * oy * oy), rows.w[k]]);
+    inA.push([Math.sqrt(ix * ix + rhoIn * iy * iy), rows.w[k]]);
+  }
+  const A = weightedMedian(outA), Ai = weightedMedian(inA);
+  const B = A / Math.sqrt(rhoOut), Bi = Ai / Math.sqrt(rhoIn);
+  if (!(A > Ai && B > Bi && Bi > 0)) return undefined;
+  const e: Ellipses = { cu, cv, phi: ph, A, B, Ai, Bi, score: 0 };
+  e.score = explained(surf, e, tol);
+  return e;
+}
+
+/**
+ * Major axis angle of the outer members' ellipse about (cu, cv) from their normals alone: the
+ * conic's quadratic part M (symmetric 2x2, up to scale) with n x M (p - c) = 0 for every member,
+ * a linear condition on (m11, m12, m22) (smallest eigenvector of its 3x3 scatter); the major
+ * axis is M's eigenvector of the smaller eigenvalue. Undefined when M is not definite.
+ */
+function orientationAt(rows: Rows, cu: number, cv: number): number | undefined {
+  const S = [0, 0, 0, 0, 0, 0, 0, 0, 0];
+  for (let k = 0; k < rows.n; k++) {
+    const [ox, oy, onx, ony] = split(rows, k, cu, cv, 1, 0);
+    const r = [-ony * ox, onx * ox - ony * oy, onx * oy];
+    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) S[3 * i + j] += rows.w[k] * r[i] * r[j];
+  }
+  const e = new EigenvalueDecomposition(new Matrix([S.slice(0, 3), S.slice(3, 6), S.slice(6, 9)]), { assumeSymmetric: true });
+  const vals = e.realEigenvalues;
+  let k = 0;
+  for (let i = 1; i < 3; i++) if (vals[i] < vals[k]) k = i;
+  const m11 = e.eigenvectorMatrix.get(0, k), m12 = e.eigenvectorMatrix.get(1, k), m22 = e.eigenvectorMatrix.get(2, k);
+  if (!(m11 * m22 - m12 * m12 > 0)) return undefined;
+  // Eigenvector of the smaller eigenvalue (in absolute terms; M may come out negative definite).
+  const sg = m11 + m22 < 0 ? -1 : 1;
+  const a = sg * m11, b = sg * m12, c = sg * m22;
+  return 0.5 * Math.atan2(-2 * b, c - a);
+}
+
+/** Every k-th wall pair, at most about `most`. */
+function subsample(rows: Rows, most: number): Rows {
+  const k = Math.max(1, Math.ceil(rows.n / most));
+  if (k === 1) return rows;
+  const pick = <T extends Float64Array>(x: T): Float64Array => Float64Array.from({ length: Math.ceil(rows.n / k) }, (_, i) => x[i * k]);
+  return {
+    n: Math.ceil(rows.n / k), f: rows.f.filter((_, i) => i % k === 0), g: rows.g.filter((_, i) => i % k === 0),
+    px: pick(rows.px), py: pick(rows.py), nx: pick(rows.nx), ny: pick(rows.ny), qx: pick(rows.qx), qy: pick(rows.qy), mx: pick(rows.mx), my: pick(rows.my), w: pick(rows.w),
+  };
+}
+
+/** Every k-th surface row (five numbers each), at most about `most`. */
+function subsampleSurf(surf: number[], most: number): number[] {
+  const rowsIn = surf.length / 5, k = Math.max(1, Math.ceil(rowsIn / most));
+  if (k === 1) return surf;
+  const out: number[] = [];
+  for (let i = 0; i < rowsIn; i += k) for (let j = 0; j < 5; j++) out.push(surf[5 * i + j] * (j === 4 ? k : 1));
+  return out;
+}
+
+function dbg(): boolean { return Boolean((globalThis as { ELLDBG?: boolean }).ELLDBG); }
+
+interface Ellipses { cu: number; cv: number; phi: number; A: number; B: number; Ai: number; Bi: number; score: number }
+
+/**
+ * Surface the two ellipses explain: area of the rows (x, y, normal, area; in the plane) lying
+ * within `tol` mm of the outer ellipse with the outward normal, or of the cavity's with the
+ * inward one, each weighted (1 - (d/tol)²)² (1 - ((1 - cos)/0.06)²)² (biweights: within tol and
+ * about 20 degrees). The distance is the first-order one, F / |∇F| for F = x²/a² + y²/b² - 1 (/ 2).
+ */
+function explained(surf: number[], e: Ellipses, tol: number): number {
+  const c = Math.cos(e.phi), s = Math.sin(e.phi);
+  let sum = 0;
+  for (let k = 0; k < surf.length; k += 5) {
+    const dx = surf[k] - e.cu, dy = surf[k + 1] - e.cv;
+    const x = dx * c + dy * s, y = -dx * s + dy * c;
+    const nx = surf[k + 2] * c + surf[k + 3] * s, ny = -surf[k + 2] * s + surf[k + 3] * c;
+    for (const [a, b, sign] of [[e.A, e.B, 1], [e.Ai, e.Bi, -1]]) {
+      const gx = x / (a * a), gy = y / (b * b);
+      const gl = Math.hypot(gx, gy);
+      if (!(gl > 0)) continue;
+      const d = (x * gx + y * gy - 1) / (2 * gl);
+      if (Math.abs(d) >= tol) continue;
+      const miss = 1 - sign * (nx * gx + ny * gy) / gl;
+      if (miss >= 0.06) continue;
+      sum += surf[k + 4] * (1 - (d / tol) ** 2) ** 2 * (1 - (miss / 0.06) ** 2) ** 2;
+    }
+  }
+  return sum;
+}
+
+/** explained() for the round model of the axis (point or medial segment): offsets of R (surface facing out) and r (facing in), area-weighted medians. */
+function explainedRound(
+  axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, stride: number, across: (f: number) => boolean, tol: number,
+): number {
+  const q: [number, number, number] = [0, 0, 0];
+  const rows: number[] = [];
+  const outR: Array<[number, number]> = [], inR: Array<[number, number]> = [];
+  for (let f = 0; f < areas.length; f += stride) {
+    if (!across(f)) continue;
+    offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
+    const d = Math.hypot(q[0], q[1], q[2]);
+    if (!(d > 0)) continue;
+    const radial = (q[0] * normals[3 * f] + q[1] * normals[3 * f + 1] + q[2] * normals[3 * f + 2]) / d;
+    rows.push(d, radial, areas[f]);
+    if (radial >= 0.8) outR.push([d, areas[f]]);
+    if (radial <= -0.8) inR.push([d, areas[f]]);
+  }
+  let sum = 0;
+  for (const [r, sign] of [[weightedMedian(outR), 1], [weightedMedian(inR), -1]]) {
+    if (!(r > 0)) continue;
+    for (let k = 0; k < rows.length; k += 3) {
+      const d = rows[k] - r;
+      if (Math.abs(d) >= tol) continue;
+      const miss = 1 - sign * rows[k + 1];
+      if (miss >= 0.06) continue;
+      sum += rows[k + 2] * (1 - (d / tol) ** 2) ** 2 * (1 - (miss / 0.06) ** 2) ** 2;
+    }
+  }
+  return sum;
+}
+
+/** Area of the wall pairs whose two members face squarely (|radial| >= 0.8) and oppositely under the axis model. */
+function wallPairScore(axis: ShaftAxis, rows: Rows, centroids: Float32Array, normals: Float32Array): number {
+  const q: [number, number, number] = [0, 0, 0];
+  const radial = (f: number): number => {
+    offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
+    return (q[0] * normals[3 * f] + q[1] * normals[3 * f + 1] + q[2] * normals[3 * f + 2]) / (Math.hypot(q[0], q[1], q[2]) || 1e-9);
+  };
+  let s = 0;
+  for (let k = 0; k < rows.n; k++) {
+    const a = radial(rows.f[k]), b = radial(rows.g[k]);
+    if (Math.abs(a) >= 0.8 && Math.abs(b) >= 0.8 && a * b < 0) s += rows.w[k];
+  }
+  return s;
+}
+
+function weightedMedian(values: Array<[number, number]>): number {
+  values.sort((p, q) => p[0] - q[0]);
+  const half = values.reduce((s, x) => s + x[1], 0) / 2;
+  let acc = 0;
+  for (const [v, w] of values) {
+    acc += w;
+    if (acc >= half) return v;
+  }
+  return values.length ? values[values.length - 1][0] : 0;
+}
+
+/**
+ * Direct least-squares ellipse fit of weighted points (x, y, w triples): Fitzgibbon, Pilu &
+ * Fisher 1999 (the conic a x² + b xy + c y² + d x + e y + f = 0 under 4ac - b² = 1), in the
+ * numerically stable form of Halir & Flusser 1998 (the quadratic and linear parts split, the
+ * 3x3 reduced eigenproblem), on coordinates centred and scaled to unit spread. Returns the
+ * centre, the semi-axes (major first) and the major axis angle; undefined when no ellipse fits.
+ */
+export function directEllipseFit(points: number[]): { cu: number; cv: number; a: number; b: number; phi: number } | undefined {
+  const m = points.length / 3;
+  if (m < 6) return undefined;
+  let mx = 0, my = 0, sw = 0;
+  for (let k = 0; k < m; k++) { mx += points[3 * k + 2] * points[3 * k]; my += points[3 * k + 2] * points[3 * k + 1]; sw += points[3 * k + 2]; }
+  if (!(sw > 0)) return undefined;
+  mx /= sw; my /= sw;
+  let spread = 0;
+  for (let k = 0; k < m; k++) spread += points[3 * k + 2] * ((points[3 * k] - mx) ** 2 + (points[3 * k + 1] - my) ** 2);
+  const sc = Math.sqrt(spread / sw) || 1;
+  const S1 = [[0, 0, 0], [0, 0, 0], [0, 0, 0]], S2 = [[0, 0, 0], [0, 0, 0], [0, 0, 0]], S3 = [[0, 0, 0], [0, 0, 0], [0, 0, 0]];
+  for (let k = 0; k < m; k++) {
+    const x = (points[3 * k] - mx) / sc, y = (points[3 * k + 1] - my) / sc, w = points[3 * k + 2] / sw;
+    const d1 = [x * x, x * y, y * y], d2 = [x, y, 1];
+    for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) {
+      S1[i][j] += w * d1[i] * d1[j]; S2[i][j] += w * d1[i] * d2[j]; S3[i][j] += w * d2[i] * d2[j];
+    }
+  }
+  let T: Matrix;
+  try {
+    T = inverse(new Matrix(S3)).mmul(new Matrix(S2).transpose()).mul(-1);
+  } catch { return undefined; }
+  const M = new Matrix(S1).add(new Matrix(S2).mmul(T));
+  // Premultiplied by the inverse of the constraint matrix C1 = [[0, 0, 2], [0, -1, 0], [2, 0, 0]].
+  const R = new Matrix([
+    [M.get(2, 0) / 2, M.get(2, 1) / 2, M.get(2, 2) / 2],
+    [-M.get(1, 0), -M.get(1, 1), -M.get(1, 2)],
+    [M.get(0, 0) / 2, M.get(0, 1) / 2, M.get(0, 2) / 2],
+  ]);
+  const eig = new EigenvalueDecomposition(R);
+  const V = eig.eigenvectorMatrix;
+  let a1: number[] | undefined;
+  for (let j = 0; j < 3; j++) {
+    if (Math.abs(eig.imaginaryEigenvalues[j]) > 1e-12) continue;
+    const v = [V.get(0, j), V.get(1, j), V.get(2, j)];
+    if (4 * v[0] * v[2] - v[1] * v[1] > 0) { a1 = v; break; }
+  }
+  if (!a1) return undefined;
+  const a2 = T.mmul(Matrix.columnVector(a1)).to1DArray();
+  // The conic's sign is free: make its quadratic part positive definite.
+  const sg = a1[0] + a1[2] < 0 ? -1 : 1;
+  const [A, B, C] = a1.map((x) => sg * x), [D, E, F] = a2.map((x) => sg * x);
+  // Centre: gradient zero. Then the quadratic form about it.
+  const det = 4 * A * C - B * B;
+  const x0 = (B * E - 2 * C * D) / det, y0 = (B * D - 2 * A * E) / det;
+  const f0 = A * x0 * x0 + B * x0 * y0 + C * y0 * y0 + D * x0 + E * y0 + F;
+  const tr = A + C, root = Math.hypot(A - C, B);
+  const l1 = (tr + root) / 2, l2 = (tr - root) / 2;
+  if (!(-f0 / l1 > 0 && -f0 / l2 > 0)) return undefined;
+  const small = Math.sqrt(-f0 / l1), big = Math.sqrt(-f0 / l2);
+  // Major axis: eigenvector of the smaller eigenvalue l2 of [[A, B/2], [B/2, C]].
+  const phi = Math.abs(B) < 1e-15 ? (A <= C ? 0 : Math.PI / 2) : Math.atan2(l2 - A, B / 2);
+  return { cu: mx + sc * x0, cv: my + sc * y0, a: sc * big, b: sc * small, phi };
+}
