@@ -124,7 +124,7 @@ export function analyseFragment(
   const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   // An elliptic section where it makes the wall face out and in clearly better (shaft-section.ts).
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
-    supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, gain: settings.ellipseSectionGain,
+    supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
     headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps,
   });
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;

@@ -95,6 +95,11 @@ export const analysisSettingsSchema = z.object({
   ellipseSectionSupportMin: z.number().min(0).default(0.65),
   /** ...kept only when the outer ellipse's axis ratio (major / minor) is at least this (a round shaft keeps the round model)... */
   ellipseSectionRatioMin: z.number().min(1).default(1.3),
+  /**
+   * ...and at most this: a long bone's shaft is flattened up to about 2 : 1 (the generator's
+   * radius 1.86, common practice); a fit far beyond is a lobe or a bend of the wall, not a section.
+   */
+  ellipseSectionRatioMax: z.number().min(1).default(2.5),
   /** ...and its wall pairs facing squarely and oppositely weigh at least this share more than under the axis fitted before... */
   ellipseSectionGain: z.number().min(0).default(0.1),
   /** ...read on an even sample of at most this many wall rays (and as many triangles)... */

@@ -74,8 +74,9 @@ export interface EllipseRays { triangles: Uint32Array; exitCosine: Float32Array;
 export interface EllipseFitOptions {
   /** Least axis support (share of the area along the axis) for a fit. */
   supportMin: number;
-  /** Least ratio of the outer semi-axes (major / minor) for an ellipse to be kept. */
+  /** Least and largest ratio of the outer semi-axes (major / minor) for an ellipse to be kept. */
   ratioMin: number;
+  ratioMax: number;
   /** Least gain in wall-pair score over the axis as fitted before (share of its score). */
   gain: number;
   /** An inward ray that leaves with at least this cosine against the exit surface crossed the wall head-on. */
@@ -111,11 +112,9 @@ function ratioFit(sumNum: number, sumDen: number): number {
 }
 
 /**
- * Model of the wall pairs under centre (cu, cv) and major axis angle phi: of each pair the
- * member farther from the centre is the outer surface, the nearer the cavity's; the ratios
- * are fitted in closed form (ratioFit) for each, and the cost is the area-weighted misfit of
- * the normals, 1 - cos of the angle to the model's outward (outer) or inward (cavity) normal,
- * each capped at 1 (a pair the model reads the wrong way round costs no more than a break).
+ * Axis ratios of the wall pairs under centre (cu, cv) and major axis angle phi: of each pair the
+ * member farther from the centre is the outer surface, the nearer the cavity's; the ratio of
+ * each is fitted in closed form (ratioFit).
  */
 function planeModel(r: Rows, cu: number, cv: number, phi: number): PlaneModel {
   const c = Math.cos(phi), s = Math.sin(phi);
@@ -139,18 +138,24 @@ function split(r: Rows, k: number, cu: number, cv: number, c: number, s: number)
 
 /**
  * An elliptic section fitted to the wall of a flattened shaft (outer surface and medullary
- * cavity, shared centre and orientation; see EllipseSection). Read from the wall pairs of the
- * inward rays (a ray that leaves through the other wall face head-on joins a triangle of the
- * outer surface and one of the cavity's). For a centre and an orientation, the ellipse ratio of
- * each surface has a closed form from its normals (the normal of x²/a² + y²/b² = 1 at (x, y) is
- * along (x/a², y/b²): a linear condition on (a/b)², as the direct ellipse fits of Fitzgibbon,
- * Pilu & Fisher 1999 and Halir & Flusser 1998 are linear in the conic's coefficients, here on
- * the normals instead of the points); the centre and orientation are then searched (from the
- * axis as fitted, its medial segment's middle and the wall's mean, coordinate search), and the
- * sizes are the area-weighted medians of the members' ellipse radii. The section is kept only
- * when its outer ratio is at least `ratioMin` (a round shaft keeps the round model exactly) and
- * it makes the wall pairs face squarely (|radial| >= 0.8) and oppositely on at least `gain`
- * more area than the axis as fitted before.
+ * cavity, shared centre and orientation; see EllipseSection), read from the wall pairs of the
+ * inward rays: a ray that leaves through the other wall face head-on joins a triangle of the
+ * outer surface and one of the cavity's (the member farther from a candidate centre taken for
+ * the outer one). For a centre and an orientation each surface's axis ratio has a closed form
+ * from its normals (the normal of x²/a² + y²/b² = 1 at (x, y) runs along (x/a², y/b²), a
+ * linear condition on (a/b)²; ratioFit), and its size is the members' area-weighted median of
+ * sqrt(x² + (a/b)² y²). A model is scored by the surface it explains (explained(): lying within
+ * `distanceTolerance` of one of the ellipses and facing as its normal does). Candidates: the
+ * axis centre as fitted (and its medial segment's middle) with 12 orientations, the centres of
+ * direct ellipse fits of the outer and of the cavity members' points (directEllipseFit;
+ * Fitzgibbon, Pilu & Fisher 1999 in the form of Halir & Flusser 1998), and a grid of centres
+ * about the wall's middle, each with the orientation its normals give (orientationAt; on a
+ * splinter from the flat side the normal lines are nearly parallel and meet far off, so no
+ * local search from the round centre reaches the true one); the best is refined by coordinate
+ * search. The section is kept only when its outer ratio lies within [`ratioMin`, `ratioMax`]
+ * (a round shaft keeps the round model exactly) and it explains at least `gain` more surface
+ * than the round model of the axis as fitted before (circles, or the medial segment's offsets,
+ * at the medians of the surface facing out and in; explainedRound).
  */
 export function fitEllipseSection(
   axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: EllipseRays, options: EllipseFitOptions,
@@ -220,7 +225,6 @@ export function fitEllipseSection(
       inner.push(ix + c0[0], iy + c0[1], rows.w[k]);
     }
     const fo = directEllipseFit(outer), fi = directEllipseFit(inner);
-    if (dbg()) console.error('direct', JSON.stringify({ fo, fi }));
     for (const fit of [fo, fi]) if (fit && Math.hypot(fit.cu - c0[0], fit.cv - c0[1]) < 4 * width) starts.push([fit.cu, fit.cv]);
   }
   let best: Ellipses | undefined;
@@ -246,7 +250,6 @@ export function fitEllipseSection(
     }
     if (gridBest) {
       const e = ellipses(gridBest.cu, gridBest.cv, gridBest.phi);
-      if (dbg()) console.error('grid', JSON.stringify(gridBest), e?.score);
       if (e && (!best || e.score > best.score)) best = e;
     }
   }
@@ -261,13 +264,9 @@ export function fitEllipseSection(
     if (!moved) { step /= 2; turn /= 2; }
   }
   const e = best;
-  if (dbg()) console.error('ell', JSON.stringify({ n, width, e, start: starts[0] }));
-  const tr = (globalThis as { ELLTRUE?: Ellipses }).ELLTRUE;
-  if (tr) console.error('true explained', explained(surf, tr, tol), 'pm', JSON.stringify(planeModel(rows, tr.cu, tr.cv, tr.phi)), 'ellipses()', JSON.stringify(ellipses(tr.cu, tr.cv, tr.phi)));
-  if (!(e.A / e.B >= options.ratioMin)) return axis;
+  if (!(e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax)) return axis;
   // The round model's own explained area: circles (or the medial segment's offsets) about the axis at the medians of the surface facing out and in.
   const round = explainedRound(axis, centroids, normals, areas, sstride, across, tol);
-  if (dbg()) { let tot = 0; for (let k = 4; k < surf.length; k += 5) tot += surf[k]; console.error('ell explained', e.score, round, 'of', tot, 'ratio', e.A / e.B, 'inner', e.Ai / e.Bi); }
   if (!(e.score > round * (1 + options.gain))) return axis;
   const c = Math.cos(e.phi), s = Math.sin(e.phi);
   const t0 = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
@@ -344,8 +343,6 @@ function subsampleSurf(surf: number[], most: number): number[] {
   return out;
 }
 
-function dbg(): boolean { return Boolean((globalThis as { ELLDBG?: boolean }).ELLDBG); }
-
 interface Ellipses { cu: number; cv: number; phi: number; A: number; B: number; Ai: number; Bi: number; score: number }
 
 /**
@@ -404,21 +401,6 @@ function explainedRound(
     }
   }
   return sum;
-}
-
-/** Area of the wall pairs whose two members face squarely (|radial| >= 0.8) and oppositely under the axis model. */
-function wallPairScore(axis: ShaftAxis, rows: Rows, centroids: Float32Array, normals: Float32Array): number {
-  const q: [number, number, number] = [0, 0, 0];
-  const radial = (f: number): number => {
-    offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
-    return (q[0] * normals[3 * f] + q[1] * normals[3 * f + 1] + q[2] * normals[3 * f + 2]) / (Math.hypot(q[0], q[1], q[2]) || 1e-9);
-  };
-  let s = 0;
-  for (let k = 0; k < rows.n; k++) {
-    const a = radial(rows.f[k]), b = radial(rows.g[k]);
-    if (Math.abs(a) >= 0.8 && Math.abs(b) >= 0.8 && a * b < 0) s += rows.w[k];
-  }
-  return s;
 }
 
 function weightedMedian(values: Array<[number, number]>): number {

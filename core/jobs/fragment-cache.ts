@@ -19,7 +19,7 @@ import { KnitboneError } from '../host/errors';
 import { checkMatchableMesh, matchableFragment, type LengthUnit, type LoadedFragment } from './fragment-loader';
 
 /** Bump when what is stored, or how the analysis that produced it works, changes. */
-export const FRAGMENT_CACHE_VERSION = 'fragment-cache/6';
+export const FRAGMENT_CACHE_VERSION = 'fragment-cache/7';
 
 export interface FragmentSummary {
   faceAreas: number[];
