@@ -394,7 +394,18 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
   return out;
 }
 
-function weightedMedian(values: Array<[number, number]>): number {
+/** Two unit vectors u, v across the axis direction a (unit), with u, v, a right-handed: the section plane's frame (as fitShaftAxis builds it). */
+export function acrossAxisFrame(a: [number, number, number]): [[number, number, number], [number, number, number]] {
+  const [ax, ay, az] = a;
+  let ux: number, uy: number, uz: number;
+  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
+  const ul = Math.hypot(ux, uy, uz);
+  ux /= ul; uy /= ul; uz /= ul;
+  return [[ux, uy, uz], [ay * uz - az * uy, az * ux - ax * uz, ax * uy - ay * ux]];
+}
+
+/** Area-weighted median of (value, weight) pairs (sorts the array in place). */
+export function weightedMedian(values: Array<[number, number]>): number {
   values.sort((p, q) => p[0] - q[0]);
   const half = values.reduce((s, x) => s + x[1], 0) / 2;
   let acc = 0;

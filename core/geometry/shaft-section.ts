@@ -1,5 +1,5 @@
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
-import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
+import { acrossAxisFrame, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
 
 /**
  * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
@@ -162,11 +162,7 @@ export function fitEllipseSection(
 ): ShaftAxis {
   if (!(axis.support >= options.supportMin) || rays.triangles.length === 0) return axis;
   const [ax, ay, az] = axis.direction;
-  let ux: number, uy: number, uz: number;
-  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
-  const ul = Math.hypot(ux, uy, uz);
-  ux /= ul; uy /= ul; uz /= ul;
-  const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
+  const [[ux, uy, uz], [vx, vy, vz]] = acrossAxisFrame(axis.direction);
   const across = (f: number): boolean => Math.abs(normals[3 * f] * ax + normals[3 * f + 1] * ay + normals[3 * f + 2] * az) <= 0.342;
   const rows: Rows = { n: 0, f: [], g: [], px: new Float64Array(0), py: new Float64Array(0), nx: new Float64Array(0), ny: new Float64Array(0), qx: new Float64Array(0), qy: new Float64Array(0), mx: new Float64Array(0), my: new Float64Array(0), w: new Float64Array(0) };
   const stride = Math.max(1, Math.ceil(rays.triangles.length / options.maxRows));
@@ -403,16 +399,6 @@ function explainedRound(
   return sum;
 }
 
-function weightedMedian(values: Array<[number, number]>): number {
-  values.sort((p, q) => p[0] - q[0]);
-  const half = values.reduce((s, x) => s + x[1], 0) / 2;
-  let acc = 0;
-  for (const [v, w] of values) {
-    acc += w;
-    if (acc >= half) return v;
-  }
-  return values.length ? values[values.length - 1][0] : 0;
-}
 
 /**
  * Direct least-squares ellipse fit of weighted points (x, y, w triples): Fitzgibbon, Pilu &
