@@ -364,7 +364,9 @@ function shaftCheckedNormal(ctx: FaceContext, n: Vec3, mx: number, my: number, m
   const [ax, ay, az] = axis.direction;
   const dx = mx - axis.point[0], dy = my - axis.point[1], dz = mz - axis.point[2];
   const along = dx * ax + dy * ay + dz * az;
-  const rx = dx - along * ax, ry = dy - along * ay, rz = dz - along * az;
+  let rx = dx - along * ax, ry = dy - along * ay, rz = dz - along * az;
+  // Under an elliptic section the shaft's surface normal is the ellipse's, not the radial direction.
+  if (axis.section) [rx, ry, rz] = offsetFromAxis(axis, mx, my, mz, [0, 0, 0]);
   const rl = Math.hypot(rx, ry, rz);
   if (!(rl > 0) || Math.abs(rl / axis.radius - 1) > settings.angleShaftRadiusTolerance) return n;
   const cos = (n[0] * rx + n[1] * ry + n[2] * rz) / rl;
