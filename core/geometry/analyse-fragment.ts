@@ -15,6 +15,7 @@ import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { refineFractureBorder } from './border-refine';
+import { homothetyAxis } from './section-homothety';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { fitEllipseSection } from './shaft-section';
 import { castWallRays } from './wall-rays';
@@ -121,8 +122,9 @@ export function analyseFragment(
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
     })
     : settled;
-  const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
-  // An elliptic section where it makes the wall face out and in clearly better (shaft-section.ts).
+  const centred = sectioned.medial ? sectioned : homothetyAxis(sectioned, centroids, filtered, areas, rays, settings);
+  const roundAxis = centred.medial ? centred : fitMedialSegment(centred, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
     supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
     headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps,
