@@ -18,8 +18,13 @@ import { describe, expect, it } from 'vitest';
 import { analyseFragment } from '../../../core/geometry/analyse-fragment';
 import { lobedTubePiece, offAxis, type BrokenTube } from './broken-tube';
 
-/** The homothety centre is off by default (settings.ts); the gain the dev study measured. */
-const on = { sectionHomothetyGain: 0.03 };
+/**
+ * The homothety centre is off by default (settings.ts); the gain the dev study measured. The
+ * elliptic section (shaft-section.ts), a later step that replaces the centre where an ellipse
+ * explains the wall better, is switched off: these checks read the round model's centre.
+ */
+const roundModel = { ellipseSectionSupportMin: 2 };
+const on = { ...roundModel, sectionHomothetyGain: 0.03 };
 
 function piece(lobe: number): Promise<BrokenTube> {
   return lobedTubePiece({ lobe, twist: 0, fromDeg: 40, toDeg: 160 });
@@ -28,7 +33,7 @@ function piece(lobe: number): Promise<BrokenTube> {
 describe('splinters of a three-lobed shaft with a scaled cavity', () => {
   it('puts the centre on the axis for the piece from 40 to 160 degrees', async () => {
     const lobed = await piece(0.13);
-    const without = analyseFragment(lobed.mesh).axis;
+    const without = analyseFragment(lobed.mesh, roundModel).axis;
     const axis = analyseFragment(lobed.mesh, on).axis;
     // Truth: the z axis (construction).
     expect(offAxis(without.point, without.direction)).toBeGreaterThan(3);
