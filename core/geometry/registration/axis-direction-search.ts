@@ -26,8 +26,14 @@ export interface AxisDirectionSearchOptions {
   turnBinDeg?: number;
   /** Width of a translation bin in sample spacings. */
   shiftBinSpacings?: number;
-  /** Bins that may become peaks: at least this many votes (3; only those get their support counted). */
+  /** Bins that may become peaks: at least this many votes (3). */
   minPeakVotes?: number;
+  /**
+   * Most bins whose support is counted (the fullest of the same flip and tilt, by whole counts:
+   * a count that would pass this is left out with all its bins); when they hold too few distinct
+   * peaks, the other bins of at least minPeakVotes follow by their own votes.
+   */
+  maxCandidates?: number;
 }
 
 export interface DirectionHypothesis {
@@ -85,6 +91,8 @@ interface VoteTable {
   used: Int32Array;
   /** Per vote, in voting order: its bin's slot. */
   voteSlot: Int32Array;
+  /** Per slot: the peak it holds (-1: none). */
+  peakOf: Int32Array;
 }
 
 /** Vote tables by size, kept between searches (each search leaves its bins empty again: key -1, count 0). */
@@ -93,7 +101,7 @@ const tables = new Map<number, VoteTable>();
 function voteTable(size: number, votes: number): VoteTable {
   let t = tables.get(size);
   if (!t) {
-    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), used: new Int32Array(size), voteSlot: new Int32Array(votes) };
+    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), used: new Int32Array(size), voteSlot: new Int32Array(votes), peakOf: new Int32Array(size).fill(-1) };
     tables.set(size, t);
   }
   if (t.voteSlot.length < votes) t.voteSlot = new Int32Array(votes);
@@ -135,6 +143,7 @@ export function searchAlongAxisDirections(
   const dTh = (2 * Math.PI) / nTh;
   const bs = (options.shiftBinSpacings ?? 1.5) * options.spacing;
   const minVotes = options.minPeakVotes ?? 3;
+  const maxCandidates = options.maxCandidates ?? 32;
   const [xa0, ya0] = shaftBasis(directionA);
   const [xb, yb] = shaftBasis(directionB);
   const zb = directionB;
@@ -152,7 +161,7 @@ export function searchAlongAxisDirections(
   let size = 1024;
   while (size < 2 * A.count * B.count) size <<= 1;
   const mask = size - 1;
-  const { tKey, tCount, used, voteSlot } = voteTable(size, A.count * B.count);
+  const { tKey, tCount, used, voteSlot, peakOf } = voteTable(size, A.count * B.count);
   const slotOf = (key: number): number => {
     let h = Math.imul(key | 0, 0x9e3779b1) & mask;
     let at = tKey[h];
@@ -192,7 +201,7 @@ export function searchAlongAxisDirections(
       }
       // Each pair of samples whose normals can be opposed votes for one (turn, translation) bin,
       // the translation taken in the frame turned by half the turn; each vote's bin is noted
-      let nUsed = 0, nVotes = 0;
+      let nUsed = 0, nVotes = 0, most = 0;
       for (let i = 0; i < B.count; i++) {
         if (Number.isNaN(phiB[i])) continue;
         const w = bN[3 * i + 2];
@@ -218,15 +227,24 @@ export function searchAlongAxisDirections(
           let at = tKey[h];
           while (at !== -1 && at !== key) { h = (h + 1) & mask; at = tKey[h]; }
           if (at === -1) { tKey[h] = key; used[nUsed++] = h; }
-          tCount[h]++;
+          if (++tCount[h] > most) most = tCount[h];
           voteSlot[nVotes++] = h;
         }
       }
-      // candidate bins: at least minVotes; each one's support is the votes of the 3 x 3 x 3 x 3
-      // bins about it (across turn 0 the half turn changes by pi: the translation bins there are
+      // candidate bins: the fullest, at most maxCandidates of them (all bins of one count or none),
+      // and at least minPeakVotes; each one's support is the votes of the 3 x 3 x 3 x 3 bins
+      // about it (across turn 0 the half turn changes by pi: the translation bins there are
       // mirrored in x and y)
-      const pool: number[] = [];
-      for (let k = 0; k < nUsed; k++) if (tCount[used[k]] >= minVotes) pool.push(used[k]);
+      const byCount = new Int32Array(most + 2);
+      for (let k = 0; k < nUsed; k++) byCount[tCount[used[k]]]++;
+      let floor = most + 1;
+      for (let n = byCount[most]; floor > minVotes && n <= maxCandidates; n += byCount[floor - 1]) floor--;
+      const pool: number[] = [], rest: number[] = [];
+      for (let k = 0; k < nUsed; k++) {
+        const h = used[k];
+        if (tCount[h] >= floor) pool.push(h);
+        else if (tCount[h] >= minVotes) rest.push(h);
+      }
       const cand: Candidate[] = [];
       const adjacent = (p: Candidate, q: Candidate): boolean => {
         let dk = Math.abs(p.kt - q.kt);
@@ -236,11 +254,18 @@ export function searchAlongAxisDirections(
         const qx = wrap ? 2 * half - q.ix : q.ix, qy = wrap ? 2 * half - q.iy : q.iy;
         return Math.abs(p.ix - qx) <= 1 && Math.abs(p.iy - qy) <= 1 && Math.abs(p.iz - q.iz) <= 1;
       };
-      for (const h of pool) {
+      const binOf = (h: number, support: number): Candidate => {
         let key = tKey[h];
         const iz = key % nb; key = (key - iz) / nb;
         const iy = key % nb; key = (key - iy) / nb;
         const ix = key % nb; const kt = (key - ix) / nb;
+        // ties of support and own votes: the bin nearer no turn and no shift first (both unchanged when A and B are exchanged)
+        const tie = Math.hypot(ix - half, iy - half, iz - half) + nb * Math.abs(kt + 0.5 - nTh / 2);
+        return { h, kt, ix, iy, iz, support, tie };
+      };
+      for (const h of pool) {
+        const bin = binOf(h, 0);
+        const { kt, ix, iy, iz } = bin;
         let support = 0;
         for (let dk = -1; dk <= 1; dk++) {
           let k2 = kt + dk, mirror = false;
@@ -261,9 +286,8 @@ export function searchAlongAxisDirections(
             }
           }
         }
-        // ties of support and own votes: the bin nearer no turn and no shift first (both unchanged when A and B are exchanged)
-        const tie = Math.hypot(ix - half, iy - half, iz - half) + nb * Math.abs(kt + 0.5 - nTh / 2);
-        cand.push({ h, kt, ix, iy, iz, support, tie });
+        bin.support = support;
+        cand.push(bin);
       }
       cand.sort((p, q) => q.support - p.support || tCount[q.h] - tCount[p.h] || p.tie - q.tie);
       // peaks: the best candidates, none next to a better one
@@ -272,10 +296,18 @@ export function searchAlongAxisDirections(
         if (best.length >= peaks) break;
         if (!best.some((b) => adjacent(b, c))) best.push(c);
       }
+      if (best.length < peaks && rest.length) {
+        // too few distinct peaks above the floor: the bins below it follow by their own votes (support not counted)
+        const more = rest.map((h) => binOf(h, tCount[h])).sort((p, q) => q.support - p.support || p.tie - q.tie);
+        for (const c of more) {
+          if (best.length >= peaks) break;
+          if (!best.some((b) => adjacent(b, c))) best.push(c);
+        }
+      }
       if (best.length) {
         // each peak's motion from its own votes: sums of the turn (cos, sin) and of the paired samples
         const sums = best.map(() => new Float64Array(8));
-        const index = new Map<number, number>(best.map((b, k) => [b.h, k]));
+        best.forEach((b, k) => { peakOf[b.h] = k; });
         let v = 0;
         for (let i = 0; i < B.count; i++) {
           if (Number.isNaN(phiB[i])) continue;
@@ -284,8 +316,8 @@ export function searchAlongAxisDirections(
           const cBi = cB[i], sBi = sB[i];
           for (let k = 0; k < nA; k++) {
             if (Math.abs(w + nzA[k]) > 0.3) continue;
-            const b = index.get(voteSlot[v++]);
-            if (b === undefined) continue;
+            const b = peakOf[voteSlot[v++]];
+            if (b < 0) continue;
             const S = sums[b];
             S[0] += cA[k] * cBi + sA[k] * sBi; S[1] += sA[k] * cBi - cA[k] * sBi;
             S[2] += xA[k]; S[3] += yA[k]; S[4] += zA[k]; S[5] += bx; S[6] += by; S[7] += bz;
@@ -298,6 +330,7 @@ export function searchAlongAxisDirections(
           const t: V3 = [S[2] / n - (c * mbx - s * mby), S[3] / n - (s * mbx + c * mby), S[4] / n - S[7] / n];
           const transform = motion([xa, ya, za], [xb, yb, zb], f, turn, t, ca, cb);
           found.push({ transform, votes: p.support, flip, tiltDeg: [t1, t2] });
+          peakOf[p.h] = -1;
         });
       }
       for (let k = 0; k < nUsed; k++) {
