@@ -1,9 +1,17 @@
-import { cutTube, type CutPiece } from '/work/wt/axis12/tests/support/bunny-cut';
-import { breakFaceFromLabels } from '/work/wt/axis12/tests/support/break-face-from-labels';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFragment } from '/work/wt/axis12/core/geometry/proposals/prepared-fragment';
-import { screenFacePair, DEFAULT_MATCH_PARAMETERS } from '/work/wt/axis12/core/geometry/proposals/pairwise-match';
-import { searchAlongAxisDirections } from '/work/wt/axis12/core/geometry/registration/axis-direction-search';
-import { applyToPoints, displacementAt, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom } from '/work/wt/axis12/core/geometry/registration/rigid-transform';
+/**
+ * `npx tsx tests/bench/axis-symmetry-study.ts`: the axis-direction search (axis-direction-search.ts)
+ * run both ways round on the analytic cut tube of tests/unit/geometry/proposals/off-axis-screen.test.ts
+ * (outer radius 12 mm, inner 7 mm, manifold-3d; the truth is the known motion), printing each peak's
+ * support and its error against the truth (degrees, mm at B's face centroid), then the screen's
+ * motions with each screenWays for the four 6 mm offsets of B's fitted axis point.
+ * PEAKS=n asks the search for n peaks.
+ */
+import { cutTube, type CutPiece } from '../support/bunny-cut';
+import { breakFaceFromLabels } from '../support/break-face-from-labels';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { screenFacePair, DEFAULT_MATCH_PARAMETERS } from '../../core/geometry/proposals/pairwise-match';
+import { searchAlongAxisDirections } from '../../core/geometry/registration/axis-direction-search';
+import { applyToPoints, displacementAt, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom } from '../../core/geometry/registration/rigid-transform';
 const spacing = 1;
 function prepare(piece: CutPiece, motion: number[]): PreparedFragment {
   const positions = applyToPoints(motion, piece.positions) as Float32Array;
