@@ -15,6 +15,7 @@ import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { refineFractureBorder } from './border-refine';
+import { homothetyAxis } from './section-homothety';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
@@ -120,7 +121,8 @@ export function analyseFragment(
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
     })
     : settled;
-  const fittedAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  const centred = sectioned.medial ? sectioned : homothetyAxis(sectioned, centroids, filtered, areas, rays, settings);
+  const fittedAxis = centred.medial ? centred : fitMedialSegment(centred, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);

@@ -180,7 +180,7 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
 }
 
 /** Area-weighted median distance from the axis of the triangles facing away from it (radial > 0.8). */
-function outerRadius(centroids: Float32Array, normals: Float32Array, areas: Float64Array, dir: [number, number, number], point: [number, number, number]): number {
+export function outerRadius(centroids: Float32Array, normals: Float32Array, areas: Float64Array, dir: [number, number, number], point: [number, number, number]): number {
   const nt = areas.length;
   const [ax, ay, az] = dir;
   const stride = Math.max(1, Math.floor(nt / 4000));
@@ -552,4 +552,14 @@ export function fitSectionSegment(
   const point: [number, number, number] = [su * ux + sv * vx + t * ax, su * uy + sv * vy + t * ay, su * uz + sv * vz + t * az];
   const length = best.h1 + best.h2;
   return { ...axis, point, medial: length > 0 ? { direction: d3, length } : undefined };
+}
+
+/** Two unit vectors across a unit axis direction, u and v = a x u (the construction fitShaftAxis uses). */
+export function acrossAxisBasis(a: [number, number, number]): [[number, number, number], [number, number, number]] {
+  const [ax, ay, az] = a;
+  let ux: number, uy: number, uz: number;
+  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
+  const ul = Math.hypot(ux, uy, uz);
+  ux /= ul; uy /= ul; uz /= ul;
+  return [[ux, uy, uz], [ay * uz - az * uy, az * ux - ax * uz, ax * uy - ay * ux]];
 }

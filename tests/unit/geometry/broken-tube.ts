@@ -152,6 +152,33 @@ export async function brokenTube(options: {
 }
 
 /** Distance from the z axis (the tube's axis) of an axis line given by a point and a direction, at z = 0. */
+/**
+ * A splinter of a three-lobed tube (outer radius 13 mm, cavity 8.5 mm, 80 mm long) cut along two
+ * planes through its axis at `fromDeg` and `toDeg` and across 30 mm either side of the middle,
+ * then mapped after labelling: turned about the axis by `twist` rad per mm of radius from the
+ * outer surface in (a radial break becomes a spiral face), then scaled across the axis by
+ * 1 + lobe cos 3θ (both radii at each θ by the same factor: the cavity stays the outer outline
+ * scaled about the axis). The axis is the z axis.
+ */
+export function lobedTubePiece(o: { lobe: number; twist: number; fromDeg: number; toDeg: number }): Promise<BrokenTube> {
+  const R = 13;
+  const warp = (x: number, y: number, z: number): [number, number, number] => {
+    const a = o.twist * (Math.hypot(x, y) - R);
+    const X = x * Math.cos(a) - y * Math.sin(a), Y = x * Math.sin(a) + y * Math.cos(a);
+    const f = 1 + o.lobe * Math.cos(3 * Math.atan2(Y, X));
+    return [f * X, f * Y, z];
+  };
+  const a1 = (o.fromDeg * Math.PI) / 180, a2 = (o.toDeg * Math.PI) / 180;
+  return brokenTube({
+    outerRadius: R, innerRadius: 8.5, length: 80, roughness: 0.3, warp,
+    cuts: [
+      { normal: [-Math.sin(a1), Math.cos(a1), 0], offset: 0 },
+      { normal: [Math.sin(a2), -Math.cos(a2), 0], offset: 0 },
+      { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
+    ],
+  });
+}
+
 export function offAxis(point: ArrayLike<number>, direction: ArrayLike<number>): number {
   const t = -point[2] / direction[2];
   return Math.hypot(point[0] + t * direction[0], point[1] + t * direction[1]);

@@ -20,26 +20,10 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { analyseFragment } from '../../../core/geometry/analyse-fragment';
-import { brokenTube, offAxis, type BrokenTube } from './broken-tube';
-
-const R = 13;
+import { lobedTubePiece, offAxis, type BrokenTube } from './broken-tube';
 
 function piece(lobed: boolean): Promise<BrokenTube> {
-  const warp = (x: number, y: number, z: number): [number, number, number] => {
-    const a = 0.08 * (Math.hypot(x, y) - R);
-    const X = x * Math.cos(a) - y * Math.sin(a), Y = x * Math.sin(a) + y * Math.cos(a);
-    const f = lobed ? 1 + 0.13 * Math.cos(3 * Math.atan2(Y, X)) : 1;
-    return [f * X, f * Y, z];
-  };
-  const a1 = (40 * Math.PI) / 180, a2 = (160 * Math.PI) / 180;
-  return brokenTube({
-    outerRadius: R, innerRadius: 8.5, length: 80, roughness: 0.3, warp,
-    cuts: [
-      { normal: [-Math.sin(a1), Math.cos(a1), 0], offset: 0 },
-      { normal: [Math.sin(a2), -Math.cos(a2), 0], offset: 0 },
-      { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
-    ],
-  });
+  return lobedTubePiece({ lobe: lobed ? 0.13 : 0, twist: 0.08, fromDeg: 40, toDeg: 160 });
 }
 
 describe('a splinter of a three-lobed shaft with bevelled breaks', () => {
