@@ -79,11 +79,13 @@ export interface MatchParameters {
    * (both ways, the motions of A onto B turned round, then ranked together). Left out of the
    * defaults so that the propose run's parameters hash is unchanged. 'smaller' measured against
    * 'given' on dev seeds 11-16 and 21 (pairwise benchmark): true joins in a piece's top 3 241 ->
-   * 245, best of pair 257 -> 259, precision above 0.8 144/157 -> 144/156, the same CPU; but it
-   * loses the analytic off-axis tube of tests/unit/geometry/proposals/off-axis-screen.test.ts
-   * (3 of 4 offsets: the axis-direction search run the other way round finds no motion near the
-   * truth) and one motion of the cut bunny in best-distinct.test.ts, and on the committed sample
-   * it is no better; 'both' keeps them but costs 1.5x the screen (DEVELOPERS.md).
+   * 245, best of pair 257 -> 259, precision above 0.8 144/157 -> 144/156, the same CPU. The
+   * analytic off-axis tube of tests/unit/geometry/proposals/off-axis-screen.test.ts, lost by
+   * 'smaller' until the axis-direction search was made symmetric in the two faces (session 12),
+   * now passes every way; with 'smaller' or 'both' two tests still fail: best-distinct.test.ts
+   * (matchFragments with keep 2 returns one motion where the whole list has two: the polish
+   * merges the best two) and polish-both-ways.test.ts (the sample's transverse join 1.3 degrees
+   * off instead of under 1); on the committed sample it is no better (DEVELOPERS.md).
    */
   screenWays?: 'given' | 'smaller' | 'both';
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */

@@ -26,10 +26,19 @@ export interface AxisDirectionSearchOptions {
   turnBinDeg?: number;
   /** Width of a translation bin in sample spacings. */
   shiftBinSpacings?: number;
+  /** Bins that may become peaks: at least this many votes (3). */
+  minPeakVotes?: number;
+  /**
+   * Most bins whose support is counted (the fullest of the same flip and tilt, by whole counts:
+   * a count that would pass this is left out with all its bins); when they hold too few distinct
+   * peaks, the other bins of at least minPeakVotes follow by their own votes.
+   */
+  maxCandidates?: number;
 }
 
 export interface DirectionHypothesis {
   transform: RigidTransform;
+  /** The peak's support: the votes of its bin and of the bins next to it. */
   votes: number;
   flip: boolean;
   tiltDeg: [number, number];
@@ -71,6 +80,9 @@ function toFrame(v: Float64Array, count: number, x: V3, y: V3, z: V3): Float64Ar
   return out;
 }
 
+/** A bin that may become a peak: its slot, its indices (turn, translation) and its support. */
+interface Candidate { h: number; kt: number; ix: number; iy: number; iz: number; support: number; tie: number }
+
 interface VoteTable {
   /** Per slot: the bin's key (-1: empty) and its count of votes. */
   tKey: Float64Array;
@@ -79,6 +91,8 @@ interface VoteTable {
   used: Int32Array;
   /** Per vote, in voting order: its bin's slot. */
   voteSlot: Int32Array;
+  /** Per slot: the peak it holds (-1: none). */
+  peakOf: Int32Array;
 }
 
 /** Vote tables by size, kept between searches (each search leaves its bins empty again: key -1, count 0). */
@@ -87,7 +101,7 @@ const tables = new Map<number, VoteTable>();
 function voteTable(size: number, votes: number): VoteTable {
   let t = tables.get(size);
   if (!t) {
-    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), used: new Int32Array(size), voteSlot: new Int32Array(votes) };
+    t = { tKey: new Float64Array(size).fill(-1), tCount: new Int32Array(size), used: new Int32Array(size), voteSlot: new Int32Array(votes), peakOf: new Int32Array(size).fill(-1) };
     tables.set(size, t);
   }
   if (t.voteSlot.length < votes) t.voteSlot = new Int32Array(votes);
@@ -96,7 +110,21 @@ function voteTable(size: number, votes: number): VoteTable {
 
 /**
  * Motions carrying B's face onto A's face with B's axis direction laid along A's (within the
- * tilts tried), best voted first. Faces are packed xyz samples with outward normals.
+ * tilts tried), best supported first. Faces are packed xyz samples with outward normals.
+ *
+ * Without tilts (tiltsDeg [0], the matcher's default) the search is symmetric in the two faces:
+ * run with A and B exchanged it finds the inverse motions with the same support, so which
+ * fragment is A does not decide what the screen gets. Three things make it so. (1) A vote's
+ * translation is binned in the frame turned by half its turn, Rz(-turn/2) t, not in A's frame:
+ * exchanging the faces turns the translation by the turn and reverses it, which in that frame is
+ * only a change of sign of one or two coordinates, and rounding keeps the bins' edges where they
+ * were. (2) A bin is ranked by its support, its own votes and those of the 80 bins around it (in
+ * turn and translation), and a peak that lies next to a better one is left out: a cluster of
+ * votes cut by a bin's edge still counts whole, the peaks are distinct clusters, and ties of
+ * single bins (peaks often hold 3-6 votes on a break across the shaft, where few normals point
+ * across the axis) are not broken by the order of voting. (3) A peak's motion is the mean turn of
+ * its votes and the translation that carries the mean of their B samples onto the mean of their
+ * A samples under that turn (its inverse is the same sum the other way round).
  */
 export function searchAlongAxisDirections(
   directionA: V3,
@@ -111,9 +139,11 @@ export function searchAlongAxisDirections(
   const A = strided(faceAPoints, faceANormals, max), B = strided(faceBPoints, faceBNormals, max);
   if (A.count < 3 || B.count < 3) return [];
   const tilts = options.tiltsDeg ?? [0];
-  const dTh = ((options.turnBinDeg ?? 6) * Math.PI) / 180;
-  const nTh = Math.ceil((2 * Math.PI) / dTh);
+  const nTh = Math.max(3, Math.round(360 / (options.turnBinDeg ?? 6)));
+  const dTh = (2 * Math.PI) / nTh;
   const bs = (options.shiftBinSpacings ?? 1.5) * options.spacing;
+  const minVotes = options.minPeakVotes ?? 3;
+  const maxCandidates = options.maxCandidates ?? 32;
   const [xa0, ya0] = shaftBasis(directionA);
   const [xb, yb] = shaftBasis(directionB);
   const zb = directionB;
@@ -127,11 +157,17 @@ export function searchAlongAxisDirections(
   for (let i = 0; i < B.count; i++) { for (let d = 0; d < 3; d++) Bp[3 * i + d] -= cb[d]; rb = Math.max(rb, Math.hypot(Bp[3 * i], Bp[3 * i + 1], Bp[3 * i + 2])); }
   const half = Math.ceil((ra + rb) / bs) + 1;
   const nb = 2 * half + 1;
-  // vote table: open addressing on the bin key, with each bin's sums (turn as cos and sin, translation)
+  // vote table: open addressing on the bin key
   let size = 1024;
   while (size < 2 * A.count * B.count) size <<= 1;
   const mask = size - 1;
-  const { tKey, tCount, used, voteSlot } = voteTable(size, A.count * B.count);
+  const { tKey, tCount, used, voteSlot, peakOf } = voteTable(size, A.count * B.count);
+  const slotOf = (key: number): number => {
+    let h = Math.imul(key | 0, 0x9e3779b1) & mask;
+    let at = tKey[h];
+    while (at !== -1 && at !== key) { h = (h + 1) & mask; at = tKey[h]; }
+    return at === -1 ? -1 : h;
+  };
   const peaks = options.peaks ?? 3;
   const found: DirectionHypothesis[] = [];
   for (const flip of [false, true]) {
@@ -163,11 +199,9 @@ export function searchAlongAxisDirections(
         xA[nA] = aP[3 * j]; yA[nA] = aP[3 * j + 1]; zA[nA] = aP[3 * j + 2]; nzA[nA] = aN[3 * j + 2];
         nA++;
       }
-      // Each pair of samples whose normals can be opposed votes for one (turn, translation) bin.
-      // Counting comes first, with each vote's bin noted; the sums that make a bin's motion
-      // are taken afterwards for the few best bins only, over their votes in voting order (the
-      // same sums, added in the same order, as summing every bin while voting).
-      let nUsed = 0, nVotes = 0;
+      // Each pair of samples whose normals can be opposed votes for one (turn, translation) bin,
+      // the translation taken in the frame turned by half the turn; each vote's bin is noted
+      let nUsed = 0, nVotes = 0, most = 0;
       for (let i = 0; i < B.count; i++) {
         if (Number.isNaN(phiB[i])) continue;
         const w = bN[3 * i + 2];
@@ -180,33 +214,100 @@ export function searchAlongAxisDirections(
           if (th < 0) th += 2 * Math.PI;
           const c = cA[k] * cBi + sA[k] * sBi, s = sA[k] * cBi - cA[k] * sBi;
           const tx = xA[k] - (c * bx - s * by), ty = yA[k] - (s * bx + c * by), tz = zA[k] - bz;
+          // half the turn (th in [0, 2 pi], so its half in [0, pi]): cos and sin from c
+          const hc = Math.sqrt(Math.max(0, 0.5 * (1 + c))), hs = Math.sqrt(Math.max(0, 0.5 * (1 - c)));
+          const ch = th < Math.PI ? hc : -hc;
+          const mx = ch * tx + hs * ty, my = ch * ty - hs * tx;
           // th in [0, 2 pi]: its bin is at most nTh, which is bin 0 again
           let kt = Math.floor(th / dTh);
           if (kt >= nTh) kt -= nTh;
-          const key = ((kt * nb + Math.round(tx / bs) + half) * nb + Math.round(ty / bs) + half) * nb + Math.round(tz / bs) + half;
+          const key = ((kt * nb + Math.round(mx / bs) + half) * nb + Math.round(my / bs) + half) * nb + Math.round(tz / bs) + half;
           // (the slot only decides where a bin is kept, never which bins win)
           let h = Math.imul(key | 0, 0x9e3779b1) & mask;
           let at = tKey[h];
           while (at !== -1 && at !== key) { h = (h + 1) & mask; at = tKey[h]; }
           if (at === -1) { tKey[h] = key; used[nUsed++] = h; }
-          tCount[h]++;
+          if (++tCount[h] > most) most = tCount[h];
           voteSlot[nVotes++] = h;
         }
       }
-      // the best bins of this flip and tilt: the motion is the mean turn and translation of their votes
-      const best: number[] = [];
+      // candidate bins: the fullest, at most maxCandidates of them (all bins of one count or none),
+      // and at least minPeakVotes; each one's support is the votes of the 3 x 3 x 3 x 3 bins
+      // about it (across turn 0 the half turn changes by pi: the translation bins there are
+      // mirrored in x and y)
+      const byCount = new Int32Array(most + 2);
+      for (let k = 0; k < nUsed; k++) byCount[tCount[used[k]]]++;
+      let floor = most + 1;
+      for (let n = byCount[most]; floor > minVotes && n <= maxCandidates; n += byCount[floor - 1]) floor--;
+      const pool: number[] = [], rest: number[] = [];
       for (let k = 0; k < nUsed; k++) {
         const h = used[k];
-        if (tCount[h] < 3) continue;
-        if (best.length < peaks || tCount[h] > tCount[best[best.length - 1]]) {
-          best.push(h);
-          best.sort((x, y) => tCount[y] - tCount[x]);
-          if (best.length > peaks) best.length = peaks;
+        if (tCount[h] >= floor) pool.push(h);
+        else if (tCount[h] >= minVotes) rest.push(h);
+      }
+      const cand: Candidate[] = [];
+      const adjacent = (p: Candidate, q: Candidate): boolean => {
+        let dk = Math.abs(p.kt - q.kt);
+        const wrap = dk > nTh / 2;
+        if (wrap) dk = nTh - dk;
+        if (dk > 1) return false;
+        const qx = wrap ? 2 * half - q.ix : q.ix, qy = wrap ? 2 * half - q.iy : q.iy;
+        return Math.abs(p.ix - qx) <= 1 && Math.abs(p.iy - qy) <= 1 && Math.abs(p.iz - q.iz) <= 1;
+      };
+      const binOf = (h: number, support: number): Candidate => {
+        let key = tKey[h];
+        const iz = key % nb; key = (key - iz) / nb;
+        const iy = key % nb; key = (key - iy) / nb;
+        const ix = key % nb; const kt = (key - ix) / nb;
+        // ties of support and own votes: the bin nearer no turn and no shift first (both unchanged when A and B are exchanged)
+        const tie = Math.hypot(ix - half, iy - half, iz - half) + nb * Math.abs(kt + 0.5 - nTh / 2);
+        return { h, kt, ix, iy, iz, support, tie };
+      };
+      for (const h of pool) {
+        const bin = binOf(h, 0);
+        const { kt, ix, iy, iz } = bin;
+        let support = 0;
+        for (let dk = -1; dk <= 1; dk++) {
+          let k2 = kt + dk, mirror = false;
+          if (k2 < 0) { k2 += nTh; mirror = true; } else if (k2 >= nTh) { k2 -= nTh; mirror = true; }
+          const x0 = mirror ? 2 * half - ix : ix, y0 = mirror ? 2 * half - iy : iy;
+          for (let dx = -1; dx <= 1; dx++) {
+            const x = x0 + dx;
+            if (x < 0 || x >= nb) continue;
+            for (let dy = -1; dy <= 1; dy++) {
+              const y = y0 + dy;
+              if (y < 0 || y >= nb) continue;
+              for (let dz = -1; dz <= 1; dz++) {
+                const z = iz + dz;
+                if (z < 0 || z >= nb) continue;
+                const at = slotOf(((k2 * nb + x) * nb + y) * nb + z);
+                if (at >= 0) support += tCount[at];
+              }
+            }
+          }
+        }
+        bin.support = support;
+        cand.push(bin);
+      }
+      cand.sort((p, q) => q.support - p.support || tCount[q.h] - tCount[p.h] || p.tie - q.tie);
+      // peaks: the best candidates, none next to a better one
+      const best: Candidate[] = [];
+      for (const c of cand) {
+        if (best.length >= peaks) break;
+        if (!best.some((b) => adjacent(b, c))) best.push(c);
+      }
+      if (best.length < peaks && rest.length) {
+        // too few distinct peaks above the floor: the bins below it follow by their own votes (support not counted)
+        const more = rest.map((h) => binOf(h, tCount[h])).sort((p, q) => q.support - p.support || p.tie - q.tie);
+        for (const c of more) {
+          if (best.length >= peaks) break;
+          if (!best.some((b) => adjacent(b, c))) best.push(c);
         }
       }
       if (best.length) {
-        const sums = best.map(() => [0, 0, 0, 0, 0]);
-        const b0 = best[0], b1 = best.length > 1 ? best[1] : -1, b2 = best.length > 2 ? best[2] : -1;
+        // each peak's motion from its own votes: sums of the turn (cos, sin) and of the paired samples
+        const sums = best.map(() => new Float64Array(8));
+        best.forEach((b, k) => { peakOf[b.h] = k; });
         let v = 0;
         for (let i = 0; i < B.count; i++) {
           if (Number.isNaN(phiB[i])) continue;
@@ -215,18 +316,21 @@ export function searchAlongAxisDirections(
           const cBi = cB[i], sBi = sB[i];
           for (let k = 0; k < nA; k++) {
             if (Math.abs(w + nzA[k]) > 0.3) continue;
-            const h = voteSlot[v++];
-            const b = h === b0 ? 0 : h === b1 ? 1 : h === b2 ? 2 : best.length > 3 ? best.indexOf(h) : -1;
+            const b = peakOf[voteSlot[v++]];
             if (b < 0) continue;
-            const c = cA[k] * cBi + sA[k] * sBi, s = sA[k] * cBi - cA[k] * sBi;
             const S = sums[b];
-            S[0] += c; S[1] += s; S[2] += xA[k] - (c * bx - s * by); S[3] += yA[k] - (s * bx + c * by); S[4] += zA[k] - bz;
+            S[0] += cA[k] * cBi + sA[k] * sBi; S[1] += sA[k] * cBi - cA[k] * sBi;
+            S[2] += xA[k]; S[3] += yA[k]; S[4] += zA[k]; S[5] += bx; S[6] += by; S[7] += bz;
           }
         }
-        best.forEach((h, b) => {
-          const n = tCount[h], S = sums[b];
-          const transform = motion([xa, ya, za], [xb, yb, zb], f, Math.atan2(S[1], S[0]), [S[2] / n, S[3] / n, S[4] / n], ca, cb);
-          found.push({ transform, votes: n, flip, tiltDeg: [t1, t2] });
+        best.forEach((p, b) => {
+          const n = tCount[p.h], S = sums[b];
+          const turn = Math.atan2(S[1], S[0]), c = Math.cos(turn), s = Math.sin(turn);
+          const mbx = S[5] / n, mby = S[6] / n;
+          const t: V3 = [S[2] / n - (c * mbx - s * mby), S[3] / n - (s * mbx + c * mby), S[4] / n - S[7] / n];
+          const transform = motion([xa, ya, za], [xb, yb, zb], f, turn, t, ca, cb);
+          found.push({ transform, votes: p.support, flip, tiltDeg: [t1, t2] });
+          peakOf[p.h] = -1;
         });
       }
       for (let k = 0; k < nUsed; k++) {

@@ -7,13 +7,15 @@
  * axis then lays the break faces off each other and can find a wrong turn that still puts much
  * of the face in contact; the screen must not stop there: the search along the axis directions
  * (which trusts only the directions) runs as well, and a motion within 5 degrees and 3 mm of the
- * truth is screened first, whichever way across the axis the point is off.
+ * truth is screened first, whichever way across the axis the point is off, and whichever face
+ * the screen moves onto the other (screenWays: the axis-direction search is symmetric in the two
+ * faces, so moving A's face onto B's finds the same motion turned round).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { cutTube, type CutPiece } from '../../../support/bunny-cut';
 import { breakFaceFromLabels } from '../../../support/break-face-from-labels';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
-import { screenFacePair } from '../../../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_MATCH_PARAMETERS, screenFacePair } from '../../../../core/geometry/proposals/pairwise-match';
 import { applyToPoints, displacementAt, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom } from '../../../../core/geometry/registration/rigid-transform';
 
 const spacing = 1;
@@ -45,9 +47,11 @@ describe('screening shaft pieces whose fitted axis points disagree', () => {
     const a = (quarter * Math.PI) / 2;
     const off = u.map((x, k) => 6 * (Math.cos(a) * x + Math.sin(a) * v[k]));
     const moved: PreparedFragment = { ...B, axis: { ...B.axis!, point: [B.axis!.point[0] + off[0], B.axis!.point[1] + off[1], B.axis!.point[2] + off[2]] } };
-    const screened = screenFacePair(A, 0, moved, 0);
-    expect(screened.length).toBeGreaterThan(0);
-    expect(rotationErrorDegrees(screened[0].transform, truth)).toBeLessThan(5);
-    expect(displacementAt(screened[0].transform, truth, B.faces[0].centroid)).toBeLessThan(3 * spacing);
+    for (const screenWays of ['given', 'smaller', 'both'] as const) {
+      const screened = screenFacePair(A, 0, moved, 0, { ...DEFAULT_MATCH_PARAMETERS, screenWays });
+      expect(screened.length, screenWays).toBeGreaterThan(0);
+      expect(rotationErrorDegrees(screened[0].transform, truth), screenWays).toBeLessThan(5);
+      expect(displacementAt(screened[0].transform, truth, B.faces[0].centroid), screenWays).toBeLessThan(3 * spacing);
+    }
   });
 });

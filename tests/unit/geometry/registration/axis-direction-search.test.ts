@@ -78,4 +78,22 @@ describe('the search along the two axis directions', () => {
     // distinct bins give distinct motions
     expect(rotationErrorDegrees(six[4].transform, six[0].transform) + displacementAt(six[4].transform, six[0].transform, [0, 0, 0])).toBeGreaterThan(0.5);
   });
+
+  it('finds the same motions, turned round, when the two faces are exchanged (no tilt)', () => {
+    // the matcher's screen may move either face onto the other (screenWays): what it is given must not depend on which
+    const A = face(lower, identity), B = face(upper, M);
+    const dA: [number, number, number] = [0, 1, 0];
+    const dB = Array.from(applyToDirections(M, Float32Array.from([0, -1, 0]))) as [number, number, number];
+    const forward = searchAlongAxisDirections(dA, A.points, A.normals, dB, B.points, B.normals, { spacing });
+    const back = searchAlongAxisDirections(dB, B.points, B.normals, dA, A.points, A.normals, { spacing });
+    expect(forward.length).toBe(3);
+    expect(back.map((h) => h.votes)).toEqual(forward.map((h) => h.votes));
+    back.forEach((h, k) => {
+      const turned = invert(h.transform);
+      expect(rotationErrorDegrees(turned, forward[k].transform)).toBeLessThan(1e-3);
+      expect(displacementAt(turned, forward[k].transform, [0, 0, 0])).toBeLessThan(1e-3 * spacing);
+    });
+    expect(rotationErrorDegrees(forward[0].transform, truth)).toBeLessThan(6);
+    expect(displacementAt(forward[0].transform, truth, [0, 0, 0])).toBeLessThan(3 * spacing);
+  });
 });
