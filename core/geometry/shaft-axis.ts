@@ -121,11 +121,7 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
   }
   // Axis point: minimise sum w ((c - q) . m_perp)^2 in the plane across the axis.
   const [ax, ay, az] = dir;
-  let ux = 0, uy = 0, uz = 0;
-  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
-  const ul = Math.hypot(ux, uy, uz);
-  ux /= ul; uy /= ul; uz /= ul;
-  const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
+  const [[ux, uy, uz], [vx, vy, vz]] = acrossAxisBasis(dir);
   // Iteratively reweighted: normals of break faces along the shaft are tangential and miss
   // the axis, so lines far from the current centre count less in the next pass.
   let cu = 0, cv = 0, total = 0, supported = 0;
@@ -394,16 +390,6 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
   return out;
 }
 
-/** Two unit vectors u, v across the axis direction a (unit), with u, v, a right-handed: the section plane's frame (as fitShaftAxis builds it). */
-export function acrossAxisFrame(a: [number, number, number]): [[number, number, number], [number, number, number]] {
-  const [ax, ay, az] = a;
-  let ux: number, uy: number, uz: number;
-  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
-  const ul = Math.hypot(ux, uy, uz);
-  ux /= ul; uy /= ul; uz /= ul;
-  return [[ux, uy, uz], [ay * uz - az * uy, az * ux - ax * uz, ax * uy - ay * ux]];
-}
-
 /** Area-weighted median of (value, weight) pairs (sorts the array in place). */
 export function weightedMedian(values: Array<[number, number]>): number {
   values.sort((p, q) => p[0] - q[0]);
@@ -446,11 +432,7 @@ export function fitSectionSegment(
   const pointAllowed = options.pointGain !== undefined && axis.support >= (options.pointSupportMin ?? options.supportMin);
   if (!(segmentAllowed || pointAllowed) || options.reaches.length === 0 || options.directions < 1) return axis;
   const [ax, ay, az] = axis.direction;
-  let ux: number, uy: number, uz: number;
-  if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
-  const ul = Math.hypot(ux, uy, uz);
-  ux /= ul; uy /= ul; uz /= ul;
-  const vx = ay * uz - az * uy, vy = az * ux - ax * uz, vz = ax * uy - ay * ux;
+  const [[ux, uy, uz], [vx, vy, vz]] = acrossAxisBasis(axis.direction);
   // 2D rows: position and unit normal across the axis of the shooter (and of the exit for a wall pair).
   const px: number[] = [], py: number[] = [], mx: number[] = [], my: number[] = [], w: number[] = [];
   const ex: number[] = [], ey: number[] = [], enx: number[] = [], eny: number[] = [];
@@ -577,7 +559,7 @@ export function fitSectionSegment(
   return { ...axis, point, medial: length > 0 ? { direction: d3, length } : undefined };
 }
 
-/** Two unit vectors across a unit axis direction, u and v = a x u (the construction fitShaftAxis uses). */
+/** Two unit vectors across a unit axis direction a, u and v = a x u (u, v, a right-handed): the section plane's frame. */
 export function acrossAxisBasis(a: [number, number, number]): [[number, number, number], [number, number, number]] {
   const [ax, ay, az] = a;
   let ux: number, uy: number, uz: number;

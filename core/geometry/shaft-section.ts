@@ -1,5 +1,5 @@
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
-import { acrossAxisFrame, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
+import { acrossAxisBasis, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
 
 /**
  * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
@@ -162,7 +162,7 @@ export function fitEllipseSection(
 ): ShaftAxis {
   if (!(axis.support >= options.supportMin) || rays.triangles.length === 0) return axis;
   const [ax, ay, az] = axis.direction;
-  const [[ux, uy, uz], [vx, vy, vz]] = acrossAxisFrame(axis.direction);
+  const [[ux, uy, uz], [vx, vy, vz]] = acrossAxisBasis(axis.direction);
   const across = (f: number): boolean => Math.abs(normals[3 * f] * ax + normals[3 * f + 1] * ay + normals[3 * f + 2] * az) <= 0.342;
   const rows: Rows = { n: 0, f: [], g: [], px: new Float64Array(0), py: new Float64Array(0), nx: new Float64Array(0), ny: new Float64Array(0), qx: new Float64Array(0), qy: new Float64Array(0), mx: new Float64Array(0), my: new Float64Array(0), w: new Float64Array(0) };
   const stride = Math.max(1, Math.ceil(rays.triangles.length / options.maxRows));
