@@ -120,7 +120,8 @@ function planeModel(r: Rows, cu: number, cv: number, phi: number): PlaneModel {
   const c = Math.cos(phi), s = Math.sin(phi);
   let no = 0, dOut = 0, ni = 0, dIn = 0;
   for (let k = 0; k < r.n; k++) {
-    const [ox, oy, onx, ony, ix, iy, inx, iny] = split(r, k, cu, cv, c, s);
+    const p = split(r, k, cu, cv, c, s);
+    const ox = p[0], oy = p[1], onx = p[2], ony = p[3], ix = p[4], iy = p[5], inx = p[6], iny = p[7];
     no += r.w[k] * (onx * oy) * (ony * ox); dOut += r.w[k] * (onx * oy) ** 2;
     ni += r.w[k] * (inx * iy) * (iny * ix); dIn += r.w[k] * (inx * iy) ** 2;
   }
@@ -128,12 +129,21 @@ function planeModel(r: Rows, cu: number, cv: number, phi: number): PlaneModel {
   return { cu, cv, phi, rhoOut, rhoIn };
 }
 
-/** Pair k in the section frame about (cu, cv) (x along cos/sin): outer x, y, normal; then the cavity member's. */
-function split(r: Rows, k: number, cu: number, cv: number, c: number, s: number): number[] {
+/** split()'s answer, overwritten by every call (split runs for every wall pair of every model tried). */
+const splitOut = new Float64Array(8);
+
+/**
+ * Pair k in the section frame about (cu, cv) (x along cos/sin): outer x, y, normal; then the
+ * cavity member's. Returns a shared buffer: read it before the next call.
+ */
+function split(r: Rows, k: number, cu: number, cv: number, c: number, s: number): Float64Array {
   const ax = r.px[k] - cu, ay = r.py[k] - cv, bx = r.qx[k] - cu, by = r.qy[k] - cv;
-  const a = [ax * c + ay * s, -ax * s + ay * c, r.nx[k] * c + r.ny[k] * s, -r.nx[k] * s + r.ny[k] * c];
-  const b = [bx * c + by * s, -bx * s + by * c, r.mx[k] * c + r.my[k] * s, -r.mx[k] * s + r.my[k] * c];
-  return ax * ax + ay * ay >= bx * bx + by * by ? [...a, ...b] : [...b, ...a];
+  const o = ax * ax + ay * ay >= bx * bx + by * by ? 0 : 4, i = 4 - o;
+  splitOut[o] = ax * c + ay * s; splitOut[o + 1] = -ax * s + ay * c;
+  splitOut[o + 2] = r.nx[k] * c + r.ny[k] * s; splitOut[o + 3] = -r.nx[k] * s + r.ny[k] * c;
+  splitOut[i] = bx * c + by * s; splitOut[i + 1] = -bx * s + by * c;
+  splitOut[i + 2] = r.mx[k] * c + r.my[k] * s; splitOut[i + 3] = -r.mx[k] * s + r.my[k] * c;
+  return splitOut;
 }
 
 /**
@@ -216,9 +226,9 @@ export function fitEllipseSection(
     const c0 = starts[0];
     const outer: number[] = [], inner: number[] = [];
     for (let k = 0; k < n; k++) {
-      const [ox, oy, , , ix, iy] = split(rows, k, c0[0], c0[1], 1, 0);
-      outer.push(ox + c0[0], oy + c0[1], rows.w[k]);
-      inner.push(ix + c0[0], iy + c0[1], rows.w[k]);
+      const p = split(rows, k, c0[0], c0[1], 1, 0);
+      outer.push(p[0] + c0[0], p[1] + c0[1], rows.w[k]);
+      inner.push(p[4] + c0[0], p[5] + c0[1], rows.w[k]);
     }
     const fo = directEllipseFit(outer), fi = directEllipseFit(inner);
     for (const fit of [fo, fi]) if (fit && Math.hypot(fit.cu - c0[0], fit.cv - c0[1]) < 4 * width) starts.push([fit.cu, fit.cv]);
@@ -282,7 +292,8 @@ function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: numbe
   const c = Math.cos(ph), s = Math.sin(ph);
   const outA: Array<[number, number]> = [], inA: Array<[number, number]> = [];
   for (let k = 0; k < n; k++) {
-    const [ox, oy, , , ix, iy] = split(rows, k, cu, cv, c, s);
+    const p = split(rows, k, cu, cv, c, s);
+    const ox = p[0], oy = p[1], ix = p[4], iy = p[5];
     outA.push([Math.sqrt(ox * ox + rhoOut * oy * oy), rows.w[k]]);
     inA.push([Math.sqrt(ix * ix + rhoIn * iy * iy), rows.w[k]]);
   }
@@ -303,7 +314,8 @@ function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: numbe
 function orientationAt(rows: Rows, cu: number, cv: number): number | undefined {
   const S = [0, 0, 0, 0, 0, 0, 0, 0, 0];
   for (let k = 0; k < rows.n; k++) {
-    const [ox, oy, onx, ony] = split(rows, k, cu, cv, 1, 0);
+    const p = split(rows, k, cu, cv, 1, 0);
+    const ox = p[0], oy = p[1], onx = p[2], ony = p[3];
     const r = [-ony * ox, onx * ox - ony * oy, onx * oy];
     for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) S[3 * i + j] += rows.w[k] * r[i] * r[j];
   }
@@ -341,6 +353,19 @@ function subsampleSurf(surf: number[], most: number): number[] {
 
 interface Ellipses { cu: number; cv: number; phi: number; A: number; B: number; Ai: number; Bi: number; score: number }
 
+/** Largest 1 - cos between a surface normal and a model's normal for the surface to count as explained (about 20 degrees). */
+const EXPLAINED_MISS = 0.06;
+
+/**
+ * Explained share of a surface row of this area, d mm from a model curve whose normal it misses
+ * by `miss` (1 - cos): area (1 - (d/tol)²)² (1 - (miss/EXPLAINED_MISS)²)² (biweights), zero
+ * outside either window.
+ */
+function explainedArea(area: number, d: number, miss: number, tol: number): number {
+  if (Math.abs(d) >= tol || miss >= EXPLAINED_MISS) return 0;
+  return area * (1 - (d / tol) ** 2) ** 2 * (1 - (miss / EXPLAINED_MISS) ** 2) ** 2;
+}
+
 /**
  * Surface the two ellipses explain: area of the rows (x, y, normal, area; in the plane) lying
  * within `tol` mm of the outer ellipse with the outward normal, or of the cavity's with the
@@ -349,20 +374,18 @@ interface Ellipses { cu: number; cv: number; phi: number; A: number; B: number; 
  */
 function explained(surf: number[], e: Ellipses, tol: number): number {
   const c = Math.cos(e.phi), s = Math.sin(e.phi);
+  const curves: Array<[number, number, number]> = [[e.A, e.B, 1], [e.Ai, e.Bi, -1]];
   let sum = 0;
   for (let k = 0; k < surf.length; k += 5) {
     const dx = surf[k] - e.cu, dy = surf[k + 1] - e.cv;
     const x = dx * c + dy * s, y = -dx * s + dy * c;
     const nx = surf[k + 2] * c + surf[k + 3] * s, ny = -surf[k + 2] * s + surf[k + 3] * c;
-    for (const [a, b, sign] of [[e.A, e.B, 1], [e.Ai, e.Bi, -1]]) {
+    for (const [a, b, sign] of curves) {
       const gx = x / (a * a), gy = y / (b * b);
       const gl = Math.hypot(gx, gy);
       if (!(gl > 0)) continue;
       const d = (x * gx + y * gy - 1) / (2 * gl);
-      if (Math.abs(d) >= tol) continue;
-      const miss = 1 - sign * (nx * gx + ny * gy) / gl;
-      if (miss >= 0.06) continue;
-      sum += surf[k + 4] * (1 - (d / tol) ** 2) ** 2 * (1 - (miss / 0.06) ** 2) ** 2;
+      sum += explainedArea(surf[k + 4], d, 1 - sign * (nx * gx + ny * gy) / gl, tol);
     }
   }
   return sum;
@@ -388,13 +411,7 @@ function explainedRound(
   let sum = 0;
   for (const [r, sign] of [[weightedMedian(outR), 1], [weightedMedian(inR), -1]]) {
     if (!(r > 0)) continue;
-    for (let k = 0; k < rows.length; k += 3) {
-      const d = rows[k] - r;
-      if (Math.abs(d) >= tol) continue;
-      const miss = 1 - sign * rows[k + 1];
-      if (miss >= 0.06) continue;
-      sum += rows[k + 2] * (1 - (d / tol) ** 2) ** 2 * (1 - (miss / 0.06) ** 2) ** 2;
-    }
+    for (let k = 0; k < rows.length; k += 3) sum += explainedArea(rows[k + 2], rows[k] - r, 1 - sign * rows[k + 1], tol);
   }
   return sum;
 }
