@@ -82,10 +82,10 @@ export interface MatchParameters {
    * 245, best of pair 257 -> 259, precision above 0.8 144/157 -> 144/156, the same CPU. The
    * analytic off-axis tube of tests/unit/geometry/proposals/off-axis-screen.test.ts, lost by
    * 'smaller' until the axis-direction search was made symmetric in the two faces (session 12),
-   * now passes every way; with 'smaller' or 'both' two tests still fail: best-distinct.test.ts
-   * (matchFragments with keep 2 returns one motion where the whole list has two: the polish
-   * merges the best two) and polish-both-ways.test.ts (the sample's transverse join 1.3 degrees
-   * off instead of under 1); on the committed sample it is no better (DEVELOPERS.md).
+   * now passes every way; so does best-distinct.test.ts since matchFragments with `keep` draws
+   * more motions where the polish merges some (session 13); with 'smaller' or 'both'
+   * polish-both-ways.test.ts still fails (the sample's transverse join 1.33 / 1.67 degrees off
+   * instead of under 1); on the committed sample it is no better (DEVELOPERS.md).
    */
   screenWays?: 'given' | 'smaller' | 'both';
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
