@@ -15,7 +15,14 @@ import type { StudyFragment } from './candidate-study';
 
 export interface TruthJoin { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number }
 
-export interface RecallRow { k: number | 'all'; facePairs: number; perFace: number; reachable: number; found: number; recall: number; ms: number }
+export interface RecallRow { k: number | 'all'; facePairs: number; perFace: number; reachable: number; found: number; recall: number; ms: number;
+  /** The true joins counted in `found`, by trueJoinKey. */
+  reached: Set<string> }
+
+/** The key of one true join: its two fragments either way round and its break (two pieces may share two breaks). */
+export function trueJoinKey(j: { a: string; b: string; breakId: number }): string {
+  return `${j.a < j.b ? `${j.a}|${j.b}` : `${j.b}|${j.a}`}#${j.breakId}`;
+}
 
 export function readStudy(dir: string): StudyFragment[] {
   return readdirSync(join(dir, 'candidate-study'))
@@ -47,20 +54,21 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
   const faceIndex = new Map(faces.map((f, i) => [`${f.fragment}:${f.face}`, i]));
   const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && fragOf.has(j.a) && fragOf.has(j.b));
   const on = (fi: number, breakId: number): boolean => (breaksOf[fi][breakId] ?? 0) >= 0.3;
-  const count = (pairs: Set<string> | null): number => {
-    let hit = 0;
+  const count = (pairs: Set<string> | null): Set<string> => {
+    const hit = new Set<string>();
     for (const j of eligible) {
       const ia = fragOf.get(j.a)!, ib = fragOf.get(j.b)!;
       const sideA = faces.map((f, i) => i).filter((i) => faces[i].fragment === ia && on(i, j.breakId));
       const sideB = faces.map((f, i) => i).filter((i) => faces[i].fragment === ib && on(i, j.breakId));
-      if (sideA.some((x) => sideB.some((y) => !pairs || pairs.has(x < y ? `${x}:${y}` : `${y}:${x}`)))) hit++;
+      if (sideA.some((x) => sideB.some((y) => !pairs || pairs.has(x < y ? `${x}:${y}` : `${y}:${x}`)))) hit.add(trueJoinKey(j));
     }
     return hit;
   };
-  const reachable = count(null);
+  const reachableKeys = count(null);
+  const reachable = reachableKeys.size;
   let total = 0;
   for (let i = 0; i < faces.length; i++) for (let j = i + 1; j < faces.length; j++) if (faces[i].fragment !== faces[j].fragment) total++;
-  const rows: RecallRow[] = [{ k: 'all', facePairs: total, perFace: total / faces.length, reachable, found: reachable, recall: 1, ms: 0 }];
+  const rows: RecallRow[] = [{ k: 'all', facePairs: total, perFace: total / faces.length, reachable, found: reachable, recall: 1, ms: 0, reached: reachableKeys }];
   for (const k of ks) {
     const t0 = performance.now();
     const compatible = sizeClasses ? sizeClassCompatible(study.map((f) => sizeClasses.get(f.no) ?? null)) : undefined;
@@ -70,8 +78,9 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
       const x = faceIndex.get(`${p.a}:${p.faceA}`)!, y = faceIndex.get(`${p.b}:${p.faceB}`)!;
       return x < y ? `${x}:${y}` : `${y}:${x}`;
     }));
-    const found = count(set);
-    rows.push({ k, facePairs: set.size, perFace: set.size / faces.length, reachable, found, recall: reachable ? found / reachable : NaN, ms });
+    const reached = count(set);
+    const found = reached.size;
+    rows.push({ k, facePairs: set.size, perFace: set.size / faces.length, reachable, found, recall: reachable ? found / reachable : NaN, ms, reached });
   }
   return { fragments: study.length, faces: faces.length, eligible: eligible.length, rows };
 }
