@@ -24,6 +24,11 @@ import type { ShaftAxis } from './shaft-axis';
  *   enough (contextConcaveCurvatureMin beyond flat): the medullary surface curves inwards, a break face does not as a whole; unlike
  *   the facing term this needs no shaft centre, which a splinter from the narrow edge of a
  *   flattened shaft puts 10-14 mm off (contextConcaveWeight, contextConcaveHeadOnMin);
+ * - towards fracture, how convex it is when it faces into the shaft axis (beyond
+ *   contextInwardConvexCurvatureMin): the only original surface facing the axis is the
+ *   medullary one, which is concave about it, so a convex region facing the axis is a break face
+ *   the axis fit has taken for the wall (contextInwardConvexWeight; a splinter whose two long
+ *   break faces run parallel and outweigh its strips of bone surface);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -73,7 +78,9 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
   const facing = shaft && min < 1 ? Math.max(0, Math.abs(r.radial) - min) / (1 - min) : 0;
   const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
   const concave = headOn >= settings.contextConcaveHeadOnMin ? Math.max(0, -r.meanCurvature - settings.contextConcaveCurvatureMin) : 0;
+  const inwardConvex = shaft && r.radial <= -min ? Math.max(0, r.meanCurvature - settings.contextInwardConvexCurvatureMin) : 0;
   return settings.contextCurvednessWeight * r.curvedness
+    + settings.contextInwardConvexWeight * inwardConvex
     - settings.contextFacingWeight * facing
     - settings.contextConcaveWeight * concave
     + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare;

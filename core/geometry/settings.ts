@@ -211,6 +211,21 @@ export const analysisSettingsSchema = z.object({
    * -0.006/mm facing the axis squarely) is not concave beyond it. Dev figures are the same from 0 to 0.015.
    */
   contextConcaveCurvatureMin: z.number().min(0).default(0.01),
+  /**
+   * Weight (towards fracture) of how convex a region is that faces into the fitted shaft axis
+   * (mean radial component at most -corticalRadialMin, axis support at least 0.5): max(0, mean
+   * curvature - contextInwardConvexCurvatureMin) per 1/mm. The medullary surface, the only
+   * original surface that faces the axis, is concave about it (mean curvature -1/2r, do Carmo
+   * 1976, section 3-3); a region facing the axis that is convex instead is a break face the
+   * axis fit has taken for the wall (a splinter whose two break faces run parallel and
+   * outweigh its strips of bone surface). 500: a region 0.013/mm beyond the cut-off gains the
+   * 6.6 it needs over a squarely facing region's evidence (dev s107 QS-10237's inward break
+   * face: mean curvature 0.07/mm); 200 left that face as medullary (s107 94.27 against 94.80).
+   * 0 switches it off.
+   */
+  contextInwardConvexWeight: z.number().min(0).default(500),
+  /** ...only for the mean curvature beyond this (1/mm; 0.05 = a cylinder of 10 mm radius, convex). */
+  contextInwardConvexCurvatureMin: z.number().min(0).default(0.05),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**

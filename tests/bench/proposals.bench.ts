@@ -8,6 +8,8 @@
  *     top 3 proposals of either piece, per break pattern; precision of proposals scoring above
  *     0.8; rotation and translation errors of correct proposals; wall and CPU time with the
  *     machine's load average; peak memory; face pairs aligned.
+ *     2e: where the pruned run loses each true join (no face on the break, pruning, nothing
+ *     stored, a wrong motion, ranked outside both top 3s), counted at the first step that lost it.
  *  3. Candidate recall against face pairs (no alignment): how many true joins the pruning lets
  *     through to the expensive step for several k, against every pair (what --exhaustive aligns).
  *
@@ -22,6 +24,9 @@
  *   KNITBONE_BENCH_WORKERS         workers for propose (default 2)
  *   KNITBONE_BENCH_DIR             where generated assemblages are kept and reused (default: the system temp folder)
  *   KNITBONE_BENCH_POINT_SPACING   scanner point spacing of the generated scans (mm; default: the generator's)
+ *   KNITBONE_BENCH_SIZE_CLASS=0    leave the recorded size classes out (by default each run's catalogue gets the
+ *                                  generator's size_class column, `import specimens --update`, and the pruning
+ *                                  uses it as a propose run does; nothing else of specimens.csv is imported)
  *
  * Generated assemblages and imported catalogues (with the analysis import stores for matching)
  * are kept between runs, named by a hash of what they are made from (generator options and
@@ -35,7 +40,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { openCatalogue } from '../../core/catalogue/catalogue';
 import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
-import { candidateRecall, type TruthJoin as StudyJoin } from './candidate-recall';
+import { candidateRecall, sizeClassesFromCsv, trueJoinKey, type TruthJoin as StudyJoin } from './candidate-recall';
 import { studyFromCache, type StudyFragment } from './candidate-study';
 import { join } from 'node:path';
 import { generateAssemblage } from '../../demo-data/generate';
@@ -180,14 +185,27 @@ function scanCentroid(gen: string, no: string): [number, number, number] {
   return c;
 }
 
+/** Size classes recorded in the generated specimens.csv, unless KNITBONE_BENCH_SIZE_CLASS=0. */
+function sizeClassesOf(gen: string): Map<string, number | null> | undefined {
+  if (process.env.KNITBONE_BENCH_SIZE_CLASS === '0' || !existsSync(join(gen, 'specimens.csv'))) return undefined;
+  return sizeClassesFromCsv(readFileSync(join(gen, 'specimens.csv'), 'utf8'));
+}
+
 /** One propose run on a fresh copy of the imported catalogue; the figures of the issue's table. */
-function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: string, mode: 'pruned' | 'exhaustive'): { rows: Array<Record<string, string | number>>; found: Set<string>; cpuPerFacePair: number; catalogue: string } {
+function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: string, mode: 'pruned' | 'exhaustive'): { rows: Array<Record<string, string | number>>; found: Set<string>; fate: Map<string, JoinFate>; cpuPerFacePair: number; catalogue: string } {
   const cat = join(dir, `${mode}.sqlite`);
   for (const suffix of ['', '-wal', '-shm']) rmSync(cat + suffix, { force: true });
   rmSync(cacheDirFor(cat), { recursive: true, force: true });
   writeFileSync(cat, readFileSync(join(dir, 'base.sqlite')));
   // what importing the scans stored for matching goes with the catalogue, as it would for a user
   if (existsSync(cacheDirFor(join(dir, 'base.sqlite')))) cpSync(cacheDirFor(join(dir, 'base.sqlite')), cacheDirFor(cat), { recursive: true });
+  // the size classes an analyst records (size class may prune, issue 6 item 3); never provenience
+  const classes = sizeClassesOf(gen);
+  if (classes) {
+    const file = join(dir, `${mode}-size-classes.csv`);
+    writeFileSync(file, 'catalogue_no,size_class\n' + [...classes].map(([no, c]) => `${no},${c ?? ''}`).join('\n') + '\n');
+    must(cli(['import', 'specimens', cat, file, '--update']), 'import size classes');
+  }
   const workers = process.env.KNITBONE_BENCH_WORKERS ?? '2';
   progress(`seed ${seed}, ${n} fragments: knitbone propose --workers ${workers}${mode === 'exhaustive' ? ' --exhaustive' : ''}`);
   const r = must(cli(['propose', cat, '--workers', workers, ...(mode === 'exhaustive' ? ['--exhaustive'] : [])]), `propose ${mode}`);
@@ -202,6 +220,7 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
   const groups = new Map<string, TruthJoin[]>([['all', eligible], ['green, undamaged', eligible.filter((j) => j.breakAge === 'fresh' && !j.damaged)]]);
   for (const j of eligible) groups.set(j.pattern, [...(groups.get(j.pattern) ?? []), j]);
   const found = new Set<string>();
+  const fate = new Map<string, JoinFate>();
   const rows: Array<Record<string, string | number>> = [];
   const alignedFacePairs = Number(stats[6] ?? NaN);
   for (const [group, list] of groups) {
@@ -209,12 +228,14 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
     const rot: number[] = [], tr: number[] = [];
     for (const j of list) {
       const p = proposals.find((x) => key(x.a, x.b) === key(j.a, j.b));
-      if (!p) continue;
+      const all = group === 'all';
+      if (!p) { if (all) fate.set(trueJoinKey(j), 'no proposal'); continue; }
       const want = p.a === j.a ? j.transformBToA : invert(j.transformBToA);
       const re = rotationErrorDegrees(p.transform, want);
       const te = displacementAt(p.transform, want, scanCentroid(gen, p.b));
-      if (re >= 5 || te >= 5) continue;
-      if (!top3(j.a).includes(p) && !top3(j.b).includes(p)) continue;
+      if (re >= 5 || te >= 5) { if (all) fate.set(trueJoinKey(j), 'wrong motion'); continue; }
+      if (!top3(j.a).includes(p) && !top3(j.b).includes(p)) { if (all) fate.set(trueJoinKey(j), 'outside both top 3'); continue; }
+      if (all) fate.set(trueJoinKey(j), 'top 3');
       hit++;
       rot.push(re);
       tr.push(te);
@@ -248,17 +269,24 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
   // CPU per aligned face pair: the CPU of the aligning stage is not separated, so take the
   // run's CPU share of wall time for that stage (an estimate; exact when reading took no time)
   const cpuPerFacePair = alignedFacePairs > 0 ? (r.cpu * (alignSeconds / Math.max(r.wall, 1e-9))) / alignedFacePairs : NaN;
-  return { rows, found, cpuPerFacePair, catalogue: cat };
+  return { rows, found, fate, cpuPerFacePair, catalogue: cat };
 }
 
-/** Section 3 from the analysis the pruned run stored: candidate recall for several k, no alignment. */
-function candidateSection(dir: string, truth: Truth, catalogue: string, ks: number[]): Array<Record<string, string | number>> {
+/** What became of a true join in a propose run (group 'all'). */
+type JoinFate = 'top 3' | 'outside both top 3' | 'wrong motion' | 'no proposal';
+
+/**
+ * Section 3 from the analysis the pruned run stored: candidate recall for several k, no
+ * alignment; also which true joins could be reached at all and which the run's own k reached.
+ */
+function candidateSection(dir: string, truth: Truth, catalogue: string, ks: number[]): { rows: Array<Record<string, string | number>>; reachable?: Set<string>; reachedAtRunK?: Set<string>; runK?: number } {
   const cat = openCatalogue(catalogue);
-  const spacing = (cat.joins.list({ status: 'proposed' })[0]?.parameters as { sampling?: { spacing: number } } | undefined)?.sampling?.spacing;
+  const parameters = cat.joins.list({ status: 'proposed' })[0]?.parameters as { sampling?: { spacing: number }; pruning?: { k: number } } | undefined;
+  const spacing = parameters?.sampling?.spacing, runK = parameters?.pruning?.k;
   const scans = cat.scans.list();
   const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
   cat.close();
-  if (!spacing) return [];
+  if (!spacing) return { rows: [] };
   const byNo = new Map(truth.fragments.map((x) => [x.catalogueNo, x]));
   const studied: StudyFragment[] = [];
   for (const s of scans) {
@@ -268,8 +296,8 @@ function candidateSection(dir: string, truth: Truth, catalogue: string, ks: numb
     if (!cached) continue;
     studied.push(studyFromCache(dir, fr, { input: cached.input, axis: cached.summary.axis }, spacing));
   }
-  const r = candidateRecall(studied, truth.joins as unknown as StudyJoin[], ks);
-  return r.rows.map((x) => ({
+  const r = candidateRecall(studied, truth.joins as unknown as StudyJoin[], runK !== undefined && !ks.includes(runK) ? [...ks, runK] : ks, sizeClassesOf(dir));
+  const rows = r.rows.filter((x) => x.k === 'all' || ks.includes(x.k)).map((x) => ({
     fragments: r.fragments,
     faces: r.faces,
     k: x.k === 'all' ? 'every pair' : x.k,
@@ -281,6 +309,33 @@ function candidateSection(dir: string, truth: Truth, catalogue: string, ks: numb
     'fewer pairs than all': x.k === 'all' ? '1x' : `${f(r.rows[0].facePairs / Math.max(1, x.facePairs), 1)}x`,
     'index ms': f(x.ms, 0),
   }));
+  return { rows, reachable: r.rows[0]?.reached, reachedAtRunK: r.rows.find((x) => x.k === runK)?.reached, runK };
+}
+
+/**
+ * Section 2e: each true join (group 'all') counted once, at the first step that lost it. A join
+ * in a top 3 counts as found even when no single face holds 30% of its break on both sides.
+ */
+function lossRow(n: number, seed: string, fate: Map<string, JoinFate>, c: ReturnType<typeof candidateSection>): Record<string, string | number> {
+  const tally = { found: 0, unreachable: 0, pruned: 0, none: 0, wrong: 0, outside: 0 };
+  for (const [k2, x] of fate) {
+    if (x === 'top 3') tally.found++;
+    else if (c.reachable && !c.reachable.has(k2)) tally.unreachable++;
+    else if (c.reachedAtRunK && !c.reachedAtRunK.has(k2)) tally.pruned++;
+    else if (x === 'no proposal') tally.none++;
+    else if (x === 'wrong motion') tally.wrong++;
+    else tally.outside++;
+  }
+  const share = (v: number): string => `${v} (${f(fate.size ? v / fate.size : NaN)})`;
+  return {
+    fragments: n, seed, 'true joins': fate.size,
+    'in a top 3': share(tally.found),
+    'no face >= 30% on the break (segmentation)': c.reachable ? share(tally.unreachable) : '-',
+    [`not a candidate at k ${c.runK ?? '?'} (pruning)`]: c.reachedAtRunK ? share(tally.pruned) : '-',
+    'candidate, nothing stored': share(tally.none),
+    'stored with a wrong motion': share(tally.wrong),
+    'correct, outside both top 3': share(tally.outside),
+  };
 }
 
 export default async function run(): Promise<void> {
@@ -294,15 +349,17 @@ export default async function run(): Promise<void> {
   const rows: Array<Record<string, string | number>> = [];
   const side: Array<Record<string, string | number>> = [];
   const recall: Array<Record<string, string | number>> = [];
+  const losses: Array<Record<string, string | number>> = [];
   for (const seed of seeds) for (const n of sizes) {
     const { dir, gen, truth, importRow } = await assemblage(n, seed);
     imports.push(importRow);
     const pruned = proposeRun(dir, gen, truth, n, seed, 'pruned');
     if (align) rows.push(...pruned.rows);
     const exhaustiveFacePairs = (() => {
-      const r = candidateSection(gen, truth, pruned.catalogue, ks);
-      recall.push(...r.map((x) => ({ seed, ...x })));
-      return Number(r[0]?.['face pairs'] ?? NaN);
+      const c = candidateSection(gen, truth, pruned.catalogue, ks);
+      recall.push(...c.rows.map((x) => ({ seed, ...x })));
+      if (align) losses.push(lossRow(n, seed, pruned.fate, c));
+      return Number(c.rows[0]?.['face pairs'] ?? NaN);
     })();
     const prunedAll = pruned.rows[0];
     if (n <= exhaustiveMax && align) {
@@ -359,6 +416,10 @@ export default async function run(): Promise<void> {
       'recall top3': r['recall top3'],
       'precision >0.8': r['precision >0.8'],
     })));
+  }
+  if (align) {
+    process.stdout.write('\n2e. Where the pruned runs lose true joins (all break types; each join counted once, at the first step that lost it)\n');
+    table(losses);
   }
   process.stdout.write('\n3. Candidate recall (true joins with a candidate face pair on both sides of the break, each face >= 30% on it) against face pairs, no alignment\n');
   table(recall);

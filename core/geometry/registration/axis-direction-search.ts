@@ -12,7 +12,8 @@
  * transform, Ballard 1981).
  */
 import type { RigidTransform } from './rigid-transform';
-import { shaftBasis, turnBetweenFrames } from './shaft-axis-search';
+import { acrossAxisBasis } from '../shaft-axis';
+import { turnBetweenFrames } from './shaft-axis-search';
 
 export interface AxisDirectionSearchOptions {
   spacing: number;
@@ -144,8 +145,8 @@ export function searchAlongAxisDirections(
   const bs = (options.shiftBinSpacings ?? 1.5) * options.spacing;
   const minVotes = options.minPeakVotes ?? 3;
   const maxCandidates = options.maxCandidates ?? 32;
-  const [xa0, ya0] = shaftBasis(directionA);
-  const [xb, yb] = shaftBasis(directionB);
+  const [xa0, ya0] = acrossAxisBasis(directionA);
+  const [xb, yb] = acrossAxisBasis(directionB);
   const zb = directionB;
   // bound on any translation's coordinates: |a| + |b| (coordinates taken about the faces' centres below)
   const ca = [0, 0, 0], cb = [0, 0, 0];

@@ -11,6 +11,7 @@
  * piece's own axis, fitted from its own surface.
  */
 import type { RigidTransform } from './rigid-transform';
+import { acrossAxisBasis } from '../shaft-axis';
 
 export interface ShaftFrame {
   direction: [number, number, number];
@@ -55,22 +56,12 @@ interface Cyl {
   n: number;
 }
 
-/** Unit x, y completing z to a right-handed frame. */
-export function shaftBasis(z: [number, number, number]): [[number, number, number], [number, number, number]] {
-  const [ax, ay, az] = z;
-  let x: [number, number, number] = Math.abs(ax) < 0.9 ? [0, az, -ay] : [-az, 0, ax];
-  const l = Math.hypot(...x);
-  x = [x[0] / l, x[1] / l, x[2] / l];
-  const y: [number, number, number] = [ay * x[2] - az * x[1], az * x[0] - ax * x[2], ax * x[1] - ay * x[0]];
-  return [x, y];
-}
-
 function cylinder(points: ArrayLike<number>, normals: ArrayLike<number>, frame: ShaftFrame, max: number): Cyl {
   const total = points.length / 3;
   const step = Math.max(1, total / max);
   const n = Math.min(total, Math.ceil(total / step));
   const out: Cyl = { index: new Uint32Array(n), r: new Float64Array(n), th: new Float64Array(n), z: new Float64Array(n), nr: new Float64Array(n), nt: new Float64Array(n), nz: new Float64Array(n), n };
-  const [x, y] = shaftBasis(frame.direction);
+  const [x, y] = acrossAxisBasis(frame.direction);
   const z = frame.direction, o = frame.point;
   for (let k = 0; k < n; k++) {
     const i = Math.min(total - 1, Math.floor(k * step));
@@ -221,8 +212,8 @@ export function turnBetweenFrames(FA: ReadonlyArray<ArrayLike<number>>, FB: Read
 
 /** p_A = R_A (Rz(turn) F R_B^T (p - o_B) + (0, 0, shift)) + o_A, with F a half turn about x when flipped. */
 export function axisMotion(axisA: ShaftFrame, axisB: ShaftFrame, flip: boolean, turn: number, shift: number): RigidTransform {
-  const [xa, ya] = shaftBasis(axisA.direction), za = axisA.direction;
-  const [xb, yb] = shaftBasis(axisB.direction), zb = axisB.direction;
+  const [xa, ya] = acrossAxisBasis(axisA.direction), za = axisA.direction;
+  const [xb, yb] = acrossAxisBasis(axisB.direction), zb = axisB.direction;
   const RA = [xa, ya, za]; // columns of R_A
   const R = turnBetweenFrames(RA, [xb, yb, zb], flip ? -1 : 1, turn);
   const ob = axisB.point, oa = axisA.point;
