@@ -4,10 +4,13 @@
  * face pair (core/geometry/proposals/candidate-index.ts) whose faces both lie at least 30% on
  * that break? The faces and their traits come from candidate-study.ts (one file per fragment).
  * "reachable" counts the joins exhaustive pairing could reach at all (segmentation limits it).
+ * With the recorded size classes (the folder's specimens.csv) pieces of different classes are
+ * not paired, as in a propose run (KNITBONE_SIZE_CLASS=0 leaves them out).
+ *   npx tsx tests/bench/candidate-recall.ts <demo-dir> [ks]
  */
-import { readFileSync, readdirSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { candidateFacePairs, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { candidateFacePairs, sizeClassCompatible, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import type { StudyFragment } from './candidate-study';
 
 export interface TruthJoin { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number }
@@ -27,7 +30,18 @@ export function readStudy(dir: string): StudyFragment[] {
     .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment);
 }
 
-export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks: number[]): { fragments: number; faces: number; eligible: number; rows: RecallRow[] } {
+/**
+ * Recorded size classes by catalogue number from a specimen CSV (the generator's specimens.csv):
+ * what a propose run prunes by (candidate-index.ts `sizeClassCompatible`).
+ */
+export function sizeClassesFromCsv(csvText: string): Map<string, number | null> {
+  const rows = csvText.trim().split(/\r?\n/).map((l) => l.split(','));
+  const no = rows[0].indexOf('catalogue_no'), sc = rows[0].indexOf('size_class');
+  return new Map(rows.slice(1).map((r) => [r[no], sc >= 0 && r[sc] ? Number(r[sc]) : null]));
+}
+
+/** `sizeClasses` (by catalogue number): prune by them as a propose run does; absent: no size class recorded. */
+export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks: number[], sizeClasses?: Map<string, number | null>): { fragments: number; faces: number; eligible: number; rows: RecallRow[] } {
   const truth = { joins };
   const study = studied.filter((f) => f.faces.length > 0);
   const fragOf = new Map(study.map((f, i) => [f.no, i]));
@@ -57,7 +71,8 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
   const rows: RecallRow[] = [{ k: 'all', facePairs: total, perFace: total / faces.length, reachable, found: reachable, recall: 1, ms: 0, reached: reachableKeys }];
   for (const k of ks) {
     const t0 = performance.now();
-    const c = candidateFacePairs(faces, { k });
+    const compatible = sizeClasses ? sizeClassCompatible(study.map((f) => sizeClasses.get(f.no) ?? null)) : undefined;
+    const c = candidateFacePairs(faces, { k, compatible });
     const ms = performance.now() - t0;
     const set = new Set(c.map((p) => {
       const x = faceIndex.get(`${p.a}:${p.faceA}`)!, y = faceIndex.get(`${p.b}:${p.faceB}`)!;
@@ -73,7 +88,10 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
 if (process.argv[1]?.endsWith('candidate-recall.ts')) {
   const [dir, ks = '10,20,30,40,60'] = process.argv.slice(2);
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: TruthJoin[] };
-  const r = candidateRecall(readStudy(dir), truth.joins, ks.split(',').map(Number));
+  // KNITBONE_SIZE_CLASS=0: leave the recorded size classes (specimens.csv) out, as a catalogue without them
+  const classes = process.env.KNITBONE_SIZE_CLASS === '0' || !existsSync(join(dir, 'specimens.csv')) ? undefined : sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8'));
+  const r = candidateRecall(readStudy(dir), truth.joins, ks.split(',').map(Number), classes);
+  console.log(classes ? 'pruned by the recorded size classes (specimens.csv)' : 'size classes not used');
   console.log(`${r.fragments} fragments, ${r.faces} faces, ${r.eligible} true joins`);
   for (const x of r.rows) console.log(`k ${String(x.k).padStart(3)}  face pairs ${String(x.facePairs).padStart(7)} (${x.perFace.toFixed(1)}/face)  reached ${x.found}/${x.reachable} = ${(100 * x.recall).toFixed(1)}%  ${x.ms.toFixed(0)} ms`);
 }

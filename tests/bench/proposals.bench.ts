@@ -24,6 +24,9 @@
  *   KNITBONE_BENCH_WORKERS         workers for propose (default 2)
  *   KNITBONE_BENCH_DIR             where generated assemblages are kept and reused (default: the system temp folder)
  *   KNITBONE_BENCH_POINT_SPACING   scanner point spacing of the generated scans (mm; default: the generator's)
+ *   KNITBONE_BENCH_SIZE_CLASS=0    leave the recorded size classes out (by default each run's catalogue gets the
+ *                                  generator's size_class column, `import specimens --update`, and the pruning
+ *                                  uses it as a propose run does; nothing else of specimens.csv is imported)
  *
  * Generated assemblages and imported catalogues (with the analysis import stores for matching)
  * are kept between runs, named by a hash of what they are made from (generator options and
@@ -37,7 +40,7 @@ import { loadavg, tmpdir } from 'node:os';
 import { openCatalogue } from '../../core/catalogue/catalogue';
 import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
-import { candidateRecall, trueJoinKey, type TruthJoin as StudyJoin } from './candidate-recall';
+import { candidateRecall, sizeClassesFromCsv, trueJoinKey, type TruthJoin as StudyJoin } from './candidate-recall';
 import { studyFromCache, type StudyFragment } from './candidate-study';
 import { join } from 'node:path';
 import { generateAssemblage } from '../../demo-data/generate';
@@ -182,6 +185,12 @@ function scanCentroid(gen: string, no: string): [number, number, number] {
   return c;
 }
 
+/** Size classes recorded in the generated specimens.csv, unless KNITBONE_BENCH_SIZE_CLASS=0. */
+function sizeClassesOf(gen: string): Map<string, number | null> | undefined {
+  if (process.env.KNITBONE_BENCH_SIZE_CLASS === '0' || !existsSync(join(gen, 'specimens.csv'))) return undefined;
+  return sizeClassesFromCsv(readFileSync(join(gen, 'specimens.csv'), 'utf8'));
+}
+
 /** One propose run on a fresh copy of the imported catalogue; the figures of the issue's table. */
 function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: string, mode: 'pruned' | 'exhaustive'): { rows: Array<Record<string, string | number>>; found: Set<string>; fate: Map<string, JoinFate>; cpuPerFacePair: number; catalogue: string } {
   const cat = join(dir, `${mode}.sqlite`);
@@ -190,6 +199,13 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
   writeFileSync(cat, readFileSync(join(dir, 'base.sqlite')));
   // what importing the scans stored for matching goes with the catalogue, as it would for a user
   if (existsSync(cacheDirFor(join(dir, 'base.sqlite')))) cpSync(cacheDirFor(join(dir, 'base.sqlite')), cacheDirFor(cat), { recursive: true });
+  // the size classes an analyst records (size class may prune, issue 6 item 3); never provenience
+  const classes = sizeClassesOf(gen);
+  if (classes) {
+    const file = join(dir, `${mode}-size-classes.csv`);
+    writeFileSync(file, 'catalogue_no,size_class\n' + [...classes].map(([no, c]) => `${no},${c ?? ''}`).join('\n') + '\n');
+    must(cli(['import', 'specimens', cat, file, '--update']), 'import size classes');
+  }
   const workers = process.env.KNITBONE_BENCH_WORKERS ?? '2';
   progress(`seed ${seed}, ${n} fragments: knitbone propose --workers ${workers}${mode === 'exhaustive' ? ' --exhaustive' : ''}`);
   const r = must(cli(['propose', cat, '--workers', workers, ...(mode === 'exhaustive' ? ['--exhaustive'] : [])]), `propose ${mode}`);
@@ -280,7 +296,7 @@ function candidateSection(dir: string, truth: Truth, catalogue: string, ks: numb
     if (!cached) continue;
     studied.push(studyFromCache(dir, fr, { input: cached.input, axis: cached.summary.axis }, spacing));
   }
-  const r = candidateRecall(studied, truth.joins as unknown as StudyJoin[], runK !== undefined && !ks.includes(runK) ? [...ks, runK] : ks);
+  const r = candidateRecall(studied, truth.joins as unknown as StudyJoin[], runK !== undefined && !ks.includes(runK) ? [...ks, runK] : ks, sizeClassesOf(dir));
   const rows = r.rows.filter((x) => x.k === 'all' || ks.includes(x.k)).map((x) => ({
     fragments: r.fragments,
     faces: r.faces,

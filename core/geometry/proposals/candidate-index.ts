@@ -5,7 +5,8 @@
  * grows like k F in the number of faces F, not F squared. Finding the k best is a plain scan
  * over all faces (about a microsecond per pair: under a second for 1,000 fragments), exact for
  * the robust cost, which a k-d tree cannot index. Faces of one fragment never pair with each
- * other; a caller may also rule out fragment pairs (e.g. recorded size classes far apart).
+ * other; a caller may also rule out fragment pairs (`sizeClassCompatible`: recorded size
+ * classes apart).
  */
 import { describeFace, partnerCost } from './face-descriptor';
 import type { FaceTraits } from './face-traits';
@@ -37,6 +38,27 @@ export interface PruningOptions {
 
 /** Partners kept per face by default (chosen from the recall against pairs printed by the benchmark). */
 export const DEFAULT_K = 30;
+
+/**
+ * Recorded size classes (the live-weight classes of core/vocab/size-classes.ts) of two pieces
+ * that may still be one bone: at most this far apart. A join is two pieces of one bone, so of
+ * one animal and one size class (common practice: the size class is recorded for unidentified
+ * shaft fragments precisely to group them); 0 trusts the analyst's classes as recorded, 1
+ * allows for a piece put in the neighbouring class. Size class is a finding about the bone,
+ * not provenience (design.md section 7), so it may prune (issue 6, item 3).
+ */
+export const SIZE_CLASS_MAX_DIFFERENCE = 0;
+
+/**
+ * Fragment pairs whose recorded size classes are at most `maxDifference` apart; a piece with no
+ * size class recorded (null) may pair with any.
+ */
+export function sizeClassCompatible(sizeClasses: ReadonlyArray<number | null>, maxDifference = SIZE_CLASS_MAX_DIFFERENCE): (fragmentA: number, fragmentB: number) => boolean {
+  return (a, b) => {
+    const x = sizeClasses[a], y = sizeClasses[b];
+    return x === null || y === null || x === undefined || y === undefined || Math.abs(x - y) <= maxDifference;
+  };
+}
 
 /** Candidate face pairs: the union of each face's k most partner-like faces; or every pair when exhaustive. */
 export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions): FacePairCandidate[] {

@@ -9,14 +9,15 @@
  *
  * Pairs already done with the same parameters are skipped, so a later run does only what is
  * new and a cancelled run resumes. Decided joins (accepted, rejected) are never touched and
- * their pairs are not proposed again. Provenience is not used (design.md section 7).
+ * their pairs are not proposed again. Provenience is not used (design.md section 7); recorded
+ * size classes may prune the candidates (candidate-index.ts `SIZE_CLASS_MAX_DIFFERENCE`).
  */
 import { createHash } from 'node:crypto';
 import { availableParallelism } from 'node:os';
 import { withCatalogue, type Catalogue } from '../../catalogue/catalogue';
 import { ProposalPairRepository } from '../../catalogue/proposal-pairs';
 import type { Join } from '../../catalogue/records';
-import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../geometry/proposals/candidate-index';
+import { byFragmentPair, candidateFacePairs, DEFAULT_K, SIZE_CLASS_MAX_DIFFERENCE, sizeClassCompatible, type IndexedFace } from '../../geometry/proposals/candidate-index';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../geometry/proposals/face-descriptor';
 import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
 import { scoreModelKey } from '../../geometry/registration/score-model';
@@ -37,6 +38,11 @@ export interface ProposeOptions {
   exhaustive?: boolean;
   /** Partners asked of the index per face. */
   k?: number;
+  /**
+   * Pieces whose recorded size classes are further apart than this are not paired by the index
+   * (default SIZE_CLASS_MAX_DIFFERENCE; null: size classes are not used). Not used when exhaustive.
+   */
+  sizeClassMaxDifference?: number | null;
   /** Best motions scoring below this are not stored as proposals. */
   minScore?: number;
   ransacIterations?: number;
@@ -120,9 +126,10 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sampling = runSampling(usable.map((s) => analysedOk.get(s.scanId)!));
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;
+      const sizeClassMaxDifference = options.sizeClassMaxDifference === undefined ? SIZE_CLASS_MAX_DIFFERENCE : options.sizeClassMaxDifference;
       // prepared: how faces become samples, patches and corner pieces (fragment-cache.ts); a change
       // there changes every pair's outcome, so pairs done before it are aligned again
-      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
       // A pair is done for the parameters that decide its outcome; which pairs are aligned
       // (pruning, exhaustive) does not change a pair's result, so widening the search later
       // aligns only the pairs not aligned before.
@@ -141,7 +148,11 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       });
       endStage('describing');
       if (d.cancelled) return outcome({ cancelled: true }, parameters, parametersHash);
-      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive });
+      // size class may prune (issue 6, item 3): the recorded class of each piece, by fragment index
+      const sizeClassOf = new Map(cat.specimens.list().map((s) => [s.id, s.sizeClass]));
+      const sizeClasses = usable.map((s) => sizeClassOf.get(specimenOfScan.get(s.scanId)!) ?? null);
+      const compatible = sizeClassMaxDifference === null ? undefined : sizeClassCompatible(sizeClasses, sizeClassMaxDifference);
+      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive, ...(options.exhaustive ? {} : { compatible }) });
       const grouped = byFragmentPair(candidates);
 
       // 3. what is left to do

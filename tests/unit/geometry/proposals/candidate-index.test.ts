@@ -5,7 +5,7 @@
  * when its fragment is moved.
  */
 import { describe, expect, it } from 'vitest';
-import { candidateFacePairs, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
+import { candidateFacePairs, SIZE_CLASS_MAX_DIFFERENCE, sizeClassCompatible, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
 import { faceTraits, type FaceTraits } from '../../../../core/geometry/proposals/face-traits';
 import { computeFpfh } from '../../../../core/geometry/registration/fpfh';
 import { mulberry32 } from '../../../../core/geometry/seeded-random';
@@ -96,5 +96,36 @@ describe('candidate face pairs', () => {
     expect(pairs.every((p) => p.a < p.b)).toBe(true);
     expect(pairs.some((p) => p.a === 2 && p.b === 3)).toBe(false);
     expect(pairs.length).toBeLessThanOrEqual(3 * two.length);
+  });
+
+  // Pieces of one bone are of one animal, so of one size class (live-weight classes,
+  // core/vocab/size-classes.ts; common practice: size class is recorded for unidentified shaft
+  // pieces to group them), and the issue lets size class prune (issue 6, item 3).
+  it('leave out look-alikes of another recorded size class, so the true partner is kept at k = 1', () => {
+    // fragment 2 is the exact mirror image of fragment 0's face (same samples, normals flipped):
+    // by the traits it is a better partner than the true one, whose samples differ
+    const trio: IndexedFace[] = [
+      { fragment: 0, face: 0, traits: traitsOf(12, 8, 10) },
+      { fragment: 1, face: 0, traits: traitsOf(12, 8, 20, true) },
+      { fragment: 2, face: 0, traits: traitsOf(12, 8, 10, true) },
+    ];
+    const best = (pairs: ReturnType<typeof candidateFacePairs>) => pairs.filter((p) => p.a === 0).map((p) => p.b);
+    // without size classes the look-alike wins
+    expect(best(candidateFacePairs(trio, { k: 1 }))).toContain(2);
+    const classes = [3, 3, 4];
+    const pairs = candidateFacePairs(trio, { k: 1, compatible: sizeClassCompatible(classes) });
+    expect(best(pairs)).toEqual([1]);
+    expect(pairs.some((p) => p.a === 2 || p.b === 2)).toBe(false);
+  });
+
+  it('pair a piece with no recorded size class with any piece, and allow classes as far apart as the setting', () => {
+    expect(SIZE_CLASS_MAX_DIFFERENCE).toBe(0);
+    const same = sizeClassCompatible([3, 4, null, 5]);
+    expect(same(0, 1)).toBe(false);
+    expect(same(0, 2)).toBe(true);
+    expect(same(2, 3)).toBe(true);
+    const near = sizeClassCompatible([3, 4, null, 5], 1);
+    expect(near(0, 1)).toBe(true);
+    expect(near(0, 3)).toBe(false);
   });
 });
