@@ -15,7 +15,6 @@ import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { refineFractureBorder } from './border-refine';
-import { homothetyAxis } from './section-homothety';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
 import { fitEllipseSection } from './shaft-section';
 import { castWallRays } from './wall-rays';
@@ -122,8 +121,7 @@ export function analyseFragment(
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
     })
     : settled;
-  const centred = sectioned.medial ? sectioned : homothetyAxis(sectioned, centroids, filtered, areas, rays, settings);
-  const roundAxis = centred.medial ? centred : fitMedialSegment(centred, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
+  const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
     supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,

@@ -89,18 +89,6 @@ export const analysisSettingsSchema = z.object({
    */
   sectionPointLineShareMin: z.number().min(0).default(0.8),
   /**
-   * Homothety centre (section-homothety.ts): where no medial segment is kept, the centre of the
-   * homothety mapping the outer wall onto the cavity wall replaces the point centre when the
-   * share of head-on wall-ray pairs facing squarely and oppositely about it is at least this
-   * much larger (absolute share, 0-1) than about the point centre; 1 or more: never (default,
-   * off: dev per-triangle gains with 0.03 but the angle class loses 1-3 faces on three seeds,
-   * DEVELOPERS.md).
-   */
-  sectionHomothetyGain: z.number().min(0).default(1),
-  /** ...bins of the normal direction across the axis (degrees), and the fewest bins holding both faces. */
-  sectionHomothetyBinDeg: z.number().positive().default(3),
-  sectionHomothetyMinBins: z.number().int().positive().default(12),
-  /**
    * Elliptic section of a flattened shaft (shaft-section.ts, fitEllipseSection): fitted on
    * fragments whose axis support is at least this (large: off)...
    */
