@@ -70,6 +70,11 @@ export interface ProposeOutcome {
     workerBusySeconds: number[];
     skippedDone: number;
     skippedDecided: number;
+    /**
+     * Size classes in force: pieces further apart than `gap` classes were not paired (null: size
+     * classes not used), and how many of the run's pieces have a class recorded (the others pair with all).
+     */
+    sizeClasses: { gap: number | null; piecesWithClass: number };
     stored: number;
     cancelled: boolean;
     problems: Array<{ scanId: number; file: string; message: string }>;
@@ -96,7 +101,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
     const outcome = (over: Partial<ProposeOutcome['run']>, parameters: Record<string, unknown> = {}, hash = ''): ProposeOutcome => ({
       proposals: cat.joins.list({ status: 'proposed' }),
       run: {
-        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, describedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, stored: 0,
+        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, describedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, sizeClasses: { gap: null, piecesWithClass: 0 }, stored: 0,
         cancelled: false, problems, parameters, parametersHash: hash, seconds: (Date.now() - started) / 1000, ...over,
       },
     });
@@ -151,8 +156,10 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       // size class may prune (issue 6, item 3): the recorded class of each piece, by fragment index
       const sizeClassOf = new Map(cat.specimens.list().map((s) => [s.id, s.sizeClass]));
       const sizeClasses = usable.map((s) => sizeClassOf.get(specimenOfScan.get(s.scanId)!) ?? null);
-      const compatible = sizeClassMaxDifference === null ? undefined : sizeClassCompatible(sizeClasses, sizeClassMaxDifference);
-      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive, ...(options.exhaustive ? {} : { compatible }) });
+      const sizeClassesUsed = sizeClassMaxDifference !== null && !options.exhaustive;
+      const compatible = sizeClassesUsed ? sizeClassCompatible(sizeClasses, sizeClassMaxDifference) : undefined;
+      const sizeClassReport = { gap: sizeClassesUsed ? sizeClassMaxDifference : null, piecesWithClass: sizeClasses.filter((c) => c !== null).length };
+      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive, ...(compatible ? { compatible } : {}) });
       const grouped = byFragmentPair(candidates);
 
       // 3. what is left to do
@@ -207,7 +214,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       });
       endStage('aligning');
       return outcome(
-        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, describedScans: d.described, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, stored, cancelled: m.cancelled },
+        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, describedScans: d.described, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, sizeClasses: sizeClassReport, stored, cancelled: m.cancelled },
         parameters,
         parametersHash,
       );

@@ -6,14 +6,14 @@
  * pairs new again; a decided join is never touched.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { openCatalogue } from '../../../core/catalogue/catalogue';
 import { applyToPoints, compose, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom, type RigidTransform } from '../../../core/geometry/registration/rigid-transform';
 import { latestScanRefs, runSampling } from '../../../core/host/proposals/describe-faces';
-import { readSummary, readTraits } from '../../../core/jobs/fragment-cache';
+import { cacheDirFor, readSummary, readTraits } from '../../../core/jobs/fragment-cache';
 import { cutTube } from '../../support/bunny-cut';
 import { writePly } from '../../support/write-ply';
 
@@ -21,6 +21,8 @@ const bin = join(import.meta.dirname, '../../../bin/knitbone.js');
 const run = (...args: string[]) => spawnSync(process.execPath, [bin, ...args], { encoding: 'utf8' });
 const dir = mkdtempSync(join(tmpdir(), 'knitbone-propose-'));
 const catalogue = join(dir, 'site.sqlite');
+/** A copy of the catalogue as imported, before any run, for the size-class runs. */
+const sized = join(dir, 'sized.sqlite');
 /** Pose of each scan file: file frame = pose * construction frame. */
 const poses = new Map<string, RigidTransform>();
 
@@ -45,6 +47,8 @@ beforeAll(async () => {
   expect(run('init', catalogue).status).toBe(0);
   expect(run('import', 'specimens', catalogue, join(dir, 'specimens.csv')).status).toBe(0);
   expect(run('import', 'scans', catalogue, join(dir, 'scans')).status).toBe(0);
+  cpSync(catalogue, sized);
+  if (existsSync(cacheDirFor(catalogue))) cpSync(cacheDirFor(catalogue), cacheDirFor(sized), { recursive: true });
 }, 400_000);
 
 interface JoinOut { id: number; a: string; b: string; status: string; score: number; transform: number[] }
@@ -142,5 +146,30 @@ describe('knitbone propose', () => {
     const samePair = again.joins.list().filter((j) => j.id !== first.id && [j.specimenA, j.specimenB].sort().join() === [first.specimenA, first.specimenB].sort().join());
     again.close();
     expect(samePair).toEqual([]);
+  }, 400_000);
+
+  it('pieces recorded in size classes further apart than --size-class-gap are not paired; "any" ignores the classes', () => {
+    // a join is two pieces of one bone, so of one animal and one size class (common practice):
+    // the two halves of one tube recorded two classes apart are not paired by default
+    const csv = join(dir, 'size-classes.csv');
+    writeFileSync(csv, 'catalogue_no,size_class\nT-1a,2\nT-1b,4\n');
+    expect(run('import', 'specimens', sized, csv, '--update').status).toBe(0);
+    const pairOf = (out: string): JoinOut | undefined => (JSON.parse(out) as JoinOut[]).find((j) => [j.a, j.b].sort().join() === 'T-1a,T-1b');
+    const apart = run('propose', sized, '--workers', '1', '--json');
+    expect(apart.status).toBe(0);
+    expect(pairOf(apart.stdout)).toBeUndefined();
+    const text = run('propose', sized, '--workers', '1', '--size-class-gap', '1');
+    expect(text.stdout).toMatch(/size classes: 2 of 3 pieces have one recorded; pieces more than 1 class apart were not paired/);
+    expect(text.stdout).toMatch(/aligned 0,/);
+    // two classes apart is within a gap of 2, and "any" ignores the classes: the join is proposed
+    const near = run('propose', sized, '--workers', '1', '--size-class-gap', 'any', '--json');
+    expect(near.status).toBe(0);
+    const join12 = pairOf(near.stdout);
+    expect(join12).toBeDefined();
+    const truth = compose(poses.get(join12!.a)!, invert(poses.get(join12!.b)!));
+    expect(rotationErrorDegrees(join12!.transform, truth)).toBeLessThan(1);
+    const bad = run('propose', sized, '--size-class-gap', 'two');
+    expect(bad.status).not.toBe(0);
+    expect(bad.stderr).toMatch(/--size-class-gap must be a whole number of classes from 0 to 10, or "any".*got "two"/);
   }, 400_000);
 });
