@@ -7,37 +7,20 @@
  * and, over shortlisted motions, how many lie within given angles and distances of a better one
  * before the fine step and after it.
  */
-import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { bestDistinct, DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, screenFacePair, type CoarseMotion, type DeferredMatch } from '../../core/geometry/proposals/pairwise-match';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput, type PreparedFace, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFace, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { deferredScore, type ScoredSide } from '../../core/geometry/registration/score';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
-import { loadCached } from './pairwise.bench';
+import { candidateGroups, readStudyScans } from './study-assemblage';
 
 const dir = process.argv[2];
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
-const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }> };
-const inputs: Array<{ no: string; input: FragmentInput }> = [];
-for (const { catalogueNo: no } of truth.fragments) {
-  try {
-    inputs.push({ no, input: loadCached(join(dir, 'scans', `${no}.ply`)) });
-  } catch {
-    // refused scans take no part
-  }
-}
-const spacing = runSpacing(inputs.flatMap((x) => x.input.faces.map((f) => f.area ?? 0)));
+const { inputs, spacing } = readStudyScans(dir);
 const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
-const prepared = inputs.map((x) => prepareFragment(x.input, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
-const faces: IndexedFace[] = [];
-prepared.forEach((p, fi) => {
-  const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
-  p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
-});
-const grouped = [...byFragmentPair(candidateFacePairs(faces, { k: DEFAULT_K })).values()].slice(0, maxPairs);
+const prepared = inputs.map((x) => prepareFragment(x, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
+const grouped = candidateGroups(prepared).slice(0, maxPairs);
 const params = DEFAULT_MATCH_PARAMETERS;
 const side = (f: PreparedFragment, face: PreparedFace): ScoredSide => ({ surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis });
 const t = { screen: 0, shortlist: 0, fine: 0, deferred: 0, best: 0 };

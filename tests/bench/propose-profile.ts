@@ -9,11 +9,9 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { DEFAULT_MATCH_PARAMETERS, distinctBest, fineShortlist, refineFacePair, screenFacePair, type CoarseMotion, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
-import { loadCached } from './pairwise.bench';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { candidateGroups, readStudyScans } from './study-assemblage';
 import { displacementAt, invert as invertRigid, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
 
 const dir = process.argv[2];
@@ -21,27 +19,12 @@ const out = process.argv[3];
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
 interface TruthJoin { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }>; joins: TruthJoin[] };
-const inputs: Array<{ no: string; input: FragmentInput }> = [];
-for (const { catalogueNo: no } of truth.fragments) {
-  const file = join(dir, 'scans', `${no}.ply`);
-  try {
-    const input = loadCached(file);
-    inputs.push({ no, input });
-  } catch {
-    // refused scans take no part
-  }
-}
-const spacing = runSpacing(inputs.flatMap((x) => x.input.faces.map((f) => f.area ?? 0)));
+const { nos, inputs, spacing } = readStudyScans(dir);
 const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
 let t = cpu();
-const prepared = inputs.map((x) => prepareFragment(x.input, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
+const prepared = inputs.map((x) => prepareFragment(x, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
 const prepCpu = cpu() - t;
-const faces: IndexedFace[] = [];
-prepared.forEach((p, fi) => {
-  const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
-  p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
-});
-const grouped = [...byFragmentPair(candidateFacePairs(faces, { k: DEFAULT_K })).values()].slice(0, maxPairs);
+const grouped = candidateGroups(prepared).slice(0, maxPairs);
 const params = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as object) };
 let screenCpu = 0, fineCpu = 0, facePairs = 0, fineRuns = 0;
 const results: Record<string, Array<{ score: number; faceA: number; faceB: number; transform: number[] }>> = {};
@@ -57,12 +40,12 @@ for (const list of grouped) {
   for (const s of fineShortlist(a, b, screened, params)) { all.push(...refineFacePair(a, s.i, b, s.j, [s.motion], params)); fineRuns++; }
   const best = distinctBest(all, 2 * spacing).slice(0, 3);
   fineCpu += cpu() - t1;
-  results[`${inputs[list[0].a].no}|${inputs[list[0].b].no}`] = best.map((m) => ({ score: m.score, faceA: m.faceA, faceB: m.faceB, transform: [...m.transform] }));
+  results[`${nos[list[0].a]}|${nos[list[0].b]}`] = best.map((m) => ({ score: m.score, faceA: m.faceA, faceB: m.faceB, transform: [...m.transform] }));
 }
 // recall as the pairwise benchmark counts it: a true join (at least 30% of the break surviving)
 // whose fragment pair's best motion is within 5 degrees and 5 mm (at B's centroid) of the truth,
 // and that pair among the 3 best scored pairs of either piece
-const index = new Map(inputs.map((x, i) => [x.no, i]));
+const index = new Map(nos.map((no, i) => [no, i]));
 const bestOf = new Map<string, number>();
 for (const [k, list] of Object.entries(results)) if (list.length) bestOf.set(k, list[0].score);
 const top3 = (no: string): string[] => [...bestOf.entries()].filter(([k]) => k.split('|').includes(no)).sort((x, y) => y[1] - x[1]).slice(0, 3).map(([k]) => k);

@@ -13,28 +13,20 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { faceTraits } from '../../core/geometry/proposals/face-traits';
+import { DEFAULT_K } from '../../core/geometry/proposals/candidate-index';
 import { DEFAULT_MATCH_PARAMETERS as P, faceOverlapUnder, fineShortlist, screenFacePair, type CoarseMotion, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
-import { loadCached } from './pairwise.bench';
+import { candidateGroups, readStudyScans } from './study-assemblage';
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
 interface Hyp { fp: number; pre: number; post: number; kept: boolean; short: boolean; ok: boolean }
 const rows: Array<{ dir: string; a: string; b: string; trueJoin: boolean; hyps: Hyp[] }> = [];
 const cpu0 = process.cpuUsage();
 for (const dir of process.argv[2].split(',')) {
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }>; joins: Array<{ a: string; b: string; type: string; transformBToA: number[]; survivingFraction: number }> };
-  const nos: string[] = [], inputs: FragmentInput[] = [];
-  for (const { catalogueNo: no } of truth.fragments) { try { inputs.push(loadCached(join(dir, 'scans', `${no}.ply`))); nos.push(no); } catch { /* refused */ } }
-  const spacing = runSpacing(inputs.flatMap((x) => x.faces.map((f) => f.area ?? 0)));
+  const { nos, inputs, spacing } = readStudyScans(dir);
   const prepared = inputs.map((x) => prepareFragment(x, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
-  const faces: IndexedFace[] = [];
-  prepared.forEach((p, fi) => {
-    const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
-    p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
-  });
-  const grouped = [...byFragmentPair(candidateFacePairs(faces, { k: DEFAULT_K })).values()];
+  const grouped = candidateGroups(prepared);
   // true-join pairs first, then others, up to maxPairs
   const trueOf = (a: number, b: number): { T: RigidTransform; swap: boolean } | null => {
     for (const j of truth.joins) {

@@ -6,14 +6,10 @@
  * KNITBONE_PROFILE_PAIRS limits the fragment pairs per folder; KNITBONE_STAGE_ROUNDS=n screens
  * them n times and keeps each step's least time (the machine is shared: the least is the steadiest).
  */
-import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
-import { join } from 'node:path';
-import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { faceTraits } from '../../core/geometry/proposals/face-traits';
 import { DEFAULT_MATCH_PARAMETERS, screenFacePair } from '../../core/geometry/proposals/pairwise-match';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
-import { loadCached } from './pairwise.bench';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { candidateGroups, readStudyScans } from './study-assemblage';
 
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
 const rounds = Number(process.env.KNITBONE_STAGE_ROUNDS ?? 1);
@@ -22,25 +18,9 @@ let facePairs = 0;
 const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
 let screenCpu = 0;
 for (const dir of process.argv.slice(2)) {
-  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: Array<{ catalogueNo: string }> };
-  const inputs: FragmentInput[] = [];
-  for (const { catalogueNo: no } of truth.fragments) {
-    const file = join(dir, 'scans', `${no}.ply`);
-    try {
-      const input = loadCached(file);
-      inputs.push(input);
-    } catch {
-      // refused scans take no part
-    }
-  }
-  const spacing = runSpacing(inputs.flatMap((x) => x.faces.map((f) => f.area ?? 0)));
+  const { inputs, spacing } = readStudyScans(dir);
   const prepared = inputs.map((x) => prepareFragment(x, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
-  const faces: IndexedFace[] = [];
-  prepared.forEach((p, fi) => {
-    const axis = p.axis ? { direction: p.axis.direction, point: p.axis.point, support: 1 } : undefined;
-    p.faces.forEach((x, face) => faces.push({ fragment: fi, face, traits: faceTraits(x.points, x.normals, x.area, x.fpfh, axis) }));
-  });
-  const grouped = [...byFragmentPair(candidateFacePairs(faces, { k: DEFAULT_K })).values()].slice(0, maxPairs);
+  const grouped = candidateGroups(prepared).slice(0, maxPairs);
   const least: Record<string, number> = {};
   let leastCpu = Infinity;
   for (let round = 0; round < rounds; round++) {
