@@ -131,7 +131,8 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sampling = runSampling(usable.map((s) => analysedOk.get(s.scanId)!));
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;
-      const sizeClassMaxDifference = options.sizeClassMaxDifference === undefined ? SIZE_CLASS_MAX_DIFFERENCE : options.sizeClassMaxDifference;
+      // the size-class gap in force (null: not used; --exhaustive pairs every face)
+      const sizeClassMaxDifference = options.exhaustive ? null : options.sizeClassMaxDifference === undefined ? SIZE_CLASS_MAX_DIFFERENCE : options.sizeClassMaxDifference;
       // prepared: how faces become samples, patches and corner pieces (fragment-cache.ts); a change
       // there changes every pair's outcome, so pairs done before it are aligned again
       const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
@@ -156,9 +157,8 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       // size class may prune (issue 6, item 3): the recorded class of each piece, by fragment index
       const sizeClassOf = new Map(cat.specimens.list().map((s) => [s.id, s.sizeClass]));
       const sizeClasses = usable.map((s) => sizeClassOf.get(specimenOfScan.get(s.scanId)!) ?? null);
-      const sizeClassesUsed = sizeClassMaxDifference !== null && !options.exhaustive;
-      const compatible = sizeClassesUsed ? sizeClassCompatible(sizeClasses, sizeClassMaxDifference) : undefined;
-      const sizeClassReport = { gap: sizeClassesUsed ? sizeClassMaxDifference : null, piecesWithClass: sizeClasses.filter((c) => c !== null).length };
+      const compatible = sizeClassMaxDifference === null ? undefined : sizeClassCompatible(sizeClasses, sizeClassMaxDifference);
+      const sizeClassReport = { gap: sizeClassMaxDifference, piecesWithClass: sizeClasses.filter((c) => c !== null).length };
       const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive, ...(compatible ? { compatible } : {}) });
       const grouped = byFragmentPair(candidates);
 
