@@ -67,6 +67,8 @@ export function icpPointToPlane(
   const dist = new Float64Array(n);
   const indices = new Int32Array(n), scratch = new Int32Array(n);
   const cp = {} as ClosestPoint;
+  // each sample's closest target sample in the last round that found one (a sampled target's hint: same answers, fewer searches)
+  const hints = new Int32Array(n).fill(-1);
   let maxD = options.maxDistance;
   for (iter = 0; iter < maxIter; iter++) {
     let m = 0;
@@ -79,8 +81,9 @@ export function icpPointToPlane(
       const SX = T[0] * sx + T[1] * sy + T[2] * sz;
       const SY = T[4] * sx + T[5] * sy + T[6] * sz;
       const SZ = T[8] * sx + T[9] * sy + T[10] * sz;
-      const hit = target.closest(X, Y, Z, maxD, cp);
+      const hit = target.closest(X, Y, Z, maxD, cp, hints[i]);
       if (!hit) continue;
+      hints[i] = hit.sample ?? -1;
       let c = SX * hit.nx + SY * hit.ny + SZ * hit.nz;
       if (!opposed) c = -c;
       if (c > cosLimit) continue;

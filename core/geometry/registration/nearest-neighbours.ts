@@ -180,6 +180,74 @@ export class KdTree {
   private bestIndex = -1;
   private bestDist2 = Infinity;
 
+  /**
+   * nearestOne with a guess: `hint` is a point an earlier query near q returned (ICP asks for the
+   * same moved sample round after round, and its nearest point seldom goes far). Each point j
+   * keeps its NEAR_LIST nearest other points and D(j), the distance to the next one: every point
+   * outside that list lies at least D(j) - |q - j| from q (triangle inequality). So when the best
+   * of j and its list is nearer than that bound, and nearer than the second best of them, it is
+   * the only nearest point of q, the search would find it whatever its order (no tie), and it is
+   * the answer, with the squared distance worked out as the search works it out: the same index
+   * and dist2 as nearestOne, to the last bit. Both comparisons keep a relative margin of 1e-6, far
+   * beyond rounding. 3-d trees only; otherwise, or when the guess does not settle it, the search.
+   */
+  nearestOneNear(q: ArrayLike<number>, maxDist2: number, hint: number): { index: number; dist2: number } {
+    const P = this.points3;
+    if (hint >= 0 && P) {
+      if (!this.nearList) this.listNeighbours();
+      const x = q[0], y = q[1], z = q[2];
+      const L = this.nearList!, pos = this.positionOf![hint];
+      const o = (KdTree.NEAR_LIST + 1) * pos;
+      let best = -1, b2 = Infinity, s2 = Infinity;
+      for (let m = o; m <= o + KdTree.NEAR_LIST; m++) {
+        const k = L[m];
+        if (k < 0) break;
+        const dx = x - P[3 * k], dy = y - P[3 * k + 1], dz = z - P[3 * k + 2];
+        const d2 = dx * dx + dy * dy + dz * dz;
+        if (d2 < b2) { s2 = b2; b2 = d2; best = k; } else if (d2 < s2) s2 = d2;
+      }
+      // the list's own first entry is j itself: |q - j| is known from the loop's first distance
+      const k0 = L[o];
+      const ex = x - P[3 * k0], ey = y - P[3 * k0 + 1], ez = z - P[3 * k0 + 2];
+      const rest = this.beyond![pos] - Math.sqrt(ex * ex + ey * ey + ez * ez);
+      if (rest > 1e-3 * this.beyond![pos] && b2 * (1 + 1e-6) < rest * rest && b2 * (1 + 1e-6) < s2) {
+        // exactly at the radius the search may or may not find it (it prunes a side whose plane lies
+        // at the radius): that one case is left to the search
+        if (b2 < maxDist2) return { index: this.order[best], dist2: b2 };
+        if (b2 > maxDist2) return { index: -1, dist2: Infinity };
+      }
+    }
+    return this.nearestOne(q, maxDist2);
+  }
+
+  /** Points listed per point for nearestOneNear. */
+  private static readonly NEAR_LIST = 8;
+  /** Per tree position: itself and its NEAR_LIST nearest other points (tree positions, -1 past the end), and D: the distance to the next one (Infinity when none). */
+  private nearList: Int32Array | undefined;
+  private beyond: Float64Array | undefined;
+  private positionOf: Uint32Array | undefined;
+
+  private listNeighbours(): void {
+    const n = this.count, P = this.points3!, M = KdTree.NEAR_LIST + 1;
+    const pos = new Uint32Array(n);
+    for (let k = 0; k < n; k++) pos[this.order[k]] = k;
+    const list = new Int32Array(M * n).fill(-1), beyond = new Float64Array(n);
+    const q = [0, 0, 0];
+    for (let k = 0; k < n; k++) {
+      q[0] = P[3 * k]; q[1] = P[3 * k + 1]; q[2] = P[3 * k + 2];
+      const near = this.nearest(q, M + 1);
+      // itself first (a repeated point may come first instead: then D is 0 and nothing certifies)
+      list[M * k] = k;
+      let m = 1;
+      for (let t = 0; t < near.indices.length && m < M; t++) if (pos[near.indices[t]] !== k) list[M * k + m++] = pos[near.indices[t]];
+      beyond[k] = near.indices.length > M ? Math.sqrt(near.dist2[M]) : Infinity;
+      if (near.dist2.length > 1 && near.dist2[1] === 0) beyond[k] = 0;
+    }
+    this.positionOf = pos;
+    this.nearList = list;
+    this.beyond = beyond;
+  }
+
   private visitOne(q: ArrayLike<number>, lo: number, hi: number): void {
     if (hi - lo <= KdTree.LEAF) {
       for (let i = lo; i < hi; i++) {

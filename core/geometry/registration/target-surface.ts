@@ -17,11 +17,14 @@ export interface ClosestPoint {
   nz: number;
   distance: number;
   triangle: number;
+  /** The sample the point is, for sampled surfaces (-1 otherwise): a hint for the next query of the same moving point. */
+  sample?: number;
 }
 
 /** Anything that answers closest-point queries with a unit normal (a mesh BVH, or oriented samples). */
 export interface ClosestPointSource {
-  closest(x: number, y: number, z: number, maxDistance?: number, out?: ClosestPoint): ClosestPoint | null;
+  /** `hint`: the `sample` an earlier query of a nearby point returned (sampled surfaces use it; same answer). */
+  closest(x: number, y: number, z: number, maxDistance?: number, out?: ClosestPoint, hint?: number): ClosestPoint | null;
 }
 
 /**
@@ -33,9 +36,9 @@ export class SampledSurface implements ClosestPointSource {
   private readonly q = [0, 0, 0];
   constructor(private readonly points: Float32Array, private readonly normals: Float32Array, private readonly tree: KdTree) {}
 
-  closest(x: number, y: number, z: number, maxDistance = Infinity, out?: ClosestPoint): ClosestPoint | null {
+  closest(x: number, y: number, z: number, maxDistance = Infinity, out?: ClosestPoint, hint = -1): ClosestPoint | null {
     this.q[0] = x; this.q[1] = y; this.q[2] = z;
-    const hit = this.tree.nearestOne(this.q, maxDistance * maxDistance);
+    const hit = this.tree.nearestOneNear(this.q, maxDistance * maxDistance, hint);
     if (hit.index < 0) return null;
     const i = hit.index;
     const res = out ?? ({} as ClosestPoint);
@@ -43,6 +46,7 @@ export class SampledSurface implements ClosestPointSource {
     res.nx = this.normals[3 * i]; res.ny = this.normals[3 * i + 1]; res.nz = this.normals[3 * i + 2];
     res.distance = Math.sqrt(hit.dist2);
     res.triangle = -1;
+    res.sample = i;
     return res;
   }
 }

@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import fc from 'fast-check';
 import { createRequire } from 'node:module';
 import { KdTree } from '../../../../core/geometry/registration/nearest-neighbours';
@@ -107,5 +107,78 @@ describe('nearest one in 3 dimensions, queries outside the points\' box', () => 
       }),
       { numRuns: 400 },
     );
+  });
+});
+
+describe('nearest one from a guess (nearestOneNear)', () => {
+  // Reference: nearestOne itself, which the tests above check against brute force (the
+  // definition of the nearest point). The guess may only save the search, never change the answer.
+  const bunnyPoints = (): Float32Array => {
+    const bunny = createRequire(import.meta.url)('bunny') as { positions: number[][] };
+    return Float32Array.from(bunny.positions.flat().map((v) => v * 10));
+  };
+
+  it('gives nearestOne\'s index and squared distance to the last bit, whatever the guess, on the Stanford bunny (npm package `bunny`)', () => {
+    const P = bunnyPoints();
+    const tree = new KdTree(P, 3);
+    const n = P.length / 3;
+    const rnd = mulberry32(11);
+    let hint = -1;
+    for (let k = 0; k < 4000; k++) {
+      const v = Math.floor(rnd() * n);
+      // near a vertex (as an ICP sample lies near the other surface), sometimes far from it
+      const spread = k % 5 === 0 ? 8 : 0.6;
+      const q = [P[3 * v] + (rnd() - 0.5) * spread, P[3 * v + 1] + (rnd() - 0.5) * spread, P[3 * v + 2] + (rnd() - 0.5) * spread];
+      const max2 = k % 3 === 0 ? Infinity : k % 3 === 1 ? 0.25 : 1;
+      // guesses: the last answer, a random point, the query's own vertex
+      const guess = k % 4 === 0 ? Math.floor(rnd() * n) : k % 4 === 1 ? v : hint;
+      const want = tree.nearestOne(q, max2);
+      const got = tree.nearestOneNear(q, max2, guess);
+      expect(got.index).toBe(want.index);
+      expect(Object.is(got.dist2, want.dist2)).toBe(true);
+      if (got.index >= 0) hint = got.index;
+    }
+  });
+
+  it('keeps nearestOne\'s choice among points at the same distance (repeated points, a grid)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
+        let s = seed;
+        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
+        // integer coordinates: many points repeat and many queries are equally far from several
+        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+        const tree = new KdTree(data, 3);
+        for (let k = 0; k < 20; k++) {
+          const q = k % 2 ? [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2] : [r(), r(), r()];
+          const max2 = k % 3 === 0 ? Infinity : Math.round(r());
+          const want = tree.nearestOne(q, max2);
+          for (let guess = 0; guess < n; guess += Math.max(1, Math.floor(n / 7))) {
+            const got = tree.nearestOneNear(q, max2, guess);
+            expect(got.index).toBe(want.index);
+            expect(Object.is(got.dist2, want.dist2)).toBe(true);
+          }
+        }
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it('answers a query that stays near its last answer without searching the tree', () => {
+    const P = bunnyPoints();
+    const tree = new KdTree(P, 3);
+    const searched = vi.spyOn(tree, 'nearestOne');
+    const rnd = mulberry32(3);
+    let answered = 0;
+    const n = P.length / 3;
+    for (let k = 0; k < 500; k++) {
+      const v = Math.floor(rnd() * n);
+      // a point moved by a hundredth of a millimetre from a vertex: the vertex stays its only nearest point
+      const q = [P[3 * v] + 0.01, P[3 * v + 1] - 0.01, P[3 * v + 2] + 0.01];
+      const got = tree.nearestOneNear(q, Infinity, v);
+      if (got.index === v) answered++;
+    }
+    expect(answered).toBe(500);
+    // the bunny's scan has some vertices closer together than 0.02 mm (x10 scale): those are searched
+    expect(searched.mock.calls.length).toBeLessThan(50);
   });
 });
