@@ -428,12 +428,18 @@ function nearFace(points: Float32Array, normals: Float32Array, T: RigidTransform
   const n = points.length / 3;
   const keep: number[] = [];
   const q = [0, 0, 0];
+  // neighbouring samples mostly lie near one sample of A: the last one found answers first (same answers)
+  let near = -1;
   for (let i = 0; i < n; i++) {
     const x = points[3 * i], y = points[3 * i + 1], z = points[3 * i + 2];
     q[0] = T[0] * x + T[1] * y + T[2] * z + T[3];
     q[1] = T[4] * x + T[5] * y + T[6] * z + T[7];
     q[2] = T[8] * x + T[9] * y + T[10] * z + T[11];
-    if (treeA.nearestOne(q, within * within).index >= 0) keep.push(i);
+    const j = treeA.someWithin(q, within * within, near);
+    if (j >= 0) {
+      keep.push(i);
+      near = j;
+    }
   }
   if (keep.length < 12) return stridedSamples(points, normals, max);
   const step = Math.max(1, keep.length / max);

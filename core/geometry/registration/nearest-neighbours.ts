@@ -220,6 +220,29 @@ export class KdTree {
     return this.nearestOne(q, maxDist2);
   }
 
+  /**
+   * Whether some point lies within sqrt(maxDist2) of q, as `nearestOne(q, maxDist2).index >= 0`
+   * answers it: the index of such a point (not always the nearest) or -1. A `hint` strictly
+   * inside the radius answers at once (the search would then find at least that near a point);
+   * otherwise the search, whose answer becomes the next hint.
+   */
+  someWithin(q: ArrayLike<number>, maxDist2: number, hint: number): number {
+    const P = this.points3;
+    if (hint >= 0 && P) {
+      const k = (this.positionOf ?? this.positions())[hint];
+      const dx = q[0] - P[3 * k], dy = q[1] - P[3 * k + 1], dz = q[2] - P[3 * k + 2];
+      if (dx * dx + dy * dy + dz * dz < maxDist2) return hint;
+    }
+    return this.nearestOne(q, maxDist2).index;
+  }
+
+  private positions(): Uint32Array {
+    const pos = new Uint32Array(this.count);
+    for (let k = 0; k < this.count; k++) pos[this.order[k]] = k;
+    this.positionOf = pos;
+    return pos;
+  }
+
   /** Points listed per point for nearestOneNear. */
   private static readonly NEAR_LIST = 8;
   /** Per tree position: itself and its NEAR_LIST nearest other points (tree positions, -1 past the end), and D: the distance to the next one (Infinity when none). */
@@ -229,8 +252,7 @@ export class KdTree {
 
   private listNeighbours(): void {
     const n = this.count, P = this.points3!, M = KdTree.NEAR_LIST + 1;
-    const pos = new Uint32Array(n);
-    for (let k = 0; k < n; k++) pos[this.order[k]] = k;
+    const pos = this.positionOf ?? this.positions();
     const list = new Int32Array(M * n).fill(-1), beyond = new Float64Array(n);
     const q = [0, 0, 0];
     for (let k = 0; k < n; k++) {
@@ -243,7 +265,6 @@ export class KdTree {
       beyond[k] = near.indices.length > M ? Math.sqrt(near.dist2[M]) : Infinity;
       if (near.dist2.length > 1 && near.dist2[1] === 0) beyond[k] = 0;
     }
-    this.positionOf = pos;
     this.nearList = list;
     this.beyond = beyond;
   }

@@ -182,3 +182,29 @@ describe('nearest one from a guess (nearestOneNear)', () => {
     expect(searched.mock.calls.length).toBeLessThan(50);
   });
 });
+
+describe('some point within a radius from a guess (someWithin)', () => {
+  it('answers whether a point lies within the radius as nearestOne does, whatever the guess (ties and repeated points included)', () => {
+    // Reference: nearestOne (checked against brute force above): a point within the radius exists
+    // exactly when it finds one; the answer given must itself lie within the radius
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
+        let s = seed;
+        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
+        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+        const tree = new KdTree(data, 3);
+        for (let k = 0; k < 20; k++) {
+          const q = k % 2 ? [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2] : [r(), r(), r()];
+          const max2 = k % 3 === 0 ? Infinity : Math.round(r());
+          const want = tree.nearestOne(q, max2).index >= 0;
+          for (let guess = -1; guess < n; guess += Math.max(1, Math.floor(n / 7))) {
+            const got = tree.someWithin(q, max2, guess);
+            expect(got >= 0).toBe(want);
+            if (got >= 0) expect((q[0] - data[3 * got]) ** 2 + (q[1] - data[3 * got + 1]) ** 2 + (q[2] - data[3 * got + 2]) ** 2).toBeLessThanOrEqual(max2);
+          }
+        }
+      }),
+      { numRuns: 150 },
+    );
+  });
+});
