@@ -225,7 +225,7 @@ export const analysisSettingsSchema = z.object({
    * QS-10237, s21 QS-10879). Only such break regions count: where one face of a true wall is
    * misread as a break (a rough cavity patch), its partner must not follow it (counting every
    * break region cost dev s105 QS-10625 89.7 -> 65.9). 30 and 60 read the same on dev seeds 12,
-   * 15, 16, 21, 105, 107, 108; the bent plate of tests/unit/geometry/region-break-exit.test.ts
+   * 15, 16, 21, 105, 107, 108; the bent plate of tests/unit/geometry/region-inward-convex.test.ts
    * (first evidence -4.9: its face crosses the wall head-on everywhere) needs about 55. 0 switches it off.
    */
   contextBreakExitWeight: z.number().min(0).default(60),
