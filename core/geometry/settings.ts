@@ -108,6 +108,12 @@ export const analysisSettingsSchema = z.object({
   ellipseSectionToleranceMm: z.number().positive().default(1.5),
   /** ...centres also tried on a grid of (2 n + 1)² points an eighth of the fragment's width apart about the wall's middle (0: none). */
   ellipseSectionGridSteps: z.number().int().min(0).default(12),
+  /**
+   * ...and where the closed-form cavity ratio reads the section flattened the other way than the
+   * outer one, the cavity ratio is read again as the best of this many steps of a geometric grid
+   * of (a/b)² from 1/32 to 32 (shaft-section.ts, robustRatio; 0: closed form only).
+   */
+  ellipseSectionCavityRatioSteps: z.number().int().min(0).default(40),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
