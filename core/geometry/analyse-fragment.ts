@@ -1,5 +1,5 @@
 import { vertexRings } from './adjacency';
-import { originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
+import { headOnExits, originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
 import { splitFacesAtCorners } from './face-corner-split';
 import { fractureFaceGroups } from './face-split';
@@ -125,7 +125,7 @@ export function analyseFragment(
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
     supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
-    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps,
+    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps, cavityRatioSteps: settings.ellipseSectionCavityRatioSteps,
   });
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
@@ -145,7 +145,8 @@ export function analyseFragment(
   const wallDepth = typicalWallDepth(figures);
   // Each region judged by itself, then again with the border it has with original surface
   // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
-  const fracture = settleFractureRegions(figures, borders, axis, settings);
+  const fracture = settleFractureRegions(figures, borders, axis, settings,
+    settings.contextBreakExitWeight > 0 ? headOnExits(region, regionCount, rays, settings.headOnCosineMin) : []);
   const programClasses = absorbSmallFractureRegions(
     region,
     topo.neighbours,

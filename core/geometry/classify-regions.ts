@@ -50,6 +50,12 @@ export interface RegionFigures {
    * length shared with original-surface regions as a share of the whole border.
    */
   originalCreaseBorderShare: number;
+  /**
+   * Set by the neighbourhood pass (region-context.ts), from the classes at its end: the share of
+   * the region's inward rays that leave the bone head-on (headOnCosineMin) through regions taken
+   * for fracture (0 where none are counted).
+   */
+  breakExitShare: number;
 }
 
 export function regionFigures(
@@ -71,7 +77,7 @@ export function regionFigures(
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
-    originalCreaseBorderShare: NaN,
+    originalCreaseBorderShare: NaN, breakExitShare: 0,
   }));
   const roughSorted = Float32Array.from(triRoughness).sort();
   const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;
@@ -192,4 +198,20 @@ export function typicalWallDepth(figures: RegionFigures[]): number {
     if (acc >= half) return d;
   }
   return NaN;
+}
+
+/**
+ * Per region, how many of its inward rays (wall-rays.ts) leave the bone head-on (exit cosine at
+ * least `headOnCosineMin`) through each other region: region -> exit region -> rays.
+ */
+export function headOnExits(region: Uint32Array, regionCount: number, rays: WallRays, headOnCosineMin: number): Array<Map<number, number>> {
+  const out: Array<Map<number, number>> = Array.from({ length: regionCount }, () => new Map());
+  for (let k = 0; k < rays.triangles.length; k++) {
+    const g = rays.exitTriangle[k];
+    if (g < 0 || rays.exitCosine[k] < headOnCosineMin) continue;
+    const from = region[rays.triangles[k]], to = region[g];
+    if (from === to) continue;
+    out[from].set(to, (out[from].get(to) ?? 0) + 1);
+  }
+  return out;
 }

@@ -29,6 +29,10 @@ import type { ShaftAxis } from './shaft-axis';
  *   medullary one, which is concave about it, so a convex region facing the axis is a break face
  *   the axis fit has taken for the wall (contextInwardConvexWeight; a splinter whose two long
  *   break faces run parallel and outweigh its strips of bone surface);
+ * - towards fracture, for a region facing out from or into the axis, the share of its inward
+ *   rays that leave head-on through such convex break regions facing the axis beyond
+ *   contextBreakExitShareMin: a wall face's rays leave through the other, concave wall face,
+ *   so this one is the sliver's other break face (contextBreakExitWeight; needs `exits`);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -43,6 +47,8 @@ export function settleFractureRegions(
   borders: RegionBorder[],
   axis: ShaftAxis,
   settings: AnalysisSettings,
+  /** Per region, its head-on inward rays by the region they leave through (classify-regions.ts headOnExits). */
+  exits: ReadonlyArray<ReadonlyMap<number, number>> = [],
 ): boolean[] {
   const first = figures.map((r) => fractureEvidence(r, settings));
   const fracture = first.map((e) => e > settings.fractureEvidenceMin);
@@ -52,12 +58,16 @@ export function settleFractureRegions(
     let changed = 0;
     for (const id of order) {
       figures[id].originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture);
+      figures[id].breakExitShare = breakExitShare(figures, id, exits[id], fracture, shaft, settings);
       const f = first[id] + contextTerms(figures[id], shaft, settings) > settings.contextEvidenceMin;
       if (f !== fracture[id]) { fracture[id] = f; changed++; }
     }
     if (!changed) break;
   }
-  figures.forEach((r, id) => { r.originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture); });
+  figures.forEach((r, id) => {
+    r.originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture);
+    r.breakExitShare = breakExitShare(figures, id, exits[id], fracture, shaft, settings);
+  });
   return fracture;
 }
 
@@ -66,6 +76,26 @@ function originalCreaseBorderShare(border: RegionBorder, fracture: boolean[]): n
   let crease = 0;
   for (const n of border.neighbours) if (!fracture[n.region]) crease += n.crease;
   return border.length > 0 ? crease / border.length : 0;
+}
+
+/**
+ * Share of region `id`'s inward rays that leave head-on through regions taken for fracture
+ * because they face the shaft axis while convex (inwardConvexity > 0): the wall partner a
+ * bone-surface region would need is concave there, so the pair is two parallel breaks.
+ * Other break regions do not count: where one face of a true wall is misread as a break
+ * (a rough cavity patch), its partner must not follow it.
+ */
+function breakExitShare(figures: RegionFigures[], id: number, exits: ReadonlyMap<number, number> | undefined, fracture: boolean[], shaft: boolean, settings: AnalysisSettings): number {
+  const r = figures[id];
+  if (!exits || r.rays === 0) return 0;
+  let n = 0;
+  for (const [to, count] of exits) if (fracture[to] && inwardConvexity(figures[to], shaft, settings) > 0) n += count;
+  return n / r.rays;
+}
+
+/** How far a region facing the shaft axis is convex beyond contextInwardConvexCurvatureMin (0 when it does not face the axis or is not). */
+function inwardConvexity(r: RegionFigures, shaft: boolean, settings: AnalysisSettings): number {
+  return shaft && r.radial <= -settings.corticalRadialMin ? Math.max(0, r.meanCurvature - settings.contextInwardConvexCurvatureMin) : 0;
 }
 
 /**
@@ -78,10 +108,11 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
   const facing = shaft && min < 1 ? Math.max(0, Math.abs(r.radial) - min) / (1 - min) : 0;
   const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
   const concave = headOn >= settings.contextConcaveHeadOnMin ? Math.max(0, -r.meanCurvature - settings.contextConcaveCurvatureMin) : 0;
-  const inwardConvex = shaft && r.radial <= -min ? Math.max(0, r.meanCurvature - settings.contextInwardConvexCurvatureMin) : 0;
+  const inwardConvex = inwardConvexity(r, shaft, settings);
   return settings.contextCurvednessWeight * r.curvedness
     + settings.contextInwardConvexWeight * inwardConvex
     - settings.contextFacingWeight * facing
     - settings.contextConcaveWeight * concave
-    + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare;
+    + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare
+    + (shaft && Math.abs(r.radial) >= min ? settings.contextBreakExitWeight * Math.max(0, r.breakExitShare - settings.contextBreakExitShareMin) : 0);
 }

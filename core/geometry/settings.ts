@@ -108,6 +108,12 @@ export const analysisSettingsSchema = z.object({
   ellipseSectionToleranceMm: z.number().positive().default(1.5),
   /** ...centres also tried on a grid of (2 n + 1)² points an eighth of the fragment's width apart about the wall's middle (0: none). */
   ellipseSectionGridSteps: z.number().int().min(0).default(12),
+  /**
+   * ...and where the closed-form cavity ratio reads the section flattened the other way than the
+   * outer one, the cavity ratio is read again as the best of this many steps of a geometric grid
+   * of (a/b)² from 1/32 to 32 (shaft-section.ts, robustRatio; 0: closed form only).
+   */
+  ellipseSectionCavityRatioSteps: z.number().int().min(0).default(40),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
@@ -214,6 +220,23 @@ export const analysisSettingsSchema = z.object({
   contextInwardConvexWeight: z.number().min(0).default(500),
   /** ...only for the mean curvature beyond this (1/mm; 0.05 = a cylinder of 10 mm radius, convex). */
   contextInwardConvexCurvatureMin: z.number().min(0).default(0.05),
+  /**
+   * Weight (towards fracture) of the share of a region's inward rays that leave the bone
+   * head-on (headOnCosineMin) through break regions that face the axis while convex (those the
+   * inward-convexity term above reads), beyond `contextBreakExitShareMin`, for regions facing
+   * out from or into the fitted axis (|mean radial component| at least corticalRadialMin, axis
+   * support at least 0.5). A wall face's rays cross the wall and leave through the other wall
+   * face, which on the inside is concave; rays that cross squarely into a convex face facing
+   * the axis came from the other break face of a sliver cut by two parallel breaks (dev s107
+   * QS-10237, s21 QS-10879). Only such break regions count: where one face of a true wall is
+   * misread as a break (a rough cavity patch), its partner must not follow it (counting every
+   * break region cost dev s105 QS-10625 89.7 -> 65.9). 30 and 60 read the same on dev seeds 12,
+   * 15, 16, 21, 105, 107, 108; the bent plate of tests/unit/geometry/region-inward-convex.test.ts
+   * (first evidence -4.9: its face crosses the wall head-on everywhere) needs about 55. 0 switches it off.
+   */
+  contextBreakExitWeight: z.number().min(0).default(60),
+  /** ...counted beyond this share of the region's rays. */
+  contextBreakExitShareMin: z.number().min(0).max(1).default(0.3),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**

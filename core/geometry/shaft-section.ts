@@ -87,6 +87,8 @@ export interface EllipseFitOptions {
   distanceTolerance: number;
   /** Centres tried on a grid of (2 gridSteps + 1)² points, width / 8 apart, about the wall's middle (0: none). */
   gridSteps: number;
+  /** Steps of the grid on which a cavity ratio the closed form reads the wrong way is read again (planeModel, robustRatio; 0: closed form only). */
+  cavityRatioSteps: number;
 }
 
 interface Rows {
@@ -114,19 +116,81 @@ function ratioFit(sumNum: number, sumDen: number): number {
 /**
  * Axis ratios of the wall pairs under centre (cu, cv) and major axis angle phi: of each pair the
  * member farther from the centre is the outer surface, the nearer the cavity's; the ratio of
- * each is fitted in closed form (ratioFit).
+ * each is fitted in closed form (ratioFit). Where the two disagree on which way the section is
+ * flattened (one ratio above 1, the other below) and `cavityGrid` > 0, the cavity's ratio is
+ * read again robustly (robustRatio): on a piece holding the pointed tip of a slit-like cavity
+ * the closed form's weights (nx y)² are largest on the few members off both axes (break faces
+ * that pass for cavity, the turn at the tip), which can set its sign; at the true centre of a
+ * narrow-edge radius piece (dev seed 105 QS-10816) it read 0.46 against the true 11, so no model
+ * near the truth was scored at all and the fit settled on a small ellipse about a nearer centre.
  */
-function planeModel(r: Rows, cu: number, cv: number, phi: number): PlaneModel {
+function planeModel(r: Rows, cu: number, cv: number, phi: number, cavityGrid = 0): PlaneModel {
   const c = Math.cos(phi), s = Math.sin(phi);
   let no = 0, dOut = 0, ni = 0, dIn = 0;
+  if (cavityGrid > 0 && cavity.length < 5 * r.n) cavity = new Float64Array(5 * r.n);
   for (let k = 0; k < r.n; k++) {
     const p = split(r, k, cu, cv, c, s);
     const ox = p[0], oy = p[1], onx = p[2], ony = p[3], ix = p[4], iy = p[5], inx = p[6], iny = p[7];
     no += r.w[k] * (onx * oy) * (ony * ox); dOut += r.w[k] * (onx * oy) ** 2;
     ni += r.w[k] * (inx * iy) * (iny * ix); dIn += r.w[k] * (inx * iy) ** 2;
+    if (cavityGrid > 0) {
+      cavity[5 * k] = ix; cavity[5 * k + 1] = iy; cavity[5 * k + 2] = inx; cavity[5 * k + 3] = iny; cavity[5 * k + 4] = r.w[k];
+    }
   }
-  const rhoOut = ratioFit(no, dOut), rhoIn = ratioFit(ni, dIn);
+  const rhoOut = ratioFit(no, dOut);
+  let rhoIn = ratioFit(ni, dIn);
+  if (cavityGrid > 0 && (rhoOut - 1) * (rhoIn - 1) < 0) rhoIn = robustRatio(cavity, r.n, -1, cavityGrid);
   return { cu, cv, phi, rhoOut, rhoIn };
+}
+
+/** planeModel's cavity members (x, y, nx, ny, w in the section frame), reused between calls. */
+let cavity = new Float64Array(0);
+
+/** Largest squared axis ratio robustRatio tries (and its inverse the smallest): a/b up to 5.7, a slit. */
+const ROBUST_RATIO_MAX = 32;
+/** Most members robustRatio's grid reads (an even sample; as the centre grid of fitEllipseSection reads 300 pairs). */
+const ROBUST_RATIO_ROWS = 100;
+
+/**
+ * Squared axis ratio ρ read robustly from members (x, y, nx, ny, w rows; normals facing out for
+ * `sign` 1, in for -1): of `steps` + 1 values on a geometric grid from 1/32 to 32, the one whose
+ * ellipse normals (x, ρ y) the most member area matches within about 20 degrees (biweight of
+ * 1 - cos, as explained() counts surface; read on an even sample of at most ROBUST_RATIO_ROWS
+ * members), then refined by the closed form (ratioFit) on all the members it matches, weighted
+ * by the biweight, while that matches no less.
+ */
+function robustRatio(m: Float64Array, n: number, sign: number, steps: number): number {
+  const match = (rho: number, refit: boolean, stride = 1): [number, number, number] => {
+    let sum = 0, num = 0, den = 0;
+    for (let k = 0; k < n; k += stride) {
+      const x = m[5 * k], y = m[5 * k + 1], nx = m[5 * k + 2], ny = m[5 * k + 3];
+      const gy = rho * y, gl = Math.hypot(x, gy);
+      if (!(gl > 0)) continue;
+      const miss = 1 - (sign * (nx * x + ny * gy)) / gl;
+      if (!(miss < EXPLAINED_MISS)) continue;
+      const w = m[5 * k + 4] * (1 - (miss / EXPLAINED_MISS) ** 2) ** 2;
+      sum += w;
+      if (refit) { num += w * (nx * y) * (ny * x); den += w * (nx * y) ** 2; }
+    }
+    return [sum, num, den];
+  };
+  let best = 1, bestScore = -1;
+  const lo = Math.log(1 / ROBUST_RATIO_MAX), span = 2 * Math.log(ROBUST_RATIO_MAX);
+  const stride = Math.max(1, Math.ceil(n / ROBUST_RATIO_ROWS));
+  for (let i = 0; i <= steps; i++) {
+    const rho = Math.exp(lo + (i * span) / steps);
+    const [score] = match(rho, false, stride);
+    if (score > bestScore) { bestScore = score; best = rho; }
+  }
+  bestScore = match(best, false)[0];
+  for (let it = 0; it < 2; it++) {
+    const [, num, den] = match(best, true);
+    const next = ratioFit(num, den);
+    const [score] = match(next, false);
+    if (!(score >= bestScore)) break;
+    best = next; bestScore = score;
+  }
+  return best;
 }
 
 /** split()'s answer, overwritten by every call (split runs for every wall pair of every model tried). */
@@ -220,7 +284,7 @@ export function fitEllipseSection(
     surf.push(x, y, nu, nv, areas[f]);
   }
   const tol = options.distanceTolerance;
-  const ellipses = (cu: number, cv: number, phi: number): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol);
+  const ellipses = (cu: number, cv: number, phi: number): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps);
   // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
   {
     const c0 = starts[0];
@@ -250,7 +314,7 @@ export function fitEllipseSection(
         const cu = mu + i * step, cv = mv + j * step;
         const phi = orientationAt(few, cu, cv);
         if (phi === undefined) continue;
-        const e = evaluate(few, fewSurf, cu, cv, phi, tol);
+        const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps);
         if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
       }
     }
@@ -282,9 +346,9 @@ export function fitEllipseSection(
 }
 
 /** The model of evaluate() at centre (cu, cv) and angle phi: ratios from the wall pairs' normals, sizes their medians, scored by explained(). */
-function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number): Ellipses | undefined {
+function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number): Ellipses | undefined {
   const n = rows.n;
-  const pm = planeModel(rows, cu, cv, phi);
+  const pm = planeModel(rows, cu, cv, phi, cavityGrid);
   let { rhoOut, rhoIn } = pm;
   let ph = phi;
   if (rhoOut < 1 && rhoIn <= 1) { ph += Math.PI / 2; rhoOut = 1 / rhoOut; rhoIn = 1 / rhoIn; }

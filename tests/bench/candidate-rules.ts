@@ -5,10 +5,11 @@
  * the number of face pairs the plain k-best union gives at each k.
  *   npx tsx tests/bench/candidate-rules.ts <demo-dir>[,<demo-dir>...] [ks]
  */
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
+import { sizeClassCompatible } from '../../core/geometry/proposals/candidate-index';
 import { join } from 'node:path';
 import { describeFace, partnerCost, type FaceDescriptor } from '../../core/geometry/proposals/face-descriptor';
-import { readStudy, type TruthJoin } from './candidate-recall';
+import { readStudy, sizeClassesFromCsv, type TruthJoin } from './candidate-recall';
 
 export interface RuleSet {
   nFaces: number;
@@ -17,6 +18,8 @@ export interface RuleSet {
   joins: Array<Array<[number, number]>>;
   reachable: number;
   desc: FaceDescriptor[];
+  /** Whether two fragments may pair by their recorded size classes (the folder's specimens.csv; all when absent or KNITBONE_SIZE_CLASS=0). */
+  compatible: (fragmentA: number, fragmentB: number) => boolean;
 }
 
 export function loadSet(dir: string): RuleSet {
@@ -43,7 +46,9 @@ export function loadSet(dir: string): RuleSet {
     for (const x of A) for (const y of B) pairs.push(x < y ? [x, y] : [y, x]);
     if (pairs.length) joins.push(pairs);
   }
-  return { nFaces: fr.length, fragOfFace: Int32Array.from(fr), joins, reachable: joins.length, desc };
+  const classes = process.env.KNITBONE_SIZE_CLASS === '0' || !existsSync(join(dir, 'specimens.csv')) ? undefined : sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8'));
+  const compatible = classes ? sizeClassCompatible(study.map((f) => classes.get(f.no) ?? null)) : () => true;
+  return { nFaces: fr.length, fragOfFace: Int32Array.from(fr), joins, reachable: joins.length, desc, compatible };
 }
 
 /** Full cost matrix (row-major, Infinity on a fragment's own faces). */

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { analyseFragment } from '../../core/geometry/analyse-fragment';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { fragmentFromAnalysis } from '../../core/geometry/proposals/fragment-from-analysis';
-import { prepareFragment, type FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
+import { prepareFragment, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { fragmentFaceTraits, type FaceTraits, type ShaftAxisLike } from '../../core/geometry/proposals/face-traits';
 import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
 import type { TriangleMesh } from '../../core/geometry/mesh';
@@ -33,14 +33,14 @@ export interface StudyRaw {
 const b64 = (a: Float32Array | Uint32Array | Uint8Array): string => Buffer.from(a.buffer, a.byteOffset, a.byteLength).toString('base64');
 export interface TruthFragment { catalogueNo: string; scanFile: string; triangleLabels: string }
 
-function scanPath(dir: string, f: TruthFragment): string {
+export function scanPath(dir: string, f: TruthFragment): string {
   return join(dir, f.scanFile.includes('/') ? f.scanFile : join('scans', f.scanFile));
 }
 
 /** Prepare the analysed fragment at `spacing`, describe its faces and label them with the true breaks. */
-export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: FragmentInput, axis: ShaftAxisLike, spacing: number, raw?: (r: StudyRaw) => void): StudyFragment {
+export function studyFragment(f: TruthFragment, fileMesh: TriangleMesh, input: FragmentInput, axis: ShaftAxisLike, spacing: number, raw?: (r: StudyRaw) => void, preparedAlready?: PreparedFragment): StudyFragment {
   const c0 = process.cpuUsage();
-  const prepared = prepareFragment(input, { spacing, fpfhRadiusSpacings: 5 });
+  const prepared = preparedAlready ?? prepareFragment(input, { spacing, fpfhRadiusSpacings: 5 });
   const labels = Buffer.from(f.triangleLabels, 'base64');
   const cents: number[] = [], lab: number[] = [];
   const P = fileMesh.positions, T = fileMesh.triangles;

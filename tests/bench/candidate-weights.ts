@@ -4,7 +4,8 @@
  * the given assemblages), without aligning: faces and traits from candidate-study.ts. Each
  * round tries, for each figure in turn, its weight x0, x0.5, x0.7, x1.4, x2 (0.5, 1, 2 when it
  * is 0) and its scale x0.5, x2, keeping any change that raises the recall. Prints the recall
- * and face pairs per face before and after on every assemblage; `CANDIDATE_WEIGHTS='<json>'`
+ * and face pairs per face before and after on every assemblage (pieces of different recorded
+ * size classes not paired, as in a propose run; KNITBONE_SIZE_CLASS=0: without); `CANDIDATE_WEIGHTS='<json>'`
  * only reports the given parameters (to check a fit on an assemblage it was not fitted on).
  *   npx tsx tests/bench/candidate-weights.ts <demo-dir>[,<demo-dir>...] [rounds]
  */
@@ -48,7 +49,11 @@ function cost(p: Parts, q: CostParameters): Float32Array {
       C[x] += Number.isNaN(v) ? w * MISSING : w * Math.log1p((v / s) ** 2);
     }
   });
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (p.s.fragOfFace[i] === p.s.fragOfFace[j]) C[i * n + j] = Infinity;
+  // faces of one fragment, and fragments of different recorded size classes, never pair
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
+    const a = p.s.fragOfFace[i], b = p.s.fragOfFace[j];
+    if (a === b || !p.s.compatible(Math.min(a, b), Math.max(a, b))) C[i * n + j] = Infinity;
+  }
   return C;
 }
 
@@ -105,7 +110,7 @@ if (process.argv[1]?.endsWith('candidate-weights.ts')) {
           if (v > bestScore + 1e-9) {
             best = q;
             bestScore = v;
-            console.log(`  round ${round + 1}, ${c < base.w.length ? DESCRIPTOR_FIGURES[c].name : 'texture'}: ${(100 * v).toFixed(2)}%`);
+            console.log(`  round ${round + 1}, ${c < base.w.length ? DESCRIPTOR_FIGURES[c].name : 'texture'}: ${(100 * v).toFixed(2)}% ${JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) })}`);
           }
         }
       }

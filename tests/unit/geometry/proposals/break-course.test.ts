@@ -96,4 +96,28 @@ describe('the course of a break across the shaft', () => {
     // the face's own list ranks the partner first (the decoy's list may still hold the face)
     expect(partnerCost(describeFace(face), describeFace(partner))).toBeLessThan(partnerCost(describeFace(face), describeFace(decoy)));
   }, 60_000);
+
+  it("ranks a partner met along only half the break ahead of whole faces of breaks a few degrees steeper or shallower", async () => {
+    // The face: the piece inside a cone of half angle 60 degrees about the tube's axis. Its
+    // partner: the piece outside that cone, split lengthwise by the plane y = 0 (half of it
+    // kept), so it meets half of the face (at 200 fragments and more a break is often shared
+    // between two or more pieces on one side). The decoys: the pieces outside cones of half
+    // angle 63 and 56 degrees, whole: the face's size and arc, but their normals make cosine
+    // sin(63) = 0.89 and sin(56) = 0.83 with the axis instead of sin(60) = 0.87, and lean out by
+    // cos(63) = 0.45 and cos(56) = 0.56 instead of 0.5 (analytic geometry, as in the first test).
+    // Smooth cuts, so texture cannot tell them apart. With the weights fitted before the current
+    // segmentation (the course of the break compared on a scale of 0.05, the arc share and area
+    // weighing twice as much) both decoys ranked ahead of the partner.
+    const at = (deg: number): number => 12 + 45 * Math.tan((deg * Math.PI) / 180);
+    const [face] = await breakFaces([cone(at(60), 60)], 0);
+    const [partner] = await breakFaces([cone(at(60), 60, true), { normal: [0, 1, 0], offset: 0 }], 0);
+    const decoys = [(await breakFaces([cone(at(63), 63, true)], 0))[0], (await breakFaces([cone(at(56), 56, true)], 0))[0]];
+    expect(partner.tube!.arcShare).toBeLessThan(0.6);
+    for (const d of decoys) expect(d.tube!.arcShare).toBeGreaterThan(0.9);
+    const toPartner = partnerCost(describeFace(face), describeFace(partner));
+    for (const d of decoys) expect(toPartner).toBeLessThan(partnerCost(describeFace(face), describeFace(d)));
+    const faces: IndexedFace[] = [face, partner, ...decoys].map((traits, fragment) => ({ fragment, face: 0, traits }));
+    const pairs = candidateFacePairs(faces, { k: 1 });
+    expect(pairs.some((p) => p.a === 0 && p.b === 1)).toBe(true);
+  }, 60_000);
 });

@@ -1,0 +1,69 @@
+/**
+ * Candidate study (candidate-study.ts) that keeps what takes time, so that changed face traits
+ * (face-traits.ts) can be measured again in a minute: each fragment's analysis and prepared
+ * parts are read from a propose run's match cache (`--catalogue <sqlite>`: the catalogue is only
+ * read for its scans' cache keys; copy it first, the match cache folder beside the original is
+ * only read) or, without one, analysed once and kept under `<out>/candidate-cache/`. The study
+ * files are written again every time under `<out>/candidate-study/`.
+ *   npx tsx tests/bench/candidate-restudy.ts <demo-dir> [--out <dir>] [--spacing 1.2] [--catalogue <copy.sqlite> --cache <match-cache-dir>]
+ */
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { openCatalogue } from '../../core/catalogue/catalogue';
+import { analyseFragment } from '../../core/geometry/analyse-fragment';
+import { parseMeshFile } from '../../core/geometry/parse/index';
+import { fragmentFromAnalysis } from '../../core/geometry/proposals/fragment-from-analysis';
+import { assemblePrepared, prepareFragment, preparedParts, type SamplingParameters } from '../../core/geometry/proposals/prepared-fragment';
+import { fragmentKey, readFragment, readPrepared, writeFragment, writePrepared, type CachedFragment } from '../../core/jobs/fragment-cache';
+import { scanPath, studyFragment, type TruthFragment } from './candidate-study';
+
+const args = process.argv.slice(2);
+const opt = (name: string): string | undefined => {
+  const i = args.indexOf(name);
+  return i >= 0 ? args[i + 1] : undefined;
+};
+const dir = args[0];
+const out = opt('--out') ?? dir;
+const sampling: SamplingParameters = { spacing: Number(opt('--spacing') ?? 1.2), fpfhRadiusSpacings: 5 };
+const catalogue = opt('--catalogue');
+const cacheDir = opt('--cache') ?? join(out, 'candidate-cache');
+mkdirSync(join(out, 'candidate-study'), { recursive: true });
+mkdirSync(cacheDir, { recursive: true });
+const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: TruthFragment[] };
+// the cache key of each fragment: the catalogue's scan keys, or the catalogue number in our own cache
+const keyOf = new Map<string, string>();
+if (catalogue) {
+  const cat = openCatalogue(catalogue);
+  const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
+  for (const s of cat.scans.list()) keyOf.set(numbers.get(s.specimenId) ?? '', fragmentKey(s.contentHash, s.units, (s.stats as { settings?: unknown }).settings, []));
+  cat.close();
+}
+const c0 = process.cpuUsage();
+let done = 0, missing = 0;
+for (const f of truth.fragments) {
+  const key = catalogue ? keyOf.get(f.catalogueNo) : f.catalogueNo;
+  if (!key) { missing++; continue; }
+  const file = join(out, 'candidate-study', `${f.catalogueNo}.json`);
+  try {
+    const mesh = parseMeshFile(readFileSync(scanPath(dir, f)), f.scanFile).mesh;
+    let cached: CachedFragment | undefined = readFragment(cacheDir, key);
+    if (!cached) {
+      if (catalogue) { missing++; continue; }
+      const analysis = analyseFragment(mesh);
+      const a = analysis.axis;
+      cached = { input: fragmentFromAnalysis(analysis), summary: { faceAreas: [], diagonalMm: 0, centroid: [0, 0, 0], axis: { direction: a.direction, point: a.point, support: a.support } } };
+      writeFragment(cacheDir, key, cached);
+    }
+    let parts = readPrepared(cacheDir, key, sampling);
+    if (!parts) {
+      parts = preparedParts(prepareFragment(cached.input, sampling));
+      if (!catalogue) writePrepared(cacheDir, key, sampling, parts);
+    }
+    const prepared = assemblePrepared(cached.input, parts);
+    writeFileSync(file, JSON.stringify(studyFragment(f, mesh, cached.input, cached.summary.axis, sampling.spacing, undefined, prepared)));
+  } catch (err) {
+    if (!existsSync(file)) writeFileSync(file, JSON.stringify({ no: f.catalogueNo, spacing: sampling.spacing, faces: [], cpuMs: 0, error: String(err) }));
+  }
+  if (++done % 50 === 0) process.stderr.write(`${done} fragments\n`);
+}
+console.log(`${done} fragments studied, ${missing} without a cached analysis; ${(process.cpuUsage(c0).user / 1e6).toFixed(1)} CPU s`);
