@@ -141,26 +141,11 @@ describe('nearest one from a guess (nearestOneNear)', () => {
   });
 
   it('keeps nearestOne\'s choice among points at the same distance (repeated points, a grid)', () => {
-    fc.assert(
-      fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
-        let s = seed;
-        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
-        // integer coordinates: many points repeat and many queries are equally far from several
-        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
-        const tree = new KdTree(data, 3);
-        for (let k = 0; k < 20; k++) {
-          const q = k % 2 ? [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2] : [r(), r(), r()];
-          const max2 = k % 3 === 0 ? Infinity : Math.round(r());
-          const want = tree.nearestOne(q, max2);
-          for (let guess = 0; guess < n; guess += Math.max(1, Math.floor(n / 7))) {
-            const got = tree.nearestOneNear(q, max2, guess);
-            expect(got.index).toBe(want.index);
-            expect(Object.is(got.dist2, want.dist2)).toBe(true);
-          }
-        }
-      }),
-      { numRuns: 150 },
-    );
+    onTiedPoints(2, (tree, q, max2, guess) => {
+      const want = tree.nearestOne(q, max2), got = tree.nearestOneNear(q, max2, guess);
+      expect(got.index).toBe(want.index);
+      expect(Object.is(got.dist2, want.dist2)).toBe(true);
+    });
   });
 
   it('answers a query that stays near its last answer without searching the tree', () => {
@@ -183,28 +168,36 @@ describe('nearest one from a guess (nearestOneNear)', () => {
   });
 });
 
+/**
+ * Points with integer coordinates (many repeat, many queries lie equally far from several), and
+ * per case 20 queries on the grid or anywhere, with and without a radius, each tried with several
+ * guesses: check(tree, data, query, squared radius, guess).
+ */
+function onTiedPoints(minPoints: number, check: (tree: KdTree, q: number[], max2: number, guess: number, data: Float32Array) => void): void {
+  fc.assert(
+    fc.property(fc.integer({ min: minPoints, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
+      let s = seed;
+      const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
+      const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+      const tree = new KdTree(data, 3);
+      for (let k = 0; k < 20; k++) {
+        const q = k % 2 ? [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2] : [r(), r(), r()];
+        const max2 = k % 3 === 0 ? Infinity : Math.round(r());
+        for (let guess = -1; guess < n; guess += Math.max(1, Math.floor(n / 7))) check(tree, q, max2, guess, data);
+      }
+    }),
+    { numRuns: 150 },
+  );
+}
+
 describe('some point within a radius from a guess (someWithin)', () => {
   it('answers whether a point lies within the radius as nearestOne does, whatever the guess (ties and repeated points included)', () => {
     // Reference: nearestOne (checked against brute force above): a point within the radius exists
     // exactly when it finds one; the answer given must itself lie within the radius
-    fc.assert(
-      fc.property(fc.integer({ min: 1, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
-        let s = seed;
-        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
-        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
-        const tree = new KdTree(data, 3);
-        for (let k = 0; k < 20; k++) {
-          const q = k % 2 ? [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2] : [r(), r(), r()];
-          const max2 = k % 3 === 0 ? Infinity : Math.round(r());
-          const want = tree.nearestOne(q, max2).index >= 0;
-          for (let guess = -1; guess < n; guess += Math.max(1, Math.floor(n / 7))) {
-            const got = tree.someWithin(q, max2, guess);
-            expect(got >= 0).toBe(want);
-            if (got >= 0) expect((q[0] - data[3 * got]) ** 2 + (q[1] - data[3 * got + 1]) ** 2 + (q[2] - data[3 * got + 2]) ** 2).toBeLessThanOrEqual(max2);
-          }
-        }
-      }),
-      { numRuns: 150 },
-    );
+    onTiedPoints(1, (tree, q, max2, guess, data) => {
+      const got = tree.someWithin(q, max2, guess);
+      expect(got >= 0).toBe(tree.nearestOne(q, max2).index >= 0);
+      if (got >= 0) expect((q[0] - data[3 * got]) ** 2 + (q[1] - data[3 * got + 1]) ** 2 + (q[2] - data[3 * got + 2]) ** 2).toBeLessThanOrEqual(max2);
+    });
   });
 });
