@@ -3,7 +3,8 @@
  * (face-traits.ts) can be measured again in a minute: each fragment's analysis and prepared
  * parts are read from a propose run's match cache (`--catalogue <sqlite>`: the catalogue is only
  * read for its scans' cache keys; copy it first, the match cache folder beside the original is
- * only read) or, without one, analysed once and kept under `<out>/candidate-cache/`. The study
+ * only read) or, without one, analysed once and kept under `<out>/candidate-cache-<hash of the
+ * analysis sources>/`. The study
  * files are written again every time under `<out>/candidate-study/`.
  *   npx tsx tests/bench/candidate-restudy.ts <demo-dir> [--out <dir>] [--spacing 1.2] [--catalogue <copy.sqlite> --cache <match-cache-dir>]
  */
@@ -16,6 +17,7 @@ import { fragmentFromAnalysis } from '../../core/geometry/proposals/fragment-fro
 import { assemblePrepared, prepareFragment, preparedParts, type SamplingParameters } from '../../core/geometry/proposals/prepared-fragment';
 import { fragmentKey, readFragment, readPrepared, writeFragment, writePrepared, type CachedFragment } from '../../core/jobs/fragment-cache';
 import { scanPath, studyFragment, type TruthFragment } from './candidate-study';
+import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
 
 const args = process.argv.slice(2);
 const opt = (name: string): string | undefined => {
@@ -26,7 +28,8 @@ const dir = args[0];
 const out = opt('--out') ?? dir;
 const sampling: SamplingParameters = { spacing: Number(opt('--spacing') ?? 1.2), fpfhRadiusSpacings: 5 };
 const catalogue = opt('--catalogue');
-const cacheDir = opt('--cache') ?? join(out, 'candidate-cache');
+// our own cache is named by a hash of the analysis sources, so a changed segmentation analyses again
+const cacheDir = opt('--cache') ?? join(out, `candidate-cache-${sourceHash(...ANALYSIS_FOLDERS)}`);
 mkdirSync(join(out, 'candidate-study'), { recursive: true });
 mkdirSync(cacheDir, { recursive: true });
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: TruthFragment[] };
