@@ -6,30 +6,16 @@
  * through break faces may be a break face itself (two parallel breaks of a sliver).
  * Run: npx tsx tests/bench/segmentation-exit-study.ts DIR[,DIR...] [settings JSON] [min share, default 0.3]
  */
-import { readFileSync } from 'node:fs';
-import { basename, join } from 'node:path';
-import { analyseFragment } from '../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
-import { bilateralNormalFilter, triangleCentroids } from '../../core/geometry/normal-filter';
-import { parseMeshFile } from '../../core/geometry/parse/index';
-import { buildTopology } from '../../core/geometry/topology';
+import { basename } from 'node:path';
 import { castWallRays } from '../../core/geometry/wall-rays';
+import { studyFragments } from './segmentation-study-fragments';
 
-interface Truth { fragments: Array<{ catalogueNo: string; scanFile: string; triangleLabels: string; element: string }> }
 const dirs = (process.argv[2] ?? '').split(',').filter(Boolean);
 const settings = JSON.parse(process.argv[3] ?? '{}') as Record<string, unknown>;
 const minShare = Number(process.argv[4] ?? 0.3);
 for (const dir of dirs) {
-  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
-  for (const frag of truth.fragments) {
-    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const labels = Buffer.from(frag.triangleLabels, 'base64');
-    const a = analyseFragment(parsed.mesh, settings);
+  for (const { frag, labels, a, areas, centroids, filtered } of studyFragments(dir, settings)) {
     const mesh = a.mesh;
-    const topo = buildTopology(mesh);
-    const { normals, areas } = triangleNormalsAndAreas(mesh);
-    const centroids = triangleCentroids(mesh.positions, mesh.triangles);
-    const filtered = bilateralNormalFilter(normals, areas, centroids, topo.neighbours, a.settings.normalFilterIterations, a.settings.normalFilterRange);
     const rays = castWallRays(mesh, filtered, centroids, a.settings.maxWallRays);
     const nr = a.regions.length;
     const n = new Float64Array(nr), toF = new Float64Array(nr), toFHead = new Float64Array(nr), brk = new Float64Array(nr), tot = new Float64Array(nr);

@@ -3,34 +3,19 @@
  * adjacency split into crease / smooth length) as JSON lines, for studying the region
  * classifier offline. Run: npx tsx tests/bench/segmentation-regions-dump.ts DIR[,DIR...] OUT.jsonl [settings JSON]
  */
-import { readFileSync, writeFileSync } from 'node:fs';
-import { basename, join } from 'node:path';
-import { analyseFragment } from '../../core/geometry/analyse-fragment';
+import { writeFileSync } from 'node:fs';
+import { basename } from 'node:path';
 import { typicalWallDepth } from '../../core/geometry/classify-regions';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
-import { bilateralNormalFilter, triangleCentroids } from '../../core/geometry/normal-filter';
-import { parseMeshFile } from '../../core/geometry/parse/index';
-import { buildTopology } from '../../core/geometry/topology';
+import { studyFragments } from './segmentation-study-fragments';
 
-interface Truth {
-  fragments: Array<{ catalogueNo: string; scanFile: string; boneId: string; triangleLabels: string; element: string }>;
-  bones: Array<{ boneId: string; breaks: Array<{ id: number; age: string; pattern: string }> }>;
-}
 const dirs = (process.argv[2] ?? '').split(',').filter(Boolean);
 const out: string[] = [];
 const settings = JSON.parse(process.argv[4] ?? '{}');
 for (const dir of dirs) {
-  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
-  for (const frag of truth.fragments) {
-    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const labels = Buffer.from(frag.triangleLabels, 'base64');
-    const a = analyseFragment(parsed.mesh, settings);
-    const { areas: srcAreas } = triangleNormalsAndAreas(parsed.mesh);
+  for (const { frag, labels, source, a, topo, normals, areas, filtered } of studyFragments(dir, settings)) {
+    const { areas: srcAreas } = triangleNormalsAndAreas(source);
     const mesh = a.mesh;
-    const topo = buildTopology(mesh);
-    const { normals, areas } = triangleNormalsAndAreas(mesh);
-    const centroids = triangleCentroids(mesh.positions, mesh.triangles);
-    const filtered = bilateralNormalFilter(normals, areas, centroids, topo.neighbours, a.settings.normalFilterIterations, a.settings.normalFilterRange);
     const nr = a.regions.length;
     const fr = new Float64Array(nr), tot = new Float64Array(nr);
     for (let f = 0; f < a.regionOfTriangle.length; f++) {
