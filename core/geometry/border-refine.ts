@@ -22,6 +22,7 @@
  * border move that many triangles. The caller passes the program's classes, not the analyst's
  * corrections, so a region stays the same set of triangles when it is corrected.
  */
+import { hypot } from './hypot';
 export interface BorderRefineOptions {
   rings: number;
   referenceRing: number;
@@ -105,8 +106,8 @@ export function refineFractureBorder(
         n = m;
       }
       const own = kind[f], other = 1 - own;
-      const lo = Math.hypot(sum[3 * own], sum[3 * own + 1], sum[3 * own + 2]);
-      const lt = Math.hypot(sum[3 * other], sum[3 * other + 1], sum[3 * other + 2]);
+      const lo = hypot(sum[3 * own], sum[3 * own + 1], sum[3 * own + 2]);
+      const lt = hypot(sum[3 * other], sum[3 * other + 1], sum[3 * other + 2]);
       if (!(lo > 0 && lt > 0)) continue;
       const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
       const cOwn = (nx * sum[3 * own] + ny * sum[3 * own + 1] + nz * sum[3 * own + 2]) / lo;

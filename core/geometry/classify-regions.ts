@@ -2,6 +2,7 @@ import type { AnalysisSettings } from './settings';
 import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
 import type { SurfaceClass } from './surface-classes';
 import type { WallRays } from './wall-rays';
+import { hypot } from './hypot';
 
 function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
@@ -105,7 +106,7 @@ export function regionFigures(
       const along = nx * ax + ny * ay + nz * az;
       if (Math.abs(along) > outwardAxialMax) continue;
       const [qx, qy, qz] = offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
-      if ((nx * qx + ny * qy + nz * qz) > outwardRadialMax * (Math.hypot(qx, qy, qz) || 1)) continue;
+      if ((nx * qx + ny * qy + nz * qz) > outwardRadialMax * (hypot(qx, qy, qz) || 1)) continue;
     }
     outwardHits[r]++;
   }
@@ -122,7 +123,7 @@ export function regionFigures(
     const r = out[region[f]];
     const w = areas[f];
     const [qx, qy, qz] = offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
-    const ql = Math.hypot(qx, qy, qz) || 1;
+    const ql = hypot(qx, qy, qz) || 1;
     const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
     r.area += w;
     r.triangleCount++;

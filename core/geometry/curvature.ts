@@ -1,5 +1,6 @@
 import type { VertexRings } from './adjacency';
 import type { TriangleMesh } from './mesh';
+import { hypot } from './hypot';
 
 export interface SurfaceCurvature {
   /** Larger principal curvature per vertex (1/mm); convex seen from outside is positive. */
@@ -51,7 +52,7 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
     // Tangent frame.
     let ux: number, uy: number, uz: number;
     if (Math.abs(nx) < 0.9) { ux = 0; uy = nz; uz = -ny; } else { ux = -nz; uy = 0; uz = nx; }
-    const ul = Math.hypot(ux, uy, uz);
+    const ul = hypot(ux, uy, uz);
     ux /= ul; uy /= ul; uz /= ul;
     const wx = ny * uz - nz * uy, wy = nz * ux - nx * uz, wz = nx * uy - ny * ux;
     xs.length = ys.length = zs.length = 0;
@@ -60,7 +61,7 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
       const dx = p[3 * w] - p[3 * v], dy = p[3 * w + 1] - p[3 * v + 1], dz = p[3 * w + 2] - p[3 * v + 2];
       const x = dx * ux + dy * uy + dz * uz, y = dx * wx + dy * wy + dz * wz, z = dx * nx + dy * ny + dz * nz;
       xs.push(x); ys.push(y); zs.push(z);
-      h += Math.hypot(x, y);
+      h += hypot(x, y);
     }
     h = h / hood.length || 1;
     A.fill(0); rhs.fill(0);
@@ -100,7 +101,7 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
     if (Math.abs(s12) > 1e-12) { ex = s12; ey = l2 - s11; }
     else if (Math.abs(s21) > 1e-12) { ex = l2 - s22; ey = s21; }
     else { ex = s11 <= s22 ? 1 : 0; ey = s11 <= s22 ? 0 : 1; }
-    const el = Math.hypot(ex, ey) || 1;
+    const el = hypot(ex, ey) || 1;
     ex /= el; ey /= el;
     minDirection[3 * v] = ex * ux + ey * wx;
     minDirection[3 * v + 1] = ex * uy + ey * wy;

@@ -1,4 +1,5 @@
 import type { TriangleMesh } from './mesh';
+import { hypot } from './hypot';
 
 /**
  * Split break faces at the corners of their rim against the outer bone surface. On a shaft a
@@ -131,7 +132,7 @@ function cutOnce(
     }
     if (chain.length > 2) chains.push(chain);
   }
-  const dist3 = (a: number, b: number): number => Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+  const dist3 = (a: number, b: number): number => hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
   const cosCorner = Math.cos((settings.cornerAngleDeg * Math.PI) / 180);
   const corners: Array<{ v: number; turn: number }> = [];
   for (const chain of chains) {
@@ -152,7 +153,7 @@ function cutOnce(
       const c = at(i), pb = at(b), pf = at(fw);
       const ux = p[3 * c] - p[3 * pb], uy = p[3 * c + 1] - p[3 * pb + 1], uz = p[3 * c + 2] - p[3 * pb + 2];
       const vx = p[3 * pf] - p[3 * c], vy = p[3 * pf + 1] - p[3 * c + 1], vz = p[3 * pf + 2] - p[3 * c + 2];
-      const cos = (ux * vx + uy * vy + uz * vz) / ((Math.hypot(ux, uy, uz) * Math.hypot(vx, vy, vz)) || 1);
+      const cos = (ux * vx + uy * vy + uz * vz) / ((hypot(ux, uy, uz) * hypot(vx, vy, vz)) || 1);
       turns[i] = cos;
     }
     for (let i = 0; i < m; i++) {
@@ -212,7 +213,7 @@ function cutOnce(
       const mean = (piece: number[]): number[] => {
         const m = [0, 0, 0];
         for (const f of piece) for (let i = 0; i < 3; i++) m[i] += areas[f] * normals[3 * f + i];
-        const l = Math.hypot(m[0], m[1], m[2]) || 1;
+        const l = hypot(m[0], m[1], m[2]) || 1;
         return m.map((x) => x / l);
       };
       const ma = mean(a), mb = mean(b);

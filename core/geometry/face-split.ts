@@ -1,4 +1,5 @@
 import type { TriangleMesh } from './mesh';
+import { hypot } from './hypot';
 
 /**
  * Which fracture regions make one fracture face. A fragment's fracture triangles often form
@@ -58,11 +59,11 @@ export function fractureFaceGroups(
       const s = region[g];
       const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
       if (isOuter[s]) {
-        outerEdge[r] += Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+        outerEdge[r] += hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
         continue;
       }
       if (s <= r || !isFracture[s]) continue; // each edge once, from the lower region id
-      const len = Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+      const len = hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
       const key = r * n + s;
       let e = pairs.get(key);
       if (!e) pairs.set(key, (e = { length: 0, crease: 0 }));
@@ -72,7 +73,7 @@ export function fractureFaceGroups(
     }
   }
   for (let r = 0; r < n; r++) {
-    const l = Math.hypot(mean[3 * r], mean[3 * r + 1], mean[3 * r + 2]) || 1;
+    const l = hypot(mean[3 * r], mean[3 * r + 1], mean[3 * r + 2]) || 1;
     for (let i = 0; i < 3; i++) mean[3 * r + i] /= l;
   }
   const parent = Int32Array.from({ length: n }, (_, i) => i);

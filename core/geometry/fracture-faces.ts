@@ -3,6 +3,7 @@ import type { SurfaceSamples } from './resample';
 import type { AnalysisSettings } from './settings';
 import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
 import { SURFACE_CLASSES, type SurfaceClass } from './surface-classes';
+import { hypot } from './hypot';
 
 /** Villa & Mahieu 1991 fracture angle category of a face. */
 export type AngleClass = 'oblique' | 'right' | 'mixed' | 'indeterminate';
@@ -145,14 +146,14 @@ function describeFace(ctx: FaceContext, id: number, tris: Uint32Array, face: Int
         const cls = g >= 0 ? ctx.triClass[g] : 255;
         across.push(cls);
         const ex = p[3 * b] - p[3 * a], ey = p[3 * b + 1] - p[3 * a + 1], ez = p[3 * b + 2] - p[3 * a + 2];
-        const len = Math.hypot(ex, ey, ez);
+        const len = hypot(ex, ey, ez);
         outlineLength += len;
         // Outline direction along the outer edge, on chords about one plane radius long so
         // that the small-scale jaggedness of a rough break does not count as shape.
         if (cls === OUTER) {
           if (chordStart < 0) chordStart = a;
           const cx = p[3 * b] - p[3 * chordStart], cy = p[3 * b + 1] - p[3 * chordStart + 1], cz = p[3 * b + 2] - p[3 * chordStart + 2];
-          const cl = Math.hypot(cx, cy, cz);
+          const cl = hypot(cx, cy, cz);
           if (cl >= step) {
             alignSum += Math.abs(cx * ax + cy * ay + cz * az);
             alignLen += cl;
@@ -250,7 +251,7 @@ function rimAngles(ctx: FaceContext, id: number, rim: number[], spacing: number)
   for (let i = 0; i < rim.length; i += 6) {
     const [loop, f, g, mx, my, mz] = [rim[i], rim[i + 1], rim[i + 2], rim[i + 3], rim[i + 4], rim[i + 5]];
     if (loop !== lastLoop) { lastLoop = loop; lastX = NaN; lastY = NaN; lastZ = NaN; }
-    if (Math.hypot(mx - lastX, my - lastY, mz - lastZ) < spacing) continue;
+    if (hypot(mx - lastX, my - lastY, mz - lastZ) < spacing) continue;
     const angle = edgeAngle(ctx, id, f, g, mx, my, mz);
     if (angle !== undefined) { out.push(angle); lastX = mx; lastY = my; lastZ = mz; }
   }
@@ -319,7 +320,7 @@ function edgeAngle(ctx: FaceContext, faceId: number, f: number, g: number, mx: n
   const f0 = meanNormal(ctx, fractureSide), s0 = meanNormal(ctx, surfaceSide);
   if (!f0 || !s0) return undefined;
   let tx = f0[1] * s0[2] - f0[2] * s0[1], ty = f0[2] * s0[0] - f0[0] * s0[2], tz = f0[0] * s0[1] - f0[1] * s0[0];
-  const tl = Math.hypot(tx, ty, tz);
+  const tl = hypot(tx, ty, tz);
   if (tl > 0.05) { tx /= tl; ty /= tl; tz /= tl; } else { tx = 0; ty = 0; tz = 0; }
   const skip2 = ctx.settings.anglePlaneSkipMm ** 2;
   const away = (h: number): boolean => {
@@ -367,7 +368,7 @@ function shaftCheckedNormal(ctx: FaceContext, n: Vec3, mx: number, my: number, m
   let rx = dx - along * ax, ry = dy - along * ay, rz = dz - along * az;
   // Under an elliptic section the shaft's surface normal is the ellipse's, not the radial direction.
   if (axis.section) [rx, ry, rz] = offsetFromAxis(axis, mx, my, mz, [0, 0, 0]);
-  const rl = Math.hypot(rx, ry, rz);
+  const rl = hypot(rx, ry, rz);
   if (!(rl > 0) || Math.abs(rl / axis.radius - 1) > settings.angleShaftRadiusTolerance) return n;
   const cos = (n[0] * rx + n[1] * ry + n[2] * rz) / rl;
   if (cos >= Math.cos((settings.angleFitShaftMaxDeg * Math.PI) / 180)) return n;
@@ -381,7 +382,7 @@ function meanNormal(ctx: FaceContext, tris: number[]): Vec3 | undefined {
     const w = ctx.areas[h];
     sx += w * ctx.triNormals[3 * h]; sy += w * ctx.triNormals[3 * h + 1]; sz += w * ctx.triNormals[3 * h + 2];
   }
-  const l = Math.hypot(sx, sy, sz);
+  const l = hypot(sx, sy, sz);
   return l > 0 ? [sx / l, sy / l, sz / l] : undefined;
 }
 
@@ -424,7 +425,7 @@ function radialTurn(ctx: FaceContext, n: Vec3, c: Vec3, mx: number, my: number, 
   if (!(axis.support >= settings.angleShaftSupportMin) || !(axis.radius > 0)) return undefined;
   const a = offsetFromAxis(axis, c[0], c[1], c[2], [0, 0, 0]);
   const b = offsetFromAxis(axis, mx, my, mz, [0, 0, 0]);
-  const al = Math.hypot(a[0], a[1], a[2]), bl = Math.hypot(b[0], b[1], b[2]);
+  const al = hypot(a[0], a[1], a[2]), bl = hypot(b[0], b[1], b[2]);
   if (!(al > 0 && bl > 0)) return undefined;
   if (Math.abs(al / axis.radius - 1) > settings.angleShaftRadiusTolerance || Math.abs(bl / axis.radius - 1) > settings.angleShaftRadiusTolerance) return undefined;
   const u: Vec3 = [a[0] / al, a[1] / al, a[2] / al], v: Vec3 = [b[0] / bl, b[1] / bl, b[2] / bl];
@@ -434,7 +435,7 @@ function radialTurn(ctx: FaceContext, n: Vec3, c: Vec3, mx: number, my: number, 
 /** n turned by the smallest rotation that takes the unit vector u to the unit vector v (Rodrigues). */
 function rotateLike(n: Vec3, u: Vec3, v: Vec3): Vec3 {
   const kx = u[1] * v[2] - u[2] * v[1], ky = u[2] * v[0] - u[0] * v[2], kz = u[0] * v[1] - u[1] * v[0];
-  const s = Math.hypot(kx, ky, kz), c = u[0] * v[0] + u[1] * v[1] + u[2] * v[2];
+  const s = hypot(kx, ky, kz), c = u[0] * v[0] + u[1] * v[1] + u[2] * v[2];
   if (!(s > 1e-9)) return n;
   const ex = kx / s, ey = ky / s, ez = kz / s;
   const dot = ex * n[0] + ey * n[1] + ez * n[2];
@@ -460,7 +461,7 @@ function fittedSideNormal(ctx: FaceContext, tris: number[], n: Vec3, mx: number,
   // Tangent basis (e1, e2) of the patch.
   let e1x: number, e1y: number, e1z: number;
   if (Math.abs(nx) < 0.9) { e1x = 0; e1y = -nz; e1z = ny; } else { e1x = -nz; e1y = 0; e1z = nx; }
-  const e1l = Math.hypot(e1x, e1y, e1z);
+  const e1l = hypot(e1x, e1y, e1z);
   e1x /= e1l; e1y /= e1l; e1z /= e1l;
   const e2x = ny * e1z - nz * e1y, e2y = nz * e1x - nx * e1z, e2z = nx * e1y - ny * e1x;
   const s1 = new Float64Array(tris.length), s2 = new Float64Array(tris.length);
@@ -487,14 +488,14 @@ function fittedSideNormal(ctx: FaceContext, tris: number[], n: Vec3, mx: number,
       const px = first[0] + first[3] * s1[i] + first[6] * s2[i];
       const py = first[1] + first[4] * s1[i] + first[7] * s2[i];
       const pz = first[2] + first[5] * s1[i] + first[8] * s2[i];
-      const l = Math.hypot(px, py, pz);
+      const l = hypot(px, py, pz);
       return l > 0 && (px * ctx.triNormals[3 * h] + py * ctx.triNormals[3 * h + 1] + pz * ctx.triNormals[3 * h + 2]) / l >= cosMax ? 1 : 0;
     });
     fit = fitLinearNormals(ctx, tris, s1, s2, keep) ?? first;
     kept = keep;
   }
   if (!fit) return { fit: n };
-  const l = Math.hypot(fit[0], fit[1], fit[2]);
+  const l = hypot(fit[0], fit[1], fit[2]);
   return { fit: l > 0 ? [fit[0] / l, fit[1] / l, fit[2] / l] : n, keep: kept };
 }
 

@@ -5,6 +5,7 @@
  * positions: x, y, z per vertex (millimetres once imported).
  * triangles: three vertex indices per triangle, counter-clockwise seen from outside.
  */
+import { hypot } from './hypot';
 export interface TriangleMesh {
   positions: Float32Array;
   triangles: Uint32Array;
@@ -82,7 +83,7 @@ export function vertexNormals(mesh: TriangleMesh): Float32Array {
   }
   const n = new Float32Array(p.length);
   for (let i = 0; i < p.length; i += 3) {
-    const len = Math.hypot(out[i], out[i + 1], out[i + 2]);
+    const len = hypot(out[i], out[i + 1], out[i + 2]);
     if (len > 0) {
       n[i] = out[i] / len;
       n[i + 1] = out[i + 1] / len;

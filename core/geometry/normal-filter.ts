@@ -5,6 +5,7 @@
  * difference in normal (range Gaussian). Scanner noise and the fine roughness of a break are
  * smoothed while the crease where a break meets the bone surface stays sharp.
  */
+import { hypot } from './hypot';
 export function bilateralNormalFilter(
   normals: Float32Array,
   areas: Float64Array,
@@ -22,7 +23,7 @@ export function bilateralNormalFilter(
     for (let j = 0; j < 3; j++) {
       const g = neighbours[3 * f + j];
       if (g < 0) continue;
-      dsum += Math.hypot(centroids[3 * f] - centroids[3 * g], centroids[3 * f + 1] - centroids[3 * g + 1], centroids[3 * f + 2] - centroids[3 * g + 2]);
+      dsum += hypot(centroids[3 * f] - centroids[3 * g], centroids[3 * f + 1] - centroids[3 * g + 1], centroids[3 * f + 2] - centroids[3 * g + 2]);
       dn++;
     }
   }
@@ -43,7 +44,7 @@ export function bilateralNormalFilter(
         sy += w * cur[3 * g + 1];
         sz += w * cur[3 * g + 2];
       }
-      const len = Math.hypot(sx, sy, sz) || 1;
+      const len = hypot(sx, sy, sz) || 1;
       next[3 * f] = sx / len;
       next[3 * f + 1] = sy / len;
       next[3 * f + 2] = sz / len;

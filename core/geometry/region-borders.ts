@@ -1,4 +1,5 @@
 import type { TriangleMesh } from './mesh';
+import { hypot } from './hypot';
 
 /**
  * What lies along each region's border, by length of shared mesh edge:
@@ -44,7 +45,7 @@ export function regionBorders(
       const s = region[g];
       if (s === r) continue;
       const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
-      const len = Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+      const len = hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
       length[r] += len;
       const dot = normals[3 * f] * normals[3 * g] + normals[3 * f + 1] * normals[3 * g + 1] + normals[3 * f + 2] * normals[3 * g + 2];
       let pair = pairs[r].get(s);

@@ -1,4 +1,5 @@
 import type { TriangleMesh } from './mesh';
+import { hypot } from './hypot';
 
 /** Points on the surface at a roughly fixed spacing, each with its triangle's normal. */
 export interface SurfaceSamples {
@@ -24,9 +25,9 @@ export function resampleSurface(mesh: TriangleMesh, triNormals: Float32Array, sp
   const keyOf = (ix: number, iy: number, iz: number): number => ((ix + 1048576) * 2097152 + (iy + 1048576)) * 2097152 + (iz + 1048576);
   for (let f = 0; f < nt; f++) {
     const a = 3 * t[3 * f], b = 3 * t[3 * f + 1], c = 3 * t[3 * f + 2];
-    const lab = Math.hypot(p[b] - p[a], p[b + 1] - p[a + 1], p[b + 2] - p[a + 2]);
-    const lbc = Math.hypot(p[c] - p[b], p[c + 1] - p[b + 1], p[c + 2] - p[b + 2]);
-    const lca = Math.hypot(p[a] - p[c], p[a + 1] - p[c + 1], p[a + 2] - p[c + 2]);
+    const lab = hypot(p[b] - p[a], p[b + 1] - p[a + 1], p[b + 2] - p[a + 2]);
+    const lbc = hypot(p[c] - p[b], p[c + 1] - p[b + 1], p[c + 2] - p[b + 2]);
+    const lca = hypot(p[a] - p[c], p[a + 1] - p[c + 1], p[a + 2] - p[c + 2]);
     const k = Math.min(64, Math.max(1, Math.ceil((2 * Math.max(lab, lbc, lca)) / spacing)));
     for (let i = 0; i < k; i++) {
       for (let j = 0; j < k - i; j++) {

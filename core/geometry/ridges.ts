@@ -1,5 +1,6 @@
 import type { VertexRings } from './adjacency';
 import type { TriangleMesh } from './mesh';
+import { hypot } from './hypot';
 
 /**
  * Ridges: mesh edges where the filtered normals of the two triangles differ by more than a
@@ -45,7 +46,7 @@ export function detectAndCloseRidges(
   for (let f = 0; f < nt; f++) {
     for (let j = 0; j < 3; j++) {
       const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
-      lengthSum += Math.hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+      lengthSum += hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
       const g = neighbours[3 * f + j];
       if (g < 0) continue;
       const dot = normals[3 * f] * normals[3 * g] + normals[3 * f + 1] * normals[3 * g + 1] + normals[3 * f + 2] * normals[3 * g + 2];
@@ -86,9 +87,9 @@ export function detectAndCloseRidges(
       if (v !== s && degree[v] > 0 && find(v) !== own) { target = v; break; }
       for (let i = rings.start[v]; i < rings.start[v + 1]; i++) {
         const w = rings.list[i];
-        const len = Math.hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
+        const len = hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
         // Euclidean reach limit keeps the search local.
-        const reach = Math.hypot(p[3 * s] - p[3 * w], p[3 * s + 1] - p[3 * w + 1], p[3 * s + 2] - p[3 * w + 2]);
+        const reach = hypot(p[3 * s] - p[3 * w], p[3 * s + 1] - p[3 * w + 1], p[3 * s + 2] - p[3 * w + 2]);
         if (reach > settings.ridgeGapMm) continue;
         const bend = Math.max(Math.abs(k1[v]), Math.abs(k2[v]), Math.abs(k1[w]), Math.abs(k2[w]));
         const nd = d + len / (1 + settings.ridgeCurvatureWeight * bend * meanEdge);

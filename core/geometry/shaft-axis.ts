@@ -2,6 +2,7 @@ import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { mulberry32 } from './seeded-random';
 import { analysisSettings } from './settings';
 import { ellipseOffset, type EllipseSection } from './shaft-section';
+import { hypot } from './hypot';
 
 /**
  * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
@@ -67,7 +68,7 @@ function squareArea(centroids: Float32Array, normals: Float32Array, areas: Float
     const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
     if (Math.abs(nx * ax + ny * ay + nz * az) > 0.342) continue;
     offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
-    if (Math.abs(q[0] * nx + q[1] * ny + q[2] * nz) > 0.8 * Math.hypot(q[0], q[1], q[2])) area += areas[f];
+    if (Math.abs(q[0] * nx + q[1] * ny + q[2] * nz) > 0.8 * hypot(q[0], q[1], q[2])) area += areas[f];
   }
   return area;
 }
@@ -94,7 +95,7 @@ export function fitMedialSegment(
   }
   if (!(total > 0)) return axis;
   const w = offsetFromAxis({ ...axis, medial: undefined }, mx / total, my / total, mz / total, [0, 0, 0]);
-  const wl = Math.hypot(w[0], w[1], w[2]);
+  const wl = hypot(w[0], w[1], w[2]);
   if (!(wl > 1e-9)) return axis;
   const direction: [number, number, number] = [-w[0] / wl, -w[1] / wl, -w[2] / wl];
   const base = squareArea(centroids, normals, areas, axis);
@@ -147,7 +148,7 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
       if (along > 0.342) continue; // 20 degrees from perpendicular
       supported += areas[f];
       const mu = nx * ux + ny * uy + nz * uz, mv = nx * vx + ny * vy + nz * vz;
-      const ml = Math.hypot(mu, mv) || 1;
+      const ml = hypot(mu, mv) || 1;
       const pu = -mv / ml, pv = mu / ml; // perpendicular of the projected normal
       const qu = centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz;
       const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz;
@@ -157,7 +158,7 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
       if (start) {
         // From a consensus start: Tukey's biweight of the miss against centreTolerance times
         // the distance, the same test the consensus used, so the break faces cannot pull it off.
-        const x = miss / (centreTolerance! * Math.hypot(qu - cu, qv - cv) + 1e-9);
+        const x = miss / (centreTolerance! * hypot(qu - cu, qv - cv) + 1e-9);
         w = x < 1 ? areas[f] * (1 - x * x) ** 2 : 0;
       } else {
         w = areas[f] / (1 + (pass === 0 ? 0 : (miss / scale) ** 2));
@@ -174,7 +175,7 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
     for (let f = 0; f < nt; f += stride) {
       const qu = centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz - cu;
       const qv = centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz - cv;
-      d.push([Math.hypot(qu, qv), areas[f]]);
+      d.push([hypot(qu, qv), areas[f]]);
     }
     scale = Math.max(1e-6, weightedMedian(d) / 5);
   }
@@ -197,7 +198,7 @@ export function outerRadius(centroids: Float32Array, normals: Float32Array, area
     const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
     const t = rx * ax + ry * ay + rz * az;
     const px = rx - t * ax, py = ry - t * ay, pz = rz - t * az;
-    const d = Math.hypot(px, py, pz);
+    const d = hypot(px, py, pz);
     const outward = (px * normals[3 * f] + py * normals[3 * f + 1] + pz * normals[3 * f + 2]) / (d || 1);
     if (outward > 0.8) dists.push([d, areas[f]]);
   }
@@ -220,7 +221,7 @@ function facingArea(
     const rx = centroids[3 * f] - point[0], ry = centroids[3 * f + 1] - point[1], rz = centroids[3 * f + 2] - point[2];
     const t = rx * ax + ry * ay + rz * az;
     const px = rx - t * ax, py = ry - t * ay, pz = rz - t * az;
-    if (Math.abs(px * nx + py * ny + pz * nz) > 0.8 * Math.hypot(px, py, pz)) area += areas[f];
+    if (Math.abs(px * nx + py * ny + pz * nz) > 0.8 * hypot(px, py, pz)) area += areas[f];
   }
   return area;
 }
@@ -262,7 +263,7 @@ export function settleAxisSide(
   let wx = axis.point[0] - mx / total, wy = axis.point[1] - my / total, wz = axis.point[2] - mz / total;
   const along = wx * ax + wy * ay + wz * az;
   wx -= along * ax; wy -= along * ay; wz -= along * az;
-  const wl = Math.hypot(wx, wy, wz);
+  const wl = hypot(wx, wy, wz);
   if (!(wl > 1e-9)) return axis;
   wx /= wl; wy /= wl; wz /= wl;
   // Medians, not means: the creases where each face meets the break faces are strongly convex
@@ -299,7 +300,7 @@ function normalLineSupport(
   let score = 0;
   for (let k = 0; k < w.length; k++) {
     const ru = cu - qu[k], rv = cv - qv[k];
-    const d = Math.hypot(ru, rv);
+    const d = hypot(ru, rv);
     if (d > reach || d < 1e-6) continue;
     const x = Math.abs(ru * pv[k] - rv * pu[k]) / (tolerance * d);
     if (x < 1) score += w[k] * (1 - x * x);
@@ -329,7 +330,7 @@ function consensusCentre(
     uMin = Math.min(uMin, x); uMax = Math.max(uMax, x); vMin = Math.min(vMin, y); vMax = Math.max(vMax, y);
     if (Math.abs(nx * a[0] + ny * a[1] + nz * a[2]) > 0.342) continue;
     const mu = nx * u[0] + ny * u[1] + nz * u[2], mv = nx * v[0] + ny * v[1] + nz * v[2];
-    const ml = Math.hypot(mu, mv) || 1;
+    const ml = hypot(mu, mv) || 1;
     qu.push(x); qv.push(y); pu.push(mu / ml); pv.push(mv / ml); w.push(areas[f]);
   }
   const n = w.length;
@@ -350,7 +351,7 @@ function consensusCentre(
   }
   if (best <= 0) return undefined;
   const d: Array<[number, number]> = [];
-  for (let k = 0; k < n; k++) d.push([Math.hypot(bu - qu[k], bv - qv[k]), w[k]]);
+  for (let k = 0; k < n; k++) d.push([hypot(bu - qu[k], bv - qv[k]), w[k]]);
   return [bu, bv, Math.max(1e-6, weightedMedian(d) / 5)];
 }
 
@@ -367,7 +368,7 @@ function smallestEigen(normals: Float32Array, areas: Float64Array, use: (f: numb
   for (let i = 1; i < 3; i++) if (vals[i] < vals[k]) k = i;
   const V = e.eigenvectorMatrix;
   const v: [number, number, number] = [V.get(0, k), V.get(1, k), V.get(2, k)];
-  const l = Math.hypot(...v) || 1;
+  const l = hypot(...v) || 1;
   return [v[0] / l, v[1] / l, v[2] / l];
 }
 
@@ -383,7 +384,7 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
   const q: [number, number, number] = [0, 0, 0];
   for (let f = 0; f < nt; f++) {
     const [qx, qy, qz] = offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
-    const ql = Math.hypot(qx, qy, qz) || 1;
+    const ql = hypot(qx, qy, qz) || 1;
     const radial = (normals[3 * f] * qx + normals[3 * f + 1] * qy + normals[3 * f + 2] * qz) / ql;
     out[f] = radial >= radialMin ? 1 : radial <= -radialMin ? 2 : 0;
   }
@@ -440,7 +441,7 @@ export function fitSectionSegment(
   const project = (f: number): [number, number, number, number, boolean] => {
     const nx = normals[3 * f], ny = normals[3 * f + 1], nz = normals[3 * f + 2];
     const mu = nx * ux + ny * uy + nz * uz, mv = nx * vx + ny * vy + nz * vz;
-    const ml = Math.hypot(mu, mv) || 1;
+    const ml = hypot(mu, mv) || 1;
     return [
       centroids[3 * f] * ux + centroids[3 * f + 1] * uy + centroids[3 * f + 2] * uz,
       centroids[3 * f] * vx + centroids[3 * f + 1] * vy + centroids[3 * f + 2] * vz,
@@ -475,7 +476,7 @@ export function fitSectionSegment(
     const rx = x - su, ry = y - sv;
     const s = Math.min(h1, Math.max(-h2, rx * du + ry * dv));
     const qx = rx - s * du, qy = ry - s * dv;
-    return (qx * nu + qy * nv) / (Math.hypot(qx, qy) || 1e-9);
+    return (qx * nu + qy * nv) / (hypot(qx, qy) || 1e-9);
   };
   const score = (su: number, sv: number, theta: number, h1: number, h2: number): number => {
     const du = Math.cos(theta), dv = Math.sin(theta);
@@ -564,7 +565,7 @@ export function acrossAxisBasis(a: [number, number, number]): [[number, number, 
   const [ax, ay, az] = a;
   let ux: number, uy: number, uz: number;
   if (Math.abs(ax) < 0.9) { ux = 0; uy = az; uz = -ay; } else { ux = -az; uy = 0; uz = ax; }
-  const ul = Math.hypot(ux, uy, uz);
+  const ul = hypot(ux, uy, uz);
   ux /= ul; uy /= ul; uz /= ul;
   return [[ux, uy, uz], [ay * uz - az * uy, az * ux - ax * uz, ax * uy - ay * ux]];
 }

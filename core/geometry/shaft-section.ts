@@ -1,5 +1,6 @@
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import { acrossAxisBasis, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
+import { hypot } from './hypot';
 
 /**
  * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
@@ -30,7 +31,7 @@ export function sectionLevel(s: EllipseSection, x: number, y: number): number {
   const [A, B] = s.outer, [Ai, Bi] = s.inner;
   const da = A - Ai, db = B - Bi;
   let lo = Math.max(-Ai / da, -Bi / db) + 1e-9;
-  const r = Math.hypot(x, y);
+  const r = hypot(x, y);
   let hi = 1 + r / Math.min(da, db) + 1;
   const f = (t: number): number => {
     const a = Ai + t * da, b = Bi + t * db;
@@ -58,7 +59,7 @@ export function ellipseOffset(
   const t = sectionLevel(s, x, y);
   const a = s.inner[0] + t * (s.outer[0] - s.inner[0]), b = s.inner[1] + t * (s.outer[1] - s.inner[1]);
   const gx = x / (a * a), gy = y / (b * b);
-  const gl = Math.hypot(gx, gy);
+  const gl = hypot(gx, gy);
   if (!(gl > 0)) { out[0] = qx; out[1] = qy; out[2] = qz; return out; }
   const k = (0.5 * (a + b)) / gl;
   out[0] = k * (gx * s.major[0] + gy * minor[0]);
@@ -164,7 +165,7 @@ function robustRatio(m: Float64Array, n: number, sign: number, steps: number): n
     let sum = 0, num = 0, den = 0;
     for (let k = 0; k < n; k += stride) {
       const x = m[5 * k], y = m[5 * k + 1], nx = m[5 * k + 2], ny = m[5 * k + 3];
-      const gy = rho * y, gl = Math.hypot(x, gy);
+      const gy = rho * y, gl = hypot(x, gy);
       if (!(gl > 0)) continue;
       const miss = 1 - (sign * (nx * x + ny * gy)) / gl;
       if (!(miss < EXPLAINED_MISS)) continue;
@@ -254,7 +255,7 @@ export function fitEllipseSection(
     const x = centroids[3 * f], y = centroids[3 * f + 1], z = centroids[3 * f + 2];
     const nu = normals[3 * f] * ux + normals[3 * f + 1] * uy + normals[3 * f + 2] * uz;
     const nv = normals[3 * f] * vx + normals[3 * f + 1] * vy + normals[3 * f + 2] * vz;
-    const l = Math.hypot(nu, nv) || 1;
+    const l = hypot(nu, nv) || 1;
     return [x * ux + y * uy + z * uz, x * vx + y * vy + z * vz, nu / l, nv / l];
   };
   for (let k = 0; k < n; k++) {
@@ -295,7 +296,7 @@ export function fitEllipseSection(
       inner.push(p[4] + c0[0], p[5] + c0[1], rows.w[k]);
     }
     const fo = directEllipseFit(outer), fi = directEllipseFit(inner);
-    for (const fit of [fo, fi]) if (fit && Math.hypot(fit.cu - c0[0], fit.cv - c0[1]) < 4 * width) starts.push([fit.cu, fit.cv]);
+    for (const fit of [fo, fi]) if (fit && hypot(fit.cu - c0[0], fit.cv - c0[1]) < 4 * width) starts.push([fit.cu, fit.cv]);
   }
   let best: Ellipses | undefined;
   for (const [cu, cv] of starts) {
@@ -446,7 +447,7 @@ function explained(surf: number[], e: Ellipses, tol: number): number {
     const nx = surf[k + 2] * c + surf[k + 3] * s, ny = -surf[k + 2] * s + surf[k + 3] * c;
     for (const [a, b, sign] of curves) {
       const gx = x / (a * a), gy = y / (b * b);
-      const gl = Math.hypot(gx, gy);
+      const gl = hypot(gx, gy);
       if (!(gl > 0)) continue;
       const d = (x * gx + y * gy - 1) / (2 * gl);
       sum += explainedArea(surf[k + 4], d, 1 - sign * (nx * gx + ny * gy) / gl, tol);
@@ -465,7 +466,7 @@ function explainedRound(
   for (let f = 0; f < areas.length; f += stride) {
     if (!across(f)) continue;
     offsetFromAxis(axis, centroids[3 * f], centroids[3 * f + 1], centroids[3 * f + 2], q);
-    const d = Math.hypot(q[0], q[1], q[2]);
+    const d = hypot(q[0], q[1], q[2]);
     if (!(d > 0)) continue;
     const radial = (q[0] * normals[3 * f] + q[1] * normals[3 * f + 1] + q[2] * normals[3 * f + 2]) / d;
     rows.push(d, radial, areas[f]);
@@ -534,7 +535,7 @@ export function directEllipseFit(points: number[]): { cu: number; cv: number; a:
   const det = 4 * A * C - B * B;
   const x0 = (B * E - 2 * C * D) / det, y0 = (B * D - 2 * A * E) / det;
   const f0 = A * x0 * x0 + B * x0 * y0 + C * y0 * y0 + D * x0 + E * y0 + F;
-  const tr = A + C, root = Math.hypot(A - C, B);
+  const tr = A + C, root = hypot(A - C, B);
   const l1 = (tr + root) / 2, l2 = (tr - root) / 2;
   if (!(-f0 / l1 > 0 && -f0 / l2 > 0)) return undefined;
   const small = Math.sqrt(-f0 / l1), big = Math.sqrt(-f0 / l2);
