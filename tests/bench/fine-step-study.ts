@@ -9,9 +9,9 @@
  */
 import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { bestDistinct, DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, screenFacePair, type CoarseMotion, type DeferredMatch } from '../../core/geometry/proposals/pairwise-match';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFace, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
-import { deferredScore, type ScoredSide } from '../../core/geometry/registration/score';
+import { bestDistinct, DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, scoredSide, screenFacePair, type CoarseMotion, type DeferredMatch } from '../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { deferredScore } from '../../core/geometry/registration/score';
 import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { candidateGroups, readStudyScans } from './study-assemblage';
 
@@ -22,7 +22,6 @@ const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.sys
 const prepared = inputs.map((x) => prepareFragment(x, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS }));
 const grouped = candidateGroups(prepared).slice(0, maxPairs);
 const params = DEFAULT_MATCH_PARAMETERS;
-const side = (f: PreparedFragment, face: PreparedFace): ScoredSide => ({ surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis });
 const t = { screen: 0, shortlist: 0, fine: 0, deferred: 0, best: 0 };
 let facePairs = 0, fineRuns = 0, completed = 0, completedAll = 0;
 // a propose run wants the best 3 of a pair, or its best alone when that scores below the run's minimum (0.05)
@@ -57,7 +56,7 @@ for (const list of grouped) {
     if (keepL === undefined) delete process.env.KNITBONE_FINE_LAST_IT; else process.env.KNITBONE_FINE_LAST_IT = keepL;
     t0 = cpu();
   }
-  const deferred: DeferredMatch[] = shortlist.map((s, k) => ({ transform: fine[k], faceA: a.faces[s.i].parent, faceB: b.faces[s.j].parent, score: deferredScore(side(a, a.faces[s.i]), side(b, b.faces[s.j]), fine[k], { contactTolerance: params.contactToleranceSpacings * spacing, spacing }) }));
+  const deferred: DeferredMatch[] = shortlist.map((s, k) => ({ transform: fine[k], faceA: a.faces[s.i].parent, faceB: b.faces[s.j].parent, score: deferredScore(scoredSide(a, a.faces[s.i]), scoredSide(b, b.faces[s.j]), fine[k], { contactTolerance: params.contactToleranceSpacings * spacing, spacing }) }));
   t1 = cpu(); t.deferred += t1 - t0; t0 = t1;
   let n = 0;
   const counted = deferred.map((d) => ({ ...d, score: { ...d.score, complete: () => { n++; return d.score.complete(); } } }));

@@ -13,7 +13,7 @@
 import { readdirSync, writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, matchFragments, screenFacePair, type CoarseMotion, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, matchFragments, screenFacePair, scoredSide, type CoarseMotion, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
 import { assemblePrepared } from '../../core/geometry/proposals/prepared-fragment';
 import { readFragment, readPrepared, readTraits } from '../../core/jobs/fragment-cache';
 import { runSampling } from '../../core/host/proposals/describe-faces';
@@ -60,9 +60,8 @@ if (process.env.KNITBONE_STAGES === '1') {
       const T = fineTransform(a, s.i, b, s.j, s.motion.transform, DEFAULT_MATCH_PARAMETERS);
       add('fine icp', t0);
       const FA = a.faces[s.i], FB = b.faces[s.j];
-      const side = (f: typeof a, face: typeof FA) => ({ surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis });
       t0 = ms();
-      const d = deferredScore(side(a, FA), side(b, FB), T, { contactTolerance: DEFAULT_MATCH_PARAMETERS.contactToleranceSpacings * spacing(), spacing: spacing() });
+      const d = deferredScore(scoredSide(a, FA), scoredSide(b, FB), T, { contactTolerance: DEFAULT_MATCH_PARAMETERS.contactToleranceSpacings * spacing(), spacing: spacing() });
       add('deferred score', t0);
       t0 = ms();
       d.complete();

@@ -214,7 +214,8 @@ function timed<T>(times: Record<string, number> | undefined, step: string, f: ()
   return out;
 }
 
-function side(f: PreparedFragment, face: PreparedFace): ScoredSide {
+/** One side of a join as the score reads it: the fragment's surface and one of its break faces. */
+export function scoredSide(f: PreparedFragment, face: PreparedFace): ScoredSide {
   return { surface: f.surface, facePoints: face.points, faceNormals: face.normals, surfacePoints: f.surfacePoints, surfaceNormals: f.surfaceNormals, surfaceTree: f.surfaceTree, outline: face.outline, axis: f.axis };
 }
 
@@ -334,7 +335,7 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const out: FaceMatch[] = [];
   for (const r of screened) {
     const T = fineTransform(a, fa, b, fb, r.transform, params);
-    const s = scoreJoin(side(a, FA), side(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+    const s = scoreJoin(scoredSide(a, FA), scoredSide(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
     out.push({ ...s, transform: T, faceA: FA.parent, faceB: FB.parent });
   }
   return distinctBest(out, 2 * spacing);
@@ -379,7 +380,7 @@ export function polishBothWays(a: PreparedFragment, fa: number, b: PreparedFragm
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const T = invert(fineTransform(b, fb, a, fa, invert(m.transform), params));
-  const s = scoreJoin(side(a, FA), side(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+  const s = scoreJoin(scoredSide(a, FA), scoredSide(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
   return s.score > m.score ? { ...s, transform: T, faceA: FA.parent, faceB: FB.parent } : m;
 }
 
@@ -498,7 +499,7 @@ export function matchFragments(
   const fine = shortlist.map((s): DeferredMatch => {
     const FA = a.faces[s.i], FB = b.faces[s.j];
     const transform = fineTransform(a, s.i, b, s.j, s.motion.transform, params);
-    const score = deferredScore(side(a, FA), side(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+    const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
     return { transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j };
   });
   if (params.polishBest <= 0) return bestDistinct(fine, keep, 2 * spacing, minScore, origin);
