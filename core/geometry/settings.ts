@@ -40,6 +40,23 @@ export const analysisSettingsSchema = z.object({
    */
   shaftCentreTolerance: z.number().positive().max(1).default(0.45),
   /**
+   * Shaft axis direction (shaft-axis.ts, searchShaftDirection): the eigenvector iteration of the
+   * normals' scatter can settle across a short or chunky piece (its transverse ends' normals
+   * run along the axis and outweigh the narrow in-plane spread of the wall's), so directions
+   * spread evenly over the half sphere are scored by the area whose normal is within 20 degrees
+   * of perpendicular (biweight); the best restarts the iteration when it scores this share more
+   * than the fitted direction. 0 or below: no search.
+   */
+  shaftDirectionSearchGain: z.number().default(0.1),
+  /**
+   * ...only where the fitted direction already has this share of the area within 20 degrees
+   * of perpendicular (below it the piece is not read as a shaft, and a searched direction that
+   * makes it one turned an end piece of a metacarpal, s362 QS-10328, from 97.0 to 92.8 %).
+   */
+  shaftDirectionSearchSupportMin: z.number().min(0).max(1).default(0.5),
+  /** Directions tried by searchShaftDirection (even spiral over the half sphere). */
+  shaftDirectionSearchCount: z.number().int().min(0).default(1000),
+  /**
    * Which side of a flat wall the shaft centre lies on (shaft-axis.ts, settleAxisSide): the
    * surface facing the fitted centre may be taken for the outer one (and the centre mirrored)
    * only while its area is at least this share of the surface facing away (a break face lying

@@ -113,13 +113,12 @@ export function fitMedialSegment(
  * misses it by at most this share of its distance (settings.ts, shaftCentreTolerance).
  * Without it the centre is the plain reweighted least-squares fit (no consensus start).
  */
-export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, areas: Float64Array, centreTolerance?: number): ShaftAxis {
+export function fitShaftAxis(
+  centroids: Float32Array, normals: Float32Array, areas: Float64Array, centreTolerance?: number, directionSearch?: { gain: number; count: number; supportMin: number },
+): ShaftAxis {
   const nt = areas.length;
-  let dir = smallestEigen(normals, areas, () => true);
-  for (let pass = 0; pass < 3; pass++) {
-    const d = dir;
-    dir = smallestEigen(normals, areas, (f) => Math.abs(normals[3 * f] * d[0] + normals[3 * f + 1] * d[1] + normals[3 * f + 2] * d[2]) < 0.35);
-  }
+  let dir = refineDirection(normals, areas, smallestEigen(normals, areas, () => true));
+  if (directionSearch) dir = searchShaftDirection(normals, areas, dir, directionSearch.gain, directionSearch.count, directionSearch.supportMin);
   // Axis point: minimise sum w ((c - q) . m_perp)^2 in the plane across the axis.
   const [ax, ay, az] = dir;
   const [[ux, uy, uz], [vx, vy, vz]] = acrossAxisBasis(dir);
@@ -186,6 +185,66 @@ export function fitShaftAxis(centroids: Float32Array, normals: Float32Array, are
   const point: [number, number, number] = [cu * ux + cv * vx + mid * ax, cu * uy + cv * vy + mid * ay, cu * uz + cv * vz + mid * az];
   const radius = outerRadius(centroids, normals, areas, dir, point);
   return { direction: dir, point, radius, support: total ? supported / total : 0 };
+}
+
+/** Three passes of the smallest eigenvector on the triangles within about 20 degrees of perpendicular to the last estimate. */
+function refineDirection(normals: Float32Array, areas: Float64Array, start: [number, number, number]): [number, number, number] {
+  let dir = start;
+  for (let pass = 0; pass < 3; pass++) {
+    const d = dir;
+    dir = smallestEigen(normals, areas, (f) => Math.abs(normals[3 * f] * d[0] + normals[3 * f + 1] * d[1] + normals[3 * f + 2] * d[2]) < 0.35);
+  }
+  return dir;
+}
+
+/**
+ * Area whose normal runs within 20 degrees of perpendicular to `d`, each triangle weighted by
+ * Tukey's biweight of |n . d| / sin 20° (an even sample of at most about 4000 triangles).
+ */
+function acrossSupport(normals: Float32Array, areas: Float64Array, d: readonly number[], stride: number): number {
+  let s = 0;
+  for (let f = 0; f < areas.length; f += stride) {
+    const x = Math.abs(normals[3 * f] * d[0] + normals[3 * f + 1] * d[1] + normals[3 * f + 2] * d[2]) / 0.342;
+    if (x < 1) s += areas[f] * (1 - x * x) ** 2;
+  }
+  return s;
+}
+
+/**
+ * A global check of the shaft direction. The eigenvector iteration (refineDirection) starts
+ * from the smallest eigenvector of all normals' scatter; on a short or chunky piece (a ring
+ * section a few mm long, a piece of a metaphysis) the transverse ends' normals, which run along
+ * the axis, outweigh the narrow in-plane spread of a wall arc, that start lies across the
+ * piece, and the iteration stays there although the true axis has more surface perpendicular
+ * to it (a 90-degree arc of a 12/7 mm tube 6 mm long: 0.62 of the area against 0.57).
+ * `count` directions spread evenly over the half sphere (golden-angle spiral) are scored by
+ * acrossSupport; when the best beats the fitted direction by `gain` (a share), the iteration
+ * restarts from it, and its result is kept if it still scores more than the fitted one. Only
+ * where the fitted direction has `supportMin` of the area within 20 degrees of perpendicular.
+ */
+export function searchShaftDirection(
+  normals: Float32Array, areas: Float64Array, fitted: [number, number, number], gain: number, count: number, supportMin = 0.5,
+): [number, number, number] {
+  if (!(gain > 0) || count < 1) return fitted;
+  const stride = Math.max(1, Math.floor(areas.length / 4000));
+  let across = 0, total = 0;
+  for (let f = 0; f < areas.length; f += stride) {
+    total += areas[f];
+    if (Math.abs(normals[3 * f] * fitted[0] + normals[3 * f + 1] * fitted[1] + normals[3 * f + 2] * fitted[2]) <= 0.342) across += areas[f];
+  }
+  if (!(across >= supportMin * total)) return fitted;
+  const here = acrossSupport(normals, areas, fitted, stride);
+  let best = -1;
+  const bd: [number, number, number] = [0, 0, 1];
+  for (let i = 0; i < count; i++) {
+    const z = (i + 0.5) / count, r = Math.sqrt(1 - z * z), phi = i * 2.399963229728653;
+    const d = [r * Math.cos(phi), r * Math.sin(phi), z];
+    const s = acrossSupport(normals, areas, d, stride);
+    if (s > best) { best = s; bd[0] = d[0]; bd[1] = d[1]; bd[2] = d[2]; }
+  }
+  if (!(best > here * (1 + gain))) return fitted;
+  const restarted = refineDirection(normals, areas, bd);
+  return acrossSupport(normals, areas, restarted, stride) > here ? restarted : fitted;
 }
 
 /** Area-weighted median distance from the axis of the triangles facing away from it (radial > 0.8). */
