@@ -4,7 +4,6 @@ import { KnitboneError } from '../../host/errors';
 import { Host } from '../../host/host';
 import { printJson } from '../output';
 import { terminalProgress } from '../progress';
-import { DEFAULT_MIN_SCORE, FILL_PER_PIECE } from '../../host/proposals/propose-run';
 
 /** `knitbone propose <catalogue> [--workers N] [--json]`: propose joins across the catalogue. */
 export function registerPropose(program: Command): void {
@@ -14,19 +13,16 @@ export function registerPropose(program: Command): void {
     .argument('<catalogue>', 'the catalogue file')
     .option('--workers <n>', 'worker threads (default: the cores available)', String(availableParallelism()))
     .option('--exhaustive', 'align every pair of break faces instead of the candidates the index suggests (slow; for measuring)')
-    .option('--min-score <p>', 'store proposals scoring at least this (0-1), except to give a piece its first few (--fill)', String(DEFAULT_MIN_SCORE))
-    .option('--fill <n>', 'a piece with fewer proposals than n also gets its best pairs below --min-score (0: none)', String(FILL_PER_PIECE))
+    .option('--min-score <p>', 'store proposals scoring at least this (0-1)', '0.05')
     .option('--size-class-gap <n>', 'pair only pieces whose recorded size classes are at most n classes apart; pieces with no class pair with all; "any" ignores size classes (default: the same class only)')
     .option('--json', 'print the proposed joins as `knitbone joins --json` does')
-    .action(async (catalogue: string, opts: { workers: string; exhaustive?: boolean; minScore: string; fill: string; sizeClassGap?: string; json?: boolean }) => {
+    .action(async (catalogue: string, opts: { workers: string; exhaustive?: boolean; minScore: string; sizeClassGap?: string; json?: boolean }) => {
       const workers = Number(opts.workers);
       if (!Number.isInteger(workers) || workers < 1) throw new KnitboneError('usage', `--workers must be a whole number of at least 1 (got "${opts.workers}")`);
       const gap = opts.sizeClassGap === undefined ? undefined : opts.sizeClassGap.trim().toLowerCase() === 'any' ? null : Number(opts.sizeClassGap);
       if (gap !== undefined && gap !== null && (!Number.isInteger(gap) || gap < 0 || gap > 10)) {
         throw new KnitboneError('usage', `--size-class-gap must be a whole number of classes from 0 to 10, or "any" to ignore size classes (got "${opts.sizeClassGap}")`);
       }
-      const fill = Number(opts.fill);
-      if (!Number.isInteger(fill) || fill < 0 || fill > 20) throw new KnitboneError('usage', `--fill must be a whole number from 0 to 20 (got "${opts.fill}")`);
       const progress = terminalProgress();
       const abort = new AbortController();
       const onSigint = (): void => abort.abort();
@@ -35,9 +31,9 @@ export function registerPropose(program: Command): void {
       try {
         out = (await new Host().callUnchecked(
           'proposals.run',
-          { catalogue, workers, exhaustive: opts.exhaustive ?? false, minScore: Number(opts.minScore), fillPerPiece: fill, ...(gap === undefined ? {} : { sizeClassMaxDifference: gap }) },
+          { catalogue, workers, exhaustive: opts.exhaustive ?? false, minScore: Number(opts.minScore), ...(gap === undefined ? {} : { sizeClassMaxDifference: gap }) },
           { onProgress: progress.onProgress, signal: abort.signal },
-        )) as { run: { scans: number; faces: number; candidatePairs: number; alignedPairs: number; skippedDone: number; skippedDecided: number; sizeClasses: { gap: number | null; piecesWithClass: number }; stored: number; filled: number; cancelled: boolean; problems: Array<{ file: string; message: string }>; seconds: number; candidateFacePairs: number; alignedFacePairs: number; analysedScans: number; describedScans: number; stageSeconds: { reading: number; describing: number; aligning: number }; aligningPreparations: number; workerBusySeconds: number[] } };
+        )) as { run: { scans: number; faces: number; candidatePairs: number; alignedPairs: number; skippedDone: number; skippedDecided: number; sizeClasses: { gap: number | null; piecesWithClass: number }; stored: number; cancelled: boolean; problems: Array<{ file: string; message: string }>; seconds: number; candidateFacePairs: number; alignedFacePairs: number; analysedScans: number; describedScans: number; stageSeconds: { reading: number; describing: number; aligning: number }; aligningPreparations: number; workerBusySeconds: number[] } };
       } finally {
         progress.finish();
         process.removeListener('SIGINT', onSigint);
@@ -46,7 +42,7 @@ export function registerPropose(program: Command): void {
       for (const p of r.problems) process.stderr.write(`knitbone: ${p.file}: ${p.message}\n`);
       const line =
         `${r.scans} scans, ${r.faces} break faces, ${r.candidatePairs} candidate pairs; aligned ${r.alignedPairs}, ` +
-        `skipped ${r.skippedDone} done before and ${r.skippedDecided} already decided; stored ${r.stored} proposals (${r.filled} of them below the minimum score, to fill a piece's first ${fill}) in ${r.seconds.toFixed(1)} s\n` +
+        `skipped ${r.skippedDone} done before and ${r.skippedDecided} already decided; stored ${r.stored} proposals in ${r.seconds.toFixed(1)} s\n` +
         `(${r.analysedScans} scans analysed and ${r.describedScans} described in this run, the others from the cache; ${r.candidateFacePairs} candidate face pairs, ${r.alignedFacePairs} aligned; ` +
         `reading ${r.stageSeconds.reading.toFixed(1)} s, describing ${r.stageSeconds.describing.toFixed(1)} s, aligning ${r.stageSeconds.aligning.toFixed(1)} s)\n` +
         (r.sizeClasses.gap === null

@@ -31,26 +31,6 @@ import { WORKER_CACHE_SIZE, type AnalyseResult, type MatchResult, type ProposalT
 import { describeFaces, latestScanRefs, runSampling } from './describe-faces';
 import type { RequestContext } from '../request';
 
-/** Best motions scoring at least this are stored as proposals (a probability: score-model.ts). */
-export const DEFAULT_MIN_SCORE = 0.05;
-
-/**
- * A piece with fewer undecided proposals than this at the end of a run also gets its best pairs
- * scoring below the minimum stored, best first, down to FILL_MIN_SCORE, until it has this many
- * (each stored pair counts for both its pieces). Proposals above the minimum always rank higher,
- * so no piece's list loses anything; a piece whose best partner scores 0.01 still shows it at
- * the top of its (short) list instead of nothing. Why: on dev seed 340 at 200 fragments, of 79
- * true joins whose fragment pair was a candidate and stored nothing, 42 score below 0.05 even
- * refined from the true motion on every face pair (small or partial contacts: the score model
- * was fitted on 30-fragment sets), and matchFragments with a minimum of 0.01 instead of 0.05
- * stores 11 more of them with the right motion (tests/bench/stored-gap-study.ts). 3: the
- * proposals bench counts a join found when it is in the top 3 of either piece (issue 6, item 5).
- */
-export const FILL_PER_PIECE = 3;
-
-/** Below this a pair never fills a piece's list: a probability of a tenth of a percent is noise. */
-export const FILL_MIN_SCORE = 0.001;
-
 export interface ProposeOptions {
   catalogue: string;
   workers?: number;
@@ -63,12 +43,8 @@ export interface ProposeOptions {
    * (default SIZE_CLASS_MAX_DIFFERENCE; null: size classes are not used). Not used when exhaustive.
    */
   sizeClassMaxDifference?: number | null;
-  /** Best motions scoring below this are not stored as proposals, except to fill a piece's first few (fillPerPiece). Default DEFAULT_MIN_SCORE. */
+  /** Best motions scoring below this are not stored as proposals. */
   minScore?: number;
-  /** A piece with fewer proposals than this gets its best pairs below minScore (down to fillMinScore) stored as well; 0: none. Default FILL_PER_PIECE. */
-  fillPerPiece?: number;
-  /** Pairs scoring below this never fill. Default FILL_MIN_SCORE. */
-  fillMinScore?: number;
   ransacIterations?: number;
 }
 
@@ -100,8 +76,6 @@ export interface ProposeOutcome {
      */
     sizeClasses: { gap: number | null; piecesWithClass: number };
     stored: number;
-    /** Of those, proposals scoring below the minimum, stored because a piece had fewer than fillPerPiece above it. */
-    filled: number;
     cancelled: boolean;
     problems: Array<{ scanId: number; file: string; message: string }>;
     parameters: Record<string, unknown>;
@@ -127,7 +101,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
     const outcome = (over: Partial<ProposeOutcome['run']>, parameters: Record<string, unknown> = {}, hash = ''): ProposeOutcome => ({
       proposals: cat.joins.list({ status: 'proposed' }),
       run: {
-        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, describedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, sizeClasses: { gap: null, piecesWithClass: 0 }, stored: 0, filled: 0,
+        scans: scans.length, faces: 0, candidatePairs: 0, candidateFacePairs: 0, alignedPairs: 0, alignedFacePairs: 0, analysedScans: 0, describedScans: 0, stageSeconds: { ...stageSeconds }, aligningPreparations: 0, workerBusySeconds: [], skippedDone: 0, skippedDecided: 0, sizeClasses: { gap: null, piecesWithClass: 0 }, stored: 0,
         cancelled: false, problems, parameters, parametersHash: hash, seconds: (Date.now() - started) / 1000, ...over,
       },
     });
@@ -157,13 +131,11 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sampling = runSampling(usable.map((s) => analysedOk.get(s.scanId)!));
       const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(options.ransacIterations ? { ransacIterations: options.ransacIterations } : {}) };
       const k = options.k ?? DEFAULT_K;
-      const fillPerPiece = Math.max(0, Math.floor(options.fillPerPiece ?? FILL_PER_PIECE));
-      const fillMinScore = options.fillMinScore ?? FILL_MIN_SCORE;
       // the size-class gap in force (null: not used; --exhaustive pairs every face)
       const sizeClassMaxDifference = options.exhaustive ? null : options.sizeClassMaxDifference === undefined ? SIZE_CLASS_MAX_DIFFERENCE : options.sizeClassMaxDifference;
       // prepared: how faces become samples, patches and corner pieces (fragment-cache.ts); a change
       // there changes every pair's outcome, so pairs done before it are aligned again
-      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? DEFAULT_MIN_SCORE, fill: { perPiece: fillPerPiece, minScore: fillMinScore }, provenience: 'not used' };
+      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
       // A pair is done for the parameters that decide its outcome; which pairs are aligned
       // (pruning, exhaustive) does not change a pair's result, so widening the search later
       // aligns only the pairs not aligned before.
@@ -203,9 +175,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const poses = refitPoses(accepted);
       let skippedDone = 0, skippedDecided = 0;
       // a pair whose best motion scores below this is recorded as done but not proposed
-      const minScore = options.minScore ?? DEFAULT_MIN_SCORE;
-      // a worker answers with motions down to the lower of the two minimums (pairwise-match.ts bestDistinct)
-      const workerMinScore = fillPerPiece > 0 ? Math.min(minScore, fillMinScore) : minScore;
+      const minScore = options.minScore ?? 0.05;
       const tasks: PoolTask<ProposalTask>[] = [];
       for (const list of grouped.values()) {
         const A = usable[list[0].a], B = usable[list[0].b];
@@ -213,7 +183,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         if (done.has(`${sa.scanId}:${sb.scanId}`)) { skippedDone++; continue; }
         if (decided.has(pairKey(specimenOfScan.get(sa.scanId)!, specimenOfScan.get(sb.scanId)!))) { skippedDecided++; continue; }
         const facePairs: Array<[number, number]> = list.map((c) => (sa === A ? [c.faceA, c.faceB] : [c.faceB, c.faceA]));
-        tasks.push({ keys: [String(sa.scanId), String(sb.scanId)], message: { kind: 'match', a: sa, b: sb, facePairs, sampling, params, keep: 3, minScore: workerMinScore } });
+        tasks.push({ keys: [String(sa.scanId), String(sb.scanId)], message: { kind: 'match', a: sa, b: sb, facePairs, sampling, params, keep: 3, minScore } });
       }
       // keep pairs that share fragments near each other in the queue (worker caches; pair-order.ts)
       const slot = new Map(usable.map((u, i) => [String(u.scanId), i]));
@@ -222,9 +192,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       for (const t of ordered) tasks.push(t);
 
       // 4. align and store
-      let stored = 0, filled = 0, alignedFacePairs = 0, aligningPreparations = 0;
-      // pairs whose best motion scores below the minimum but could fill a piece's first proposals: decided at the end
-      const reserve: MatchResult[] = [];
+      let stored = 0, alignedFacePairs = 0, aligningPreparations = 0;
       const busy = new Map<number, number>();
       const facePairsOf = new Map(tasks.map((t) => {
         const msg = t.message as Extract<ProposalTask, { kind: 'match' }>;
@@ -236,9 +204,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
           alignedFacePairs += facePairsOf.get(`${r.scanA}:${r.scanB}`) ?? 0;
           aligningPreparations += r.prepared;
           busy.set(r.worker, (busy.get(r.worker) ?? 0) + r.busyMs / 1000);
-          const best = r.matches[0];
-          if (fillPerPiece > 0 && best && best.score < minScore && best.score >= fillMinScore) reserve.push(r);
-          else if (storeResult(cat, pairsRepo, r, specimenOfScan, analysedOk, poses, { parametersHash, parameters, minScore })) stored++;
+          if (storeResult(cat, pairsRepo, r, specimenOfScan, analysedOk, poses, { parametersHash, parameters, minScore })) stored++;
         },
         onError: (message, i) => {
           const t = tasks[i].message as Extract<ProposalTask, { kind: 'match' }>;
@@ -246,23 +212,9 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
         },
         onProgress: (n, total) => ctx.onProgress({ stage: 'aligning candidate pairs', done: n, total }),
       });
-      // a cancelled run leaves its reserve undone (aligned again next time): the pieces' counts are not final
-      if (!m.cancelled) {
-        const counts = proposalCounts(cat);
-        for (const r of fillOrder(reserve)) {
-          const a = specimenOfScan.get(r.scanA)!, b = specimenOfScan.get(r.scanB)!;
-          const fill = (counts.get(a) ?? 0) < fillPerPiece || (counts.get(b) ?? 0) < fillPerPiece;
-          if (storeResult(cat, pairsRepo, r, specimenOfScan, analysedOk, poses, { parametersHash, parameters, minScore: fill ? fillMinScore : minScore })) {
-            stored++;
-            filled++;
-            counts.set(a, (counts.get(a) ?? 0) + 1);
-            counts.set(b, (counts.get(b) ?? 0) + 1);
-          }
-        }
-      }
       endStage('aligning');
       return outcome(
-        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, describedScans: d.described, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, sizeClasses: sizeClassReport, stored, filled, cancelled: m.cancelled },
+        { faces: faces.length, candidatePairs: grouped.size, candidateFacePairs: candidates.length, alignedPairs: m.done, alignedFacePairs, analysedScans: toAnalyse.length, describedScans: d.described, stageSeconds: { ...stageSeconds }, aligningPreparations, workerBusySeconds: [...busy.values()], skippedDone, skippedDecided, sizeClasses: sizeClassReport, stored, cancelled: m.cancelled },
         parameters,
         parametersHash,
       );
@@ -270,23 +222,6 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       stopWorkers();
     }
   });
-}
-
-/** Undecided proposals per specimen (every run's: what a piece already shows the analyst). */
-function proposalCounts(cat: Catalogue): Map<number, number> {
-  const counts = new Map<number, number>();
-  for (const j of cat.joins.list({ status: 'proposed' })) for (const s of [j.specimenA, j.specimenB]) counts.set(s, (counts.get(s) ?? 0) + 1);
-  return counts;
-}
-
-/**
- * Reserve pairs best first (ties by scan ids, so a run's choice does not hang on the order the
- * workers finished in). Taken in this order, a pair is stored exactly when it is among the best
- * `fillPerPiece` of one of its two pieces (all proposals above the minimum rank higher): the
- * pieces' top lists are those of storing every pair down to fillMinScore, with fewer proposals.
- */
-export function fillOrder<T extends { scanA: number; scanB: number; matches: Array<{ score: number }> }>(reserve: T[]): T[] {
-  return [...reserve].sort((p, q) => q.matches[0].score - p.matches[0].score || p.scanA - q.scanA || p.scanB - q.scanB);
 }
 
 function pairKey(a: number, b: number): string {

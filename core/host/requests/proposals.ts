@@ -32,7 +32,6 @@ export const proposalRequests = {
         k: z.number().int().min(1).max(100).optional(),
         sizeClassMaxDifference: z.number().int().min(0).max(10).nullable().optional(),
         minScore: z.number().min(0).max(1).optional(),
-        fillPerPiece: z.number().int().min(0).max(20).optional(),
         ransacIterations: z.number().int().min(50).max(100000).optional(),
       })
       .strict(),
