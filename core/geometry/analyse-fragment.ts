@@ -125,7 +125,7 @@ export function analyseFragment(
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
     supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
-    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps, cavityRatioSteps: settings.ellipseSectionCavityRatioSteps,
+    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps, cavityRatioSteps: settings.ellipseSectionCavityRatioSteps, cavityRetryShare: settings.ellipseSectionCavityRetryShare,
   });
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);

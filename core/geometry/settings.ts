@@ -114,6 +114,12 @@ export const analysisSettingsSchema = z.object({
    * of (a/b)² from 1/32 to 32 (shaft-section.ts, robustRatio; 0: closed form only).
    */
   ellipseSectionCavityRatioSteps: z.number().int().min(0).default(40),
+  /**
+   * ...and where the cavity ellipse sized from the closed-form ratio explains less than this
+   * share of what the outer ellipse explains, the cavity ratio is read again as above and the
+   * better-explaining model kept (shaft-section.ts, evaluate; 0: off).
+   */
+  ellipseSectionCavityRetryShare: z.number().min(0).default(0.2),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

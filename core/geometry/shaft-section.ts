@@ -90,6 +90,8 @@ export interface EllipseFitOptions {
   gridSteps: number;
   /** Steps of the grid on which a cavity ratio the closed form reads the wrong way is read again (planeModel, robustRatio; 0: closed form only). */
   cavityRatioSteps: number;
+  /** Where the cavity ellipse explains less than this share of the outer one's surface, its ratio is read again robustly (evaluate; 0: never). */
+  cavityRetryShare?: number;
 }
 
 interface Rows {
@@ -285,7 +287,7 @@ export function fitEllipseSection(
     surf.push(x, y, nu, nv, areas[f]);
   }
   const tol = options.distanceTolerance;
-  const ellipses = (cu: number, cv: number, phi: number): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps);
+  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry);
   // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
   {
     const c0 = starts[0];
@@ -298,41 +300,57 @@ export function fitEllipseSection(
     const fo = directEllipseFit(outer), fi = directEllipseFit(inner);
     for (const fit of [fo, fi]) if (fit && hypot(fit.cu - c0[0], fit.cv - c0[1]) < 4 * width) starts.push([fit.cu, fit.cv]);
   }
-  let best: Ellipses | undefined;
-  for (const [cu, cv] of starts) {
-    for (let i = 0; i < 12; i++) {
-      const e = ellipses(cu, cv, (Math.PI * i) / 12);
-      if (e && (!best || e.score > best.score)) best = e;
-    }
-  }
-  // A grid of centres about the wall's middle, each with the orientation its normals give, on a sample of the rows.
-  if (options.gridSteps > 0) {
-    const few = subsample(rows, 300), fewSurf = subsampleSurf(surf, 600);
-    const step = width / 8, mu = su / sw, mv = sv / sw;
-    let gridBest: Ellipses | undefined;
-    for (let i = -options.gridSteps; i <= options.gridSteps; i++) {
-      for (let j = -options.gridSteps; j <= options.gridSteps; j++) {
-        const cu = mu + i * step, cv = mv + j * step;
-        const phi = orientationAt(few, cu, cv);
-        if (phi === undefined) continue;
-        const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps);
-        if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
+  // Starts, grid and coordinate search; `retry`: evaluate's cavity re-read share (0: closed form only).
+  const search = (retry: number): Ellipses | undefined => {
+    let best: Ellipses | undefined;
+    for (const [cu, cv] of starts) {
+      for (let i = 0; i < 12; i++) {
+        const e = ellipses(cu, cv, (Math.PI * i) / 12, retry);
+        if (e && (!best || e.score > best.score)) best = e;
       }
     }
-    if (gridBest) {
-      const e = ellipses(gridBest.cu, gridBest.cv, gridBest.phi);
-      if (e && (!best || e.score > best.score)) best = e;
+    // A grid of centres about the wall's middle, each with the orientation its normals give, on a sample of the rows.
+    if (options.gridSteps > 0) {
+      const few = subsample(rows, 300), fewSurf = subsampleSurf(surf, 600);
+      const step = width / 8, mu = su / sw, mv = sv / sw;
+      let gridBest: Ellipses | undefined;
+      for (let i = -options.gridSteps; i <= options.gridSteps; i++) {
+        for (let j = -options.gridSteps; j <= options.gridSteps; j++) {
+          const cu = mu + i * step, cv = mv + j * step;
+          const phi = orientationAt(few, cu, cv);
+          if (phi === undefined) continue;
+          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry);
+          if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
+        }
+      }
+      if (gridBest) {
+        const e = ellipses(gridBest.cu, gridBest.cv, gridBest.phi, retry);
+        if (e && (!best || e.score > best.score)) best = e;
+      }
     }
-  }
+    if (!best) return undefined;
+    let step = 0.05 * width, turn = Math.PI / 24;
+    for (let round = 0; round < 60 && step > 0.005 * width; round++) {
+      let moved = false;
+      for (const [a, b, t] of [[step, 0, 0], [-step, 0, 0], [0, step, 0], [0, -step, 0], [0, 0, turn], [0, 0, -turn]]) {
+        const trial = ellipses(best.cu + a, best.cv + b, best.phi + t, retry);
+        if (trial && trial.score > best.score) { best = trial; moved = true; }
+      }
+      if (!moved) { step /= 2; turn /= 2; }
+    }
+    return best;
+  };
+  let best = search(0);
   if (!best) return axis;
-  let step = 0.05 * width, turn = Math.PI / 24;
-  for (let round = 0; round < 60 && step > 0.005 * width; round++) {
-    let moved = false;
-    for (const [a, b, t] of [[step, 0, 0], [-step, 0, 0], [0, step, 0], [0, -step, 0], [0, 0, turn], [0, 0, -turn]]) {
-      const trial = ellipses(best.cu + a, best.cv + b, best.phi + t);
-      if (trial && trial.score > best.score) { best = trial; moved = true; }
-    }
-    if (!moved) { step /= 2; turn /= 2; }
+  // Where the best model's cavity ellipse explains little beside its outer one (under
+  // `cavityRetryShare` of it), the whole search again with the cavity ratio re-read wherever a
+  // model's cavity explains that little (evaluate); the better of the two is kept. Re-reading
+  // in the first search already moves fits whose cavity explains enough (dev s370 QS-10296, a
+  // metacarpal: 93.9 -> 87.0, the search then settles elsewhere).
+  const retryShare = options.cavityRetryShare ?? 0;
+  if (retryShare > 0 && options.cavityRatioSteps > 0 && best.inner < retryShare * best.outer) {
+    const again = search(retryShare);
+    if (again && again.score > best.score) best = again;
   }
   const e = best;
   if (!(e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax)) return axis;
@@ -346,11 +364,29 @@ export function fitEllipseSection(
   return { ...axis, point, radius: (e.A + e.B) / 2, medial: undefined, section: { major, outer: [e.A, e.B], inner: [e.Ai, e.Bi] } };
 }
 
-/** The model of evaluate() at centre (cu, cv) and angle phi: ratios from the wall pairs' normals, sizes their medians, scored by explained(). */
-function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number): Ellipses | undefined {
-  const n = rows.n;
+/**
+ * The model at centre (cu, cv) and angle phi: ratios from the wall pairs' normals (planeModel),
+ * sizes their medians, scored by explained() (sized). With `retryShare` > 0, where that model's
+ * cavity ellipse explains less than `retryShare` of what its outer ellipse explains and the
+ * closed-form ratios agree on the way the section is flattened (else planeModel read the cavity
+ * again already), the cavity ratio is read again robustly (robustRatio) and the model that
+ * explains more is kept: where the cavity is not an ellipse (a wall of even thickness about a
+ * flattened outline is its parallel curve, pointed where the outline's radius of curvature is
+ * under the wall's thickness) the closed form is set by the members off both axes.
+ */
+function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number): Ellipses | undefined {
   const pm = planeModel(rows, cu, cv, phi, cavityGrid);
-  let { rhoOut, rhoIn } = pm;
+  const first = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, pm.rhoIn);
+  if (!(cavityGrid > 0 && retryShare > 0) || (first && first.inner >= retryShare * first.outer)) return first;
+  if (!((pm.rhoOut - 1) * (pm.rhoIn - 1) >= 0)) return first;
+  const alt = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, robustRatio(cavity, rows.n, -1, cavityGrid));
+  return alt && (!first || alt.score > first.score) ? alt : first;
+}
+
+/** The model about (cu, cv), angle phi, with squared axis ratios rhoOut0 and rhoIn0: sizes the members' medians, scored by explained(). */
+function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, rhoOut0: number, rhoIn0: number): Ellipses | undefined {
+  const n = rows.n;
+  let rhoOut = rhoOut0, rhoIn = rhoIn0;
   let ph = phi;
   if (rhoOut < 1 && rhoIn <= 1) { ph += Math.PI / 2; rhoOut = 1 / rhoOut; rhoIn = 1 / rhoIn; }
   if (!(rhoOut >= 1 && rhoIn >= 1)) return undefined;
@@ -365,8 +401,8 @@ function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: numbe
   const A = weightedMedian(outA), Ai = weightedMedian(inA);
   const B = A / Math.sqrt(rhoOut), Bi = Ai / Math.sqrt(rhoIn);
   if (!(A > Ai && B > Bi && Bi > 0)) return undefined;
-  const e: Ellipses = { cu, cv, phi: ph, A, B, Ai, Bi, score: 0 };
-  e.score = explained(surf, e, tol);
+  const e: Ellipses = { cu, cv, phi: ph, A, B, Ai, Bi, score: 0, outer: 0, inner: 0 };
+  explained(surf, e, tol);
   return e;
 }
 
@@ -416,7 +452,7 @@ function subsampleSurf(surf: number[], most: number): number[] {
   return out;
 }
 
-interface Ellipses { cu: number; cv: number; phi: number; A: number; B: number; Ai: number; Bi: number; score: number }
+interface Ellipses { cu: number; cv: number; phi: number; A: number; B: number; Ai: number; Bi: number; score: number; outer: number; inner: number }
 
 /** Largest 1 - cos between a surface normal and a model's normal for the surface to count as explained (about 20 degrees). */
 const EXPLAINED_MISS = 0.06;
@@ -440,20 +476,24 @@ function explainedArea(area: number, d: number, miss: number, tol: number): numb
 function explained(surf: number[], e: Ellipses, tol: number): number {
   const c = Math.cos(e.phi), s = Math.sin(e.phi);
   const curves: Array<[number, number, number]> = [[e.A, e.B, 1], [e.Ai, e.Bi, -1]];
+  const sums = [0, 0];
   let sum = 0;
   for (let k = 0; k < surf.length; k += 5) {
     const dx = surf[k] - e.cu, dy = surf[k + 1] - e.cv;
     const x = dx * c + dy * s, y = -dx * s + dy * c;
     const nx = surf[k + 2] * c + surf[k + 3] * s, ny = -surf[k + 2] * s + surf[k + 3] * c;
-    for (const [a, b, sign] of curves) {
+    for (let i = 0; i < 2; i++) {
+      const [a, b, sign] = curves[i];
       const gx = x / (a * a), gy = y / (b * b);
       const gl = hypot(gx, gy);
       if (!(gl > 0)) continue;
       const d = (x * gx + y * gy - 1) / (2 * gl);
-      sum += explainedArea(surf[k + 4], d, 1 - sign * (nx * gx + ny * gy) / gl, tol);
+      const w = explainedArea(surf[k + 4], d, 1 - sign * (nx * gx + ny * gy) / gl, tol);
+      sums[i] += w; sum += w;
     }
   }
-  return sum;
+  e.outer = sums[0]; e.inner = sums[1]; e.score = sum;
+  return e.score;
 }
 
 /** explained() for the round model of the axis (point or medial segment): offsets of R (surface facing out) and r (facing in), area-weighted medians. */
