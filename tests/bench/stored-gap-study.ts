@@ -61,6 +61,8 @@ for (const dir of dirs.split(',')) {
       const add = (x: number, y: number): void => { if (!seen.has(`${x}:${y}`)) { seen.add(`${x}:${y}`); list.push([x, y]); } };
       for (const [x, y] of [...list]) {
         if (expand === 'whole') { add(whole(parA, x), y); add(x, whole(parB, y)); add(whole(parA, x), whole(parB, y)); }
+        else if (expand === 'whole1') { add(whole(parA, x), y); add(x, whole(parB, y)); }
+        else if (expand === 'wholewhole') add(whole(parA, x), whole(parB, y));
         else for (let x2 = 0; x2 < parA.length; x2++) for (let y2 = 0; y2 < parB.length; y2++) if (parA[x2] === parA[x] && parB[y2] === parB[y]) add(x2, y2);
       }
     }

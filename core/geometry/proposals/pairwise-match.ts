@@ -5,6 +5,7 @@
  * fragment's surface, then scored. Faces are matched in part as well as in whole (RANSAC and
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
+import { hypot } from '../hypot';
 import { icpPointToPlane } from '../registration/icp-point-to-plane';
 import { ransacAlignFaces } from '../registration/ransac-alignment';
 import { FPFH_DIM } from '../registration/fpfh';
@@ -608,7 +609,7 @@ export function distinctBest(list: FaceMatch[], shift: number): FaceMatch[] {
     const dup = kept.some(
       (k) =>
         rotationErrorDegrees(k.transform, m.transform) < 3 &&
-        Math.hypot(k.transform[3] - m.transform[3], k.transform[7] - m.transform[7], k.transform[11] - m.transform[11]) < shift,
+        hypot(k.transform[3] - m.transform[3], k.transform[7] - m.transform[7], k.transform[11] - m.transform[11]) < shift,
     );
     if (!dup) kept.push(m);
   }

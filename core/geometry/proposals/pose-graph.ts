@@ -5,6 +5,7 @@
  * quaternions averaged after Markley et al. 2007's sign alignment, translations averaged) lets
  * the joins that close cycles agree. The residual of every join says how well the cycle closes.
  */
+import { hypot } from '../hypot';
 import {
   applyToPoint,
   compose,
@@ -118,7 +119,7 @@ export function solvePoses(edges: PoseEdge[], options: { root?: string; centroid
       a: e.a,
       b: e.b,
       rotationDeg: rotationErrorDegrees(predicted, e.transform),
-      translationMm: Math.hypot(p1[0] - p2[0], p1[1] - p2[1], p1[2] - p2[2]),
+      translationMm: hypot(p1[0] - p2[0], p1[1] - p2[1], p1[2] - p2[2]),
       inTree: inTree.has(e),
     };
   });
@@ -152,5 +153,5 @@ export function cycleAgreement(solution: PoseSolution, a: string, b: string, tra
   const predicted = compose(invert(pa), pb);
   const p1 = applyToPoint(predicted, centroidB[0], centroidB[1], centroidB[2]);
   const p2 = applyToPoint(transform, centroidB[0], centroidB[1], centroidB[2]);
-  return { rotationDeg: rotationErrorDegrees(predicted, transform), translationMm: Math.hypot(p1[0] - p2[0], p1[1] - p2[1], p1[2] - p2[2]) };
+  return { rotationDeg: rotationErrorDegrees(predicted, transform), translationMm: hypot(p1[0] - p2[0], p1[1] - p2[1], p1[2] - p2[2]) };
 }

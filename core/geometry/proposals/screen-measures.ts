@@ -2,6 +2,7 @@
  * Cheap measures of a screened motion (face samples and k-d trees only, no triangles), used to
  * pick which motions of a fragment pair go on to the fine step (pairwise-match.ts).
  */
+import { hypot } from '../hypot';
 import { applyToPoint, type RigidTransform } from '../registration/rigid-transform';
 import { axisAgreement } from '../registration/score';
 import { SIDE_FULL, SIDE_NONE, TRUSTED_RADIUS_RATIO } from '../registration/score-model';
@@ -36,7 +37,7 @@ export function screenAxisConsistency(axisA: ShaftFrame | null | undefined, axis
   const d = axisA.direction, p = axisA.point;
   const v = [c[0] - p[0], c[1] - p[1], c[2] - p[2]];
   const along = v[0] * d[0] + v[1] * d[1] + v[2] * d[2];
-  const fromAxis = Math.hypot(v[0] - along * d[0], v[1] - along * d[1], v[2] - along * d[2]);
+  const fromAxis = hypot(v[0] - along * d[0], v[1] - along * d[1], v[2] - along * d[2]);
   const side = fromAxis < SIDE_MIN_OFF_AXIS * axisA.radius ? 1 : clamp((ax.axisSide - SIDE_NONE) / (SIDE_FULL - SIDE_NONE));
   const tilt = clamp((tiltDeg[1] - ax.axisAngleDeg) / Math.max(1e-9, tiltDeg[1] - tiltDeg[0]));
   return side * tilt;

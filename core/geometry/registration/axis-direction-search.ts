@@ -11,6 +11,7 @@
  * pairs vote in (turn, translation) bins and the peaks are the hypotheses (a generalised Hough
  * transform, Ballard 1981).
  */
+import { hypot } from '../hypot';
 import type { RigidTransform } from './rigid-transform';
 import { acrossAxisBasis } from '../shaft-axis';
 import { turnBetweenFrames } from './shaft-axis-search';
@@ -154,8 +155,8 @@ export function searchAlongAxisDirections(
   for (let i = 0; i < B.count; i++) for (let d = 0; d < 3; d++) cb[d] += B.p[3 * i + d] / B.count;
   const Ap = new Float64Array(A.p), Bp = new Float64Array(B.p);
   let ra = 0, rb = 0;
-  for (let i = 0; i < A.count; i++) { for (let d = 0; d < 3; d++) Ap[3 * i + d] -= ca[d]; ra = Math.max(ra, Math.hypot(Ap[3 * i], Ap[3 * i + 1], Ap[3 * i + 2])); }
-  for (let i = 0; i < B.count; i++) { for (let d = 0; d < 3; d++) Bp[3 * i + d] -= cb[d]; rb = Math.max(rb, Math.hypot(Bp[3 * i], Bp[3 * i + 1], Bp[3 * i + 2])); }
+  for (let i = 0; i < A.count; i++) { for (let d = 0; d < 3; d++) Ap[3 * i + d] -= ca[d]; ra = Math.max(ra, hypot(Ap[3 * i], Ap[3 * i + 1], Ap[3 * i + 2])); }
+  for (let i = 0; i < B.count; i++) { for (let d = 0; d < 3; d++) Bp[3 * i + d] -= cb[d]; rb = Math.max(rb, hypot(Bp[3 * i], Bp[3 * i + 1], Bp[3 * i + 2])); }
   const half = Math.ceil((ra + rb) / bs) + 1;
   const nb = 2 * half + 1;
   // vote table: open addressing on the bin key
@@ -261,7 +262,7 @@ export function searchAlongAxisDirections(
         const iy = key % nb; key = (key - iy) / nb;
         const ix = key % nb; const kt = (key - ix) / nb;
         // ties of support and own votes: the bin nearer no turn and no shift first (both unchanged when A and B are exchanged)
-        const tie = Math.hypot(ix - half, iy - half, iz - half) + nb * Math.abs(kt + 0.5 - nTh / 2);
+        const tie = hypot(ix - half, iy - half, iz - half) + nb * Math.abs(kt + 0.5 - nTh / 2);
         return { h, kt, ix, iy, iz, support, tie };
       };
       for (const h of pool) {

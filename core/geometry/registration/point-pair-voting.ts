@@ -16,6 +16,7 @@
  * is enough to lock the two sides. The two sides of a break face each other, so the filed face's
  * normals are reversed before its pairs are described (the mating surface, seen from the other side).
  */
+import { hypot } from '../hypot';
 import type { RigidTransform } from './rigid-transform';
 import { displacementAt, invert, quaternionOf, rotationErrorDegrees, rotationFromQuaternion } from './rigid-transform';
 
@@ -95,7 +96,7 @@ function frames(s: Oriented): Float64Array {
  */
 function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number): number {
   const dx = s.p[3 * j] - s.p[3 * i], dy = s.p[3 * j + 1] - s.p[3 * i + 1], dz = s.p[3 * j + 2] - s.p[3 * i + 2];
-  const d = Math.hypot(dx, dy, dz);
+  const d = hypot(dx, dy, dz);
   const kd = Math.floor(d / dStep);
   if (d < 1e-9 || kd >= dBins) return -1;
   const ux = dx / d, uy = dy / d, uz = dz / d;
@@ -227,7 +228,7 @@ function extentOf(s: Oriented): number {
   for (let i = 0; i < s.count; i++) { c0 += s.p[3 * i]; c1 += s.p[3 * i + 1]; c2 += s.p[3 * i + 2]; }
   c0 /= s.count; c1 /= s.count; c2 /= s.count;
   let r = 0;
-  for (let i = 0; i < s.count; i++) r = Math.max(r, Math.hypot(s.p[3 * i] - c0, s.p[3 * i + 1] - c1, s.p[3 * i + 2] - c2));
+  for (let i = 0; i < s.count; i++) r = Math.max(r, hypot(s.p[3 * i] - c0, s.p[3 * i + 1] - c1, s.p[3 * i + 2] - c2));
   return 2 * r;
 }
 

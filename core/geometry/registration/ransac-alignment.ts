@@ -5,6 +5,7 @@
  * kept when the three pairs keep their lengths, their normals end up opposed, and many moved
  * samples land near the other face with opposed normals.
  */
+import { hypot } from '../hypot';
 import { absoluteOrientation } from './absolute-orientation';
 import { FPFH_BINS, FPFH_DIM } from './fpfh';
 import { KdTree } from './nearest-neighbours';
@@ -162,7 +163,7 @@ export function gatherFeatures(f: Float32Array, index: Uint32Array): Float32Arra
 }
 
 function dist(P: ArrayLike<number>, i: number, j: number): number {
-  return Math.hypot(P[3 * i] - P[3 * j], P[3 * i + 1] - P[3 * j + 1], P[3 * i + 2] - P[3 * j + 2]);
+  return hypot(P[3 * i] - P[3 * j], P[3 * i + 1] - P[3 * j + 1], P[3 * i + 2] - P[3 * j + 2]);
 }
 
 /** Keep the best `keep` motions, merging near-duplicates (within 5 degrees, and moving the source centre to within sameShift). */

@@ -5,6 +5,7 @@
  * logistic model so the score reads as the probability that the join is real (calibrated on
  * generated assemblages with known truth; see score-model.ts).
  */
+import { hypot } from '../hypot';
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from './rigid-transform';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { KdTree } from './nearest-neighbours';
@@ -124,13 +125,13 @@ export function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: Shaft
     return [p[0] + t * d[0], p[1] + t * d[1], p[2] + t * d[2]];
   };
   const qa = onLine(pA, dA), qb = onLine(pB, dB);
-  const offset = Math.hypot(qa[0] - qb[0], qa[1] - qb[1], qa[2] - qb[2]) / Math.max(axisA.radius, axisB.radius);
+  const offset = hypot(qa[0] - qb[0], qa[1] - qb[1], qa[2] - qb[2]) / Math.max(axisA.radius, axisB.radius);
   // which side of the wall each axis lies on, seen from the join: from c across to each line
   const across = (q: number[], d: ArrayLike<number>): number[] => {
     const v = [q[0] - c[0], q[1] - c[1], q[2] - c[2]];
     const t = v[0] * d[0] + v[1] * d[1] + v[2] * d[2];
     const w = [v[0] - t * d[0], v[1] - t * d[1], v[2] - t * d[2]];
-    const l = Math.hypot(w[0], w[1], w[2]) || 1;
+    const l = hypot(w[0], w[1], w[2]) || 1;
     return [w[0] / l, w[1] / l, w[2] / l];
   };
   const ua = across(qa, dA), ub = across(qb, dB);
@@ -226,7 +227,7 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
       const w = 1 / (Math.sqrt(near.dist2[m]) + 1e-3);
       mx += w * N[3 * j]; my += w * N[3 * j + 1]; mz += w * N[3 * j + 2];
     }
-    const ml = Math.hypot(mx, my, mz) || 1;
+    const ml = hypot(mx, my, mz) || 1;
     const c = ((x - hit.x) * mx + (y - hit.y) * my + (z - hit.z) * mz) / (ml * hit.distance);
     if (c < -0.5) depths[i] = hit.distance;
   }
