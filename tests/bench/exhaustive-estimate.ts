@@ -22,8 +22,9 @@ import { openCatalogue } from '../../core/catalogue/catalogue';
 import { cacheDirFor, fragmentKey, readFragment } from '../../core/jobs/fragment-cache';
 import { matchFragments, DEFAULT_MATCH_PARAMETERS } from '../../core/geometry/proposals/pairwise-match';
 import { prepareFragment, DEFAULT_FPFH_RADIUS_SPACINGS, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
-import { displacementAt, invert, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
+import { invert } from '../../core/geometry/registration/rigid-transform';
 import { Random } from '../../demo-data/random';
+import { isCorrectMotion } from './correct-motion';
 
 interface TruthJoin { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
 const [gen, catalogue, sampleArg = '300'] = process.argv.slice(2);
@@ -43,7 +44,7 @@ const key = (x: string, y: string): string => [x, y].sort().join('|');
 const cpu = (): number => { const c = process.cpuUsage(); return (c.user + c.system) / 1e6; };
 const correct = (T: number[], j: TruthJoin, bNo: string, aNo: string): boolean => {
   const want = aNo === j.a ? j.transformBToA : invert(j.transformBToA);
-  return rotationErrorDegrees(T, want) < 5 && displacementAt(T, want, prepared.get(bNo)!.centroid) < 5;
+  return isCorrectMotion(T, want, prepared.get(bNo)!.centroid);
 };
 // 1. true joins' fragment pairs, every face pair
 const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && prepared.has(j.a) && prepared.has(j.b));

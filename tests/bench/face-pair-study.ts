@@ -18,10 +18,11 @@ import { fragmentFaceTraits, type ShaftAxisLike } from '../../core/geometry/prop
 import { DEFAULT_MATCH_PARAMETERS, matchFragments, refineFacePair, screenFacePair, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
 import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, runSpacing, type FragmentInput, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
-import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
+import { invert, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { mulberry32 } from '../../core/geometry/seeded-random';
 import { cachedFromLoaded, fragmentKey, readFragment, writeFragment } from '../../core/jobs/fragment-cache';
 import { contentHashOf, loadFragment } from '../../core/jobs/fragment-loader';
+import { isCorrectMotion } from './correct-motion';
 
 export interface TruthFragment { catalogueNo: string; scanFile: string; triangleLabels: string }
 export interface TruthJoin { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number; transformBToA: number[] }
@@ -120,7 +121,7 @@ export function study(dir: string, k: number, others: number, params: MatchParam
   const share = Math.min(1, (others / Math.max(1, candidates.length)) * 1);
   const chosen = new Set([...fragPairs].filter((k) => joinOf.has(k) || joinOf.has(k.split(':').reverse().join(':')) || rnd() < share));
   const records: PairRecord[] = [];
-  const near = (T: RigidTransform, want: RigidTransform, c: ArrayLike<number>): boolean => rotationErrorDegrees(T, want) < 5 && displacementAt(T, want, c) < 5;
+  const near = isCorrectMotion;
   for (const c of candidates) {
     const want = trueMotion(c.a, c.faceA, c.b, c.faceB);
     if (!chosen.has(`${c.a}:${c.b}`)) continue;

@@ -43,6 +43,7 @@ import { reliability } from './calibration';
 import { faceBreaks, type StudiedFragment } from './face-pair-study';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
+import { withinCorrectTolerance } from './correct-motion';
 
 interface TruthJoin { a: string; b: string; type: string; breakId?: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 interface Truth { fragments: Array<{ catalogueNo: string; boneId: string; scanFile?: string; triangleLabels?: string }>; joins: TruthJoin[] }
@@ -241,7 +242,7 @@ export default async function main(): Promise<void> {
           rotErr = rotationErrorDegrees(m.transform, t);
           transErr = displacementAt(m.transform, t, B.centroid);
         }
-        const correct = rotErr < 5 && transErr < 5;
+        const correct = withinCorrectTolerance(rotErr, transErr);
         const { transform: _t, faceA: _fa, faceB: _fb, score: _s, ...components } = m;
         motions.push({ set: dir, a: w.a, b: w.b, trueJoin: !!tj, correct, rank, score: m.score, rotErr, transErr, components });
         if (rank === 0) best.set(key(w.a, w.b), { ...m, correct });

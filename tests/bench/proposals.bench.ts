@@ -49,6 +49,7 @@ import { prepareFragment, type FragmentInput } from '../../core/geometry/proposa
 import { applyToDirections, applyToPoints, compose, displacementAt, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom } from '../../core/geometry/registration/rigid-transform';
 import { loadFragment } from '../../core/jobs/fragment-loader';
 import { parseMeshFile } from '../../core/geometry/parse';
+import { withinCorrectTolerance } from './correct-motion';
 
 const root = join(import.meta.dirname, '../..');
 const bin = join(root, 'bin/knitbone.js');
@@ -233,7 +234,7 @@ function proposeRun(dir: string, gen: string, truth: Truth, n: number, seed: str
       const want = p.a === j.a ? j.transformBToA : invert(j.transformBToA);
       const re = rotationErrorDegrees(p.transform, want);
       const te = displacementAt(p.transform, want, scanCentroid(gen, p.b));
-      if (re >= 5 || te >= 5) { if (all) fate.set(trueJoinKey(j), 'wrong motion'); continue; }
+      if (!withinCorrectTolerance(re, te)) { if (all) fate.set(trueJoinKey(j), 'wrong motion'); continue; }
       if (!top3(j.a).includes(p) && !top3(j.b).includes(p)) { if (all) fate.set(trueJoinKey(j), 'outside both top 3'); continue; }
       if (all) fate.set(trueJoinKey(j), 'top 3');
       hit++;

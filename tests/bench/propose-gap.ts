@@ -11,9 +11,10 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { matchFacePair, matchFragments, distinctBest, DEFAULT_MATCH_PARAMETERS, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
 import { prepareFragment, runSpacing, DEFAULT_FPFH_RADIUS_SPACINGS, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
-import { displacementAt, rotationErrorDegrees, invert } from '../../core/geometry/registration/rigid-transform';
+import { invert } from '../../core/geometry/registration/rigid-transform';
 import type { FragmentInput } from '../../core/geometry/proposals/prepared-fragment';
 import { loadCached } from './pairwise.bench';
+import { isCorrectMotion } from './correct-motion';
 
 interface TruthJoin { a: string; b: string; type: string; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 const [dirs, extra] = process.argv.slice(2);
@@ -30,7 +31,7 @@ const prepared = new Map<string, PreparedFragment>();
 const prep = (no: string): PreparedFragment => prepared.get(no) ?? prepared.set(no, prepareFragment(inputs.get(no)!, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS, ...(process.env.KNITBONE_PATCH_OPTIONS ? { patchOptions: JSON.parse(process.env.KNITBONE_PATCH_OPTIONS) as object } : {}) })).get(no)!;
 const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && inputs.has(j.a) && inputs.has(j.b));
 joins += eligible.length;
-const ok = (m: FaceMatch | undefined, t: number[], c: [number, number, number]): boolean => !!m && rotationErrorDegrees(m.transform, t) < 5 && displacementAt(m.transform, t, c) < 5;
+const ok = (m: FaceMatch | undefined, t: number[], c: [number, number, number]): boolean => !!m && isCorrectMotion(m.transform, t, c);
 for (const j of eligible) {
   const A = prep(j.a), B = prep(j.b);
   const t = j.transformBToA;

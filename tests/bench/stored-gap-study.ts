@@ -25,13 +25,14 @@ import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } fro
 import { readFragment, readPrepared } from '../../core/jobs/fragment-cache';
 import { sizeClassesFromCsv } from './candidate-recall';
 import type { StudyFragment } from './candidate-study';
+import { isCorrectMotion } from './correct-motion';
 
 interface Join { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 const [dirs, extra] = process.argv.slice(2);
 const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(extra ? (JSON.parse(extra) as Partial<MatchParameters>) : {}) };
 const K = Number(process.env.KNITBONE_STUDY_K ?? 30), MIN = Number(process.env.KNITBONE_STUDY_MIN ?? 0.05);
 const only = process.env.KNITBONE_STUDY_JOINS?.split(',');
-const near = (T: RigidTransform, want: RigidTransform, c: ArrayLike<number>): boolean => rotationErrorDegrees(T, want) < 5 && displacementAt(T, want, c) < 5;
+const near = isCorrectMotion;
 const tally = new Map<string, number>();
 let cpuMatch = 0, cpuStudy = 0, studiedJoins = 0;
 for (const dir of dirs.split(',')) {
