@@ -126,6 +126,7 @@ export function analyseFragment(
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
     supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
     headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps, cavityRatioSteps: settings.ellipseSectionCavityRatioSteps, cavityRetryShare: settings.ellipseSectionCavityRetryShare,
+    wallRatioMax: settings.ellipseSectionWallRatioMax,
   });
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);

@@ -137,6 +137,11 @@ export const analysisSettingsSchema = z.object({
    * better-explaining model kept (shaft-section.ts, evaluate; 0: off).
    */
   ellipseSectionCavityRetryShare: z.number().min(0).default(0.2),
+  /**
+   * ...and only models whose wall is no more than this many times thicker at the ends of one
+   * axis than at the other's (section-wall-ratio.ts: (A - Ai) against (B - Bi); 0: no limit).
+   */
+  ellipseSectionWallRatioMax: z.number().min(0).default(0),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

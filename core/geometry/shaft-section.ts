@@ -1,6 +1,7 @@
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import { acrossAxisBasis, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
 import { hypot } from './hypot';
+import { sectionWallRatio } from './section-wall-ratio';
 
 /**
  * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
@@ -92,6 +93,8 @@ export interface EllipseFitOptions {
   cavityRatioSteps: number;
   /** Where the cavity ellipse explains less than this share of the outer one's surface, its ratio is read again robustly (evaluate; 0: never). */
   cavityRetryShare?: number;
+  /** Largest ratio of the wall's thickness across the major axis to across the minor one, either way (sectionWallRatio; 0: no limit). */
+  wallRatioMax?: number;
 }
 
 interface Rows {
@@ -287,7 +290,8 @@ export function fitEllipseSection(
     surf.push(x, y, nu, nv, areas[f]);
   }
   const tol = options.distanceTolerance;
-  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry);
+  const wallMax = options.wallRatioMax ?? 0;
+  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
   // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
   {
     const c0 = starts[0];
@@ -319,7 +323,7 @@ export function fitEllipseSection(
           const cu = mu + i * step, cv = mv + j * step;
           const phi = orientationAt(few, cu, cv);
           if (phi === undefined) continue;
-          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry);
+          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
           if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
         }
       }
@@ -374,17 +378,22 @@ export function fitEllipseSection(
  * flattened outline is its parallel curve, pointed where the outline's radius of curvature is
  * under the wall's thickness) the closed form is set by the members off both axes.
  */
-function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number): Ellipses | undefined {
+function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number, wallMax = 0): Ellipses | undefined {
   const pm = planeModel(rows, cu, cv, phi, cavityGrid);
-  const first = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, pm.rhoIn);
+  const first = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, pm.rhoIn, wallMax);
   if (!(cavityGrid > 0 && retryShare > 0) || (first && first.inner >= retryShare * first.outer)) return first;
   if (!((pm.rhoOut - 1) * (pm.rhoIn - 1) >= 0)) return first;
-  const alt = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, robustRatio(cavity, rows.n, -1, cavityGrid));
+  const alt = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, robustRatio(cavity, rows.n, -1, cavityGrid), wallMax);
   return alt && (!first || alt.score > first.score) ? alt : first;
 }
 
-/** The model about (cu, cv), angle phi, with squared axis ratios rhoOut0 and rhoIn0: sizes the members' medians, scored by explained(). */
-function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, rhoOut0: number, rhoIn0: number): Ellipses | undefined {
+/**
+ * The model about (cu, cv), angle phi, with squared axis ratios rhoOut0 and rhoIn0: sizes the
+ * members' medians, scored by explained(). Undefined where the wall's thickness across the
+ * major axis and across the minor one differ by more than `wallMax` times (sectionWallRatio;
+ * 0: no limit).
+ */
+function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, rhoOut0: number, rhoIn0: number, wallMax = 0): Ellipses | undefined {
   const n = rows.n;
   let rhoOut = rhoOut0, rhoIn = rhoIn0;
   let ph = phi;
@@ -401,6 +410,7 @@ function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, 
   const A = weightedMedian(outA), Ai = weightedMedian(inA);
   const B = A / Math.sqrt(rhoOut), Bi = Ai / Math.sqrt(rhoIn);
   if (!(A > Ai && B > Bi && Bi > 0)) return undefined;
+  if (wallMax > 0 && !(sectionWallRatio(A, B, Ai, Bi) <= wallMax)) return undefined;
   const e: Ellipses = { cu, cv, phi: ph, A, B, Ai, Bi, score: 0, outer: 0, inner: 0 };
   explained(surf, e, tol);
   return e;
