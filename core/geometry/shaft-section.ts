@@ -290,7 +290,7 @@ export function fitEllipseSection(
     surf.push(x, y, nu, nv, areas[f]);
   }
   const tol = options.distanceTolerance;
-  const wallMax = options.wallRatioMax ?? 0;
+  let wallMax = 0;
   const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
   // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
   {
@@ -344,23 +344,33 @@ export function fitEllipseSection(
     }
     return best;
   };
-  let best = search(0);
-  if (!best) return axis;
-  // Where the best model's cavity ellipse explains little beside its outer one (under
-  // `cavityRetryShare` of it), the whole search again with the cavity ratio re-read wherever a
-  // model's cavity explains that little (evaluate); the better of the two is kept. Re-reading
-  // in the first search already moves fits whose cavity explains enough (dev s370 QS-10296, a
-  // metacarpal: 93.9 -> 87.0, the search then settles elsewhere).
-  const retryShare = options.cavityRetryShare ?? 0;
-  if (retryShare > 0 && options.cavityRatioSteps > 0 && best.inner < retryShare * best.outer) {
-    const again = search(retryShare);
-    if (again && again.score > best.score) best = again;
-  }
-  const e = best;
-  if (!(e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax)) return axis;
   // The round model's own explained area: circles (or the medial segment's offsets) about the axis at the medians of the surface facing out and in.
   const round = explainedRound(axis, centroids, normals, areas, sstride, across, tol);
-  if (!(e.score > round * (1 + options.gain))) return axis;
+  const retryShare = options.cavityRetryShare ?? 0;
+  // The search, then (where the best model's cavity ellipse explains little beside its outer
+  // one, under `cavityRetryShare` of it) the whole search again with the cavity ratio re-read
+  // wherever a model's cavity explains that little (evaluate); the better of the two is kept.
+  // Re-reading in the first search already moves fits whose cavity explains enough (dev s370
+  // QS-10296, a metacarpal: 93.9 -> 87.0, the search then settles elsewhere).
+  const searched = (): Ellipses | undefined => {
+    let best = search(0);
+    if (best && retryShare > 0 && options.cavityRatioSteps > 0 && best.inner < retryShare * best.outer) {
+      const again = search(retryShare);
+      if (again && again.score > best.score) best = again;
+    }
+    return best;
+  };
+  const kept = (e: Ellipses | undefined): e is Ellipses => !!e && e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax && e.score > round * (1 + options.gain);
+  let e = searched();
+  // A section that would be kept but spreads its wall unevenly (sectionWallRatio over
+  // `wallRatioMax`: a break face through the wall taken for cavity or outer surface) is searched
+  // for again among models with a plausible wall only.
+  const wallLimit = options.wallRatioMax ?? 0;
+  if (wallLimit > 0 && kept(e) && !(sectionWallRatio(e.A, e.B, e.Ai, e.Bi) <= wallLimit)) {
+    wallMax = wallLimit;
+    e = searched();
+  }
+  if (!kept(e)) return axis;
   const c = Math.cos(e.phi), s = Math.sin(e.phi);
   const t0 = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
   const point: [number, number, number] = [e.cu * ux + e.cv * vx + t0 * ax, e.cu * uy + e.cv * vy + t0 * ay, e.cu * uz + e.cv * vz + t0 * az];
