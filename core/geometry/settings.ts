@@ -138,10 +138,12 @@ export const analysisSettingsSchema = z.object({
    */
   ellipseSectionCavityRetryShare: z.number().min(0).default(0.2),
   /**
-   * ...and only models whose wall is no more than this many times thicker at the ends of one
-   * axis than at the other's (section-wall-ratio.ts: (A - Ai) against (B - Bi); 0: no limit).
+   * ...and where the section to be kept has a wall more than this many times thinner at the
+   * ends of its major axis than at its minor one (cavity nearly as long as the outer ellipse),
+   * the search runs again among models whose wall thickness (A - Ai against B - Bi,
+   * section-wall-ratio.ts) differs by at most this ratio either way (0: off).
    */
-  ellipseSectionWallRatioMax: z.number().min(0).default(0),
+  ellipseSectionWallRatioMax: z.number().min(0).default(2),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
