@@ -2,6 +2,7 @@ import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import { acrossAxisBasis, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
 import { hypot } from './hypot';
 import { sectionWallRatio } from './section-wall-ratio';
+import type { AnalysisSettings } from './settings';
 
 /**
  * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
@@ -95,6 +96,15 @@ export interface EllipseFitOptions {
   cavityRetryShare?: number;
   /** Largest ratio of the wall's thickness across the major axis to across the minor one, either way (sectionWallRatio; 0: no limit). */
   wallRatioMax?: number;
+}
+
+/** fitEllipseSection's cut-offs as the settings give them (settings.ts, ellipseSection*). */
+export function ellipseFitOptions(s: AnalysisSettings): EllipseFitOptions {
+  return {
+    supportMin: s.ellipseSectionSupportMin, ratioMin: s.ellipseSectionRatioMin, ratioMax: s.ellipseSectionRatioMax, gain: s.ellipseSectionGain,
+    headOnCosineMin: s.headOnCosineMin, maxRows: s.ellipseSectionMaxRays, distanceTolerance: s.ellipseSectionToleranceMm, gridSteps: s.ellipseSectionGridSteps,
+    cavityRatioSteps: s.ellipseSectionCavityRatioSteps, cavityRetryShare: s.ellipseSectionCavityRetryShare, wallRatioMax: s.ellipseSectionWallRatioMax,
+  };
 }
 
 interface Rows {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { directEllipseFit, fitEllipseSection, type EllipseFitOptions, type EllipseRays } from '../../../core/geometry/shaft-section';
+import { directEllipseFit, ellipseFitOptions, fitEllipseSection, type EllipseFitOptions, type EllipseRays } from '../../../core/geometry/shaft-section';
 import { sectionWallRatio } from '../../../core/geometry/section-wall-ratio';
 import { analysisSettings } from '../../../core/geometry/settings';
 
@@ -84,15 +84,8 @@ function tubePiece(A: number, B: number, Ai: number, Bi: number, fromDeg: number
   };
 }
 
-function fitOptions(overrides: Record<string, unknown> = {}): EllipseFitOptions {
-  const s = analysisSettings(overrides);
-  return {
-    supportMin: s.ellipseSectionSupportMin, ratioMin: s.ellipseSectionRatioMin, ratioMax: s.ellipseSectionRatioMax, gain: s.ellipseSectionGain,
-    headOnCosineMin: s.headOnCosineMin, maxRows: s.ellipseSectionMaxRays, distanceTolerance: s.ellipseSectionToleranceMm,
-    gridSteps: s.ellipseSectionGridSteps, cavityRatioSteps: s.ellipseSectionCavityRatioSteps, cavityRetryShare: s.ellipseSectionCavityRetryShare,
-    wallRatioMax: s.ellipseSectionWallRatioMax,
-  };
-}
+/** fitEllipseSection's cut-offs from the settings with the wall limit given. */
+const withWallLimit = (ratio: number): EllipseFitOptions => ellipseFitOptions(analysisSettings({ ellipseSectionWallRatioMax: ratio }));
 
 describe('fitEllipseSection with a wall-thickness limit', () => {
   const axis: ShaftAxis = { direction: [0, 0, 1], point: [4, 0, 0], radius: 18, support: 0.9 };
@@ -100,8 +93,8 @@ describe('fitEllipseSection with a wall-thickness limit', () => {
   it('keeps an even-walled section as it is', () => {
     // Outer 22 x 12 mm, cavity 15 x 5 mm: walls 7 and 7 mm (ratio 1).
     const piece = tubePiece(22, 12, 15, 5, -40, 80);
-    const free = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, fitOptions({ ellipseSectionWallRatioMax: 0 }));
-    const limited = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, fitOptions({ ellipseSectionWallRatioMax: 2 }));
+    const free = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(0));
+    const limited = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(2));
     expect(free.section).toBeDefined();
     expect(Math.abs(free.section!.outer[0] - 22)).toBeLessThan(1);
     expect(Math.abs(free.section!.inner[1] - 5)).toBeLessThan(1);
@@ -114,11 +107,11 @@ describe('fitEllipseSection with a wall-thickness limit', () => {
     // the wall is read as the cavity's flat side). Without a limit the fit finds it; with a limit
     // of 2 the section it keeps has walls within 2 : 1.
     const piece = tubePiece(22, 12, 20, 4, -40, 80);
-    const free = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, fitOptions({ ellipseSectionWallRatioMax: 0 }));
+    const free = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(0));
     expect(free.section).toBeDefined();
     const s = free.section!;
     expect(sectionWallRatio(s.outer[0], s.outer[1], s.inner[0], s.inner[1])).toBeGreaterThan(2.5);
-    const limited = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, fitOptions({ ellipseSectionWallRatioMax: 2 }));
+    const limited = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(2));
     // Measured: a 34.4 x 15.2 / 30.0 x 6.5 mm section (walls 4.4 and 8.7 mm) 12.7 mm off.
     expect(limited.section).toBeDefined();
     const l = limited.section!;
