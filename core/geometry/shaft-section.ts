@@ -355,7 +355,8 @@ export function fitEllipseSection(
     return best;
   };
   // The round model's own explained area: circles (or the medial segment's offsets) about the axis at the medians of the surface facing out and in.
-  const round = explainedRound(axis, centroids, normals, areas, sstride, across, tol);
+  let roundArea: number | undefined;
+  const roundScore = (): number => (roundArea ??= explainedRound(axis, centroids, normals, areas, sstride, across, tol));
   const retryShare = options.cavityRetryShare ?? 0;
   // The search, then (where the best model's cavity ellipse explains little beside its outer
   // one, under `cavityRetryShare` of it) the whole search again with the cavity ratio re-read
@@ -370,7 +371,7 @@ export function fitEllipseSection(
     }
     return best;
   };
-  const kept = (e: Ellipses | undefined): e is Ellipses => !!e && e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax && e.score > round * (1 + options.gain);
+  const kept = (e: Ellipses | undefined): e is Ellipses => !!e && e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax && e.score > roundScore() * (1 + options.gain);
   let e = searched();
   // A section that would be kept although its wall is much thinner at the ends of its major
   // axis than at those of its minor one (the cavity ellipse nearly as long as the outer one,
