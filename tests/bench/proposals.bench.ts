@@ -20,7 +20,8 @@
  *                                  above it the exhaustive time is estimated from the measured CPU
  *                                  time per aligned face pair, and marked "est."
  *   KNITBONE_BENCH_K               k values for section 3 (default "10,20,30,40,60")
- *   KNITBONE_BENCH_ALIGN=0         skip the propose runs (sections 3 only needs the scans analysed once)
+ *   KNITBONE_BENCH_ALIGN=0         print only the import and section 3 (no --exhaustive run; one pruned propose
+ *                                  run still goes, since section 3 reads its sampling and k from it)
  *   KNITBONE_BENCH_WORKERS         workers for propose (default 2)
  *   KNITBONE_BENCH_DIR             where generated assemblages are kept and reused (default: the system temp folder)
  *   KNITBONE_BENCH_POINT_SPACING   scanner point spacing of the generated scans (mm; default: the generator's)

@@ -15,30 +15,19 @@ import type { PreparedFace } from './prepared-fragment';
  * motion the two axis lines run about the same way (a small tilt: fitted directions of bowed or
  * partial pieces differ by a few degrees) and lie on the same side of the wall seen from the
  * join. 1 up to `tiltDeg[0]` degrees between the axes, falling to 0 at `tiltDeg[1]`, times the
- * score's side rule (score-model.ts SIDE_NONE, SIDE_FULL; see SIDE_MIN_OFF_AXIS); 1 when either piece has no axis or
+ * score's side rule (score-model.ts SIDE_NONE, SIDE_FULL; not applied to a join within
+ * SIDE_MIN_OFF_AXIS of A's axis, as axisAgreement measures it); 1 when either piece has no axis or
  * the fitted radii differ by more than TRUSTED_RADIUS_RATIO (a fit that far off places its axis
  * anywhere). B's face centroid `centroidB` is where the axes are compared (as score.ts does).
  */
-/**
- * The side rule of screenAxisConsistency is applied only when B's face centroid lies at least
- * this share of A's fitted radius off A's axis (a half ring's centroid lies at 2/pi of the radius;
- * a whole ring's on the axis, where the side is not defined).
- */
-export const SIDE_MIN_OFF_AXIS = 0.5;
-
 export function screenAxisConsistency(axisA: ShaftFrame | null | undefined, axisB: ShaftFrame | null | undefined, T: RigidTransform, centroidB: ArrayLike<number>, tiltDeg: readonly [number, number]): number {
   if (!axisA || !axisB) return 1;
   const c = applyToPoint(T, centroidB[0], centroidB[1], centroidB[2]);
   const ax = axisAgreement(axisA, axisB, T, Float64Array.from(c));
   if (!ax.axesCompared || ax.radiusRatio > TRUSTED_RADIUS_RATIO) return 1;
   const clamp = (x: number): number => Math.min(1, Math.max(0, x));
-  // which side of the wall an axis lies on is only defined seen from a join off the axis: the
-  // centroid of a break across the whole shaft (a ring) lies on the axis itself
-  const d = axisA.direction, p = axisA.point;
-  const v = [c[0] - p[0], c[1] - p[1], c[2] - p[2]];
-  const along = v[0] * d[0] + v[1] * d[1] + v[2] * d[2];
-  const fromAxis = hypot(v[0] - along * d[0], v[1] - along * d[1], v[2] - along * d[2]);
-  const side = fromAxis < SIDE_MIN_OFF_AXIS * axisA.radius ? 1 : clamp((ax.axisSide - SIDE_NONE) / (SIDE_FULL - SIDE_NONE));
+  // the side is only defined seen from a join off A's axis: axisAgreement gives 1 nearer to it (SIDE_MIN_OFF_AXIS)
+  const side = clamp((ax.axisSide - SIDE_NONE) / (SIDE_FULL - SIDE_NONE));
   const tilt = clamp((tiltDeg[1] - ax.axisAngleDeg) / Math.max(1e-9, tiltDeg[1] - tiltDeg[0]));
   return side * tilt;
 }

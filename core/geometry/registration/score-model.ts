@@ -36,7 +36,7 @@ export interface ScoreComponents {
   axisOffset: number;
   /** Angle between the two shaft axis lines (degrees, 0..90). */
   axisAngleDeg: number;
-  /** Cosine between the directions from the join across to each axis line: 1 when both axes lie on the same side of the wall, -1 when a piece is turned inside out (1 when not compared). */
+  /** Cosine between the directions from the join across to each axis line: 1 when both axes lie on the same side of the wall, -1 when a piece is turned inside out (1 when not compared, and when the join lies within SIDE_MIN_OFF_AXIS of A's axis, where the side is not defined). */
   axisSide: number;
   /** Larger over smaller fitted shaft radius (1 when not compared). */
   radiusRatio: number;
@@ -108,7 +108,10 @@ export const SCORE_MODEL: ScoreModel = {
  * score makes a later run score the pairs again instead of mixing old and new scores.
  */
 export function scoreModelKey(model: ScoreModel = SCORE_MODEL): string {
-  return JSON.stringify([model.methodVersion, model.interlockCap, model.intercept, FEATURE_NAMES.map((n) => model.slopes[n])]);
+  const key: unknown[] = [model.methodVersion, model.interlockCap, model.intercept, FEATURE_NAMES.map((n) => model.slopes[n])];
+  // the rules below the fit (since session 16, when the side rule stopped judging joins on the axis)
+  key.push({ rules: [LOCKED_INTERLOCK, SIDE_NONE, SIDE_FULL, SIDE_MIN_OFF_AXIS, TRUSTED_RADIUS_RATIO] });
+  return JSON.stringify(key);
 }
 
 /**
@@ -130,6 +133,18 @@ export const LOCKED_INTERLOCK = 0.03;
  */
 export const SIDE_NONE = -0.25;
 export const SIDE_FULL = 0.1;
+
+/**
+ * Which side of the wall an axis lies on is only defined seen from a join off the axis: the
+ * side (axisSide, score.ts axisAgreement) is measured only when B's face centroid lies at least
+ * this share of A's fitted radius off A's axis, and is 1 (no mismatch) nearer to it. A half
+ * ring's centroid lies at 2/pi of the radius; a whole ring's (a break across the shaft) on the
+ * axis itself, where a fitted axis a fraction of a millimetre off turns the direction from the
+ * join to it any way at all. Used by the screen since method /7 (screen-measures.ts); by the
+ * score since session 16: on dev seed 340 at 200 fragments the truth of four transverse or
+ * oblique joins had axisSide -0.5..-0.96 and scored 0 (DEVELOPERS.md, join proposals).
+ */
+export const SIDE_MIN_OFF_AXIS = 0.5;
 
 export function scoreProbability(c: ScoreComponents, model: ScoreModel = SCORE_MODEL): number {
   const x = scoreFeatures(c, model);

@@ -9,7 +9,7 @@ import { hypot } from '../hypot';
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from './rigid-transform';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { KdTree } from './nearest-neighbours';
-import { scoreProbability, type ScoreComponents } from './score-model';
+import { scoreProbability, SIDE_MIN_OFF_AXIS, type ScoreComponents } from './score-model';
 import type { ClosestPoint, TargetSurface } from './target-surface';
 import { stridedSamples } from './strided-samples';
 import type { ShaftFrame } from './shaft-axis-search';
@@ -135,11 +135,13 @@ export function axisAgreement(axisA: ShaftFrame | null | undefined, axisB: Shaft
     return [w[0] / l, w[1] / l, w[2] / l];
   };
   const ua = across(qa, dA), ub = across(qb, dB);
+  // the side is only defined seen from a join off A's axis (SIDE_MIN_OFF_AXIS): c - qa lies across A's axis
+  const fromAxis = hypot(qa[0] - c[0], qa[1] - c[1], qa[2] - c[2]);
   return {
     axesCompared: 1,
     axisOffset: offset,
     axisAngleDeg: (Math.acos(cos) * 180) / Math.PI,
-    axisSide: ua[0] * ub[0] + ua[1] * ub[1] + ua[2] * ub[2],
+    axisSide: fromAxis < SIDE_MIN_OFF_AXIS * axisA.radius ? 1 : ua[0] * ub[0] + ua[1] * ub[1] + ua[2] * ub[2],
     radiusRatio: Math.max(axisA.radius, axisB.radius) / Math.min(axisA.radius, axisB.radius),
   };
 }
