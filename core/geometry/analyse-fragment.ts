@@ -16,7 +16,7 @@ import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { refineFractureBorder } from './border-refine';
 import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
-import { fitEllipseSection } from './shaft-section';
+import { ellipseFitOptions, fitEllipseSection } from './shaft-section';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
@@ -123,10 +123,7 @@ export function analyseFragment(
     : settled;
   const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
-  const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, {
-    supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
-    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps, cavityRatioSteps: settings.ellipseSectionCavityRatioSteps, cavityRetryShare: settings.ellipseSectionCavityRetryShare,
-  });
+  const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, ellipseFitOptions(settings));
   const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
   const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);

@@ -137,6 +137,13 @@ export const analysisSettingsSchema = z.object({
    * better-explaining model kept (shaft-section.ts, evaluate; 0: off).
    */
   ellipseSectionCavityRetryShare: z.number().min(0).default(0.2),
+  /**
+   * ...and where the section to be kept has a wall more than this many times thinner at the
+   * ends of its major axis than at its minor one (cavity nearly as long as the outer ellipse),
+   * the search runs again among models whose wall thickness (A - Ai against B - Bi,
+   * section-wall-ratio.ts) differs by at most this ratio either way (0: off).
+   */
+  ellipseSectionWallRatioMax: z.number().min(0).default(2),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

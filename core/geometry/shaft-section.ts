@@ -1,6 +1,8 @@
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
 import { acrossAxisBasis, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
 import { hypot } from './hypot';
+import { sectionWallRatio } from './section-wall-ratio';
+import type { AnalysisSettings } from './settings';
 
 /**
  * A flattened shaft section: the outer surface and the medullary cavity as two ellipses in the
@@ -92,6 +94,17 @@ export interface EllipseFitOptions {
   cavityRatioSteps: number;
   /** Where the cavity ellipse explains less than this share of the outer one's surface, its ratio is read again robustly (evaluate; 0: never). */
   cavityRetryShare?: number;
+  /** Largest ratio of the wall's thickness across the major axis to across the minor one, either way (sectionWallRatio; 0: no limit). */
+  wallRatioMax?: number;
+}
+
+/** fitEllipseSection's cut-offs as the settings give them (settings.ts, ellipseSection*). */
+export function ellipseFitOptions(s: AnalysisSettings): EllipseFitOptions {
+  return {
+    supportMin: s.ellipseSectionSupportMin, ratioMin: s.ellipseSectionRatioMin, ratioMax: s.ellipseSectionRatioMax, gain: s.ellipseSectionGain,
+    headOnCosineMin: s.headOnCosineMin, maxRows: s.ellipseSectionMaxRays, distanceTolerance: s.ellipseSectionToleranceMm, gridSteps: s.ellipseSectionGridSteps,
+    cavityRatioSteps: s.ellipseSectionCavityRatioSteps, cavityRetryShare: s.ellipseSectionCavityRetryShare, wallRatioMax: s.ellipseSectionWallRatioMax,
+  };
 }
 
 interface Rows {
@@ -287,7 +300,8 @@ export function fitEllipseSection(
     surf.push(x, y, nu, nv, areas[f]);
   }
   const tol = options.distanceTolerance;
-  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry);
+  let wallMax = 0;
+  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
   // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
   {
     const c0 = starts[0];
@@ -319,7 +333,7 @@ export function fitEllipseSection(
           const cu = mu + i * step, cv = mv + j * step;
           const phi = orientationAt(few, cu, cv);
           if (phi === undefined) continue;
-          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry);
+          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
           if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
         }
       }
@@ -340,23 +354,39 @@ export function fitEllipseSection(
     }
     return best;
   };
-  let best = search(0);
-  if (!best) return axis;
-  // Where the best model's cavity ellipse explains little beside its outer one (under
-  // `cavityRetryShare` of it), the whole search again with the cavity ratio re-read wherever a
-  // model's cavity explains that little (evaluate); the better of the two is kept. Re-reading
-  // in the first search already moves fits whose cavity explains enough (dev s370 QS-10296, a
-  // metacarpal: 93.9 -> 87.0, the search then settles elsewhere).
-  const retryShare = options.cavityRetryShare ?? 0;
-  if (retryShare > 0 && options.cavityRatioSteps > 0 && best.inner < retryShare * best.outer) {
-    const again = search(retryShare);
-    if (again && again.score > best.score) best = again;
-  }
-  const e = best;
-  if (!(e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax)) return axis;
   // The round model's own explained area: circles (or the medial segment's offsets) about the axis at the medians of the surface facing out and in.
-  const round = explainedRound(axis, centroids, normals, areas, sstride, across, tol);
-  if (!(e.score > round * (1 + options.gain))) return axis;
+  let roundArea: number | undefined;
+  const roundScore = (): number => (roundArea ??= explainedRound(axis, centroids, normals, areas, sstride, across, tol));
+  const retryShare = options.cavityRetryShare ?? 0;
+  // The search, then (where the best model's cavity ellipse explains little beside its outer
+  // one, under `cavityRetryShare` of it) the whole search again with the cavity ratio re-read
+  // wherever a model's cavity explains that little (evaluate); the better of the two is kept.
+  // Re-reading in the first search already moves fits whose cavity explains enough (dev s370
+  // QS-10296, a metacarpal: 93.9 -> 87.0, the search then settles elsewhere).
+  const searched = (): Ellipses | undefined => {
+    let best = search(0);
+    if (best && retryShare > 0 && options.cavityRatioSteps > 0 && best.inner < retryShare * best.outer) {
+      const again = search(retryShare);
+      if (again && again.score > best.score) best = again;
+    }
+    return best;
+  };
+  const kept = (e: Ellipses | undefined): e is Ellipses => !!e && e.A / e.B >= options.ratioMin && e.A / e.B <= options.ratioMax && e.score > roundScore() * (1 + options.gain);
+  let e = searched();
+  // A section that would be kept although its wall is much thinner at the ends of its major
+  // axis than at those of its minor one (the cavity ellipse nearly as long as the outer one,
+  // thickness ratio over `wallRatioMax`, sectionWallRatio) is searched for again among models
+  // whose wall is within that ratio either way; where that search finds none the first stays.
+  // Such a cavity is the closed-form ratio's failure on a slit-like cavity (evaluate): break faces
+  // through the narrow edge read as cavity wall. Where the wall is thin at the minor axis
+  // instead (a round cavity touching the outer ellipse) searching again lost as often as it won
+  // on dev (s108 QS-10925 86.3 -> 72.6, QS-10495 95.7 -> 44.8; s21 QS-10346 44.9 -> 84.6).
+  const wallLimit = options.wallRatioMax ?? 0;
+  if (wallLimit > 0 && kept(e) && e.B - e.Bi > wallLimit * (e.A - e.Ai)) {
+    wallMax = wallLimit;
+    e = searched() ?? e;
+  }
+  if (!kept(e)) return axis;
   const c = Math.cos(e.phi), s = Math.sin(e.phi);
   const t0 = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
   const point: [number, number, number] = [e.cu * ux + e.cv * vx + t0 * ax, e.cu * uy + e.cv * vy + t0 * ay, e.cu * uz + e.cv * vz + t0 * az];
@@ -374,17 +404,22 @@ export function fitEllipseSection(
  * flattened outline is its parallel curve, pointed where the outline's radius of curvature is
  * under the wall's thickness) the closed form is set by the members off both axes.
  */
-function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number): Ellipses | undefined {
+function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number, wallMax = 0): Ellipses | undefined {
   const pm = planeModel(rows, cu, cv, phi, cavityGrid);
-  const first = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, pm.rhoIn);
+  const first = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, pm.rhoIn, wallMax);
   if (!(cavityGrid > 0 && retryShare > 0) || (first && first.inner >= retryShare * first.outer)) return first;
   if (!((pm.rhoOut - 1) * (pm.rhoIn - 1) >= 0)) return first;
-  const alt = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, robustRatio(cavity, rows.n, -1, cavityGrid));
+  const alt = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, robustRatio(cavity, rows.n, -1, cavityGrid), wallMax);
   return alt && (!first || alt.score > first.score) ? alt : first;
 }
 
-/** The model about (cu, cv), angle phi, with squared axis ratios rhoOut0 and rhoIn0: sizes the members' medians, scored by explained(). */
-function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, rhoOut0: number, rhoIn0: number): Ellipses | undefined {
+/**
+ * The model about (cu, cv), angle phi, with squared axis ratios rhoOut0 and rhoIn0: sizes the
+ * members' medians, scored by explained(). Undefined where the wall's thickness across the
+ * major axis and across the minor one differ by more than `wallMax` times (sectionWallRatio;
+ * 0: no limit).
+ */
+function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, rhoOut0: number, rhoIn0: number, wallMax = 0): Ellipses | undefined {
   const n = rows.n;
   let rhoOut = rhoOut0, rhoIn = rhoIn0;
   let ph = phi;
@@ -401,6 +436,7 @@ function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, 
   const A = weightedMedian(outA), Ai = weightedMedian(inA);
   const B = A / Math.sqrt(rhoOut), Bi = Ai / Math.sqrt(rhoIn);
   if (!(A > Ai && B > Bi && Bi > 0)) return undefined;
+  if (wallMax > 0 && !(sectionWallRatio(A, B, Ai, Bi) <= wallMax)) return undefined;
   const e: Ellipses = { cu, cv, phi: ph, A, B, Ai, Bi, score: 0, outer: 0, inner: 0 };
   explained(surf, e, tol);
   return e;

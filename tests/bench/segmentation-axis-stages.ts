@@ -18,7 +18,7 @@ import { bilateralNormalFilter, triangleCentroids } from '../../core/geometry/no
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { analysisSettings } from '../../core/geometry/settings';
 import { fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../core/geometry/shaft-axis';
-import { fitEllipseSection } from '../../core/geometry/shaft-section';
+import { ellipseFitOptions, fitEllipseSection } from '../../core/geometry/shaft-section';
 import { castWallRays } from '../../core/geometry/wall-rays';
 import { buildTopology, triangleComponents } from '../../core/geometry/topology';
 import { keepTriangles, weldVertices } from '../../core/geometry/weld';
@@ -90,10 +90,7 @@ for (const no of nos.split(',')) {
   describe('segment', sectioned);
   const round = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   describe('medial', round);
-  const ell = fitEllipseSection(round, centroids, filtered, areas, rays, {
-    supportMin: settings.ellipseSectionSupportMin, ratioMin: settings.ellipseSectionRatioMin, ratioMax: settings.ellipseSectionRatioMax, gain: settings.ellipseSectionGain,
-    headOnCosineMin: settings.headOnCosineMin, maxRows: settings.ellipseSectionMaxRays, distanceTolerance: settings.ellipseSectionToleranceMm, gridSteps: settings.ellipseSectionGridSteps, cavityRatioSteps: settings.ellipseSectionCavityRatioSteps,
-  });
+  const ell = fitEllipseSection(round, centroids, filtered, areas, rays, ellipseFitOptions(settings));
   describe('ellipse', ell);
   describe('generator', { direction: zb as [number, number, number], point: org as [number, number, number], radius: 0, support: 1 });
   const agreement = (override?: (a: ShaftAxis) => ShaftAxis): number => {

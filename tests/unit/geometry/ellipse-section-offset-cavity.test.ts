@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { fitEllipseSection, type EllipseFitOptions, type EllipseRays } from '../../../core/geometry/shaft-section';
+import { ellipseFitOptions, fitEllipseSection, type EllipseFitOptions, type EllipseRays } from '../../../core/geometry/shaft-section';
 import { analysisSettings } from '../../../core/geometry/settings';
 
 const deg = Math.PI / 180;
@@ -44,12 +44,7 @@ function tipPiece(A: number, B: number, c: number, fromDeg: number, toDeg: numbe
 }
 
 function fitOptions(overrides: Record<string, unknown> = {}): EllipseFitOptions {
-  const s = analysisSettings(overrides);
-  return {
-    supportMin: s.ellipseSectionSupportMin, ratioMin: s.ellipseSectionRatioMin, ratioMax: s.ellipseSectionRatioMax, gain: s.ellipseSectionGain,
-    headOnCosineMin: s.headOnCosineMin, maxRows: s.ellipseSectionMaxRays, distanceTolerance: s.ellipseSectionToleranceMm,
-    gridSteps: s.ellipseSectionGridSteps, cavityRatioSteps: s.ellipseSectionCavityRatioSteps, cavityRetryShare: s.ellipseSectionCavityRetryShare,
-  };
+  return ellipseFitOptions(analysisSettings(overrides));
 }
 
 describe('elliptic section of a tip piece whose cavity is the parallel curve of the outer outline', () => {
