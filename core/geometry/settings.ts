@@ -40,6 +40,22 @@ export const analysisSettingsSchema = z.object({
    */
   shaftCentreTolerance: z.number().positive().max(1).default(0.45),
   /**
+   * Shaft axis centre (shaft-axis.ts consensusCentre, wall-crossing.ts): a candidate centre
+   * that more than this share of the inward wall rays' area passes (their segments from shooter
+   * to exit, seen along the axis, within `shaftCentreWallToleranceMm`) lies inside the wall
+   * and is refused, and the reweighting from the consensus start stops before it enters the
+   * wall; a shaft's axis runs through its cavity. 0: off.
+   */
+  shaftCentreWallShareMax: z.number().min(0).max(1).default(0.5),
+  /**
+   * Least axis support (share of the area along the axis) for shaftCentreWallShareMax: the
+   * axis of a piece holding a bone end runs through the end's solid bone (dev s362 QS-10284,
+   * support 0.54, and s372 QS-10101, 0.57, lost 1.6-1.7 points with the check).
+   */
+  shaftCentreWallSupportMin: z.number().min(0).max(1).default(0.65),
+  /** How near (mm) a wall ray's segment must pass a candidate centre to cross it (shaftCentreWallShareMax). */
+  shaftCentreWallToleranceMm: z.number().positive().default(1),
+  /**
    * Shaft axis direction (shaft-axis.ts, searchShaftDirection): the eigenvector iteration of the
    * normals' scatter can settle across a short or chunky piece (its transverse ends' normals
    * run along the axis and outweigh the narrow in-plane spread of the wall's), so directions
