@@ -40,11 +40,12 @@ export const analysisSettingsSchema = z.object({
    */
   shaftCentreTolerance: z.number().positive().max(1).default(0.45),
   /**
-   * Shaft axis centre (shaft-axis.ts consensusCentre, wall-crossing.ts): a candidate centre
-   * that more than this share of the inward wall rays' area passes (their segments from shooter
-   * to exit, seen along the axis, within `shaftCentreWallToleranceMm`) lies inside the wall
-   * and is refused, and the reweighting from the consensus start stops before it enters the
-   * wall; a shaft's axis runs through its cavity. 0: off.
+   * Shaft axis centre (shaft-axis.ts fitShaftAxis, wall-crossing.ts wallCrossingShare): of the
+   * inward wall rays aimed at a candidate centre (seen along the axis, their line within
+   * `shaftCentreWallToleranceMm` of it ahead of the shooter), where more than this area share
+   * reach it before they leave the material, it lies inside the wall (0 in the cavity, over
+   * 0.5 in a wall) and is refused: the consensus start skips it and the reweighting from the
+   * start stops before it. A shaft's axis runs through its cavity. 0: off.
    */
   shaftCentreWallShareMax: z.number().min(0).max(1).default(0.5),
   /**
@@ -53,7 +54,7 @@ export const analysisSettingsSchema = z.object({
    * support 0.54, and s372 QS-10101, 0.57, lost 1.6-1.7 points with the check).
    */
   shaftCentreWallSupportMin: z.number().min(0).max(1).default(0.65),
-  /** How near (mm) a wall ray's segment must pass a candidate centre to cross it (shaftCentreWallShareMax). */
+  /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
   shaftCentreWallToleranceMm: z.number().positive().default(1),
   /**
    * Shaft axis direction (shaft-axis.ts, searchShaftDirection): the eigenvector iteration of the

@@ -6,7 +6,8 @@ import { hypot } from './hypot';
  * point through the material, so its segment, projected onto the plane across the axis, lies
  * in the section's wall. A shaft's axis runs through the medullary cavity (or, for a splinter,
  * through the air that was the cavity), never through the cortex: a candidate axis centre that
- * many of these segments pass lies inside the wall.
+ * the rays aimed at it reach before they leave the material lies inside the wall
+ * (wallCrossingShare).
  * Rows of five numbers per ray: start (u, v), end (u, v), shooter's area.
  */
 export function wallSegments(
