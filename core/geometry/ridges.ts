@@ -114,14 +114,17 @@ export function detectAndCloseRidges(
   // Mark the half-edges of the closing paths.
   if (pending.length) {
     const want = new Set<number>();
+    const onPath = new Uint8Array(nv);
     for (let i = 0; i < pending.length; i += 2) {
       const a = pending[i], b = pending[i + 1];
       want.add(Math.min(a, b) * nv + Math.max(a, b));
+      onPath[a] = 1;
+      onPath[b] = 1;
     }
     for (let f = 0; f < nt; f++) {
       for (let j = 0; j < 3; j++) {
         const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
-        if (want.has(Math.min(a, b) * nv + Math.max(a, b))) ridge[3 * f + j] = 1;
+        if (onPath[a] && onPath[b] && want.has(Math.min(a, b) * nv + Math.max(a, b))) ridge[3 * f + j] = 1;
       }
     }
   }
