@@ -30,6 +30,7 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
   const hood: number[] = [];
   const A = new Float64Array(25), rhs = new Float64Array(5), sol = new Float64Array(5);
   const row = new Float64Array(5);
+  const solveM = new Float64Array(25), solveY = new Float64Array(5);
   const xs: number[] = [], ys: number[] = [], zs: number[] = [];
   for (let v = 0; v < nv; v++) {
     const nx = normals[3 * v], ny = normals[3 * v + 1], nz = normals[3 * v + 2];
@@ -70,10 +71,12 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
       row[0] = x * x; row[1] = x * y; row[2] = y * y; row[3] = x; row[4] = y;
       for (let r = 0; r < 5; r++) {
         rhs[r] += row[r] * z;
-        for (let c = 0; c < 5; c++) A[5 * r + c] += row[r] * row[c];
+        for (let c = r; c < 5; c++) A[5 * r + c] += row[r] * row[c];
       }
     }
-    if (!solve5(A, rhs, sol)) continue;
+    // The normal matrix is symmetric: the lower triangle is the upper one's mirror.
+    for (let r = 1; r < 5; r++) for (let c = 0; c < r; c++) A[5 * r + c] = A[5 * c + r];
+    if (!solve5(A, rhs, sol, solveM, solveY)) continue;
     let res = 0;
     for (let i = 0; i < xs.length; i++) {
       const x = xs[i] / h, y = ys[i] / h;
@@ -110,11 +113,11 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
   return { k1, k2, minDirection, roughness: rough };
 }
 
-/** Gaussian elimination with partial pivoting on a 5x5 system; false when singular. */
-function solve5(A: Float64Array, b: Float64Array, x: Float64Array): boolean {
+/** Gaussian elimination with partial pivoting on a 5x5 system; false when singular. M and y are work space (A and b are left as they are). */
+function solve5(A: Float64Array, b: Float64Array, x: Float64Array, M: Float64Array, y: Float64Array): boolean {
   const n = 5;
-  const M = Float64Array.from(A);
-  const y = Float64Array.from(b);
+  M.set(A);
+  y.set(b);
   for (let c = 0; c < n; c++) {
     let piv = c;
     for (let r = c + 1; r < n; r++) if (Math.abs(M[5 * r + c]) > Math.abs(M[5 * piv + c])) piv = r;

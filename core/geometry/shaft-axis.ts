@@ -1,4 +1,5 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+import { weightedMedian } from './weighted-median';
 import { mulberry32 } from './seeded-random';
 import { analysisSettings } from './settings';
 import { ellipseOffset, type EllipseSection } from './shaft-section';
@@ -470,18 +471,6 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
     out[f] = radial >= radialMin ? 1 : radial <= -radialMin ? 2 : 0;
   }
   return out;
-}
-
-/** Area-weighted median of (value, weight) pairs (sorts the array in place). */
-export function weightedMedian(values: Array<[number, number]>): number {
-  values.sort((p, q) => p[0] - q[0]);
-  const half = values.reduce((s, x) => s + x[1], 0) / 2;
-  let acc = 0;
-  for (const [v, w] of values) {
-    acc += w;
-    if (acc >= half) return v;
-  }
-  return values.length ? values[values.length - 1][0] : 0;
 }
 
 /** What fitSectionSegment reads of the inward wall rays (wall-rays.ts). */
