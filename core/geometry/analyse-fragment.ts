@@ -112,7 +112,8 @@ export function analyseFragment(
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
-  const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin }), centroids, filtered, areas, triMean,
+  const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin },
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin }), centroids, filtered, areas, triMean,
     { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   // The segment fitted in direction and extent where it is kept, else the one along the line from the area centroid to the centre.
   const sectioned = settings.sectionSegmentReaches.length > 0
