@@ -1,4 +1,5 @@
 import type { AnalysisSettings } from './settings';
+import { kthSmallest } from './kth-smallest';
 import { weightedMedian } from './weighted-median';
 import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
 import type { SurfaceClass } from './surface-classes';
@@ -81,8 +82,7 @@ export function regionFigures(
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
     originalCreaseBorderShare: NaN, breakExitShare: 0,
   }));
-  const roughSorted = Float32Array.from(triRoughness).sort();
-  const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;
+  const medianRough = kthSmallest(triRoughness, Math.floor(triRoughness.length / 2)) || 1e-9;
   // Region roughness: area-weighted mean of each triangle's roughness relative to the
   // fragment's median, each capped at 4 so that a few slivers cannot dominate a region.
   const roughSum = new Float64Array(regionCount);

@@ -423,9 +423,9 @@ function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: numbe
 /** Work space of sized(), grown as needed (one per thread: the analysis is synchronous). */
 let sizedSpace = { outA: new Float64Array(0), inA: new Float64Array(0), order: new Uint32Array(0) };
 function sizedWork(n: number): typeof sizedSpace {
-  if (sizedSpace.order.length < n) {
-    const m = Math.max(n, 2 * sizedSpace.order.length);
-    sizedSpace = { outA: new Float64Array(m), inA: new Float64Array(m), order: new Uint32Array(m) };
+  if (sizedSpace.outA.length < n) {
+    const m = Math.max(n, 2 * sizedSpace.outA.length);
+    sizedSpace = { outA: new Float64Array(m), inA: new Float64Array(m), order: new Uint32Array(2 * m) };
   }
   return sizedSpace;
 }

@@ -19,13 +19,11 @@ export function weightedMedian(values: Array<[number, number]>): number {
 
 /**
  * Of the first n entries of values and weights, without pairing them up: `order` (length at
- * least n) is work space. The same value as weightedMedian on the pairs, bit for bit: ties are
+ * least 2n) is work space. The same value as weightedMedian on the pairs, bit for bit: ties are
  * ordered by index, as the stable sort of the pairs leaves them.
  */
 export function weightedMedianOf(values: ArrayLike<number>, weights: ArrayLike<number>, n: number, order: Uint32Array): number {
-  const idx = order.subarray(0, n);
-  for (let i = 0; i < n; i++) idx[i] = i;
-  idx.sort((a, b) => values[a] - values[b] || a - b);
+  const idx = sortIndicesByValue(values, n, order);
   let total = 0;
   for (let i = 0; i < n; i++) total += weights[idx[i]];
   const half = total / 2;
@@ -35,4 +33,28 @@ export function weightedMedianOf(values: ArrayLike<number>, weights: ArrayLike<n
     if (acc >= half) return values[idx[i]];
   }
   return n ? values[idx[n - 1]] : 0;
+}
+
+/**
+ * Indices 0..n-1 ordered by value, ties by index: a bottom-up merge sort (stable, so ties keep
+ * index order) in the two halves of `work` (length at least 2n); returns the half holding the result.
+ */
+function sortIndicesByValue(values: ArrayLike<number>, n: number, work: Uint32Array): Uint32Array {
+  let src = work.subarray(0, n), dst = work.subarray(n, 2 * n);
+  for (let i = 0; i < n; i++) src[i] = i;
+  for (let width = 1; width < n; width *= 2) {
+    for (let lo = 0; lo < n; lo += 2 * width) {
+      const mid = Math.min(lo + width, n), hi = Math.min(lo + 2 * width, n);
+      let i = lo, j = mid, k = lo;
+      while (i < mid && j < hi) {
+        // Take the right run's entry only when strictly smaller: equal values keep their order.
+        if (values[src[j]] < values[src[i]]) dst[k++] = src[j++];
+        else dst[k++] = src[i++];
+      }
+      while (i < mid) dst[k++] = src[i++];
+      while (j < hi) dst[k++] = src[j++];
+    }
+    const t = src; src = dst; dst = t;
+  }
+  return src;
 }

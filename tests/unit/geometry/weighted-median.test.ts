@@ -21,7 +21,7 @@ function satisfiesDefinition(values: number[], weights: number[], m: number): bo
 
 describe('weightedMedianOf', () => {
   it('with equal weights is the lower median (common practice: the lower of the two middle values for an even count)', () => {
-    const order = new Uint32Array(8);
+    const order = new Uint32Array(16);
     expect(weightedMedianOf([5, 1, 4, 2, 3], [1, 1, 1, 1, 1], 5, order)).toBe(3);
     expect(weightedMedianOf([6, 1, 4, 2, 3, 5], [1, 1, 1, 1, 1, 1], 6, order)).toBe(3);
   });
@@ -29,12 +29,12 @@ describe('weightedMedianOf', () => {
   it('follows the weight, not the count: one heavy value outweighs the rest', () => {
     // Weights 0.6 on 10 and 0.1 on each of four smaller values: the values below 10 weigh
     // 0.4 < 0.5, and up to 10 weigh 1 >= 0.5 (definition above).
-    expect(weightedMedianOf([1, 2, 10, 3, 4], [0.1, 0.1, 0.6, 0.1, 0.1], 5, new Uint32Array(5))).toBe(10);
+    expect(weightedMedianOf([1, 2, 10, 3, 4], [0.1, 0.1, 0.6, 0.1, 0.1], 5, new Uint32Array(10))).toBe(10);
   });
 
   it('meets the definition on random values with ties, and equals the pair version bit for bit', () => {
     const rand = mulberry32(20261203);
-    const order = new Uint32Array(400);
+    const order = new Uint32Array(800);
     for (let trial = 0; trial < 300; trial++) {
       const n = 1 + Math.floor(rand() * 300);
       // Rounded values make ties; weights span three orders of magnitude.
@@ -47,7 +47,7 @@ describe('weightedMedianOf', () => {
   });
 
   it('reads only the first n entries', () => {
-    expect(weightedMedianOf([3, 1, 2, 100, 100, 100], [1, 1, 1, 50, 50, 50], 3, new Uint32Array(6))).toBe(2);
+    expect(weightedMedianOf([3, 1, 2, 100, 100, 100], [1, 1, 1, 50, 50, 50], 3, new Uint32Array(12))).toBe(2);
   });
 
   it('is 0 for no values, as the pair version', () => {
