@@ -1,4 +1,5 @@
 import { vertexRings } from './adjacency';
+import { kthSmallest } from './kth-smallest';
 import { headOnExits, originalClass, regionFigures, typicalWallDepth, type RegionFigures } from './classify-regions';
 import { principalCurvatures, type SurfaceCurvature } from './curvature';
 import { splitFacesAtCorners } from './face-corner-split';
@@ -111,7 +112,8 @@ export function analyseFragment(
   const area = surfaceArea(mesh);
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
-  const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin }), centroids, filtered, areas, triMean,
+  const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin },
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin }), centroids, filtered, areas, triMean,
     { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   // The segment fitted in direction and extent where it is kept, else the one along the line from the area centroid to the centre.
   const sectioned = settings.sectionSegmentReaches.length > 0
@@ -167,7 +169,6 @@ export function analyseFragment(
   const triangleClass = new Uint8Array(nt);
   for (let f = 0; f < nt; f++) triangleClass[f] = surfaceClassCode(regions[region[f]].surfaceClass);
   const samples = resampleSurface(mesh, triNormals, settings.sampleSpacingMm);
-  const roughSorted = Float32Array.from(triRough).sort();
   // Faces: fracture regions grouped, split where breaks meet at a crease (face-split.ts).
   const groupOfRegion = fractureFaceGroups(mesh, topo.neighbours, filtered, areas, region, regions.map((r) => r.kind === 'fracture'), regions.map((r) => r.surfaceClass === 'outer-cortical'), {
     creaseAngleDeg: settings.ridgeAngleDeg,
@@ -201,7 +202,7 @@ export function analyseFragment(
     centroids,
     triClass: triangleClass,
     triRoughness: triRough,
-    medianRoughness: roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9,
+    medianRoughness: kthSmallest(triRough, Math.floor(nt / 2)) || 1e-9,
     axis,
     samples,
     settings,

@@ -153,12 +153,15 @@ function revertSpecks(
   const flood = new Int32Array(nt).fill(-1);
   const large: boolean[] = [];
   const stack: number[] = [], members: number[] = [];
+  // Triangles moved, in order; reverting only ever takes triangles off this list.
+  let moved: number[] = [];
+  for (let f = 0; f < nt; f++) if (out[f] !== first[f]) moved.push(f);
   for (let round = 0; round < 20; round++) {
     const roundStart = large.length;
     // Seeds: the moved triangles and their neighbours (every patch that holds or touches a move).
     const seeds: number[] = [];
-    for (let f = 0; f < nt; f++) {
-      if (out[f] === first[f]) continue;
+    moved = moved.filter((f) => out[f] !== first[f]);
+    for (const f of moved) {
       seeds.push(f);
       for (let j = 0; j < 3; j++) { const g = neighbours[3 * f + j]; if (g >= 0) seeds.push(g); }
     }

@@ -1,4 +1,6 @@
 import type { AnalysisSettings } from './settings';
+import { kthSmallest } from './kth-smallest';
+import { weightedMedian } from './weighted-median';
 import { offsetFromAxis, type ShaftAxis } from './shaft-axis';
 import type { SurfaceClass } from './surface-classes';
 import type { WallRays } from './wall-rays';
@@ -80,8 +82,7 @@ export function regionFigures(
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
     originalCreaseBorderShare: NaN, breakExitShare: 0,
   }));
-  const roughSorted = Float32Array.from(triRoughness).sort();
-  const medianRough = roughSorted[Math.floor(roughSorted.length / 2)] || 1e-9;
+  const medianRough = kthSmallest(triRoughness, Math.floor(triRoughness.length / 2)) || 1e-9;
   // Region roughness: area-weighted mean of each triangle's roughness relative to the
   // fragment's median, each capped at 4 so that a few slivers cannot dominate a region.
   const roughSum = new Float64Array(regionCount);
@@ -191,14 +192,7 @@ export function originalClass(r: RegionFigures, axis: ShaftAxis, settings: Analy
 /** Typical wall thickness: area-weighted median ray depth of regions whose rays cross head-on. */
 export function typicalWallDepth(figures: RegionFigures[]): number {
   const rows = figures.filter((r) => r.rays > 0 && r.rayExitCosine >= 0.9).map((r) => [r.rayDepth, r.area] as [number, number]);
-  rows.sort((a, b) => a[0] - b[0]);
-  const half = rows.reduce((s, x) => s + x[1], 0) / 2;
-  let acc = 0;
-  for (const [d, w] of rows) {
-    acc += w;
-    if (acc >= half) return d;
-  }
-  return NaN;
+  return rows.length ? weightedMedian(rows) : NaN;
 }
 
 /**

@@ -30,7 +30,9 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
   const hood: number[] = [];
   const A = new Float64Array(25), rhs = new Float64Array(5), sol = new Float64Array(5);
   const row = new Float64Array(5);
-  const xs: number[] = [], ys: number[] = [], zs: number[] = [];
+  const solveM = new Float64Array(25), solveY = new Float64Array(5);
+  // Neighbourhood coordinates in the tangent frame, scaled by h (grown as needed).
+  let xs = new Float64Array(64), ys = new Float64Array(64), zs = new Float64Array(64);
   for (let v = 0; v < nv; v++) {
     const nx = normals[3 * v], ny = normals[3 * v + 1], nz = normals[3 * v + 2];
     // Two-ring neighbourhood.
@@ -55,32 +57,37 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
     const ul = hypot(ux, uy, uz);
     ux /= ul; uy /= ul; uz /= ul;
     const wx = ny * uz - nz * uy, wy = nz * ux - nx * uz, wz = nx * uy - ny * ux;
-    xs.length = ys.length = zs.length = 0;
+    const m = hood.length;
+    if (xs.length < m) { xs = new Float64Array(2 * m); ys = new Float64Array(2 * m); zs = new Float64Array(2 * m); }
     let h = 0;
-    for (const w of hood) {
+    for (let i = 0; i < m; i++) {
+      const w = hood[i];
       const dx = p[3 * w] - p[3 * v], dy = p[3 * w + 1] - p[3 * v + 1], dz = p[3 * w + 2] - p[3 * v + 2];
       const x = dx * ux + dy * uy + dz * uz, y = dx * wx + dy * wy + dz * wz, z = dx * nx + dy * ny + dz * nz;
-      xs.push(x); ys.push(y); zs.push(z);
+      xs[i] = x; ys[i] = y; zs[i] = z;
       h += hypot(x, y);
     }
-    h = h / hood.length || 1;
+    h = h / m || 1;
+    for (let i = 0; i < m; i++) { xs[i] /= h; ys[i] /= h; zs[i] /= h; }
     A.fill(0); rhs.fill(0);
-    for (let i = 0; i < xs.length; i++) {
-      const x = xs[i] / h, y = ys[i] / h, z = zs[i] / h;
+    for (let i = 0; i < m; i++) {
+      const x = xs[i], y = ys[i], z = zs[i];
       row[0] = x * x; row[1] = x * y; row[2] = y * y; row[3] = x; row[4] = y;
       for (let r = 0; r < 5; r++) {
         rhs[r] += row[r] * z;
-        for (let c = 0; c < 5; c++) A[5 * r + c] += row[r] * row[c];
+        for (let c = r; c < 5; c++) A[5 * r + c] += row[r] * row[c];
       }
     }
-    if (!solve5(A, rhs, sol)) continue;
+    // The normal matrix is symmetric: the lower triangle is the upper one's mirror.
+    for (let r = 1; r < 5; r++) for (let c = 0; c < r; c++) A[5 * r + c] = A[5 * c + r];
+    if (!solve5(A, rhs, sol, solveM, solveY)) continue;
     let res = 0;
-    for (let i = 0; i < xs.length; i++) {
-      const x = xs[i] / h, y = ys[i] / h;
-      const e = sol[0] * x * x + sol[1] * x * y + sol[2] * y * y + sol[3] * x + sol[4] * y - zs[i] / h;
+    for (let i = 0; i < m; i++) {
+      const x = xs[i], y = ys[i];
+      const e = sol[0] * x * x + sol[1] * x * y + sol[2] * y * y + sol[3] * x + sol[4] * y - zs[i];
       res += e * e;
     }
-    rough[v] = Math.sqrt(res / xs.length) * h;
+    rough[v] = Math.sqrt(res / m) * h;
     const fx = sol[3], fy = sol[4];
     const fxx = (2 * sol[0]) / h, fxy = sol[1] / h, fyy = (2 * sol[2]) / h;
     const E = 1 + fx * fx, F = fx * fy, G = 1 + fy * fy;
@@ -110,11 +117,11 @@ export function principalCurvatures(mesh: TriangleMesh, normals: Float32Array, r
   return { k1, k2, minDirection, roughness: rough };
 }
 
-/** Gaussian elimination with partial pivoting on a 5x5 system; false when singular. */
-function solve5(A: Float64Array, b: Float64Array, x: Float64Array): boolean {
+/** Gaussian elimination with partial pivoting on a 5x5 system; false when singular. M and y are work space (A and b are left as they are). */
+function solve5(A: Float64Array, b: Float64Array, x: Float64Array, M: Float64Array, y: Float64Array): boolean {
   const n = 5;
-  const M = Float64Array.from(A);
-  const y = Float64Array.from(b);
+  M.set(A);
+  y.set(b);
   for (let c = 0; c < n; c++) {
     let piv = c;
     for (let r = c + 1; r < n; r++) if (Math.abs(M[5 * r + c]) > Math.abs(M[5 * piv + c])) piv = r;

@@ -1,5 +1,6 @@
 import type { TriangleMesh } from './mesh';
 import { hypot } from './hypot';
+import { MinHeap } from './min-heap';
 
 /**
  * Split break faces at the corners of their rim against the outer bone surface. On a shaft a
@@ -61,12 +62,15 @@ export function splitFacesAtCorners(
   const inPiece = new Int32Array(nt).fill(-1);
   let pieceStamp = 0;
   const work = queue.map((tris) => ({ tris, cuts: 0 }));
+  // Per-mesh work space of cutOnce: local numbers of a face's triangles and vertices.
+  const nv = mesh.positions.length / 3;
+  const scratch: CutScratch = { triangleLocal: new Int32Array(nt), vertexLocal: new Int32Array(nv), vertexSeen: new Int32Array(nv), vertexStamp: 0 };
   while (work.length) {
     const item = work.pop()!;
     if (item.cuts >= settings.maxCuts) continue;
     const stamp = ++pieceStamp;
     for (const f of item.tris) inPiece[f] = stamp;
-    const pieces = cutOnce(mesh, neighbours, normals, areas, item.tris, (f) => f >= 0 && inPiece[f] === stamp, isOuter, settings);
+    const pieces = cutOnce(mesh, neighbours, normals, areas, item.tris, (f) => f >= 0 && inPiece[f] === stamp, isOuter, settings, scratch);
     if (!pieces) continue;
     // The first piece keeps the group, the second takes a new one.
     const group = out[item.tris[0]];
@@ -78,6 +82,14 @@ export function splitFacesAtCorners(
   return out;
 }
 
+/** Work space shared by the cuts of one mesh: local numbers (valid while `vertexSeen` holds the current stamp). */
+interface CutScratch {
+  triangleLocal: Int32Array;
+  vertexLocal: Int32Array;
+  vertexSeen: Int32Array;
+  vertexStamp: number;
+}
+
 function cutOnce(
   mesh: TriangleMesh,
   neighbours: Int32Array,
@@ -87,6 +99,7 @@ function cutOnce(
   inFace: (f: number) => boolean,
   isOuter: (triangle: number) => boolean,
   settings: CornerSplitSettings,
+  scratch: CutScratch,
 ): [number[], number[]] | undefined {
   const t = mesh.triangles, p = mesh.positions;
   let area = 0;
@@ -177,38 +190,79 @@ function cutOnce(
     const key = Math.min(a, b) * nv + Math.max(a, b);
     edgeCount.set(key, (edgeCount.get(key) ?? 0) + 1);
   }
-  const adj = new Map<number, number[]>();
+  // The face in local numbers: triangle i is tris[i]; its vertices numbered in order of first use.
+  const nf = tris.length;
+  const vStamp = ++scratch.vertexStamp;
+  const vertexOf: number[] = [];
+  const localVertex = (v: number): number => {
+    if (scratch.vertexSeen[v] !== vStamp) { scratch.vertexSeen[v] = vStamp; scratch.vertexLocal[v] = vertexOf.length; vertexOf.push(v); }
+    return scratch.vertexLocal[v];
+  };
+  for (let i = 0; i < nf; i++) scratch.triangleLocal[tris[i]] = i;
+  const localNeighbour = new Int32Array(3 * nf), cornerVertex = new Int32Array(3 * nf);
+  // Length of each edge against outer surface outside the face (0 elsewhere): the pieces' rim.
+  const rimEdge = new Float64Array(3 * nf);
+  for (let i = 0; i < nf; i++) {
+    const f = tris[i];
+    for (let j = 0; j < 3; j++) {
+      const g = neighbours[3 * f + j];
+      const inside = g >= 0 && inFace(g);
+      localNeighbour[3 * i + j] = inside ? scratch.triangleLocal[g] : -1;
+      cornerVertex[3 * i + j] = localVertex(t[3 * f + j]);
+      if (g >= 0 && !inside && isOuter(g)) rimEdge[3 * i + j] = dist3(t[3 * f + j], t[3 * f + ((j + 1) % 3)]);
+    }
+  }
+  const nl = vertexOf.length;
+  // Interior-edge graph over local vertices (compressed rows, in the order the edges were met).
+  const degree = new Int32Array(nl + 1);
   for (const [key, c] of edgeCount) {
     if (c !== 2) continue;
-    const a = Math.floor(key / nv), b = key % nv;
-    (adj.get(a) ?? adj.set(a, []).get(a)!).push(b);
-    (adj.get(b) ?? adj.set(b, []).get(b)!).push(a);
+    degree[scratch.vertexLocal[Math.floor(key / nv)]]++;
+    degree[scratch.vertexLocal[key % nv]]++;
   }
+  const rowStart = new Int32Array(nl + 1);
+  for (let v = 0; v < nl; v++) rowStart[v + 1] = rowStart[v] + degree[v];
+  const rowFill = rowStart.slice(0, nl);
+  const adjacent = new Int32Array(rowStart[nl]);
+  for (const [key, c] of edgeCount) {
+    if (c !== 2) continue;
+    const a = scratch.vertexLocal[Math.floor(key / nv)], b = scratch.vertexLocal[key % nv];
+    adjacent[rowFill[a]++] = b;
+    adjacent[rowFill[b]++] = a;
+  }
+  const graph: LocalGraph = { rowStart, adjacent, vertexOf, target: new Uint8Array(nl), outerRim: new Uint8Array(nl) };
+  for (const v of otherBorder) graph.target[scratch.vertexLocal[v]] = 1;
+  for (const v of outerRimVertex) graph.outerRim[scratch.vertexLocal[v]] = 1;
+  const search: DijkstraSpace = { dist: new Float64Array(nl).fill(Infinity), prev: new Int32Array(nl).fill(-1), done: new Uint8Array(nl), touched: [], heap: new MinHeap() };
+  const pathPos = new Int32Array(nl).fill(-1);
+  const label = new Int32Array(nf).fill(-1);
   const cosNormal = Math.cos((settings.minNormalDeg * Math.PI) / 180);
-  for (const corner of corners) {
+  for (let c = 0; c < corners.length; c++) {
+    const corner = corners[c];
     // The corner vertex itself may have no interior edge (a mesh corner): start from its rim neighbours too.
     const starts = [corner.v, rimNext.get(corner.v), rimPrev.get(corner.v)].filter((v): v is number => v !== undefined);
-    const path = shortestCut(starts, adj, otherBorder, outerRimVertex, dist3);
+    const path = shortestCut(starts.map((v) => scratch.vertexLocal[v]), graph, search, (a, b) => dist3(vertexOf[a], vertexOf[b]));
     if (!path) continue;
-    const cut = new Set<number>();
-    for (let i = 1; i < path.length; i++) cut.add(Math.min(path[i - 1], path[i]) * nv + Math.max(path[i - 1], path[i]));
-    const pieces = componentsAcross(t, neighbours, tris, inFace, cut, nv);
+    // Cut edges: consecutive vertices of the path (pathPos is the step, stamped by the corner's try).
+    const base = 3 * c * (nl + 1);
+    for (let k = 0; k < path.length; k++) pathPos[path[k]] = base + k;
+    const isCut = (a: number, b: number): boolean => {
+      const pa = pathPos[a], pb = pathPos[b];
+      return pa >= base && pb >= base && (pa - pb === 1 || pb - pa === 1);
+    };
+    const pieces = componentsAcross(localNeighbour, cornerVertex, nf, isCut, label, c);
     // The path runs over interior vertices only, so on a face without holes it makes two pieces.
     if (pieces.length !== 2) continue;
-    const [a, b] = pieces;
-    const ok = [a, b].every((piece) => {
+    const ok = pieces.every((piece) => {
       let ar = 0, rim = 0;
-      const member = new Set(piece);
-      for (const f of piece) {
-        ar += areas[f];
-        for (let j = 0; j < 3; j++) {
-          const g = neighbours[3 * f + j];
-          if (g >= 0 && !member.has(g) && !inFace(g) && isOuter(g)) rim += dist3(t[3 * f + j], t[3 * f + ((j + 1) % 3)]);
-        }
+      for (const i of piece) {
+        ar += areas[tris[i]];
+        rim += rimEdge[3 * i]; rim += rimEdge[3 * i + 1]; rim += rimEdge[3 * i + 2];
       }
       return ar >= settings.minFaceArea && rim >= settings.minOuterEdge;
     });
     if (!ok) continue;
+    const [a, b] = pieces.map((piece) => piece.map((i) => tris[i]));
     if (settings.minNormalDeg > 0) {
       const mean = (piece: number[]): number[] => {
         const m = [0, 0, 0];
@@ -224,59 +278,79 @@ function cutOnce(
   return undefined;
 }
 
-/** Dijkstra over interior edges from rim vertices at a corner to the nearest vertex of the face's other border. */
-function shortestCut(
-  starts: number[],
-  adj: Map<number, number[]>,
-  targets: Set<number>,
-  outerRim: Set<number>,
-  dist3: (a: number, b: number) => number,
-): number[] | undefined {
-  const dist = new Map<number, number>(starts.map((v) => [v, dist3(starts[0], v)]));
-  const prev = new Map<number, number>();
-  const heap: Array<[number, number]> = starts.map((v) => [dist.get(v)!, v]);
-  const isStart = new Set(starts);
-  const done = new Set<number>();
-  while (heap.length) {
-    // small faces: a sorted pop is enough
-    let bi = 0;
-    for (let i = 1; i < heap.length; i++) if (heap[i][0] < heap[bi][0]) bi = i;
-    const [d, v] = heap[bi];
-    heap[bi] = heap[heap.length - 1];
-    heap.pop();
-    if (done.has(v)) continue;
-    done.add(v);
-    if (!isStart.has(v) && targets.has(v)) {
+/** A face's interior-edge graph over its own vertex numbers, with the vertices a cut may end on and the outer rim's. */
+interface LocalGraph {
+  rowStart: Int32Array;
+  adjacent: Int32Array;
+  /** Mesh vertex of each local vertex. */
+  vertexOf: number[];
+  /** 1: a vertex of the face's other border (where a cut ends). */
+  target: Uint8Array;
+  /** 1: a vertex of the outer rim (a cut does not run along it). */
+  outerRim: Uint8Array;
+}
+
+/** Work space of shortestCut, reset between searches through `touched`. */
+interface DijkstraSpace {
+  dist: Float64Array;
+  prev: Int32Array;
+  done: Uint8Array;
+  touched: number[];
+  heap: MinHeap;
+}
+
+/**
+ * Dijkstra over interior edges from rim vertices at a corner to the nearest vertex of the face's
+ * other border; the path in local vertex numbers, from the corner side.
+ */
+function shortestCut(starts: number[], graph: LocalGraph, space: DijkstraSpace, dist3: (a: number, b: number) => number): number[] | undefined {
+  const { dist, prev, done, touched, heap } = space;
+  for (const v of touched) { dist[v] = Infinity; prev[v] = -1; done[v] = 0; }
+  touched.length = 0;
+  heap.clear();
+  for (const v of starts) { dist[v] = dist3(starts[0], v); touched.push(v); }
+  for (const v of starts) heap.push(v, dist[v]);
+  const isStart = (v: number): boolean => starts.includes(v);
+  while (heap.size) {
+    const v = heap.pop(), d = heap.lastKey;
+    if (done[v]) continue;
+    done[v] = 1;
+    if (graph.target[v] && !isStart(v)) {
       const path = [v];
-      for (let x = v; prev.has(x); ) { x = prev.get(x)!; path.push(x); }
+      for (let x = v; prev[x] >= 0; ) { x = prev[x]; path.push(x); }
       return path.reverse();
     }
-    if (!isStart.has(v) && outerRim.has(v)) continue; // do not run along the outer rim
-    for (const w of adj.get(v) ?? []) {
+    if (graph.outerRim[v] && !isStart(v)) continue; // do not run along the outer rim
+    for (let k = graph.rowStart[v]; k < graph.rowStart[v + 1]; k++) {
+      const w = graph.adjacent[k];
       const nd = d + dist3(v, w);
-      if (nd < (dist.get(w) ?? Infinity)) { dist.set(w, nd); prev.set(w, v); heap.push([nd, w]); }
+      if (nd < dist[w]) {
+        if (dist[w] === Infinity) touched.push(w);
+        dist[w] = nd; prev[w] = v; heap.push(w, nd);
+      }
     }
   }
   return undefined;
 }
 
-/** Connected pieces of the face's triangles, not crossing the cut edges. */
-function componentsAcross(t: TriangleMesh['triangles'], neighbours: Int32Array, tris: number[], inFace: (f: number) => boolean, cut: Set<number>, nv: number): number[][] {
-  const label = new Map<number, number>();
+/**
+ * Connected pieces of the face's triangles (local numbers), not crossing the cut edges.
+ * `neighbour`: the face triangle across each edge (-1 outside the face); `corner`: the local
+ * vertex at the start of each edge. `label` (per local triangle, reused) receives `stamp`.
+ */
+function componentsAcross(neighbour: Int32Array, corner: Int32Array, nf: number, isCut: (a: number, b: number) => boolean, label: Int32Array, stamp: number): number[][] {
   const pieces: number[][] = [];
-  for (const s of tris) {
-    if (label.has(s)) continue;
-    const id = pieces.length;
+  for (let s = 0; s < nf; s++) {
+    if (label[s] === stamp) continue;
     const list = [s];
-    label.set(s, id);
+    label[s] = stamp;
     for (let k = 0; k < list.length; k++) {
       const f = list[k];
       for (let j = 0; j < 3; j++) {
-        const g = neighbours[3 * f + j];
-        if (g < 0 || label.has(g) || !inFace(g)) continue;
-        const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
-        if (cut.has(Math.min(a, b) * nv + Math.max(a, b))) continue;
-        label.set(g, id);
+        const g = neighbour[3 * f + j];
+        if (g < 0 || label[g] === stamp) continue;
+        if (isCut(corner[3 * f + j], corner[3 * f + (j === 2 ? 0 : j + 1)])) continue;
+        label[g] = stamp;
         list.push(g);
       }
     }

@@ -269,6 +269,17 @@ function hasOuter(ctx: FaceContext): boolean {
   return v;
 }
 
+const visited = new WeakMap<Int32Array, { mark: Int32Array; stamp: number }>();
+/** Per mesh (keyed by its neighbour table), a mark per triangle for edgeAngle's searches: a triangle is seen when its mark is the search's stamp. */
+function visitMarks(ctx: FaceContext): { mark: Int32Array; stamp: number } {
+  let v = visited.get(ctx.neighbours);
+  if (!v) {
+    v = { mark: new Int32Array(ctx.neighbours.length / 3), stamp: 0 };
+    visited.set(ctx.neighbours, v);
+  }
+  return v;
+}
+
 /**
  * Interior angle (degrees) at a break edge between the fracture face and the bone surface
  * across it, from the normals of the two sides at the edge point m: 180 - the angle between
@@ -295,7 +306,10 @@ function hasOuter(ctx: FaceContext): boolean {
 function edgeAngle(ctx: FaceContext, faceId: number, f: number, g: number, mx: number, my: number, mz: number): number | undefined {
   const r2 = ctx.settings.anglePlaneRadiusMm ** 2;
   const otherClass = ctx.triClass[g];
-  const seen = new Set<number>([f, g]);
+  const marks = visitMarks(ctx);
+  const seen = ++marks.stamp;
+  marks.mark[f] = seen;
+  marks.mark[g] = seen;
   const queue = [f, g];
   const fractureSide: number[] = [], surfaceSide: number[] = [];
   for (let k = 0; k < queue.length && queue.length < 4000; k++) {
@@ -306,8 +320,8 @@ function edgeAngle(ctx: FaceContext, faceId: number, f: number, g: number, mx: n
     else if (cls === otherClass) surfaceSide.push(h);
     for (let j = 0; j < 3; j++) {
       const e = ctx.neighbours[3 * h + j];
-      if (e < 0 || seen.has(e)) continue;
-      seen.add(e);
+      if (e < 0 || marks.mark[e] === seen) continue;
+      marks.mark[e] = seen;
       const dx = ctx.centroids[3 * e] - mx, dy = ctx.centroids[3 * e + 1] - my, dz = ctx.centroids[3 * e + 2] - mz;
       if (dx * dx + dy * dy + dz * dz > r2) continue;
       queue.push(e);

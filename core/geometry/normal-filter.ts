@@ -30,6 +30,16 @@ export function bilateralNormalFilter(
   const sigmaS = dn ? dsum / dn : 1;
   const inv2s = 1 / (2 * sigmaS * sigmaS);
   const inv2r = 1 / (2 * rangeWidth * rangeWidth);
+  // The spatial exponent of each edge neighbour, the same in every iteration.
+  const spatial = new Float64Array(3 * nt);
+  for (let f = 0; f < nt; f++) {
+    for (let j = 0; j < 3; j++) {
+      const g = neighbours[3 * f + j];
+      if (g < 0) continue;
+      const dx = centroids[3 * f] - centroids[3 * g], dy = centroids[3 * f + 1] - centroids[3 * g + 1], dz = centroids[3 * f + 2] - centroids[3 * g + 2];
+      spatial[3 * f + j] = -(dx * dx + dy * dy + dz * dz) * inv2s;
+    }
+  }
   for (let it = 0; it < iterations; it++) {
     for (let f = 0; f < nt; f++) {
       const nx = cur[3 * f], ny = cur[3 * f + 1], nz = cur[3 * f + 2];
@@ -37,9 +47,8 @@ export function bilateralNormalFilter(
       for (let j = 0; j < 3; j++) {
         const g = neighbours[3 * f + j];
         if (g < 0) continue;
-        const dx = centroids[3 * f] - centroids[3 * g], dy = centroids[3 * f + 1] - centroids[3 * g + 1], dz = centroids[3 * f + 2] - centroids[3 * g + 2];
         const ex = nx - cur[3 * g], ey = ny - cur[3 * g + 1], ez = nz - cur[3 * g + 2];
-        const w = areas[g] * Math.exp(-(dx * dx + dy * dy + dz * dz) * inv2s - (ex * ex + ey * ey + ez * ez) * inv2r);
+        const w = areas[g] * Math.exp(spatial[3 * f + j] - (ex * ex + ey * ey + ez * ez) * inv2r);
         sx += w * cur[3 * g];
         sy += w * cur[3 * g + 1];
         sz += w * cur[3 * g + 2];

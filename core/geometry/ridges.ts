@@ -1,6 +1,7 @@
 import type { VertexRings } from './adjacency';
 import type { TriangleMesh } from './mesh';
 import { hypot } from './hypot';
+import { MinHeap } from './min-heap';
 
 /**
  * Ridges: mesh edges where the filtered normals of the two triangles differ by more than a
@@ -67,31 +68,35 @@ export function detectAndCloseRidges(
     pending.push(a, b);
   };
   // Dijkstra from each open end.
+  // The larger principal curvature's magnitude at each vertex: a path is cheaper where the surface bends.
+  const vertexBend = new Float64Array(nv);
+  for (let v = 0; v < nv; v++) vertexBend[v] = Math.max(Math.abs(k1[v]), Math.abs(k2[v]));
   const dist = new Float64Array(nv).fill(Infinity);
   const prev = new Int32Array(nv).fill(-1);
   const touched: number[] = [];
   let closingPaths = 0;
+  const heap = new MinHeap();
   for (let s = 0; s < nv; s++) {
     if (degree[s] !== 1) continue;
     const own = find(s);
     for (const v of touched) { dist[v] = Infinity; prev[v] = -1; }
     touched.length = 0;
-    const heap = new MinHeap();
+    heap.clear();
     dist[s] = 0;
     touched.push(s);
     heap.push(s, 0);
     let target = -1;
     while (heap.size > 0) {
-      const [v, d] = heap.pop();
+      const v = heap.pop(), d = heap.lastKey;
       if (d > dist[v]) continue;
       if (v !== s && degree[v] > 0 && find(v) !== own) { target = v; break; }
       for (let i = rings.start[v]; i < rings.start[v + 1]; i++) {
         const w = rings.list[i];
-        const len = hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
         // Euclidean reach limit keeps the search local.
         const reach = hypot(p[3 * s] - p[3 * w], p[3 * s + 1] - p[3 * w + 1], p[3 * s + 2] - p[3 * w + 2]);
         if (reach > settings.ridgeGapMm) continue;
-        const bend = Math.max(Math.abs(k1[v]), Math.abs(k2[v]), Math.abs(k1[w]), Math.abs(k2[w]));
+        const len = hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
+        const bend = Math.max(vertexBend[v], vertexBend[w]);
         const nd = d + len / (1 + settings.ridgeCurvatureWeight * bend * meanEdge);
         if (nd < dist[w]) {
           if (dist[w] === Infinity) touched.push(w);
@@ -109,59 +114,19 @@ export function detectAndCloseRidges(
   // Mark the half-edges of the closing paths.
   if (pending.length) {
     const want = new Set<number>();
+    const onPath = new Uint8Array(nv);
     for (let i = 0; i < pending.length; i += 2) {
       const a = pending[i], b = pending[i + 1];
       want.add(Math.min(a, b) * nv + Math.max(a, b));
+      onPath[a] = 1;
+      onPath[b] = 1;
     }
     for (let f = 0; f < nt; f++) {
       for (let j = 0; j < 3; j++) {
         const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
-        if (want.has(Math.min(a, b) * nv + Math.max(a, b))) ridge[3 * f + j] = 1;
+        if (onPath[a] && onPath[b] && want.has(Math.min(a, b) * nv + Math.max(a, b))) ridge[3 * f + j] = 1;
       }
     }
   }
   return { ridge, ridgeEdges, closingPaths };
-}
-
-/** A binary heap of (vertex, key) with the smallest key on top. */
-class MinHeap {
-  private keys: number[] = [];
-  private items: number[] = [];
-  get size(): number {
-    return this.items.length;
-  }
-  push(item: number, key: number): void {
-    this.items.push(item);
-    this.keys.push(key);
-    let i = this.items.length - 1;
-    while (i > 0) {
-      const up = (i - 1) >> 1;
-      if (this.keys[up] <= this.keys[i]) break;
-      this.swap(i, up);
-      i = up;
-    }
-  }
-  pop(): [number, number] {
-    const top: [number, number] = [this.items[0], this.keys[0]];
-    const lastItem = this.items.pop()!, lastKey = this.keys.pop()!;
-    if (this.items.length) {
-      this.items[0] = lastItem;
-      this.keys[0] = lastKey;
-      let i = 0;
-      for (;;) {
-        const l = 2 * i + 1, r = l + 1;
-        let m = i;
-        if (l < this.items.length && this.keys[l] < this.keys[m]) m = l;
-        if (r < this.items.length && this.keys[r] < this.keys[m]) m = r;
-        if (m === i) break;
-        this.swap(i, m);
-        i = m;
-      }
-    }
-    return top;
-  }
-  private swap(i: number, j: number): void {
-    [this.items[i], this.items[j]] = [this.items[j], this.items[i]];
-    [this.keys[i], this.keys[j]] = [this.keys[j], this.keys[i]];
-  }
 }

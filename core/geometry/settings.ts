@@ -40,6 +40,23 @@ export const analysisSettingsSchema = z.object({
    */
   shaftCentreTolerance: z.number().positive().max(1).default(0.45),
   /**
+   * Shaft axis centre (shaft-axis.ts fitShaftAxis, wall-crossing.ts wallCrossingShare): of the
+   * inward wall rays aimed at a candidate centre (seen along the axis, their line within
+   * `shaftCentreWallToleranceMm` of it ahead of the shooter), where more than this area share
+   * reach it before they leave the material, it lies inside the wall (0 in the cavity, over
+   * 0.5 in a wall) and is refused: the consensus start skips it and the reweighting from the
+   * start stops before it. A shaft's axis runs through its cavity. 0: off.
+   */
+  shaftCentreWallShareMax: z.number().min(0).max(1).default(0.5),
+  /**
+   * Least axis support (share of the area along the axis) for shaftCentreWallShareMax: the
+   * axis of a piece holding a bone end runs through the end's solid bone (dev s362 QS-10284,
+   * support 0.54, and s372 QS-10101, 0.57, lost 1.6-1.7 points with the check).
+   */
+  shaftCentreWallSupportMin: z.number().min(0).max(1).default(0.65),
+  /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
+  shaftCentreWallToleranceMm: z.number().positive().default(1),
+  /**
    * Shaft axis direction (shaft-axis.ts, searchShaftDirection): the eigenvector iteration of the
    * normals' scatter can settle across a short or chunky piece (its transverse ends' normals
    * run along the axis and outweigh the narrow in-plane spread of the wall's), so directions

@@ -1,8 +1,10 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
+import { weightedMedian } from './weighted-median';
 import { mulberry32 } from './seeded-random';
 import { analysisSettings } from './settings';
 import { ellipseOffset, type EllipseSection } from './shaft-section';
 import { hypot } from './hypot';
+import { wallCrossingShare, wallSegments } from './wall-crossing';
 
 /**
  * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
@@ -115,6 +117,7 @@ export function fitMedialSegment(
  */
 export function fitShaftAxis(
   centroids: Float32Array, normals: Float32Array, areas: Float64Array, centreTolerance?: number, directionSearch?: { gain: number; count: number; supportMin: number },
+  wall?: { rays: { triangles: Uint32Array; distance: Float32Array }; shareMax: number; tolerance: number; supportMin: number },
 ): ShaftAxis {
   const nt = areas.length;
   let dir = refineDirection(normals, areas, smallestEigen(normals, areas, () => true));
@@ -131,7 +134,13 @@ export function fitShaftAxis(
   // Start from the best-supported meeting point of pairs of normal lines (consensus, as in
   // RANSAC, Fischler & Bolles 1981): on a splinter the break faces along the shaft can
   // outweigh the bone surface, and a plain least-squares start lands between the walls.
-  const start = centreTolerance ? consensusCentre(centroids, normals, areas, dir, [ux, uy, uz], [vx, vy, vz], centreTolerance) : undefined;
+  // Candidate centres inside the wall (wall-crossing.ts) are refused where the wall rays are
+  // given and the piece is a shaft piece (`supportMin` of its area along the axis): the axis
+  // of a piece holding a bone end runs through the end's solid bone.
+  const segments = wall && wall.shareMax > 0 && acrossShare(normals, areas, dir) >= wall.supportMin
+    ? wallSegments(wall.rays, centroids, normals, areas, dir, [ux, uy, uz], [vx, vy, vz]) : undefined;
+  const refuse = segments && wall ? (cu: number, cv: number): boolean => wallCrossingShare(segments, cu, cv, wall.tolerance) > wall.shareMax : undefined;
+  const start = centreTolerance ? consensusCentre(centroids, normals, areas, dir, [ux, uy, uz], [vx, vy, vz], centreTolerance, refuse) : undefined;
   let first = 0;
   if (start) {
     [cu, cv, scale] = start;
@@ -167,8 +176,11 @@ export function fitShaftAxis(
     }
     const det = s11 * s22 - s12 * s12;
     if (Math.abs(det) <= 1e-12) break;
-    cu = (b1 * s22 - b2 * s12) / det;
-    cv = (s11 * b2 - s12 * b1) / det;
+    const nu = (b1 * s22 - b2 * s12) / det, nv = (s11 * b2 - s12 * b1) / det;
+    // The reweighting can walk a centre from the cavity into the wall (break faces that face a
+    // point in it squarely): it stops at the last centre outside the wall.
+    if (refuse && refuse(nu, nv)) break;
+    cu = nu; cv = nv;
     // Scale for the next pass: a fifth of the median distance of the surface from the centre.
     const d: Array<[number, number]> = [];
     for (let f = 0; f < nt; f += stride) {
@@ -185,6 +197,16 @@ export function fitShaftAxis(
   const point: [number, number, number] = [cu * ux + cv * vx + mid * ax, cu * uy + cv * vy + mid * ay, cu * uz + cv * vz + mid * az];
   const radius = outerRadius(centroids, normals, areas, dir, point);
   return { direction: dir, point, radius, support: total ? supported / total : 0 };
+}
+
+/** Share of the area whose normal runs within 20 degrees of perpendicular to `d` (the axis support of that direction). */
+function acrossShare(normals: Float32Array, areas: Float64Array, d: readonly number[]): number {
+  let s = 0, all = 0;
+  for (let f = 0; f < areas.length; f++) {
+    all += areas[f];
+    if (Math.abs(normals[3 * f] * d[0] + normals[3 * f + 1] * d[1] + normals[3 * f + 2] * d[2]) <= 0.342) s += areas[f];
+  }
+  return all > 0 ? s / all : 0;
 }
 
 /** Three passes of the smallest eigenvector on the triangles within about 20 degrees of perpendicular to the last estimate. */
@@ -377,6 +399,7 @@ function normalLineSupport(
 function consensusCentre(
   centroids: Float32Array, normals: Float32Array, areas: Float64Array,
   a: [number, number, number], u: [number, number, number], v: [number, number, number], tolerance: number,
+  refuse?: (cu: number, cv: number) => boolean,
 ): [number, number, number] | undefined {
   const nt = areas.length;
   const stride = Math.max(1, Math.floor(nt / 1500));
@@ -406,7 +429,7 @@ function consensusCentre(
     const s = (du * -pv[j] + dv * pu[j]) / det;
     const cu = qu[i] + s * pu[i], cv = qv[i] + s * pv[i];
     const score = normalLineSupport(cu, cv, qu, qv, pu, pv, w, tolerance, reach);
-    if (score > best) { best = score; bu = cu; bv = cv; }
+    if (score > best && !(refuse && refuse(cu, cv))) { best = score; bu = cu; bv = cv; }
   }
   if (best <= 0) return undefined;
   const d: Array<[number, number]> = [];
@@ -448,18 +471,6 @@ export function facingGroups(centroids: Float32Array, normals: Float32Array, axi
     out[f] = radial >= radialMin ? 1 : radial <= -radialMin ? 2 : 0;
   }
   return out;
-}
-
-/** Area-weighted median of (value, weight) pairs (sorts the array in place). */
-export function weightedMedian(values: Array<[number, number]>): number {
-  values.sort((p, q) => p[0] - q[0]);
-  const half = values.reduce((s, x) => s + x[1], 0) / 2;
-  let acc = 0;
-  for (const [v, w] of values) {
-    acc += w;
-    if (acc >= half) return v;
-  }
-  return values.length ? values[values.length - 1][0] : 0;
 }
 
 /** What fitSectionSegment reads of the inward wall rays (wall-rays.ts). */

@@ -1,5 +1,6 @@
 import { EigenvalueDecomposition, Matrix, inverse } from 'ml-matrix';
-import { acrossAxisBasis, offsetFromAxis, weightedMedian, type ShaftAxis } from './shaft-axis';
+import { acrossAxisBasis, offsetFromAxis, type ShaftAxis } from './shaft-axis';
+import { weightedMedian, weightedMedianOf } from './weighted-median';
 import { hypot } from './hypot';
 import { sectionWallRatio } from './section-wall-ratio';
 import type { AnalysisSettings } from './settings';
@@ -419,6 +420,16 @@ function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: numbe
  * major axis and across the minor one differ by more than `wallMax` times (sectionWallRatio;
  * 0: no limit).
  */
+/** Work space of sized(), grown as needed (one per thread: the analysis is synchronous). */
+let sizedSpace = { outA: new Float64Array(0), inA: new Float64Array(0), order: new Uint32Array(0) };
+function sizedWork(n: number): typeof sizedSpace {
+  if (sizedSpace.outA.length < n) {
+    const m = Math.max(n, 2 * sizedSpace.outA.length);
+    sizedSpace = { outA: new Float64Array(m), inA: new Float64Array(m), order: new Uint32Array(2 * m) };
+  }
+  return sizedSpace;
+}
+
 function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, rhoOut0: number, rhoIn0: number, wallMax = 0): Ellipses | undefined {
   const n = rows.n;
   let rhoOut = rhoOut0, rhoIn = rhoIn0;
@@ -426,14 +437,15 @@ function sized(rows: Rows, surf: number[], cu: number, cv: number, phi: number, 
   if (rhoOut < 1 && rhoIn <= 1) { ph += Math.PI / 2; rhoOut = 1 / rhoOut; rhoIn = 1 / rhoIn; }
   if (!(rhoOut >= 1 && rhoIn >= 1)) return undefined;
   const c = Math.cos(ph), s = Math.sin(ph);
-  const outA: Array<[number, number]> = [], inA: Array<[number, number]> = [];
+  const work = sizedWork(n);
+  const outA = work.outA, inA = work.inA;
   for (let k = 0; k < n; k++) {
     const p = split(rows, k, cu, cv, c, s);
     const ox = p[0], oy = p[1], ix = p[4], iy = p[5];
-    outA.push([Math.sqrt(ox * ox + rhoOut * oy * oy), rows.w[k]]);
-    inA.push([Math.sqrt(ix * ix + rhoIn * iy * iy), rows.w[k]]);
+    outA[k] = Math.sqrt(ox * ox + rhoOut * oy * oy);
+    inA[k] = Math.sqrt(ix * ix + rhoIn * iy * iy);
   }
-  const A = weightedMedian(outA), Ai = weightedMedian(inA);
+  const A = weightedMedianOf(outA, rows.w, n, work.order), Ai = weightedMedianOf(inA, rows.w, n, work.order);
   const B = A / Math.sqrt(rhoOut), Bi = Ai / Math.sqrt(rhoIn);
   if (!(A > Ai && B > Bi && Bi > 0)) return undefined;
   if (wallMax > 0 && !(sectionWallRatio(A, B, Ai, Bi) <= wallMax)) return undefined;

@@ -8,31 +8,27 @@
  * strided over all; no size classes), and each fragment pair goes through
  * `matchFragments(a, b, params, facePairs, 3, 0.05)` as a propose worker runs it. Prints the CPU
  * seconds of the matching; OUT.json gets every pair's motions (scores and transforms to the last
- * bit), so two versions of the code can be compared with `cmp`.
+ * bit), so two versions of the code can be compared with `cmp`. KNITBONE_PROFILE_PARAMS='{json}':
+ * match parameters over the defaults; KNITBONE_COMPARE_PARAMS='{json}': every pair also matched
+ * with these (the two runs of a pair back to back, so load hits both alike) and the paired CPU
+ * seconds printed.
  */
-import { readdirSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
-import { byFragmentPair, candidateFacePairs, DEFAULT_K, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
-import { DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, matchFragments, screenFacePair, scoredSide, type CoarseMotion, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
-import { assemblePrepared } from '../../core/geometry/proposals/prepared-fragment';
-import { readFragment, readPrepared, readTraits } from '../../core/jobs/fragment-cache';
-import { runSampling } from '../../core/host/proposals/describe-faces';
+import { DEFAULT_MATCH_PARAMETERS, type MatchParameters, fineShortlist, fineTransform, matchFragments, screenFacePair, scoredSide, type CoarseMotion, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
+import { matchCachePairs } from './match-cache-pairs';
 import { deferredScore } from '../../core/geometry/registration/score';
+import { rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
 
 const dir = process.argv[2];
 const out = process.argv[3];
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
+// KNITBONE_PROFILE_PARAMS: match parameters over the defaults (JSON)
+const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as Partial<MatchParameters>) };
 const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
-const keys = readdirSync(dir).filter((f) => /^[0-9a-f]{32}\.json$/.test(f)).map((f) => f.slice(0, 32)).sort();
-const cached = keys.map((k) => ({ key: k, f: readFragment(dir, k) })).filter((x): x is { key: string; f: NonNullable<ReturnType<typeof readFragment>> } => !!x.f);
-const sampling = runSampling(cached.map((x) => x.f.summary));
-const faces: IndexedFace[] = [];
-cached.forEach((x, fi) => readTraits(dir, x.key, sampling)!.traits.forEach((traits, face) => faces.push({ fragment: fi, face, traits })));
-const all = [...byFragmentPair(candidateFacePairs(faces, { k: DEFAULT_K })).values()];
-const stride = Math.max(1, Math.floor(all.length / Math.min(maxPairs, all.length)));
-const grouped = all.filter((_, i) => i % stride === 0).slice(0, maxPairs);
+const { cached, sampling, grouped, assemble } = matchCachePairs(dir, maxPairs);
 let t = cpu();
-const prepared = cached.map((x) => assemblePrepared(x.f.input, readPrepared(dir, x.key, sampling)!));
+const prepared = cached.map((_, i) => assemble(i));
 const prepCpu = cpu() - t;
 const results: Array<{ pair: string; matches: unknown[] }> = [];
 let facePairs = 0;
@@ -41,10 +37,26 @@ for (const list of grouped) {
   const a = prepared[list[0].a], b = prepared[list[0].b];
   const pairs = list.map((c): [number, number] => [c.faceA, c.faceB]);
   facePairs += pairs.length;
-  const matches = matchFragments(a, b, DEFAULT_MATCH_PARAMETERS, pairs, 3, 0.05);
+  const matches = matchFragments(a, b, params, pairs, 3, 0.05);
   results.push({ pair: `${cached[list[0].a].key}|${cached[list[0].b].key}`, matches });
 }
 const matchCpu = cpu() - t;
+// KNITBONE_COMPARE_PARAMS: every pair matched once more with these parameters over the others,
+// the two runs of a pair one after the other (which goes first alternates), so both see the same
+// load; prints both CPU sums and how many pairs' best motions moved
+if (process.env.KNITBONE_COMPARE_PARAMS) {
+  const other = { ...params, ...(JSON.parse(process.env.KNITBONE_COMPARE_PARAMS) as Partial<MatchParameters>) };
+  let mine = 0, theirs = 0, moved = 0, lost = 0, won = 0;
+  grouped.forEach((list, k) => {
+    const a = prepared[list[0].a], b = prepared[list[0].b];
+    const pairs = list.map((c): [number, number] => [c.faceA, c.faceB]);
+    const run = (p: MatchParameters): { cpu: number; best: ReturnType<typeof matchFragments>[number] | undefined } => { const t0 = cpu(); const m = matchFragments(a, b, p, pairs, 3, 0.05); return { cpu: cpu() - t0, best: m[0] }; };
+    const [x, y] = k % 2 ? [run(params), run(other)] : (([q, r]) => [r, q])([run(other), run(params)]);
+    mine += x.cpu; theirs += y.cpu;
+    if (!!x.best !== !!y.best) { if (x.best) lost++; else won++; } else if (x.best && y.best && (rotationErrorDegrees(x.best.transform, y.best.transform) > 1 || Math.abs(x.best.score - y.best.score) > 0.01)) moved++;
+  });
+  process.stdout.write(`paired CPU s: parameters ${mine.toFixed(2)}, compared ${theirs.toFixed(2)} (${((100 * (theirs - mine)) / mine).toFixed(1)}%); best motion above the minimum only with the first ${lost}, only with the second ${won}, moved over 1 degree or 0.01 in score ${moved}\n`);
+}
 // KNITBONE_STAGES=1: every face pair screened once more with the CPU ms of each screen step
 const stages: Record<string, number> = {};
 if (process.env.KNITBONE_STAGES === '1') {

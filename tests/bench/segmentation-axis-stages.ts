@@ -78,7 +78,8 @@ for (const no of nos.split(',')) {
   const { areas: inAreas } = triangleNormalsAndAreas(parsed.mesh);
   for (let f = 0; f < labels.length; f++) split[labels[f] >= 10 ? 3 : Math.min(labels[f], 3)] += inAreas[f];
   console.log(`${no} ${frag.element} outer ${split[0].toFixed(0)} medullary ${split[1].toFixed(0)} damage ${split[2].toFixed(0)} break ${split[3].toFixed(0)} mm2`);
-  const fitted = fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance);
+  const fitted = fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin },
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin });
   describe('consensus', fitted);
   const settled = settleAxisSide(fitted, centroids, filtered, areas, triMean, { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   describe('side', settled);

@@ -30,7 +30,17 @@ export interface ConeCut {
   keepOutside?: boolean;
 }
 
-export type Cut = PlaneCut | ConeCut;
+/**
+ * A cylindrical cut parallel to the tube's axis: keeps the part of the tube within `radius` of
+ * the line through (x, y) = `centre` along z, so the break is a convex cylinder face whose
+ * normal lines all pass that line.
+ */
+export interface CylinderCut {
+  centre: [number, number];
+  radius: number;
+}
+
+export type Cut = PlaneCut | ConeCut | CylinderCut;
 
 export interface BrokenTube {
   mesh: TriangleMesh;
@@ -100,6 +110,10 @@ export async function brokenTube(options: {
     let next;
     if ('normal' in c) {
       next = solid.trimByPlane(c.normal, c.offset);
+    } else if ('centre' in c) {
+      const cyl = Manifold.cylinder(L + 4, c.radius, c.radius, 192, true).translate([c.centre[0], c.centre[1], 0]);
+      next = solid.intersect(cyl);
+      cyl.delete();
     } else {
       const ta = Math.tan((c.halfAngleDeg * Math.PI) / 180);
       const h = (c.baseRadius - 0.01) / ta;
@@ -126,6 +140,13 @@ export async function brokenTube(options: {
       if ('normal' in c) {
         d = x * c.normal[0] + y * c.normal[1] + z * c.normal[2] - c.offset;
         n = c.normal;
+      } else if ('centre' in c) {
+        // distance to the cylinder's side (its 192-gon's vertices lie on it), outward normal
+        const rho = Math.hypot(x - c.centre[0], y - c.centre[1]);
+        d = c.radius - rho;
+        // points refined along a side edge of the 192-gon lie up to r (1 - cos(pi / 192)) inside it
+        if (d >= 0 && d < c.radius * 1.5e-4) d = 0;
+        n = rho > 0 ? [(c.centre[0] - x) / rho, (c.centre[1] - y) / rho, 0] : [0, 0, 1];
       } else {
         // distance to the cone's side, measured in the plane through the axis
         const ta = Math.tan((c.halfAngleDeg * Math.PI) / 180);
@@ -162,15 +183,15 @@ export async function brokenTube(options: {
 
 /** Distance from the z axis (the tube's axis) of an axis line given by a point and a direction, at z = 0. */
 /**
- * A splinter of a three-lobed tube (outer radius 13 mm, cavity 8.5 mm, 80 mm long) cut along two
+ * A splinter of a three-lobed tube (outer radius 13 mm, cavity 8.5 mm unless given, 80 mm long) cut along two
  * planes through its axis at `fromDeg` and `toDeg` and across 30 mm either side of the middle,
  * then mapped after labelling: turned about the axis by `twist` rad per mm of radius from the
  * outer surface in (a radial break becomes a spiral face), then scaled across the axis by
  * 1 + lobe cos 3θ (both radii at each θ by the same factor: the cavity stays the outer outline
  * scaled about the axis). The axis is the z axis.
  */
-export function lobedTubePiece(o: { lobe: number; twist: number; fromDeg: number; toDeg: number }): Promise<BrokenTube> {
-  const R = 13;
+export function lobedTubePiece(o: { lobe: number; twist: number; fromDeg: number; toDeg: number; outerRadius?: number; innerRadius?: number }): Promise<BrokenTube> {
+  const R = o.outerRadius ?? 13;
   const warp = (x: number, y: number, z: number): [number, number, number] => {
     const a = o.twist * (Math.hypot(x, y) - R);
     const X = x * Math.cos(a) - y * Math.sin(a), Y = x * Math.sin(a) + y * Math.cos(a);
@@ -179,7 +200,7 @@ export function lobedTubePiece(o: { lobe: number; twist: number; fromDeg: number
   };
   const a1 = (o.fromDeg * Math.PI) / 180, a2 = (o.toDeg * Math.PI) / 180;
   return brokenTube({
-    outerRadius: R, innerRadius: 8.5, length: 80, roughness: 0.3, warp,
+    outerRadius: R, innerRadius: o.innerRadius ?? 8.5, length: 80, roughness: 0.3, warp,
     cuts: [
       { normal: [-Math.sin(a1), Math.cos(a1), 0], offset: 0 },
       { normal: [Math.sin(a2), -Math.cos(a2), 0], offset: 0 },
