@@ -92,10 +92,12 @@ function report(title: string, p: number[], y: number[]): void {
  * Ranking on the dumped motions under a scoring: of the true fragment pairs that have a correct
  * motion among their dumped ones, how many have it first in the pair (else class c of the
  * benchmark, outscored in its pair), and of those how many are in the top 3 pairs of either
- * piece by best score (else class d, outranked by other pairs). An estimate from the dump (each
+ * piece by best score (else class d, outranked by other pairs), and of those how many score at
+ * least `minScore`, the propose run's minimum (default 0.05; a pair whose best scores under it
+ * stores nothing, the proposals benchmark's "nothing stored"). An estimate from the dump (each
  * pair's ranks 1-5 only); the benchmark re-run gives the real counts.
  */
-export function ranking(list: Motion[], scores: number[]): { pairs: number; firstInPair: number; top3: number } {
+export function ranking(list: Motion[], scores: number[], minScore = 0.05): { pairs: number; firstInPair: number; top3: number; top3Stored: number } {
   const best = new Map<string, { score: number; correct: boolean; trueJoin: boolean; a: string; b: string; set: string; anyCorrect: boolean }>();
   list.forEach((m, i) => {
     const k = `${m.set}|${m.a}|${m.b}`;
@@ -113,21 +115,24 @@ export function ranking(list: Motion[], scores: number[]): { pairs: number; firs
     byPiece.get(k)!.push(v.score);
   }
   for (const l of byPiece.values()) l.sort((x, y) => y - x);
-  let pairs = 0, firstInPair = 0, top3 = 0;
+  let pairs = 0, firstInPair = 0, top3 = 0, top3Stored = 0;
   for (const v of best.values()) {
     if (!v.trueJoin || !v.anyCorrect) continue;
     pairs++;
     if (!v.correct) continue;
     firstInPair++;
     const third = (p: string): number => byPiece.get(`${v.set}|${p}`)![Math.min(2, byPiece.get(`${v.set}|${p}`)!.length - 1)];
-    if (v.score >= third(v.a) || v.score >= third(v.b)) top3++;
+    if (v.score >= third(v.a) || v.score >= third(v.b)) {
+      top3++;
+      if (v.score >= minScore) top3Stored++;
+    }
   }
-  return { pairs, firstInPair, top3 };
+  return { pairs, firstInPair, top3, top3Stored };
 }
 
 function rankingLine(title: string, list: Motion[], scores: number[]): void {
   const r = ranking(list, scores);
-  process.stdout.write(`${title}: ${r.pairs} true pairs with a correct motion dumped; correct first in its pair ${r.firstInPair} (c: ${r.pairs - r.firstInPair}); of those in the top 3 of a piece ${r.top3} (d: ${r.firstInPair - r.top3})\n`);
+  process.stdout.write(`${title}: ${r.pairs} true pairs with a correct motion dumped; correct first in its pair ${r.firstInPair} (c: ${r.pairs - r.firstInPair}); of those in the top 3 of a piece ${r.top3} (d: ${r.firstInPair - r.top3}), ${r.top3Stored} of them scoring at least the run's minimum 0.05\n`);
 }
 
 function main(): void {

@@ -96,10 +96,10 @@ export interface ScoreModel {
 
 export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-direction-fpfh-ransac-pair-vote-icp/8',
-  fittedOn: 'knitbone demo (generator with elliptic shafts, 2 Dec 2026), 30 fragments each, seeds 11-15 (spacing 1.5 mm; run spacing 1.2 mm, 0.85 on 15): 7813 motions (ranks 1-5 of every candidate and true fragment pair, each face pair through its own fine step, the best 3 of each fragment pair polished from the other side), 224 correct (within 5 degrees and 5 mm); checked on seeds 16 and 21: Brier 0.0087 (reliability 0.0002) against 0.0101 (0.0004) for the fit of method /7, above 0.8 31/32 correct against 34/36, true pairs whose correct motion is in the top 3 of a piece (estimated from the dump) 52 against 52',
+  fittedOn: 'knitbone demo, dev seed 340 at 200 fragments (scanner spacing 1.0 mm, run spacing 1.2 mm), session 17: 26078 motions (ranks 1-5 of every candidate fragment pair at k 30 and every face pair of the true joins, each face pair through its own fine step, the best 3 of each fragment pair polished from the other side), 277 correct (within 5 degrees and 5 mm); five folds by fragment pair: Brier 0.00371 against 0.00452 for the fit of method /8 (seeds 11-15 at 30 fragments), above 0.8 139/145 correct against 117/128; on the 30-fragment checked seeds 16 and 21 (tests/support/score-motions-checked.json) Brier 0.0209 against 0.0230, above 0.8 33/34 against 31/32',
   interlockCap: 0.2,
-  intercept: -0.3238,
-  slopes: { contactFraction: -0.0558, contactFractionOther: 7.5731, sqrtContactFractionOther: -10.6249, logContactArea: 0.5443, gapRmsMm: -28.7421, penetrationMm: -0.9169, outlineAgreement: 3.8435, interlock: 22.6675, axisAngle: -2.0302, axisSideMismatch: -6.8004 },
+  intercept: -5.2818,
+  slopes: { contactFraction: 1.2524, contactFractionOther: 6.3137, sqrtContactFractionOther: -12.586, logContactArea: 1.7719, gapRmsMm: -37.651, penetrationMm: -0.6589, outlineAgreement: 2.9225, interlock: 32.2803, axisAngle: -1.08, axisSideMismatch: -0.3959 },
 };
 
 /**
