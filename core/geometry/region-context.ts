@@ -109,7 +109,10 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
   const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
   const concave = headOn >= settings.contextConcaveHeadOnMin ? Math.max(0, -r.meanCurvature - settings.contextConcaveCurvatureMin) : 0;
   const inwardConvex = inwardConvexity(r, shaft, settings);
+  const uncrossed = shaft && r.radial <= -settings.contextUncrossedInwardRadialMin && r.meanCurvature >= -settings.contextUncrossedInwardConcaveMin && settings.contextConcaveHeadOnMin > 0
+    ? Math.max(0, 1 - headOn / settings.contextConcaveHeadOnMin) : 0;
   return settings.contextCurvednessWeight * r.curvedness
+    + settings.contextUncrossedInwardWeight * uncrossed
     + settings.contextInwardConvexWeight * inwardConvex
     - settings.contextFacingWeight * facing
     - settings.contextConcaveWeight * concave
