@@ -33,6 +33,11 @@ import type { ShaftAxis } from './shaft-axis';
  *   rays that leave head-on through such convex break regions facing the axis beyond
  *   contextBreakExitShareMin: a wall face's rays leave through the other, concave wall face,
  *   so this one is the sliver's other break face (contextBreakExitWeight; needs `exits`);
+ * - towards fracture, for a region on the medullary side of the axis (facing it), how seldom
+ *   its inward rays cross the wall head-on, unless it is concave: the medullary surface is the
+ *   inner face of the wall, so its rays cross the wall to the outer surface, and it curves
+ *   inwards; a break face that faces the axis (a splinter's inner break, a bevel running along
+ *   a thick wall) sends them along the wall (contextUncrossedInwardWeight);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
