@@ -22,7 +22,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
 
-export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/9';
+export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
 export interface MatchParameters {
   ransacIterations: number;

@@ -136,7 +136,9 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sizeClassMaxDifference = options.exhaustive ? null : options.sizeClassMaxDifference === undefined ? SIZE_CLASS_MAX_DIFFERENCE : options.sizeClassMaxDifference;
       // prepared: how faces become samples, patches and corner pieces (fragment-cache.ts); a change
       // there changes every pair's outcome, so pairs done before it are aligned again
-      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, pruning: { k, wholeFacePartners, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, wholeFacePartners, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      // The whole faces offered beside their parts (wholeFacePartners) add face pairs to a
+      // fragment pair that is aligned anyway, so they decide its outcome like the matcher does.
       // A pair is done for the parameters that decide its outcome; which pairs are aligned
       // (pruning, exhaustive) does not change a pair's result, so widening the search later
       // aligns only the pairs not aligned before.
