@@ -137,28 +137,19 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
       const [x, y] = faces[i].fragment < faces[j].fragment ? [faces[i], faces[j]] : [faces[j], faces[i]];
       return `${x.fragment}:${x.face}:${y.fragment}:${y.face}`;
     };
-    // each face's best offers so far (distinct whole faces), cheapest first
-    const offerCost = faces.map(() => [] as number[]), offerIndex = faces.map(() => [] as number[]);
+    // every whole face offered to each face (through any of its parts), with its partner cost
+    const offers = faces.map(() => new Map<number, number>());
     const offerWhole = (i: number, part: number): void => {
       const o = wholeOf[part];
-      if (o < 0 || out.has(keyOf(i, o)) || offerIndex[i].includes(o)) return;
-      const c = partnerCost(desc[i], desc[o]);
-      const oc = offerCost[i], oi = offerIndex[i];
-      if (oc.length === w && c >= oc[w - 1]) return;
-      let p = oc.length;
-      while (p > 0 && oc[p - 1] > c) p--;
-      oc.splice(p, 0, c);
-      oi.splice(p, 0, o);
-      if (oc.length > w) { oc.pop(); oi.pop(); }
+      if (o >= 0 && !offers[i].has(o) && !out.has(keyOf(i, o))) offers[i].set(o, partnerCost(desc[i], desc[o]));
     };
-    const chosen = [...out.values()];
-    const indexOf = (fragment: number, face: number): number => at.get(`${fragment}:${face}`)!;
-    for (const c of chosen) {
-      const i = indexOf(c.a, c.faceA), j = indexOf(c.b, c.faceB);
+    for (const c of [...out.values()]) {
+      const i = at.get(`${c.a}:${c.faceA}`)!, j = at.get(`${c.b}:${c.faceB}`)!;
       offerWhole(i, j);
       offerWhole(j, i);
     }
-    for (let i = 0; i < n; i++) offerIndex[i].forEach((o, m) => add(i, o, offerCost[i][m]));
+    // each face keeps its w cheapest offers
+    for (let i = 0; i < n; i++) for (const [o, c] of [...offers[i]].sort((x, y) => x[1] - y[1]).slice(0, w)) add(i, o, c);
   }
   return [...out.values()];
 }
