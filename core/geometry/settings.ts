@@ -57,6 +57,24 @@ export const analysisSettingsSchema = z.object({
   /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
   shaftCentreWallToleranceMm: z.number().positive().default(1),
   /**
+   * Shaft centre read again from the cavity (cavity-centre.ts, analyse-fragment.ts): after a
+   * first classification, the regions classed medullary whose normals spread across the axis
+   * by at least this (smaller eigenvalue of their scatter over its trace: 0 flat, 0.1 a
+   * circular arc of about 63 degrees, 0.5 all round) and that are concave about their own
+   * centre (cavityCentreConcaveShare of the area) give the centre; where it lies at least
+   * cavityCentreMoveMinMm from the fitted one, the fragment is classified again about it. 0: off.
+   */
+  cavityCentreSpreadMin: z.number().min(0).max(0.5).default(0.1),
+  /** Least area share of a medullary region facing its own centre for cavityCentreSpreadMin. */
+  cavityCentreConcaveShare: z.number().min(0).max(1).default(0.8),
+  /** Least distance (mm) of the cavity's centre from the fitted one for a second classification (cavityCentreSpreadMin). */
+  cavityCentreMoveMinMm: z.number().min(0).default(3),
+  /**
+   * Least axis support for cavityCentreSpreadMin, as for shaftCentreWallSupportMin: on a
+   * piece holding a bone end the cavity closes and the axis runs through solid bone.
+   */
+  cavityCentreSupportMin: z.number().min(0).max(1).default(0.65),
+  /**
    * Shaft axis direction (shaft-axis.ts, searchShaftDirection): the eigenvector iteration of the
    * normals' scatter can settle across a short or chunky piece (its transverse ends' normals
    * run along the axis and outweigh the narrow in-plane spread of the wall's), so directions
