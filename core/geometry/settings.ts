@@ -302,6 +302,23 @@ export const analysisSettingsSchema = z.object({
   contextBreakExitWeight: z.number().min(0).default(60),
   /** ...counted beyond this share of the region's rays. */
   contextBreakExitShareMin: z.number().min(0).max(1).default(0.3),
+  /**
+   * Weight (towards fracture) of a region on the medullary side of the fitted shaft axis (mean
+   * radial component at most -contextUncrossedInwardRadialMin, axis support at least 0.5) that
+   * shows neither mark of the medullary wall: its inward rays seldom cross the wall head-on and
+   * it is not concave. The medullary surface is the inner face of the cortex, so the rays shot
+   * into the bone from it cross the wall and leave through the outer surface nearly squarely
+   * (the shape diameter idea, Shapira et al. 2008), and it curves inwards about the cavity (mean
+   * curvature -1/2r, do Carmo 1976, section 3-3); a break face that happens to face the axis
+   * (a splinter's inner break, a bevel running along the wall) sends its rays along the wall.
+   * The term is this weight x max(0, 1 - head-on share / contextConcaveHeadOnMin), so it works
+   * exactly where the concavity term above does not. 0 switches it off.
+   */
+  contextUncrossedInwardWeight: z.number().min(0).default(8),
+  /** ...for regions whose mean radial component is at most minus this (originalClass reads |radial| >= 0.5 as facing). */
+  contextUncrossedInwardRadialMin: z.number().min(0).max(1).default(0.5),
+  /** ...and not for regions more concave than this (mean curvature under -this, 1/mm; 0.03 = a cavity of about 17 mm radius). */
+  contextUncrossedInwardConcaveMin: z.number().min(0).default(0.03),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**
