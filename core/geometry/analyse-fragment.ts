@@ -16,7 +16,9 @@ import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
 import { refineFractureBorder } from './border-refine';
-import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from './shaft-axis';
+import { facingGroups, fitMedialSegment, fitSectionSegment, fitShaftAxis, outerRadius, settleAxisSide, type ShaftAxis } from './shaft-axis';
+import { cavityCentre } from './cavity-centre';
+import { hypot } from './hypot';
 import { ellipseFitOptions, fitEllipseSection } from './shaft-section';
 import { castWallRays } from './wall-rays';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
@@ -126,33 +128,58 @@ export function analyseFragment(
   const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
   const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, ellipseFitOptions(settings));
-  const axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
-  const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
-  let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);
-  region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
-  let regionCount = 0;
-  for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
-  const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin, settings.outwardFacingCosineMin, settings.outwardAxialMax, settings.outwardRadialMax);
-  const regionFacing = Int8Array.from(figures, (r) => (axis.support < 0.5 ? 0 : r.radial >= settings.corticalRadialMin ? 1 : r.radial <= -settings.corticalRadialMin ? -1 : 0));
-  const borders = regionBorders(mesh, topo.neighbours, filtered, region, regionCount, regionFacing, settings.ridgeAngleDeg);
-  figures.forEach((r, i) => {
-    r.sharpBorderShare = borders[i].sharpShare;
-    r.outwardBorderShare = borders[i].outwardShare;
-    r.inwardBorderShare = borders[i].inwardShare;
-  });
-  const wallDepth = typicalWallDepth(figures);
-  // Each region judged by itself, then again with the border it has with original surface
-  // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
-  const fracture = settleFractureRegions(figures, borders, axis, settings,
-    settings.contextBreakExitWeight > 0 ? headOnExits(region, regionCount, rays, settings.headOnCosineMin) : []);
-  const programClasses = absorbSmallFractureRegions(
-    region,
-    topo.neighbours,
-    areas,
-    figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
-    settings.minFaceAreaMm2,
-  );
+  // Regions and the program's class of each about a shaft axis.
+  const classify = (axis: ShaftAxis): { region: Uint32Array; regionCount: number; figures: RegionFigures[]; programClasses: SurfaceClass[] } => {
+    const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
+    let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);
+    region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
+    let regionCount = 0;
+    for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
+    const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin, settings.outwardFacingCosineMin, settings.outwardAxialMax, settings.outwardRadialMax);
+    const regionFacing = Int8Array.from(figures, (r) => (axis.support < 0.5 ? 0 : r.radial >= settings.corticalRadialMin ? 1 : r.radial <= -settings.corticalRadialMin ? -1 : 0));
+    const borders = regionBorders(mesh, topo.neighbours, filtered, region, regionCount, regionFacing, settings.ridgeAngleDeg);
+    figures.forEach((r, i) => {
+      r.sharpBorderShare = borders[i].sharpShare;
+      r.outwardBorderShare = borders[i].outwardShare;
+      r.inwardBorderShare = borders[i].inwardShare;
+    });
+    const wallDepth = typicalWallDepth(figures);
+    // Each region judged by itself, then again with the border it has with original surface
+    // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
+    const fracture = settleFractureRegions(figures, borders, axis, settings,
+      settings.contextBreakExitWeight > 0 ? headOnExits(region, regionCount, rays, settings.headOnCosineMin) : []);
+    const programClasses = absorbSmallFractureRegions(
+      region,
+      topo.neighbours,
+      areas,
+      figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
+      settings.minFaceAreaMm2,
+    );
+    return { region, regionCount, figures, programClasses };
+  };
+  let axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;
+  let pass = classify(axis);
+  // The centre read again from the cavity as classed (cavity-centre.ts): a round shaft piece
+  // (no elliptic section: a flattened cavity's normal lines meet along its major axis, not at
+  // the centre) whose cavity arc is concave about a point away from the fitted centre is
+  // classified again about that point.
+  if (!axisOverride && settings.cavityCentreSpreadMin > 0 && !axis.section && axis.support >= settings.cavityCentreSupportMin) {
+    const first = pass;
+    const c = cavityCentre(axis, first.region, (r) => first.programClasses[r] === 'medullary', centroids, filtered, areas,
+      { spreadMin: settings.cavityCentreSpreadMin, concaveShare: settings.cavityCentreConcaveShare });
+    if (c) {
+      const [dx, dy, dz] = axis.direction;
+      const rx = c[0] - axis.point[0], ry = c[1] - axis.point[1], rz = c[2] - axis.point[2];
+      const along = rx * dx + ry * dy + rz * dz;
+      if (hypot(rx - along * dx, ry - along * dy, rz - along * dz) >= settings.cavityCentreMoveMinMm) {
+        axis = { direction: axis.direction, point: c, radius: outerRadius(centroids, filtered, areas, axis.direction, c), support: axis.support };
+        pass = classify(axis);
+      }
+    }
+  }
+  let region = pass.region;
+  const { figures, programClasses } = pass;
   const classes = programClasses.map((c, id) => regionClassOverrides.get(id) ?? c);
   // Border triangles to the side whose normals they share (border-refine.ts), by the program's
   // classes, so that a region is the same set of triangles whether or not the analyst corrected it.

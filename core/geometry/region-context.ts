@@ -33,6 +33,11 @@ import type { ShaftAxis } from './shaft-axis';
  *   rays that leave head-on through such convex break regions facing the axis beyond
  *   contextBreakExitShareMin: a wall face's rays leave through the other, concave wall face,
  *   so this one is the sliver's other break face (contextBreakExitWeight; needs `exits`);
+ * - towards fracture, for a region on the medullary side of the axis (facing it), how seldom
+ *   its inward rays cross the wall head-on, unless it is concave: the medullary surface is the
+ *   inner face of the wall, so its rays cross the wall to the outer surface, and it curves
+ *   inwards; a break face that faces the axis (a splinter's inner break, a bevel running along
+ *   a thick wall) sends them along the wall (contextUncrossedInwardWeight);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -109,7 +114,10 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
   const headOn = Number.isFinite(r.headOnShare) ? r.headOnShare : 0.5;
   const concave = headOn >= settings.contextConcaveHeadOnMin ? Math.max(0, -r.meanCurvature - settings.contextConcaveCurvatureMin) : 0;
   const inwardConvex = inwardConvexity(r, shaft, settings);
+  const uncrossed = shaft && r.radial <= -settings.contextUncrossedInwardRadialMin && r.meanCurvature >= -settings.contextUncrossedInwardConcaveMin && settings.contextConcaveHeadOnMin > 0
+    ? Math.max(0, 1 - headOn / settings.contextConcaveHeadOnMin) : 0;
   return settings.contextCurvednessWeight * r.curvedness
+    + settings.contextUncrossedInwardWeight * uncrossed
     + settings.contextInwardConvexWeight * inwardConvex
     - settings.contextFacingWeight * facing
     - settings.contextConcaveWeight * concave

@@ -57,6 +57,24 @@ export const analysisSettingsSchema = z.object({
   /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
   shaftCentreWallToleranceMm: z.number().positive().default(1),
   /**
+   * Shaft centre read again from the cavity (cavity-centre.ts, analyse-fragment.ts): after a
+   * first classification, the regions classed medullary whose normals spread across the axis
+   * by at least this (smaller eigenvalue of their scatter over its trace: 0 flat, 0.1 a
+   * circular arc of about 63 degrees, 0.5 all round) and that are concave about their own
+   * centre (cavityCentreConcaveShare of the area) give the centre; where it lies at least
+   * cavityCentreMoveMinMm from the fitted one, the fragment is classified again about it. 0: off.
+   */
+  cavityCentreSpreadMin: z.number().min(0).max(0.5).default(0.1),
+  /** Least area share of a medullary region facing its own centre for cavityCentreSpreadMin. */
+  cavityCentreConcaveShare: z.number().min(0).max(1).default(0.8),
+  /** Least distance (mm) of the cavity's centre from the fitted one for a second classification (cavityCentreSpreadMin). */
+  cavityCentreMoveMinMm: z.number().min(0).default(3),
+  /**
+   * Least axis support for cavityCentreSpreadMin, as for shaftCentreWallSupportMin: on a
+   * piece holding a bone end the cavity closes and the axis runs through solid bone.
+   */
+  cavityCentreSupportMin: z.number().min(0).max(1).default(0.65),
+  /**
    * Shaft axis direction (shaft-axis.ts, searchShaftDirection): the eigenvector iteration of the
    * normals' scatter can settle across a short or chunky piece (its transverse ends' normals
    * run along the axis and outweigh the narrow in-plane spread of the wall's), so directions
@@ -284,6 +302,23 @@ export const analysisSettingsSchema = z.object({
   contextBreakExitWeight: z.number().min(0).default(60),
   /** ...counted beyond this share of the region's rays. */
   contextBreakExitShareMin: z.number().min(0).max(1).default(0.3),
+  /**
+   * Weight (towards fracture) of a region on the medullary side of the fitted shaft axis (mean
+   * radial component at most -contextUncrossedInwardRadialMin, axis support at least 0.5) that
+   * shows neither mark of the medullary wall: its inward rays seldom cross the wall head-on and
+   * it is not concave. The medullary surface is the inner face of the cortex, so the rays shot
+   * into the bone from it cross the wall and leave through the outer surface nearly squarely
+   * (the shape diameter idea, Shapira et al. 2008), and it curves inwards about the cavity (mean
+   * curvature -1/2r, do Carmo 1976, section 3-3); a break face that happens to face the axis
+   * (a splinter's inner break, a bevel running along the wall) sends its rays along the wall.
+   * The term is this weight x max(0, 1 - head-on share / contextConcaveHeadOnMin), so it works
+   * exactly where the concavity term above does not. 0 switches it off.
+   */
+  contextUncrossedInwardWeight: z.number().min(0).default(8),
+  /** ...for regions whose mean radial component is at most minus this (originalClass reads |radial| >= 0.5 as facing). */
+  contextUncrossedInwardRadialMin: z.number().min(0).max(1).default(0.5),
+  /** ...and not for regions more concave than this (mean curvature under -this, 1/mm; 0.03 = a cavity of about 17 mm radius). */
+  contextUncrossedInwardConcaveMin: z.number().min(0).default(0.03),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**

@@ -2,6 +2,7 @@
  * One fragment's regions in detail (issue 5 study): per region its class, truth split
  * (outer / medullary / damage / break), figures and neighbours with the crease and smooth
  * border lengths. Run: npx tsx tests/bench/segmentation-fragment-study.ts DIR CATALOGUE_NO [settings JSON]
+ * (STUDY_GENERATOR_AXIS=1: with the generator's axis imposed, generator-axis.ts).
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -11,15 +12,16 @@ import { contextTerms } from '../../core/geometry/region-context';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { buildTopology } from '../../core/geometry/topology';
+import { generatorAxisOverride, type TruthFragment } from './generator-axis';
 
-interface Truth { fragments: Array<{ catalogueNo: string; scanFile: string; triangleLabels: string; element: string }> }
+interface Truth { fragments: TruthFragment[] }
 const [dir, no, json] = process.argv.slice(2);
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
 const frag = truth.fragments.find((f) => f.catalogueNo === no);
 if (!frag) throw new Error(`No fragment ${no} in ${join(dir, 'truth.json')}: give a catalogue number listed there.`);
 const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
 const labels = Buffer.from(frag.triangleLabels, 'base64');
-const a = analyseFragment(parsed.mesh, JSON.parse(json ?? '{}'));
+const a = analyseFragment(parsed.mesh, JSON.parse(json ?? '{}'), new Map(), process.env.STUDY_GENERATOR_AXIS === '1' ? generatorAxisOverride(frag, parsed.mesh) : undefined);
 const { areas } = triangleNormalsAndAreas(parsed.mesh);
 const nr = a.regions.length;
 const split = Array.from({ length: nr }, () => [0, 0, 0, 0]);

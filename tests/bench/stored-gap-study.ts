@@ -14,11 +14,12 @@
  *   polish      the fragment pair's motions ended below the minimum otherwise
  *   npx tsx tests/bench/stored-gap-study.ts <studied-dir>[,<dir>...] [params-json]
  * KNITBONE_STUDY_K (default 30), KNITBONE_STUDY_MIN (0.05), KNITBONE_STUDY_JOINS=a|b,... only those,
- * KNITBONE_STUDY_OUT=file.jsonl one record per studied join.
+ * KNITBONE_STUDY_OUT=file.jsonl one record per studied join, KNITBONE_STUDY_WHOLE whole faces added per face
+ * (candidate-index.ts `wholeFacePartners`, default WHOLE_FACE_PARTNERS; 0: none).
  */
 import { appendFileSync, existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { candidateFacePairs, sizeClassCompatible, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { candidateFacePairs, sizeClassCompatible, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import { DEFAULT_MATCH_PARAMETERS, matchFragments, refineFacePair, screenFacePair, type MatchParameters, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
 import { assemblePrepared, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
@@ -32,6 +33,7 @@ const [dirs, extra] = process.argv.slice(2);
 const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(extra ? (JSON.parse(extra) as Partial<MatchParameters>) : {}) };
 const K = Number(process.env.KNITBONE_STUDY_K ?? 30), MIN = Number(process.env.KNITBONE_STUDY_MIN ?? 0.05);
 const only = process.env.KNITBONE_STUDY_JOINS?.split(',');
+const WHOLE = Number(process.env.KNITBONE_STUDY_WHOLE ?? WHOLE_FACE_PARTNERS);
 const near = isCorrectMotion;
 const tally = new Map<string, number>();
 let cpuMatch = 0, cpuStudy = 0, studiedJoins = 0;
@@ -43,10 +45,10 @@ for (const dir of dirs.split(',')) {
   const spacing = study[0].spacing;
   const fragOf = new Map(study.map((f, i) => [f.no, i]));
   const faces: IndexedFace[] = [];
-  study.forEach((f, i) => f.faces.forEach((x, face) => faces.push({ fragment: i, face, traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } })));
+  study.forEach((f, i) => f.faces.forEach((x, face) => faces.push({ fragment: i, face, whole: f.faces.findIndex((y) => y.parent === x.parent), traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } })));
   const classes = existsSync(join(dir, 'specimens.csv')) ? sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8')) : undefined;
   const compatible = classes ? sizeClassCompatible(study.map((f) => classes.get(f.no) ?? null)) : undefined;
-  const candidates = candidateFacePairs(faces, { k: K, ...(compatible ? { compatible } : {}) });
+  const candidates = candidateFacePairs(faces, { k: K, wholeFacePartners: WHOLE, ...(compatible ? { compatible } : {}) });
   const pairsOf = new Map<string, Array<[number, number]>>();
   for (const c of candidates) pairsOf.set(`${c.a}:${c.b}`, [...(pairsOf.get(`${c.a}:${c.b}`) ?? []), [c.faceA, c.faceB]]);
   // KNITBONE_STUDY_EXPAND=whole: each candidate's pieces and patches paired with the other's whole face too; siblings: with every part of the other's face
@@ -69,7 +71,7 @@ for (const dir of dirs.split(',')) {
     }
     after += list.length;
   }
-  console.log(`${dir}: candidate face pairs ${before} -> ${after} (${expand ?? 'no expansion'})`);
+  console.log(`${dir}: candidate face pairs ${before} -> ${after} (${expand ?? 'no expansion'}; whole faces added per face ${WHOLE}: ${candidates.filter((c) => c.a >= 0).length} face pairs)`);
   const cache = join(dir, 'candidate-cache');
   const prepared = new Map<number, PreparedFragment>();
   const prep = (i: number): PreparedFragment => {

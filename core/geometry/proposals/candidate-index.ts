@@ -15,6 +15,11 @@ export interface IndexedFace {
   fragment: number;
   face: number;
   traits: FaceTraits;
+  /**
+   * The fragment's face number of the whole break face this face is a part of (a corner piece
+   * or a patch, prepared-fragment.ts); absent or equal to `face` for a whole face.
+   */
+  whole?: number;
 }
 
 export interface FacePairCandidate {
@@ -34,10 +39,28 @@ export interface PruningOptions {
   exhaustive?: boolean;
   /** Fragment pairs that may join at all (default: all). */
   compatible?: (fragmentA: number, fragmentB: number) => boolean;
+  /**
+   * Whole faces added per face (WHOLE_FACE_PARTNERS): when a candidate pairs a face with a part
+   * of another fragment's face, that part's whole face is offered to the face too, and each face
+   * keeps the offers of least partner cost, at most this many (0: none).
+   */
+  wholeFacePartners?: number;
 }
 
 /** Partners kept per face by default (chosen from the recall against pairs printed by the benchmark). */
 export const DEFAULT_K = 30;
+
+/**
+ * Whole faces added per face by default (`PruningOptions.wholeFacePartners`). A merged break
+ * face (two breaks the segmentation did not part) is also offered as its parts (corner pieces,
+ * patches), and a part often looks more like some piece's face than the whole does, although it
+ * is the whole face (another part of it) that meets that piece: on dev seed 340 at 200 fragments
+ * 22 of the 29 true joins with no proposal stored whose best face pair was not a candidate had a
+ * whole face or another part of a candidate's face scoring well at the truth (DEVELOPERS.md,
+ * "Why a candidate pair stores nothing"). Pairing every part's whole face with its partner adds
+ * 62% face pairs; the offers of least partner cost, a few per face, keep most of the gain.
+ */
+export const WHOLE_FACE_PARTNERS = 2;
 
 /**
  * Recorded size classes (the live-weight classes of core/vocab/size-classes.ts) of two pieces
@@ -105,6 +128,29 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
     }
   }
   for (let i = 0; i < n; i++) for (let m = 0; m < k; m++) if (bestIndex[i][m] >= 0) add(i, bestIndex[i][m], bestCost[i][m]);
+  const w = Math.max(0, Math.floor(options.wholeFacePartners ?? 0));
+  if (w > 0) {
+    // the whole face of each part, by index into faces (-1: the face is whole or its whole is not indexed)
+    const at = new Map(faces.map((f, i) => [`${f.fragment}:${f.face}`, i]));
+    const wholeOf = faces.map((f) => (f.whole === undefined || f.whole === f.face ? -1 : at.get(`${f.fragment}:${f.whole}`) ?? -1));
+    const keyOf = (i: number, j: number): string => {
+      const [x, y] = faces[i].fragment < faces[j].fragment ? [faces[i], faces[j]] : [faces[j], faces[i]];
+      return `${x.fragment}:${x.face}:${y.fragment}:${y.face}`;
+    };
+    // every whole face offered to each face (through any of its parts), with its partner cost
+    const offers = faces.map(() => new Map<number, number>());
+    const offerWhole = (i: number, part: number): void => {
+      const o = wholeOf[part];
+      if (o >= 0 && !offers[i].has(o) && !out.has(keyOf(i, o))) offers[i].set(o, partnerCost(desc[i], desc[o]));
+    };
+    for (const c of [...out.values()]) {
+      const i = at.get(`${c.a}:${c.faceA}`)!, j = at.get(`${c.b}:${c.faceB}`)!;
+      offerWhole(i, j);
+      offerWhole(j, i);
+    }
+    // each face keeps its w cheapest offers
+    for (let i = 0; i < n; i++) for (const [o, c] of [...offers[i]].sort((x, y) => x[1] - y[1]).slice(0, w)) add(i, o, c);
+  }
   return [...out.values()];
 }
 

@@ -231,6 +231,20 @@ export function fractureAgreement(
   return agree / total;
 }
 
+/** Share of the area of cut `cut` (by construction, `cutOf`) that the analysis classes fracture (triangle class 0). */
+export function cutReadAsBreak(
+  analysis: { triangleClass: ArrayLike<number>; sourceTriangle: ArrayLike<number> }, cutOf: ArrayLike<number>, inputAreas: ArrayLike<number>, cut: number,
+): number {
+  let on = 0, read = 0;
+  for (let f = 0; f < analysis.triangleClass.length; f++) {
+    const src = analysis.sourceTriangle[f];
+    if (cutOf[src] !== cut) continue;
+    on += inputAreas[src];
+    if (analysis.triangleClass[f] === 0) read += inputAreas[src];
+  }
+  return read / on;
+}
+
 /**
  * What `settleAxisSide` reads of a mesh, per triangle: centroid, unit normal, area and mean
  * curvature (the mean of its corners' (k1 + k2) / 2, as analyse-fragment.ts takes it).

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
 import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
 import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, fractureAgreement, type BrokenTube } from './broken-tube';
+import { brokenTube, cutReadAsBreak as cutShareReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
 
 /**
  * The inward-convexity term of the neighbourhood pass (region-context.ts,
@@ -27,18 +27,8 @@ const BEND = 0.08;
 let tube: BrokenTube;
 let areas: Float64Array;
 const runs: Record<string, FragmentAnalysis> = {};
-
 /** Share of the area of cut `cut` (by construction) that the analysis classes fracture. */
-function cutReadAsBreak(a: FragmentAnalysis, cut: number): number {
-  let on = 0, read = 0;
-  for (let f = 0; f < a.triangleClass.length; f++) {
-    const src = a.sourceTriangle[f];
-    if (tube.cutOf[src] !== cut) continue;
-    on += areas[src];
-    if (a.triangleClass[f] === 0) read += areas[src];
-  }
-  return read / on;
-}
+const cutReadAsBreak = (a: FragmentAnalysis, cut: number): number => cutShareReadAsBreak(a, tube.cutOf, areas, cut);
 
 describe('a break face that faces the axis but is convex (bent radial plate, analytic truth)', () => {
   beforeAll(async () => {
