@@ -30,7 +30,12 @@ export interface MatchParameters {
   hypothesesPerPair: number;
   /**
    * RANSAC run the other way round as well (A's face moved onto B's, its motions turned round),
-   * keeping this many hypotheses of that run beside the hypothesesPerPair of B onto A (0: not run).
+   * keeping this many hypotheses of that run beside the hypothesesPerPair of B onto A (0 or left
+   * out: not run). 2 since session 19: RANSAC is not symmetric in the two faces (the correspondences
+   * are, but the sampled triples' checks and the inlier count read the moving face's samples), and
+   * on large flat longitudinal faces one way round found no motion near the truth while the other
+   * did. Dev s340 at 200 fragments, proposals bench: true joins in a top 3 210 -> 213 of 376,
+   * precision above 0.8 118/119 -> 121/122, CPU +13.5% under unequal load (DEVELOPERS.md).
    */
   ransacReverseHypotheses?: number;
   /** Peaks of the shared-axis vote tried per flip. */
@@ -159,6 +164,7 @@ export interface MatchParameters {
 export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   ransacIterations: 1500,
   hypothesesPerPair: 4,
+  ransacReverseHypotheses: 2,
   axisPeaks: 2,
   axisFeatureWeights: false,
   directionPeaks: 3,
