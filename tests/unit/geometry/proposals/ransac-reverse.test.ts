@@ -23,7 +23,7 @@ function prepare(piece: CutPiece, motion: number[]): PreparedFragment {
 }
 
 let A: PreparedFragment, B: PreparedFragment, truth: number[];
-const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, pairVoteHypotheses: 0, directionPeaks: 0 };
+const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, pairVoteHypotheses: 0, directionPeaks: 0, ransacReverseHypotheses: 0 };
 
 beforeAll(async () => {
   const cut = await cutBunny({ amplitude: 2, seed: 5 });
