@@ -31,11 +31,12 @@ export interface MatchParameters {
   /**
    * RANSAC run the other way round as well (A's face moved onto B's, its motions turned round),
    * keeping this many hypotheses of that run beside the hypothesesPerPair of B onto A (0 or left
-   * out: not run). 2 since session 19: RANSAC is not symmetric in the two faces (the correspondences
-   * are, but the sampled triples' checks and the inlier count read the moving face's samples), and
-   * on large flat longitudinal faces one way round found no motion near the truth while the other
-   * did. Dev s340 at 200 fragments, proposals bench: true joins in a top 3 210 -> 213 of 376,
-   * precision above 0.8 118/119 -> 121/122, CPU +13.5% under unequal load (DEVELOPERS.md).
+   * out: not run; left out of the defaults so that the propose run's parameters hash is unchanged).
+   * RANSAC is not symmetric in the two faces (the correspondences are, but the sampled triples'
+   * checks and the inlier count read the moving face's samples): on large flat longitudinal faces
+   * one way round found no motion near the truth while the other did. Measured in session 19 with
+   * 2 (DEVELOPERS.md): dev s340 at 200 fragments, true joins in a top 3 210 -> 213 of 376, precision
+   * above 0.8 118/119 -> 121/122, but matching CPU +14% paired: not made the default.
    */
   ransacReverseHypotheses?: number;
   /** Peaks of the shared-axis vote tried per flip. */
@@ -164,7 +165,6 @@ export interface MatchParameters {
 export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   ransacIterations: 1500,
   hypothesesPerPair: 4,
-  ransacReverseHypotheses: 2,
   axisPeaks: 2,
   axisFeatureWeights: false,
   directionPeaks: 3,
