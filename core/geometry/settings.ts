@@ -186,7 +186,8 @@ export const analysisSettingsSchema = z.object({
    * near-even thickness about a flattened outline reads near 1 (the parallel curve meets the
    * axes at A - c and B - c); a cavity ellipse that nearly touches the outer one at the minor
    * ends is the flat side of a large ellipse laid along a flat face of a lobed (three-sided)
-   * shaft, with break faces through the wall taken for cavity.
+   * shaft, with break faces through the wall taken for cavity. 2.25: between the largest
+   * ratio of a section that helps on dev (1.96) and the smallest of one that hurts (2.50).
    */
   ellipseSectionMinorWallRatioMax: z.number().min(0).default(2.25),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */

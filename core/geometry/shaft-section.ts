@@ -71,9 +71,6 @@ export function ellipseOffset(
   return out;
 }
 
-/** Study hook (temporary). */
-export const ellipseStudy: { hook?: (x: Record<string, unknown>) => void } = {};
-
 /** What fitEllipseSection reads of the inward wall rays (wall-rays.ts). */
 export interface EllipseRays { triangles: Uint32Array; exitCosine: Float32Array; exitTriangle: Int32Array }
 
@@ -307,8 +304,8 @@ export function fitEllipseSection(
     surf.push(x, y, nu, nv, areas[f]);
   }
   const tol = options.distanceTolerance;
-  let wallMax = 0, circles = false;
-  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax, circles);
+  let wallMax = 0;
+  const ellipses = (cu: number, cv: number, phi: number, retry = 0): Ellipses | undefined => evaluate(rows, surf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
   // Direct fits of the outer and the cavity members' points (farther and nearer from the first start) give more starts.
   {
     const c0 = starts[0];
@@ -338,9 +335,9 @@ export function fitEllipseSection(
       for (let i = -options.gridSteps; i <= options.gridSteps; i++) {
         for (let j = -options.gridSteps; j <= options.gridSteps; j++) {
           const cu = mu + i * step, cv = mv + j * step;
-          const phi = circles ? 0 : orientationAt(few, cu, cv);
+          const phi = orientationAt(few, cu, cv);
           if (phi === undefined) continue;
-          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax, circles);
+          const e = evaluate(few, fewSurf, cu, cv, phi, tol, options.cavityRatioSteps, retry, wallMax);
           if (e && (!gridBest || e.score > gridBest.score)) gridBest = e;
         }
       }
@@ -393,24 +390,14 @@ export function fitEllipseSection(
     wallMax = wallLimit;
     e = searched() ?? e;
   }
-  if (ellipseStudy.hook && kept(e)) {
-    circles = true;
-    const circle = search(0);
-    circles = false;
-    let inward = 0, outward = 0;
-    for (let k = 0; k < surf.length; k += 5) {
-      const d = (surf[k] - e.cu) * surf[k + 2] + (surf[k + 1] - e.cv) * surf[k + 3];
-      if (d < 0) inward += surf[k + 4]; else outward += surf[k + 4];
-    }
-    ellipseStudy.hook({ inward, outward, A: e.A, B: e.B, Ai: e.Ai, Bi: e.Bi, score: e.score, outer: e.outer, inner: e.inner, round: roundScore(), circle: circle?.score ?? 0, circleR: circle ? [circle.A, circle.Ai] : [0, 0], radius: axis.radius, width, cu: e.cu, cv: e.cv, c0: starts[0] });
-  }
   // A section whose wall is much thicker at the ends of its major axis than at those of its
   // minor one (over `minorWallRatioMax` times) is not kept: searching again among even walls
   // there lost as often as it won (above), but the round model reads these pieces better. On
   // dev they are lobed tibia shafts read as the flat side of a large ellipse (s372 QS-10709
   // 72.5 x 41.2 mm about a 20 x 18 mm shaft, walls 17.1 and 6.8 mm; s362 QS-10142) and slivers
-  // whose cavity ellipse touches the outer one (walls 4.4 and 0.1 mm); no radius or metacarpal
-  // section measured had a ratio over 1.7 that way.
+  // whose cavity ellipse touches the outer one (walls 4.4 and 0.1 mm). Of the 143 sections kept
+  // on eleven dev sets the radius and metacarpal ones read at most 1.91 that way, and tibia
+  // pieces the section still helps up to 1.96 (s21 QS-10639, 74.0 -> 97.8 with it).
   const minorLimit = options.minorWallRatioMax ?? 0;
   if (!kept(e) || (minorLimit > 0 && !(e.A - e.Ai <= minorLimit * (e.B - e.Bi)))) return axis;
   const c = Math.cos(e.phi), s = Math.sin(e.phi);
@@ -430,8 +417,7 @@ export function fitEllipseSection(
  * flattened outline is its parallel curve, pointed where the outline's radius of curvature is
  * under the wall's thickness) the closed form is set by the members off both axes.
  */
-function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number, wallMax = 0, circles = false): Ellipses | undefined {
-  if (circles) return sized(rows, surf, cu, cv, phi, tol, 1, 1, 0);
+function evaluate(rows: Rows, surf: number[], cu: number, cv: number, phi: number, tol: number, cavityGrid: number, retryShare: number, wallMax = 0): Ellipses | undefined {
   const pm = planeModel(rows, cu, cv, phi, cavityGrid);
   const first = sized(rows, surf, cu, cv, phi, tol, pm.rhoOut, pm.rhoIn, wallMax);
   if (!(cavityGrid > 0 && retryShare > 0) || (first && first.inner >= retryShare * first.outer)) return first;
