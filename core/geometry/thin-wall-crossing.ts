@@ -20,7 +20,7 @@ export interface ThinWallCrossingOptions {
  * through surface facing the axis, and the other way round). A tube wall's outer surface crosses the whole cortex to the cavity:
  * in long-bone shafts of mammals the cavity's diameter is about 0.4-0.7 of the outer one
  * (Currey & Alexander 1985, "The thickness of the walls of tubular bones", J. Zool. 206;
- * recalled from memory), so the wall is 0.15-0.3 of the outer radius or more. A face looking
+ * recalled from memory), so the wall is 0.3-0.6 of the outer radius; a tenth is far below that. A face looking
  * out from the axis whose rays reach surface facing the axis much sooner is a break running
  * along the wall (one face of a slab cut by two near-parallel breaks, or a bevel left along
  * the cavity). `normals` are the (filtered) triangle normals the rays were cast along.
