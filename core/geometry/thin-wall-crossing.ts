@@ -17,13 +17,14 @@ export interface ThinWallCrossingOptions {
  * Per region, the share of its inward rays (wall-rays.ts) that cross head-on to surface facing
  * into or out from the shaft axis after a thin wall: depth under depthRatioMax times the ray's
  * start distance from the axis (a ray from a face looking out that leaves head-on leaves
- * through surface facing the axis, and the other way round). A tube wall's outer surface crosses the whole cortex to the cavity:
- * in long-bone shafts of mammals the cavity's diameter is about 0.4-0.7 of the outer one
- * (Currey & Alexander 1985, "The thickness of the walls of tubular bones", J. Zool. 206;
- * recalled from memory), so the wall is 0.3-0.6 of the outer radius; a tenth is far below that. A face looking
- * out from the axis whose rays reach surface facing the axis much sooner is a break running
- * along the wall (one face of a slab cut by two near-parallel breaks, or a bevel left along
- * the cavity). `normals` are the (filtered) triangle normals the rays were cast along.
+ * through surface facing the axis, and the other way round). A tube wall's outer surface
+ * crosses the whole cortex to the cavity: in long-bone shafts of mammals the cavity's diameter
+ * is about 0.4-0.7 of the outer one (Currey & Alexander 1985, "The thickness of the walls of
+ * tubular bones", J. Zool. 206; recalled from memory), so the wall is 0.3-0.6 of the outer
+ * radius, and a tenth is far below that. A face looking out from the axis whose rays reach
+ * surface facing the axis much sooner is a break running along the wall (one face of a slab
+ * cut by two near-parallel breaks, or a bevel left along the cavity). `normals` are the
+ * (filtered) triangle normals the rays were cast along.
  */
 export function thinWallCrossingShare(
   region: Uint32Array,
