@@ -2,7 +2,7 @@
  * The trimmed point-to-plane ICP of core/geometry/registration/icp-point-to-plane.ts exactly as
  * it stood at main 1d5e97e (session 18), before its loop read the motion's entries from locals
  * and asked a sampled target's k-d tree directly: kept verbatim, under the name
- * `referenceIcpPointToPlane`, only so that icp-identity.test.ts can prove the faster loop ends
+ * `referenceIcpPointToPlane`, only so that icp-guess.test.ts can prove the faster loop ends
  * at the same motions to the last bit. Not for use outside tests.
  */
 import { compose, transformFromTwist, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
