@@ -2,7 +2,7 @@
  * The generator's shaft axis at a demo fragment (benches and studies only): the bone's bowed
  * centre line (BoneShape.center and tangent) at the fragment's area-weighted z in the bone
  * frame, carried into the scan frame by the fragment's pose (truth.json poseBoneToScan), as
- * segmentation-axis-stages.ts computes it. Undefined when the element is not in the skeleton.
+ * segmentation-axis-stages.ts prints it. zBone is that z. Undefined when the element is not in the skeleton.
  */
 import type { TriangleMesh } from '../../core/geometry/mesh';
 import { triangleNormalsAndAreas } from '../../core/geometry/mesh';
@@ -13,7 +13,7 @@ import { ELEMENTS } from '../../demo-data/skeleton';
 
 export interface TruthFragment { catalogueNo: string; scanFile: string; triangleLabels: string; element: string; taxon: string; side: 'left' | 'right'; poseBoneToScan: number[] }
 
-export function generatorAxis(frag: TruthFragment, mesh: TriangleMesh): { direction: [number, number, number]; point: [number, number, number] } | undefined {
+export function generatorAxis(frag: TruthFragment, mesh: TriangleMesh): { direction: [number, number, number]; point: [number, number, number]; zBone: number } | undefined {
   const spec = ELEMENTS.find((e) => e.element === frag.element && e.taxon === frag.taxon);
   if (!spec) return undefined;
   const { areas } = triangleNormalsAndAreas(mesh);
@@ -31,7 +31,7 @@ export function generatorAxis(frag: TruthFragment, mesh: TriangleMesh): { direct
   const tz = shape.tangent(zMid);
   const d = [0, 1, 2].map((i) => tz[0] * xb[i] + tz[1] * yb[i] + tz[2] * zc[i]);
   const o = [0, 1, 2].map((i) => P[3 + 4 * i] + bx * xb[i] + by * yb[i] + zMid * zc[i]);
-  return { direction: [d[0], d[1], d[2]], point: [o[0], o[1], o[2]] };
+  return { direction: [d[0], d[1], d[2]], point: [o[0], o[1], o[2]], zBone: zMid };
 }
 
 /** An axisOverride for analyseFragment that puts the generator's line in place of the fitted one (radius and support kept). */

@@ -27,8 +27,9 @@ import { vertexNormals } from '../../core/geometry/mesh';
 import { vertexRings } from '../../core/geometry/adjacency';
 import { BoneShape } from '../../demo-data/bone-shape';
 import { ELEMENTS } from '../../demo-data/skeleton';
+import { generatorAxis, type TruthFragment } from './generator-axis';
 
-interface Truth { fragments: Array<{ catalogueNo: string; scanFile: string; triangleLabels: string; element: string; taxon: string; side: 'left' | 'right'; poseBoneToScan: number[] }> }
+interface Truth { fragments: TruthFragment[] }
 const [dir, nos, json] = process.argv.slice(2);
 const overrides = JSON.parse(json ?? '{}') as Record<string, unknown>;
 const settings = analysisSettings(overrides);
@@ -51,20 +52,11 @@ for (const no of nos.split(',')) {
   for (let f = 0; f < areas.length; f++) triMean[f] = (curv.k1[t[3 * f]] + curv.k1[t[3 * f + 1]] + curv.k1[t[3 * f + 2]] + curv.k2[t[3 * f]] + curv.k2[t[3 * f + 1]] + curv.k2[t[3 * f + 2]]) / 6;
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
   // The generator's axis at the fragment: the bone's bowed centre line at the area centroid's z (bone frame).
-  const P = frag.poseBoneToScan;
-  const xb = [P[0], P[4], P[8]], yb = [P[1], P[5], P[9]];
+  const gen = generatorAxis(frag, mesh);
+  if (!gen) throw new Error(`${no}: element ${frag.element} of ${frag.taxon} is not in the demo skeleton`);
   const spec = ELEMENTS.find((e) => e.element === frag.element && e.taxon === frag.taxon)!;
   const shape = new BoneShape(spec, frag.side);
-  let zMid = 0, aSum = 0;
-  for (let f = 0; f < areas.length; f++) {
-    zMid += areas[f] * ((centroids[3 * f] - P[3]) * P[2] + (centroids[3 * f + 1] - P[7]) * P[6] + (centroids[3 * f + 2] - P[11]) * P[10]);
-    aSum += areas[f];
-  }
-  zMid /= aSum;
-  const [bx, by] = shape.center(zMid);
-  const tz = shape.tangent(zMid);
-  const zb = [0, 1, 2].map((i) => tz[0] * xb[i] + tz[1] * yb[i] + tz[2] * [P[2], P[6], P[10]][i]);
-  const org = [0, 1, 2].map((i) => P[3 + 4 * i] + bx * xb[i] + by * yb[i] + zMid * [P[2], P[6], P[10]][i]);
+  const zMid = gen.zBone, zb = gen.direction, org = gen.point;
   console.log(`  generator: z ${zMid.toFixed(0)} of ${spec.length}, mean outer radius ${shape.shaftRadius(zMid).toFixed(1)}, cortical ${shape.cortical(zMid).toFixed(1)}`);
   const describe = (name: string, a: ShaftAxis): void => {
     const ang = (Math.acos(Math.min(1, Math.abs(zb[0] * a.direction[0] + zb[1] * a.direction[1] + zb[2] * a.direction[2]))) * 180) / Math.PI;
