@@ -179,6 +179,19 @@ export const analysisSettingsSchema = z.object({
    * section-wall-ratio.ts) differs by at most this ratio either way (0: off).
    */
   ellipseSectionWallRatioMax: z.number().min(0).default(2),
+  /**
+   * ...and a section whose wall is more than this many times thicker at the ends of its major
+   * axis than at those of its minor one (A - Ai against B - Bi, section-wall-ratio.ts) is kept
+   * only where it explains `ellipseSectionGain` more surface than the best pair of concentric
+   * circles found by the same centre search (shaft-section.ts, fitEllipseSection; 0: off). A
+   * cortex of near-even thickness about a flattened outline reads near 1 (the parallel curve
+   * meets the axes at A - c and B - c); a cavity ellipse that nearly touches the outer one at
+   * the minor ends, on a surface a circle explains as well, is the flat side of a large ellipse
+   * laid along a flat face of a lobed (three-sided) shaft, with a break through the wall taken
+   * for cavity. 2.25: between the largest ratio of a section that helps on dev (1.96) and the
+   * smallest of one that hurts (2.50).
+   */
+  ellipseSectionMinorWallRatioMax: z.number().min(0).default(2.25),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
