@@ -21,6 +21,7 @@ import { cavityCentre } from './cavity-centre';
 import { hypot } from './hypot';
 import { ellipseFitOptions, fitEllipseSection } from './shaft-section';
 import { castWallRays } from './wall-rays';
+import { thinWallCrossingShare } from './thin-wall-crossing';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
 import { keepTriangles, weldVertices } from './weld';
@@ -144,6 +145,12 @@ export function analyseFragment(
       r.outwardBorderShare = borders[i].outwardShare;
       r.inwardBorderShare = borders[i].inwardShare;
     });
+    if (settings.contextThinCrossingWeight > 0) {
+      const thin = thinWallCrossingShare(region, regionCount, rays, centroids, filtered, axis, {
+        headOnCosineMin: settings.headOnCosineMin, depthRatioMax: settings.contextThinCrossingRatioMax, radialMin: settings.corticalRadialMin, supportMin: settings.contextThinCrossingSupportMin,
+      });
+      figures.forEach((r, i) => { r.thinCrossingShare = thin[i]; });
+    }
     const wallDepth = typicalWallDepth(figures);
     // Each region judged by itself, then again with the border it has with original surface
     // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.

@@ -59,6 +59,12 @@ export interface RegionFigures {
    * for fracture (0 where none are counted).
    */
   breakExitShare: number;
+  /**
+   * Share of the region's inward rays that cross head-on to surface facing the shaft axis after
+   * a wall thinner than contextThinCrossingRatioMax times their start distance from the axis
+   * (thin-wall-crossing.ts; 0 where the axis support is under contextThinCrossingSupportMin).
+   */
+  thinCrossingShare: number;
 }
 
 export function regionFigures(
@@ -80,7 +86,7 @@ export function regionFigures(
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
-    originalCreaseBorderShare: NaN, breakExitShare: 0,
+    originalCreaseBorderShare: NaN, breakExitShare: 0, thinCrossingShare: 0,
   }));
   const medianRough = kthSmallest(triRoughness, Math.floor(triRoughness.length / 2)) || 1e-9;
   // Region roughness: area-weighted mean of each triangle's roughness relative to the

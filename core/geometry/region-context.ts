@@ -38,6 +38,11 @@ import type { ShaftAxis } from './shaft-axis';
  *   inner face of the wall, so its rays cross the wall to the outer surface, and it curves
  *   inwards; a break face that faces the axis (a splinter's inner break, a bevel running along
  *   a thick wall) sends them along the wall (contextUncrossedInwardWeight);
+ * - towards fracture, for a region facing out from the axis, the share of its inward rays
+ *   that reach surface facing the axis head-on after a wall far thinner than a shaft's cortex
+ *   (thin-wall-crossing.ts): the outer surface crosses the whole wall, so this face is a break
+ *   running along the wall, one face of a slab between two near-parallel breaks or a bevel
+ *   left along the cavity (contextThinCrossingWeight);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -122,5 +127,6 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
     - settings.contextFacingWeight * facing
     - settings.contextConcaveWeight * concave
     + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare
+    + (shaft && r.radial >= min ? settings.contextThinCrossingWeight * Math.max(0, r.thinCrossingShare - settings.contextThinCrossingShareMin) : 0)
     + (shaft && Math.abs(r.radial) >= min ? settings.contextBreakExitWeight * Math.max(0, r.breakExitShare - settings.contextBreakExitShareMin) : 0);
 }

@@ -332,6 +332,33 @@ export const analysisSettingsSchema = z.object({
   contextUncrossedInwardRadialMin: z.number().min(0).max(1).default(0.5),
   /** ...and not for regions more concave than this (mean curvature under -this, 1/mm; 0.03 = a cavity of about 17 mm radius). */
   contextUncrossedInwardConcaveMin: z.number().min(0).default(0.03),
+  /**
+   * Weight (towards fracture) of the share of a region's inward rays that cross head-on
+   * (headOnCosineMin) to a wall face (surface facing the shaft axis) after a wall thinner than
+   * `contextThinCrossingRatioMax` times the ray's start distance from the axis, beyond
+   * `contextThinCrossingShareMin`, for regions facing out from the axis (mean radial component at
+   * least corticalRadialMin) on fragments whose axis support is at least
+   * `contextThinCrossingSupportMin` (thin-wall-crossing.ts). The outer surface of a shaft crosses
+   * the whole cortex, which in mammal long bones is 0.3-0.6 of the outer radius (cavity
+   * diameter about 0.4-0.7 of the outer one, Currey & Alexander 1985, recalled from memory); a
+   * face looking out whose rays reach the cavity side much sooner is a break running along the
+   * wall: one face of a slab between two near-parallel breaks (dev s372 QS-10573, 0.3-0.4 mm
+   * thick at 11 mm from the axis; s398 QS-10286) or a bevel left along the cavity (s105
+   * QS-10360, s371 QS-10963: breaks read outer 0.3-0.9 mm off the cavity). Chosen on dev s372, s398, s362, s371, s399 (per fragment against 0: 10 mended
+   * the two slabs, 20 also the thin pieces of s362 and s371, 30 lost s362 QS-10880 53.5 -> 16.1).
+   * 0 switches it off.
+   */
+  contextThinCrossingWeight: z.number().min(0).default(20),
+  /** ...a crossing thinner than this share of the ray's start distance from the axis is thin. */
+  contextThinCrossingRatioMax: z.number().min(0).max(1).default(0.1),
+  /** ...counted beyond this share of the region's rays. */
+  contextThinCrossingShareMin: z.number().min(0).max(1).default(0.1),
+  /**
+   * ...only where the axis fit's support is at least this (the distances from the axis need a
+   * shaft model that holds; flattened radius and metacarpal pieces whose fit puts the axis
+   * 100 mm and more away have support 0.56-0.64, s362 QS-10467, s15 QS-10937, s105 QS-10375).
+   */
+  contextThinCrossingSupportMin: z.number().min(0).max(1).default(0.65),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**

@@ -6,7 +6,7 @@
  * point-to-plane least squares for a small rotation and translation.
  */
 import { compose, transformFromTwist, type RigidTransform } from './rigid-transform';
-import type { ClosestPoint, ClosestPointSource } from './target-surface';
+import { SampledSurface, type ClosestPoint, type ClosestPointSource } from './target-surface';
 import { sortIndicesByKey } from './sort-indices';
 
 export interface IcpOptions {
@@ -70,27 +70,46 @@ export function icpPointToPlane(
   // each sample's closest target sample in the last round that found one (a sampled target's hint: same answers, fewer searches)
   const hints = new Int32Array(n).fill(-1);
   let maxD = options.maxDistance;
+  const samples = target instanceof SampledSurface && target.tree.dim === 3 ? target : null;
   for (iter = 0; iter < maxIter; iter++) {
     let m = 0;
+    // the motion's entries in locals (the same products and sums as reading them from T)
+    const t0 = T[0], t1 = T[1], t2 = T[2], t3 = T[3], t4 = T[4], t5 = T[5], t6 = T[6], t7 = T[7], t8 = T[8], t9 = T[9], t10 = T[10], t11 = T[11];
+    const maxD2 = maxD * maxD;
     for (let i = 0; i < n; i++) {
       const x = sourcePoints[3 * i], y = sourcePoints[3 * i + 1], z = sourcePoints[3 * i + 2];
-      const X = T[0] * x + T[1] * y + T[2] * z + T[3];
-      const Y = T[4] * x + T[5] * y + T[6] * z + T[7];
-      const Z = T[8] * x + T[9] * y + T[10] * z + T[11];
+      const X = t0 * x + t1 * y + t2 * z + t3;
+      const Y = t4 * x + t5 * y + t6 * z + t7;
+      const Z = t8 * x + t9 * y + t10 * z + t11;
       const sx = sourceNormals[3 * i], sy = sourceNormals[3 * i + 1], sz = sourceNormals[3 * i + 2];
-      const SX = T[0] * sx + T[1] * sy + T[2] * sz;
-      const SY = T[4] * sx + T[5] * sy + T[6] * sz;
-      const SZ = T[8] * sx + T[9] * sy + T[10] * sz;
-      const hit = target.closest(X, Y, Z, maxD, cp, hints[i]);
-      if (!hit) continue;
-      hints[i] = hit.sample ?? -1;
-      let c = SX * hit.nx + SY * hit.ny + SZ * hit.nz;
+      const SX = t0 * sx + t1 * sy + t2 * sz;
+      const SY = t4 * sx + t5 * sy + t6 * sz;
+      const SZ = t8 * sx + t9 * sy + t10 * sz;
+      let hx: number, hy: number, hz: number, hnx: number, hny: number, hnz: number, hd: number;
+      if (samples) {
+        // oriented samples: the k-d tree asked directly (what SampledSurface.closest does, without its objects)
+        const j = samples.tree.nearestOneNear3(X, Y, Z, maxD2, hints[i]);
+        if (j < 0) continue;
+        hints[i] = j;
+        const P = samples.points, N = samples.normals;
+        hx = P[3 * j]; hy = P[3 * j + 1]; hz = P[3 * j + 2];
+        hnx = N[3 * j]; hny = N[3 * j + 1]; hnz = N[3 * j + 2];
+        hd = Math.sqrt(samples.tree.lastDist2);
+      } else {
+        const hit = target.closest(X, Y, Z, maxD, cp, hints[i]);
+        if (!hit) continue;
+        hints[i] = hit.sample ?? -1;
+        hx = hit.x; hy = hit.y; hz = hit.z;
+        hnx = hit.nx; hny = hit.ny; hnz = hit.nz;
+        hd = hit.distance;
+      }
+      let c = SX * hnx + SY * hny + SZ * hnz;
       if (!opposed) c = -c;
       if (c > cosLimit) continue;
       px[m] = X; py[m] = Y; pz[m] = Z;
-      qx[m] = hit.x; qy[m] = hit.y; qz[m] = hit.z;
-      nx[m] = hit.nx; ny[m] = hit.ny; nz[m] = hit.nz;
-      dist[m] = hit.distance;
+      qx[m] = hx; qy[m] = hy; qz[m] = hz;
+      nx[m] = hnx; ny[m] = hny; nz[m] = hnz;
+      dist[m] = hd;
       m++;
     }
     if (m < 6) break;

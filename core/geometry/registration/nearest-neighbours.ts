@@ -192,10 +192,24 @@ export class KdTree {
    * beyond rounding. 3-d trees only; otherwise, or when the guess does not settle it, the search.
    */
   nearestOneNear(q: ArrayLike<number>, maxDist2: number, hint: number): { index: number; dist2: number } {
-    const P = this.points3;
-    if (hint >= 0 && P) {
+    if (!this.points3) return this.nearestOne(q, maxDist2);
+    const index = this.nearestOneNear3(q[0], q[1], q[2], maxDist2, hint);
+    return { index, dist2: index < 0 ? Infinity : this.lastDist2 };
+  }
+
+  /** Squared distance of the point the last nearestOneNear3 returned (Infinity when none). */
+  lastDist2 = Infinity;
+
+  /**
+   * nearestOneNear of a 3-d tree with the query's coordinates as numbers: the index it returns
+   * (or -1), its squared distance left in `lastDist2`, no object made (ICP asks this for every
+   * sample in every round). The same answers as nearestOneNear.
+   */
+  nearestOneNear3(x: number, y: number, z: number, maxDist2: number, hint: number): number {
+    const P = this.points3!;
+    let bound = maxDist2;
+    if (hint >= 0) {
       if (!this.nearList) this.listNeighbours();
-      const x = q[0], y = q[1], z = q[2];
       const L = this.nearList!, pos = this.positionOf![hint];
       const o = (KdTree.NEAR_LIST + 1) * pos;
       let best = -1, b2 = Infinity, s2 = Infinity;
@@ -213,11 +227,37 @@ export class KdTree {
       if (rest > 1e-3 * this.beyond![pos] && b2 * (1 + 1e-6) < rest * rest && b2 * (1 + 1e-6) < s2) {
         // exactly at the radius the search may or may not find it (it prunes a side whose plane lies
         // at the radius): that one case is left to the search
-        if (b2 < maxDist2) return { index: this.order[best], dist2: b2 };
-        if (b2 > maxDist2) return { index: -1, dist2: Infinity };
+        if (b2 < maxDist2) { this.lastDist2 = b2; return this.order[best]; }
+        if (b2 > maxDist2) { this.lastDist2 = Infinity; return -1; }
       }
+      // the best of the list bounds the search from the start, a hair above it (strictly: see
+      // searchOne3), so the search prunes more and still ends where a search from maxDist2 ends
+      const above = b2 * (1 + 1e-9);
+      if (above > b2 && above < maxDist2) bound = above;
     }
-    return this.nearestOne(q, maxDist2);
+    return this.searchOne3(x, y, z, maxDist2, bound);
+  }
+
+  /**
+   * nearestOne's search for 3-d points, pruned from the start by `bound` (<= maxDist2) instead of
+   * maxDist2, where some point is known to lie strictly within `bound` when it is below maxDist2.
+   * The same index and squared distance as nearestOne: until the search meets the first of the
+   * points at the least distance d (depth first, nearer side first, the order of nearestOne), its
+   * best stays above d, so no side holding such a point is pruned (a point's squared distance is
+   * never below its split plane's, rounding being monotone), and after that its best is d in both.
+   */
+  private searchOne3(x: number, y: number, z: number, maxDist2: number, bound: number): number {
+    this.bestIndex = -1;
+    this.bestDist2 = bound;
+    if (this.count > 0) {
+      const b = this.box3;
+      const dx = x < b[0] ? b[0] - x : x > b[3] ? x - b[3] : 0;
+      const dy = y < b[1] ? b[1] - y : y > b[4] ? y - b[4] : 0;
+      const dz = z < b[2] ? b[2] - z : z > b[5] ? z - b[5] : 0;
+      if (dx * dx + dy * dy + dz * dz <= maxDist2) this.visitOne3(x, y, z, 0, this.count);
+    }
+    this.lastDist2 = this.bestIndex < 0 ? Infinity : this.bestDist2;
+    return this.bestIndex;
   }
 
   /**

@@ -34,7 +34,7 @@ export interface ClosestPointSource {
  */
 export class SampledSurface implements ClosestPointSource {
   private readonly q = [0, 0, 0];
-  constructor(private readonly points: Float32Array, private readonly normals: Float32Array, private readonly tree: KdTree) {}
+  constructor(readonly points: Float32Array, readonly normals: Float32Array, readonly tree: KdTree) {}
 
   closest(x: number, y: number, z: number, maxDistance = Infinity, out?: ClosestPoint, hint = -1): ClosestPoint | null {
     this.q[0] = x; this.q[1] = y; this.q[2] = z;

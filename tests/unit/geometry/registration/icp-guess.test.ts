@@ -6,17 +6,27 @@
  * same to the last bit. Data: the Stanford bunny (npm package `bunny`, Stanford 3D Scanning
  * Repository), its vertices with area-weighted vertex normals as the target samples, and a
  * strided subset moved off by small motions as the source.
+ * The ICP loop also reads the motion's entries from locals and asks a sampled target's k-d tree
+ * directly (nearestOneNear3, whose search starts from the best of the guess's list), for speed
+ * only: every run must end at the same motion, RMS, pair count and round count, to the last bit,
+ * as the loop as it stood (tests/support/icp-point-to-plane-reference.ts, kept verbatim) against
+ * the same samples answered by the plain search, or against the same triangle BVH (checked
+ * against three-mesh-bvh in triangle-bvh.test.ts; the bunny's triangles as the target surface),
+ * with the options of the screen's short ICP (fixed trim) and of the fine step (the
+ * fractional-RMSD trim).
  */
 import { createRequire } from 'node:module';
 import { describe, expect, it, vi } from 'vitest';
 import { KdTree } from '../../../../core/geometry/registration/nearest-neighbours';
-import { icpPointToPlane } from '../../../../core/geometry/registration/icp-point-to-plane';
-import { SampledSurface, type ClosestPoint, type ClosestPointSource } from '../../../../core/geometry/registration/target-surface';
+import { icpPointToPlane, type IcpOptions, type IcpResult } from '../../../../core/geometry/registration/icp-point-to-plane';
+import { SampledSurface, TargetSurface, type ClosestPoint, type ClosestPointSource } from '../../../../core/geometry/registration/target-surface';
 import { applyToPoints, applyToDirections, transformFrom, rotationAboutAxis } from '../../../../core/geometry/registration/rigid-transform';
 import { mulberry32 } from '../../../../core/geometry/seeded-random';
+import { referenceIcpPointToPlane } from '../../../support/icp-point-to-plane-reference';
 
 const bunny = createRequire(import.meta.url)('bunny') as { positions: number[][]; cells: number[][] };
 const points = Float32Array.from(bunny.positions.flat().map((v) => v * 10));
+const triangles = Uint32Array.from(bunny.cells.flat());
 const normals = (() => {
   const n = new Float64Array(points.length);
   for (const [a, b, c] of bunny.cells) {
@@ -54,7 +64,8 @@ describe('ICP with guessed closest samples', () => {
     const tree = new KdTree(points, 3);
     const guessed = new SampledSurface(points, normals, tree);
     const plain = new Searched(new KdTree(points, 3));
-    const searched = vi.spyOn(tree, 'nearestOne');
+    // the tree's own search, which the guess spares when it settles the answer
+    const searched = vi.spyOn(tree as unknown as { searchOne3: () => number }, 'searchOne3');
     const n = points.length / 3;
     const take = Uint32Array.from({ length: 400 }, (_, k) => Math.floor((k * n) / 400));
     const src = Float32Array.from([...take].flatMap((i) => [points[3 * i], points[3 * i + 1], points[3 * i + 2]]));
@@ -77,5 +88,60 @@ describe('ICP with guessed closest samples', () => {
     }
     // the first round of each run searches every sample; most later rounds keep their closest sample
     expect(searched.mock.calls.length).toBeLessThan(0.5 * queries);
+    expect(searched.mock.calls.length).toBeGreaterThan(0);
+  });
+});
+
+const IDENTITY = [1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1, 0, 0, 0, 0, 1];
+
+function expectSame(a: IcpResult, b: IcpResult): void {
+  expect(a.iterations).toBe(b.iterations);
+  expect(a.inliers).toBe(b.inliers);
+  expect(Object.is(a.rms, b.rms)).toBe(true);
+  expect(a.transform.length).toBe(b.transform.length);
+  a.transform.forEach((v, i) => expect(Object.is(v, b.transform[i])).toBe(true));
+}
+
+/** 400 strided vertices moved off by `runs` random motions (up to `deg` degrees and `mm` mm): [points, normals] per motion. */
+function movedSources(seed: number, runs: number, deg: number, mm: number): Array<[Float32Array, Float32Array]> {
+  const n = points.length / 3;
+  const take = Uint32Array.from({ length: 400 }, (_, k) => Math.floor((k * n) / 400));
+  const src = Float32Array.from([...take].flatMap((i) => [points[3 * i], points[3 * i + 1], points[3 * i + 2]]));
+  const srcN = Float32Array.from([...take].flatMap((i) => [normals[3 * i], normals[3 * i + 1], normals[3 * i + 2]]));
+  const rnd = mulberry32(seed);
+  return Array.from({ length: runs }, () => {
+    const axis: [number, number, number] = [rnd() - 0.5, rnd() - 0.5, rnd() - 0.5];
+    const M = transformFrom(rotationAboutAxis(axis, ((rnd() - 0.5) * 2 * deg * Math.PI) / 180), [(rnd() - 0.5) * 2 * mm, (rnd() - 0.5) * 2 * mm, (rnd() - 0.5) * 2 * mm]);
+    return [Float32Array.from(applyToPoints(M, src)), Float32Array.from(applyToDirections(M, srcN))];
+  });
+}
+
+const SCREEN: IcpOptions = { maxDistance: 3, trim: 0.7, maxIterations: 15, tolerance: 1e-3, opposedNormals: false };
+const FINE: IcpOptions = { maxDistance: 2, trim: 0.7, autoTrimLambda: 2, autoTrimMin: 0.5, maxIterations: 20, tolerance: 1e-4, opposedNormals: false };
+
+describe('the ICP loop against the loop as it stood', () => {
+  it('ends at the same motions to the last bit on oriented samples (k-d tree with guesses against the plain search)', () => {
+    const sampled = new SampledSurface(points, normals, new KdTree(points, 3));
+    const plain = new Searched(new KdTree(points, 3));
+    let rounds = 0;
+    for (const options of [SCREEN, FINE]) {
+      for (const [P, N] of movedSources(options === SCREEN ? 5 : 6, 10, 6, 2)) {
+        const a = icpPointToPlane(P, N, sampled, IDENTITY, options);
+        const b = referenceIcpPointToPlane(P, N, plain, IDENTITY, options);
+        expectSame(a, b);
+        rounds += a.iterations;
+      }
+    }
+    // the runs go on for several rounds each (the guesses and the list-bounded search are used)
+    expect(rounds).toBeGreaterThan(60);
+  });
+
+  it('ends at the same motions to the last bit on the triangle surface (BVH)', () => {
+    const surface = new TargetSurface(points, triangles);
+    for (const options of [SCREEN, FINE]) {
+      for (const [P, N] of movedSources(options === SCREEN ? 7 : 8, 6, 4, 1.5)) {
+        expectSame(icpPointToPlane(P, N, surface, IDENTITY, options), referenceIcpPointToPlane(P, N, surface, IDENTITY, options));
+      }
+    }
   });
 });
