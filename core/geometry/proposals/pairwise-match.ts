@@ -26,7 +26,19 @@ export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
 export interface MatchParameters {
   ransacIterations: number;
+  /** RANSAC hypotheses of B's face onto A's kept per face pair (0: not run). */
   hypothesesPerPair: number;
+  /**
+   * RANSAC run the other way round as well (A's face moved onto B's, its motions turned round),
+   * keeping this many hypotheses of that run beside the hypothesesPerPair of B onto A (0 or left
+   * out: not run; left out of the defaults so that the propose run's parameters hash is unchanged).
+   * RANSAC is not symmetric in the two faces (the correspondences are, but the sampled triples'
+   * checks and the inlier count read the moving face's samples): on large flat longitudinal faces
+   * one way round found no motion near the truth while the other did. Measured in session 19 with
+   * 2 (DEVELOPERS.md): dev s340 at 200 fragments, true joins in a top 3 210 -> 213 of 376, precision
+   * above 0.8 118/119 -> 121/122, but matching CPU +14% paired: not made the default.
+   */
+  ransacReverseHypotheses?: number;
   /** Peaks of the shared-axis vote tried per flip. */
   axisPeaks: number;
   /** Weight each vote of the shared-axis search by how alike the two samples' FPFH are. */
@@ -309,12 +321,21 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {
-    const hyps = timed(trace?.times, 'ransac', () => ransacAlignFaces(
+    const hyps = params.hypothesesPerPair <= 0 ? [] : timed(trace?.times, 'ransac', () => ransacAlignFaces(
       { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFeatureFpfh: FB.mirroredFeatureFpfh },
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, featureFpfh: FA.featureFpfh },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     ));
     refined = refined.concat(refine(hyps.map((h) => h.transform)));
+    const back = params.ransacReverseHypotheses ?? 0;
+    if (back > 0) {
+      const rev = timed(trace?.times, 'ransac', () => ransacAlignFaces(
+        { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, mirroredFpfh: FA.mirroredFpfh, mirroredFeatureFpfh: FA.mirroredFeatureFpfh },
+        { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, featureFpfh: FB.featureFpfh },
+        { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: back, seed: params.seed + 7919 * fb + 104729 * fa },
+      ));
+      refined = refined.concat(refine(rev.map((h) => invert(h.transform))));
+    }
     // point pair features: on a small face FPFH histograms over a radius as wide as the face barely differ, pair features still do
     if (params.pairVoteHypotheses > 0 && small) {
       const votes = timed(trace?.times, 'pair voting', () => pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: params.pairVoteHypotheses }));
