@@ -58,12 +58,12 @@ import { principalSpread, type FaceTraits } from './face-traits';
  * of their values, not the difference.
  */
 export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number; opposite?: boolean }> = [
-  { name: 'log area', scale: 1.02, weight: 0.35 },
-  { name: 'log extent 1', scale: 0.155, weight: 0.7 },
+  { name: 'log area', scale: 0.51, weight: 0.35 },
+  { name: 'log extent 1', scale: 0.0775, weight: 0.7 },
   { name: 'log extent 2', scale: 0.35, weight: 0 },
-  { name: 'log extent 3', scale: 0.63, weight: 2 },
+  { name: 'log extent 3', scale: 0.63, weight: 4 },
   { name: 'normal scatter 1', scale: 0.077, weight: 1 },
-  { name: 'normal scatter 2', scale: 0.055, weight: 1.4 },
+  { name: 'normal scatter 2', scale: 0.055, weight: 0.7 },
   { name: 'log outer radius', scale: 0.17, weight: 0 },
   { name: 'log inner radius', scale: 0.19, weight: 0 },
   { name: 'log cortical thickness', scale: 0.19, weight: 0 },
