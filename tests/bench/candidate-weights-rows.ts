@@ -11,7 +11,7 @@
  *   CANDIDATE_WEIGHTS='<json>' only reports the given parameters.
  */
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../core/geometry/proposals/face-descriptor';
-import type { CostParameters } from './candidate-weights';
+import { fitOrReport, type CostParameters } from './candidate-weights';
 import { loadSet, type RuleSet } from './candidate-rules';
 
 const MISSING = Math.log(2);
@@ -134,36 +134,6 @@ if (process.argv[1]?.endsWith('candidate-weights-rows.ts')) {
       console.log(`${label} ${dirs[i]}: ${r.n} faces, ${r.s.reachable} reachable joins; k 30: ${(100 * a).toFixed(1)}%, k 60: ${(100 * b).toFixed(1)}%`);
     });
   };
-  report(current, 'current');
-  if (process.env.CANDIDATE_WEIGHTS) {
-    report(JSON.parse(process.env.CANDIDATE_WEIGHTS) as CostParameters, 'given');
-  } else {
-    let best = current, bestScore = score(best);
-    const copy = (q: CostParameters): CostParameters => ({ w: [...q.w], sc: [...q.sc], tw: q.tw });
-    for (let round = 0; round < rounds; round++) {
-      for (let c = 0; c <= best.w.length; c++) {
-        const tries: CostParameters[] = [];
-        const w0 = c < best.w.length ? best.w[c] : best.tw;
-        for (const m of w0 === 0 ? [0.5, 1, 2] : [0, 0.5, 0.7, 1.4, 2]) {
-          const q = copy(best);
-          if (c < q.w.length) q.w[c] = w0 === 0 ? m : w0 * m;
-          else q.tw = w0 * m;
-          tries.push(q);
-        }
-        if (c < best.w.length && best.w[c] > 0) for (const m of [0.5, 2]) { const q = copy(best); q.sc[c] *= m; tries.push(q); }
-        const base = best;
-        for (const q of tries) {
-          const v = score(q);
-          if (v > bestScore + 1e-9) {
-            best = q;
-            bestScore = v;
-            console.log(`  round ${round + 1}, ${c < base.w.length ? DESCRIPTOR_FIGURES[c].name : 'texture'}: ${(100 * v).toFixed(2)}% ${JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) })}`);
-          }
-        }
-      }
-    }
-    report(best, 'fitted');
-    console.log(JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) }));
-  }
+  fitOrReport(current, score, report, rounds);
   console.log(`${(process.cpuUsage(c0).user / 1e6).toFixed(1)} CPU s`);
 }
