@@ -359,6 +359,10 @@ export const analysisSettingsSchema = z.object({
    * 100 mm and more away have support 0.56-0.64, s362 QS-10467, s15 QS-10937, s105 QS-10375).
    */
   contextThinCrossingSupportMin: z.number().min(0).max(1).default(0.65),
+  /** TODO document. 0 switches it off. */
+  contextThinPartnerWeight: z.number().min(0).default(0),
+  /** ...counted beyond this share of the region's rays. */
+  contextThinPartnerShareMin: z.number().min(0).max(1).default(0.3),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**
