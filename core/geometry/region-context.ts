@@ -148,6 +148,6 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
     - settings.contextConcaveWeight * concave
     + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare
     + (shaft && r.radial >= min ? settings.contextThinCrossingWeight * Math.max(0, r.thinCrossingShare - settings.contextThinCrossingShareMin) : 0)
-    + (shaft && r.radial <= -min ? settings.contextThinPartnerWeight * Math.max(0, r.thinPartnerShare - settings.contextThinPartnerShareMin) : 0)
+    + (shaft && r.radial <= -min && r.meanCurvature >= -settings.contextThinPartnerConcaveMin ? settings.contextThinPartnerWeight * Math.max(0, r.thinPartnerShare - settings.contextThinPartnerShareMin) : 0)
     + (shaft && Math.abs(r.radial) >= min ? settings.contextBreakExitWeight * Math.max(0, r.breakExitShare - settings.contextBreakExitShareMin) : 0);
 }

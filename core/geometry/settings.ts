@@ -363,6 +363,8 @@ export const analysisSettingsSchema = z.object({
   contextThinPartnerWeight: z.number().min(0).default(0),
   /** ...counted beyond this share of the region's rays. */
   contextThinPartnerShareMin: z.number().min(0).max(1).default(0.3),
+  /** ...and not for regions more concave than this (mean curvature under -this, 1/mm). */
+  contextThinPartnerConcaveMin: z.number().min(0).default(0.03),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**
