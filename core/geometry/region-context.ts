@@ -43,6 +43,10 @@ import type { ShaftAxis } from './shaft-axis';
  *   (thin-wall-crossing.ts): the outer surface crosses the whole wall, so this face is a break
  *   running along the wall, one face of a slab between two near-parallel breaks or a bevel
  *   left along the cavity (contextThinCrossingWeight);
+ * - towards fracture, for a region facing the axis and not concave, the share of its inward
+ *   rays that leave head-on through break regions facing out that the thin-crossing term reads
+ *   (beyond contextThinPartnerShareMin): its wall partner is the slab's outer break face, so it
+ *   is the slab's inner one (contextThinPartnerWeight; needs `exits`);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
