@@ -26,7 +26,7 @@ import { reliability, table } from './calibration';
 import { FEATURE_NAMES, SCORE_MODEL, scoreFeatures, scoreProbability, type ScoreComponents, type ScoreModel } from '../../core/geometry/registration/score-model';
 
 /** The score components a fixture keeps (ScoreComponents, in this order). */
-export const COMPONENT_FIELDS = ['contactFraction', 'contactFractionOther', 'contactAreaMm2', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngleDeg', 'axisSide', 'radiusRatio'] as const satisfies ReadonlyArray<keyof ScoreComponents>;
+export const COMPONENT_FIELDS = ['contactFraction', 'contactFractionOther', 'contactAreaMm2', 'gapRmsMm', 'contactGapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngleDeg', 'axisSide', 'radiusRatio'] as const satisfies ReadonlyArray<keyof ScoreComponents>;
 
 export interface Motion { set: string; a: string; b: string; trueJoin: boolean; correct: boolean; score: number; components: Record<string, number> }
 

@@ -20,6 +20,13 @@ export interface ScoreComponents {
   contactAreaMm2: number;
   /** RMS distance (mm) between the faces where they face each other within 3 tolerances. */
   gapRmsMm: number;
+  /**
+   * RMS distance (mm) of the samples in contact (within `contactTolerance`, opposed normals),
+   * both sides together; the tolerance itself when none are. How tight the faces fit where they
+   * touch: unlike gapRmsMm it does not read the margin of a partial contact (a chipped or eroded
+   * rim, a break face that meets the partner over part of its area), where the faces part.
+   */
+  contactGapRmsMm: number;
   /** Depth (mm) that the deepest 2% of one piece's surface samples reach inside the other. */
   penetrationMm: number;
   /** Share of outline samples that meet the other face's outline within 2 tolerances (better side). */
