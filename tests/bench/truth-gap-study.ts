@@ -11,17 +11,15 @@
  * records.jsonl: stored-gap-study.ts records (their `join` and `cause` are read); others: how many
  * non-true candidate fragment pairs to match (default 150).
  */
-import { readFileSync, readdirSync, existsSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { candidateFacePairs, sizeClassCompatible, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { WHOLE_FACE_PARTNERS } from '../../core/geometry/proposals/candidate-index';
 import { DEFAULT_MATCH_PARAMETERS, fineTransform, matchFragments, scoredSide, type FaceMatch } from '../../core/geometry/proposals/pairwise-match';
-import { assemblePrepared, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
+import type { PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { scoreJoin, type ScoredSide } from '../../core/geometry/registration/score';
 import type { ClosestPoint } from '../../core/geometry/registration/target-surface';
-import { readFragment, readPrepared } from '../../core/jobs/fragment-cache';
-import { sizeClassesFromCsv } from './candidate-recall';
-import type { StudyFragment } from './candidate-study';
+import { readStudiedFolder } from './studied-folder';
 import { isCorrectMotion } from './correct-motion';
 
 interface Join { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[]; damaged?: boolean; breakAge?: string }
@@ -30,32 +28,7 @@ const params = DEFAULT_MATCH_PARAMETERS;
 const OTHERS = Number(othersArg ?? 150);
 const records = new Map(readFileSync(recordsFile, 'utf8').split('\n').filter((l) => l.startsWith('{')).map((l) => JSON.parse(l) as { join: string; cause: string }).map((r) => [r.join, r.cause]));
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: Join[] };
-const study = readdirSync(join(dir, 'candidate-study')).filter((f) => f.endsWith('.json'))
-  .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment)
-  .filter((f) => f.faces.length > 0);
-const spacing = study[0].spacing;
-const fragOf = new Map(study.map((f, i) => [f.no, i]));
-const faces: IndexedFace[] = [];
-study.forEach((f, i) => f.faces.forEach((x, face) => faces.push({ fragment: i, face, whole: f.faces.findIndex((y) => y.parent === x.parent), traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } })));
-const classes = existsSync(join(dir, 'specimens.csv')) ? sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8')) : undefined;
-const compatible = classes ? sizeClassCompatible(study.map((f) => classes.get(f.no) ?? null)) : undefined;
-const candidates = candidateFacePairs(faces, { k: 30, wholeFacePartners: WHOLE_FACE_PARTNERS, ...(compatible ? { compatible } : {}) });
-const pairsOf = new Map<string, Array<[number, number]>>();
-for (const c of candidates) pairsOf.set(`${c.a}:${c.b}`, [...(pairsOf.get(`${c.a}:${c.b}`) ?? []), [c.faceA, c.faceB]]);
-const cache = join(dir, 'candidate-cache');
-const prepared = new Map<number, PreparedFragment>();
-const prep = (i: number): PreparedFragment => {
-  let p = prepared.get(i);
-  if (!p) {
-    const no = study[i].no;
-    const c = readFragment(cache, no), parts = readPrepared(cache, no, { spacing, fpfhRadiusSpacings: 5 });
-    if (!c || !parts) throw new Error(`${no}: not in ${cache}`);
-    p = assemblePrepared(c.input, parts);
-    if (prepared.size > 60) prepared.clear();
-    prepared.set(i, p);
-  }
-  return p;
-};
+const { study, spacing, fragOf, pairsOf, prep } = readStudiedFolder(dir, { k: 30, wholeFacePartners: WHOLE_FACE_PARTNERS, keepFragments: 60 });
 const tol = params.contactToleranceSpacings * spacing;
 
 /** Distances of one side's facing samples (opposed normals, within 3 tol) and how far each lies from its face's outline. */

@@ -14,15 +14,12 @@
  * carries `weight` s for those, 1 for true pairs, so a fit can count each sampled motion s times).
  * Make a JSON array of the lines for fit-score-model.ts; the folder name is the set.
  */
-import { appendFileSync, existsSync, readFileSync, readdirSync } from 'node:fs';
+import { appendFileSync, readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { candidateFacePairs, sizeClassCompatible, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { WHOLE_FACE_PARTNERS } from '../../core/geometry/proposals/candidate-index';
 import { DEFAULT_MATCH_PARAMETERS, matchFragments } from '../../core/geometry/proposals/pairwise-match';
-import { assemblePrepared, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, invert, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
-import { readFragment, readPrepared } from '../../core/jobs/fragment-cache';
-import { sizeClassesFromCsv } from './candidate-recall';
-import type { StudyFragment } from './candidate-study';
+import { readStudiedFolder } from './studied-folder';
 import { isCorrectMotion } from './correct-motion';
 
 interface Join { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
@@ -30,18 +27,7 @@ const [dir, out, keepArg] = process.argv.slice(2);
 const keep = Number(keepArg ?? 5);
 const [stride, start] = (process.env.KNITBONE_DUMP_STRIDE ?? '1,0').split(',').map(Number);
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: Join[] };
-const study = readdirSync(join(dir, 'candidate-study')).filter((f) => f.endsWith('.json'))
-  .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment)
-  .filter((f) => f.faces.length > 0);
-const spacing = study[0].spacing;
-const fragOf = new Map(study.map((f, i) => [f.no, i]));
-const faces: IndexedFace[] = [];
-study.forEach((f, i) => f.faces.forEach((x, face) => faces.push({ fragment: i, face, whole: f.faces.findIndex((y) => y.parent === x.parent), traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } })));
-const classes = existsSync(join(dir, 'specimens.csv')) ? sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8')) : undefined;
-const compatible = classes ? sizeClassCompatible(study.map((f) => classes.get(f.no) ?? null)) : undefined;
-const candidates = candidateFacePairs(faces, { k: 30, wholeFacePartners: WHOLE_FACE_PARTNERS, ...(compatible ? { compatible } : {}) });
-const pairsOf = new Map<string, Array<[number, number]>>();
-for (const c of candidates) pairsOf.set(`${c.a}:${c.b}`, [...(pairsOf.get(`${c.a}:${c.b}`) ?? []), [c.faceA, c.faceB]]);
+const { study, fragOf, pairsOf, prep } = readStudiedFolder(dir, { k: 30, wholeFacePartners: WHOLE_FACE_PARTNERS, keepFragments: 80 });
 // the true motion of each fragment pair, B onto A in the pair's order (the first conjoin of the two pieces)
 const trueMotion = new Map<string, number[]>();
 for (const j of truth.joins) {
@@ -50,19 +36,6 @@ for (const j of truth.joins) {
   const key = ia < ib ? `${ia}:${ib}` : `${ib}:${ia}`;
   if (!trueMotion.has(key)) trueMotion.set(key, ia < ib ? j.transformBToA : invert(j.transformBToA));
 }
-const cache = join(dir, 'candidate-cache');
-const prepared = new Map<number, PreparedFragment>();
-const prep = (i: number): PreparedFragment => {
-  let p = prepared.get(i);
-  if (!p) {
-    const c = readFragment(cache, study[i].no), parts = readPrepared(cache, study[i].no, { spacing, fpfhRadiusSpacings: 5 });
-    if (!c || !parts) throw new Error(`${study[i].no}: not in ${cache}`);
-    p = assemblePrepared(c.input, parts);
-    if (prepared.size >= 80) prepared.delete(prepared.keys().next().value as number);
-    prepared.set(i, p);
-  }
-  return p;
-};
 // a fixed shuffle (multiplicative stride through the sorted keys), so any stride of it is spread over the assemblage
 const keys = [...pairsOf.keys()].sort();
 const step = 7919 % keys.length === 0 ? 7907 : 7919;
