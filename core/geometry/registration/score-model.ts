@@ -60,7 +60,11 @@ export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'sqrtCo
  * small face). Since method /8,
  * with the root and the interlock capped at 0.2 (was 0.1): fitted on dev seeds 11-15 and checked
  * on 16 and 21, Brier 0.0098 -> 0.0087 against the same fit without them
- * (tests/bench/score-feature-study.ts).
+ * (tests/bench/score-feature-study.ts). Since session 20 the contact gap as well (the RMS
+ * distance of the samples in contact only): the band RMS gap reads the margin of a partial
+ * contact (chipped or eroded rims, a face meeting its partner over part of its area), and put
+ * true joins with small contacts among the wrong motions; fitted, the contact gap takes the
+ * gap's weight (DEVELOPERS.md, join proposals).
  */
 export function scoreFeatures(c: ScoreComponents, model: Pick<ScoreModel, 'interlockCap'> = SCORE_MODEL): number[] {
   return [
