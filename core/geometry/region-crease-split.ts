@@ -1,0 +1,223 @@
+import type { VertexRings } from './adjacency';
+import { hypot } from './hypot';
+import type { TriangleMesh } from './mesh';
+import { MinHeap } from './min-heap';
+
+export interface RegionCreaseSplitOptions {
+  /** An edge inside a region whose filtered normals differ by more than this is a soft crease (degrees). */
+  creaseAngleDeg: number;
+  /** Open ends of soft creases are joined to another crease or to the region's border at most this far away (mm). */
+  gapMm: number;
+  /** Edge cost of a closing path = length / (1 + weight x bend x mean edge), as in ridges.ts. */
+  curvatureWeight: number;
+  /** Each piece of a split keeps at least this area (mm²); smaller pieces rejoin a neighbour piece. */
+  minPieceArea: number;
+}
+
+/**
+ * Splits regions along soft creases (design.md section 7, step 3: curvature-weighted shortest
+ * paths close broken ridges). Region growing (regions.ts) joins triangles whose filtered normals
+ * differ by under the growth angle, so where a break meets the bone surface at a shallow angle
+ * (a flake scar along the cavity, a worn rim) the two are one region wherever part of their
+ * meeting line bends less than that, though most of it is a crease. Inside each region, edges
+ * bending more than `creaseAngleDeg` are soft creases; each open end of a soft crease is joined
+ * by the cheapest path over the region's edges (cost falling as curvature rises, Kimmel &
+ * Sethian 1998 geodesics with a curvature metric, as in ridges.ts) to another crease or to the
+ * region's border within `gapMm`; the region's triangles are then flooded without crossing
+ * creases or paths, and pieces under `minPieceArea` rejoin the piece they share most edges with.
+ * A region left with two or more pieces is split; the largest keeps its id.
+ *
+ * Returns the new region id of every triangle (ids of unsplit regions unchanged).
+ */
+export function splitRegionsAtCreases(
+  mesh: TriangleMesh,
+  neighbours: Int32Array,
+  normals: Float32Array,
+  areas: Float64Array,
+  rings: VertexRings,
+  k1: Float32Array,
+  k2: Float32Array,
+  region: Uint32Array,
+  options: RegionCreaseSplitOptions,
+): Uint32Array {
+  const t = mesh.triangles, p = mesh.positions;
+  const nt = region.length, nv = p.length / 3;
+  let count = 0;
+  for (let f = 0; f < nt; f++) if (region[f] + 1 > count) count = region[f] + 1;
+  const regionArea = new Float64Array(count);
+  for (let f = 0; f < nt; f++) regionArea[region[f]] += areas[f];
+  const out = Uint32Array.from(region);
+  const cosMax = Math.cos((options.creaseAngleDeg * Math.PI) / 180);
+  // Soft creases: half-edges inside one region bending more than the crease angle.
+  const crease = new Uint8Array(3 * nt);
+  let any = false;
+  let lengthSum = 0;
+  for (let f = 0; f < nt; f++) {
+    for (let j = 0; j < 3; j++) {
+      const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
+      lengthSum += hypot(p[3 * a] - p[3 * b], p[3 * a + 1] - p[3 * b + 1], p[3 * a + 2] - p[3 * b + 2]);
+      const g = neighbours[3 * f + j];
+      if (g < 0 || region[g] !== region[f] || regionArea[region[f]] < 2 * options.minPieceArea) continue;
+      const dot = normals[3 * f] * normals[3 * g] + normals[3 * f + 1] * normals[3 * g + 1] + normals[3 * f + 2] * normals[3 * g + 2];
+      if (dot < cosMax) { crease[3 * f + j] = 1; any = true; }
+    }
+  }
+  if (!any) return out;
+  const meanEdge = lengthSum / Math.max(1, 3 * nt);
+  // Triangles by region, for regions that hold a crease.
+  const hasCrease = new Uint8Array(count);
+  for (let f = 0; f < nt; f++) if (crease[3 * f] || crease[3 * f + 1] || crease[3 * f + 2]) hasCrease[region[f]] = 1;
+  const start = new Int32Array(count + 1);
+  for (let f = 0; f < nt; f++) if (hasCrease[region[f]]) start[region[f] + 1]++;
+  for (let r = 0; r < count; r++) start[r + 1] += start[r];
+  const list = new Int32Array(start[count]);
+  const fill = start.slice(0, count);
+  for (let f = 0; f < nt; f++) if (hasCrease[region[f]]) list[fill[region[f]]++] = f;
+  // Work space, reset per region through the touched lists.
+  const stamp = new Int32Array(nv).fill(-1);
+  const border = new Uint8Array(nv), degree = new Uint16Array(nv), parent = new Int32Array(nv);
+  const dist = new Float64Array(nv).fill(Infinity);
+  const prev = new Int32Array(nv).fill(-1);
+  const piece = new Int32Array(nt).fill(-1);
+  const heap = new MinHeap();
+  const touched: number[] = [];
+  const find = (x: number): number => {
+    while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; }
+    return x;
+  };
+  let nextId = count;
+  for (let r = 0; r < count; r++) {
+    if (!hasCrease[r]) continue;
+    const tris = list.subarray(start[r], start[r + 1]);
+    const verts: number[] = [];
+    for (const f of tris) {
+      for (let j = 0; j < 3; j++) {
+        const v = t[3 * f + j];
+        if (stamp[v] !== r) { stamp[v] = r; border[v] = 0; degree[v] = 0; parent[v] = v; verts.push(v); }
+      }
+    }
+    for (const f of tris) {
+      for (let j = 0; j < 3; j++) {
+        const g = neighbours[3 * f + j];
+        const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
+        if (g < 0 || region[g] !== r) { border[a] = 1; border[b] = 1; continue; }
+        if (crease[3 * f + j] && f < g) {
+          degree[a]++;
+          degree[b]++;
+          const ra = find(a), rb = find(b);
+          if (ra !== rb) parent[ra] = rb;
+        }
+      }
+    }
+    // Closing paths from each open end (a crease vertex of degree 1 inside the region).
+    const barrier = new Set<number>();
+    for (const s of verts) {
+      if (degree[s] !== 1 || border[s]) continue;
+      const own = find(s);
+      heap.clear();
+      dist[s] = 0;
+      touched.push(s);
+      heap.push(s, 0);
+      let target = -1;
+      while (heap.size > 0) {
+        const v = heap.pop(), d = heap.lastKey;
+        if (d > dist[v]) continue;
+        if (v !== s && (border[v] || degree[v] > 0) && find(v) !== own) { target = v; break; }
+        const bv = Math.max(Math.abs(k1[v]), Math.abs(k2[v]));
+        for (let i = rings.start[v]; i < rings.start[v + 1]; i++) {
+          const w = rings.list[i];
+          if (stamp[w] !== r) continue;
+          if (hypot(p[3 * s] - p[3 * w], p[3 * s + 1] - p[3 * w + 1], p[3 * s + 2] - p[3 * w + 2]) > options.gapMm) continue;
+          const len = hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
+          const bend = Math.max(bv, Math.abs(k1[w]), Math.abs(k2[w]));
+          const nd = d + len / (1 + options.curvatureWeight * bend * meanEdge);
+          if (nd < dist[w]) {
+            if (dist[w] === Infinity) touched.push(w);
+            dist[w] = nd;
+            prev[w] = v;
+            heap.push(w, nd);
+          }
+        }
+      }
+      if (target >= 0) {
+        for (let v = target; v !== s; v = prev[v]) barrier.add(Math.min(prev[v], v) * nv + Math.max(prev[v], v));
+      }
+      for (const v of touched) { dist[v] = Infinity; prev[v] = -1; }
+      touched.length = 0;
+      if (target < 0) continue;
+      const rt = find(target), rs = find(s);
+      if (rt !== rs) parent[rs] = rt;
+    }
+    // Flood the region's triangles without crossing creases or closing paths.
+    const pieceArea: number[] = [];
+    let pieces = 0;
+    const stack: number[] = [];
+    for (const f0 of tris) {
+      if (piece[f0] >= 0) continue;
+      const id = pieces++;
+      let sum = 0;
+      piece[f0] = id;
+      stack.push(f0);
+      while (stack.length) {
+        const f = stack.pop()!;
+        sum += areas[f];
+        for (let j = 0; j < 3; j++) {
+          const g = neighbours[3 * f + j];
+          if (g < 0 || region[g] !== r || piece[g] >= 0 || crease[3 * f + j]) continue;
+          const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
+          if (barrier.has(Math.min(a, b) * nv + Math.max(a, b))) continue;
+          piece[g] = id;
+          stack.push(g);
+        }
+      }
+      pieceArea.push(sum);
+    }
+    if (process.env.DBG_SPLIT) { let ce = 0, ends = 0; for (const v of verts) { ce += degree[v]; if (degree[v] === 1 && !border[v]) ends++; } console.log('region', r, 'tris', tris.length, 'crease vertex-degree', ce, 'open ends', ends, 'barrier', barrier.size, 'pieces', pieces, pieceArea.map((x) => x.toFixed(0)).join(' ')); }
+    if (pieces > 1) {
+      // Small pieces rejoin the neighbouring piece they share most edges with, smallest first.
+      const pp = Int32Array.from({ length: pieces }, (_, i) => i);
+      const pf = (x: number): number => { while (pp[x] !== x) { pp[x] = pp[pp[x]]; x = pp[x]; } return x; };
+      const area = Float64Array.from(pieceArea);
+      for (let round = 0; round < 8; round++) {
+        const shared = new Map<number, Map<number, number>>();
+        for (const f of tris) {
+          const a = pf(piece[f]);
+          if (area[a] >= options.minPieceArea) continue;
+          for (let j = 0; j < 3; j++) {
+            const g = neighbours[3 * f + j];
+            if (g < 0 || region[g] !== r) continue;
+            const b = pf(piece[g]);
+            if (b === a) continue;
+            let m = shared.get(a);
+            if (!m) shared.set(a, (m = new Map()));
+            m.set(b, (m.get(b) ?? 0) + 1);
+          }
+        }
+        if (shared.size === 0) break;
+        let merged = 0;
+        for (const a of [...shared.keys()].sort((x, y) => area[x] - area[y] || x - y)) {
+          if (pf(a) !== a) continue;
+          let best = -1, bestCount = 0;
+          for (const [b, c] of shared.get(a)!) {
+            const rb = pf(b);
+            if (rb === a) continue;
+            if (c > bestCount || (c === bestCount && area[rb] > area[best])) { best = rb; bestCount = c; }
+          }
+          if (best >= 0) { pp[a] = best; area[best] += area[a]; merged++; }
+        }
+        if (merged === 0) break;
+      }
+      const roots = new Map<number, number>();
+      for (let i = 0; i < pieces; i++) { const x = pf(i); if (!roots.has(x)) roots.set(x, area[x]); }
+      if (roots.size > 1) {
+        let largest = -1;
+        for (const [x, a] of roots) if (largest < 0 || a > roots.get(largest)! || (a === roots.get(largest)! && x < largest)) largest = x;
+        const idOf = new Map<number, number>();
+        for (const x of [...roots.keys()].sort((u, v) => u - v)) idOf.set(x, x === largest ? r : nextId++);
+        for (const f of tris) out[f] = idOf.get(pf(piece[f]))!;
+      }
+    }
+    for (const f of tris) piece[f] = -1;
+  }
+  return out;
+}
