@@ -137,8 +137,8 @@ export function analyseFragment(
     let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);
     region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
     if (settings.regionSplitCreaseAngleDeg < 180) {
-      region = splitRegionsAtCreases(mesh, topo.neighbours, filtered, areas, rings, curvature.k1, curvature.k2, region, {
-        creaseAngleDeg: settings.regionSplitCreaseAngleDeg, gapMm: settings.regionSplitGapMm, curvatureWeight: settings.ridgeCurvatureWeight, minPieceArea: settings.regionSplitMinPieceAreaMm2,
+      region = splitRegionsAtCreases(mesh, topo.neighbours, filtered, areas, centroids, rings, curvature.k1, curvature.k2, region, {
+        creaseAngleDeg: settings.regionSplitCreaseAngleDeg, gapMm: settings.regionSplitGapMm, curvatureWeight: settings.ridgeCurvatureWeight, minPieceArea: settings.regionSplitMinPieceAreaMm2, convexOnly: settings.regionSplitConvexOnly,
       });
     }
     let regionCount = 0;

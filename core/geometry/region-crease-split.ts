@@ -12,6 +12,8 @@ export interface RegionCreaseSplitOptions {
   curvatureWeight: number;
   /** Each piece of a split keeps at least this area (mm²); smaller pieces rejoin a neighbour piece. */
   minPieceArea: number;
+  /** Count only convex edges as soft creases (the rim of a break on a solid is convex). */
+  convexOnly: boolean;
 }
 
 /**
@@ -34,6 +36,7 @@ export function splitRegionsAtCreases(
   neighbours: Int32Array,
   normals: Float32Array,
   areas: Float64Array,
+  centroids: Float32Array,
   rings: VertexRings,
   k1: Float32Array,
   k2: Float32Array,
@@ -59,7 +62,12 @@ export function splitRegionsAtCreases(
       const g = neighbours[3 * f + j];
       if (g < 0 || region[g] !== region[f] || regionArea[region[f]] < 2 * options.minPieceArea) continue;
       const dot = normals[3 * f] * normals[3 * g] + normals[3 * f + 1] * normals[3 * g + 1] + normals[3 * f + 2] * normals[3 * g + 2];
-      if (dot < cosMax) { crease[3 * f + j] = 1; any = true; }
+      if (dot >= cosMax) continue;
+      // Convex where the normals turn away from each other along the step between the centroids.
+      if (options.convexOnly && (normals[3 * g] - normals[3 * f]) * (centroids[3 * g] - centroids[3 * f]) + (normals[3 * g + 1] - normals[3 * f + 1]) * (centroids[3 * g + 1] - centroids[3 * f + 1])
+        + (normals[3 * g + 2] - normals[3 * f + 2]) * (centroids[3 * g + 2] - centroids[3 * f + 2]) <= 0) continue;
+      crease[3 * f + j] = 1;
+      any = true;
     }
   }
   if (!any) return out;
