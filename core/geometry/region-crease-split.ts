@@ -2,6 +2,7 @@ import type { VertexRings } from './adjacency';
 import { hypot } from './hypot';
 import type { TriangleMesh } from './mesh';
 import { MinHeap } from './min-heap';
+import { growRegions, mergeSmallRegions } from './regions';
 
 export interface RegionCreaseSplitOptions {
   /** An edge inside a region whose filtered normals differ by more than this is a soft crease (degrees). */
@@ -86,14 +87,12 @@ export function splitRegionsAtCreases(
   const border = new Uint8Array(nv), degree = new Uint16Array(nv), parent = new Int32Array(nv);
   const dist = new Float64Array(nv).fill(Infinity);
   const prev = new Int32Array(nv).fill(-1);
-  const piece = new Int32Array(nt).fill(-1);
   const heap = new MinHeap();
   const touched: number[] = [];
   const find = (x: number): number => {
     while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; }
     return x;
   };
-  let nextId = count;
   for (let r = 0; r < count; r++) {
     if (!hasCrease[r]) continue;
     const tris = list.subarray(start[r], start[r + 1]);
@@ -156,76 +155,32 @@ export function splitRegionsAtCreases(
       const rt = find(target), rs = find(s);
       if (rt !== rs) parent[rs] = rt;
     }
-    // Flood the region's triangles without crossing creases or closing paths.
-    const pieceArea: number[] = [];
-    let pieces = 0;
-    const stack: number[] = [];
-    for (const f0 of tris) {
-      if (piece[f0] >= 0) continue;
-      const id = pieces++;
-      let sum = 0;
-      piece[f0] = id;
-      stack.push(f0);
-      while (stack.length) {
-        const f = stack.pop()!;
-        sum += areas[f];
+    // Half-edges of the closing paths become creases.
+    if (barrier.size) {
+      for (const f of tris) {
         for (let j = 0; j < 3; j++) {
-          const g = neighbours[3 * f + j];
-          if (g < 0 || region[g] !== r || piece[g] >= 0 || crease[3 * f + j]) continue;
           const a = t[3 * f + j], b = t[3 * f + ((j + 1) % 3)];
-          if (barrier.has(Math.min(a, b) * nv + Math.max(a, b))) continue;
-          piece[g] = id;
-          stack.push(g);
+          if (barrier.has(Math.min(a, b) * nv + Math.max(a, b))) crease[3 * f + j] = 1;
         }
-      }
-      pieceArea.push(sum);
-    }
-    if (process.env.DBG_SPLIT) { let ce = 0, ends = 0; for (const v of verts) { ce += degree[v]; if (degree[v] === 1 && !border[v]) ends++; } console.log('region', r, 'tris', tris.length, 'crease vertex-degree', ce, 'open ends', ends, 'barrier', barrier.size, 'pieces', pieces, pieceArea.map((x) => x.toFixed(0)).join(' ')); }
-    if (pieces > 1) {
-      // Small pieces rejoin the neighbouring piece they share most edges with, smallest first.
-      const pp = Int32Array.from({ length: pieces }, (_, i) => i);
-      const pf = (x: number): number => { while (pp[x] !== x) { pp[x] = pp[pp[x]]; x = pp[x]; } return x; };
-      const area = Float64Array.from(pieceArea);
-      for (let round = 0; round < 8; round++) {
-        const shared = new Map<number, Map<number, number>>();
-        for (const f of tris) {
-          const a = pf(piece[f]);
-          if (area[a] >= options.minPieceArea) continue;
-          for (let j = 0; j < 3; j++) {
-            const g = neighbours[3 * f + j];
-            if (g < 0 || region[g] !== r) continue;
-            const b = pf(piece[g]);
-            if (b === a) continue;
-            let m = shared.get(a);
-            if (!m) shared.set(a, (m = new Map()));
-            m.set(b, (m.get(b) ?? 0) + 1);
-          }
-        }
-        if (shared.size === 0) break;
-        let merged = 0;
-        for (const a of [...shared.keys()].sort((x, y) => area[x] - area[y] || x - y)) {
-          if (pf(a) !== a) continue;
-          let best = -1, bestCount = 0;
-          for (const [b, c] of shared.get(a)!) {
-            const rb = pf(b);
-            if (rb === a) continue;
-            if (c > bestCount || (c === bestCount && area[rb] > area[best])) { best = rb; bestCount = c; }
-          }
-          if (best >= 0) { pp[a] = best; area[best] += area[a]; merged++; }
-        }
-        if (merged === 0) break;
-      }
-      const roots = new Map<number, number>();
-      for (let i = 0; i < pieces; i++) { const x = pf(i); if (!roots.has(x)) roots.set(x, area[x]); }
-      if (roots.size > 1) {
-        let largest = -1;
-        for (const [x, a] of roots) if (largest < 0 || a > roots.get(largest)! || (a === roots.get(largest)! && x < largest)) largest = x;
-        const idOf = new Map<number, number>();
-        for (const x of [...roots.keys()].sort((u, v) => u - v)) idOf.set(x, x === largest ? r : nextId++);
-        for (const f of tris) out[f] = idOf.get(pf(piece[f]))!;
       }
     }
-    for (const f of tris) piece[f] = -1;
   }
+  // Pieces: triangles of one region flooded without crossing creases or closing paths; small
+  // pieces rejoin the piece of their region they share most edges with (regions.ts).
+  const inner = Int32Array.from(neighbours);
+  for (let f = 0; f < nt; f++) for (let j = 0; j < 3; j++) { const g = inner[3 * f + j]; if (g >= 0 && region[g] !== region[f]) inner[3 * f + j] = -1; }
+  const pieceOf = growRegions(inner, normals, 180, undefined, crease);
+  const merged = mergeSmallRegions(pieceOf, inner, areas, options.minPieceArea);
+  // The largest piece of each region keeps the region's id; the others take new ids.
+  let pieces = 0;
+  for (let f = 0; f < nt; f++) if (merged[f] + 1 > pieces) pieces = merged[f] + 1;
+  const pieceArea = new Float64Array(pieces), pieceRegion = new Int32Array(pieces);
+  for (let f = 0; f < nt; f++) { pieceArea[merged[f]] += areas[f]; pieceRegion[merged[f]] = region[f]; }
+  const keeper = new Int32Array(count).fill(-1);
+  for (let q = 0; q < pieces; q++) { const r = pieceRegion[q]; if (keeper[r] < 0 || pieceArea[q] > pieceArea[keeper[r]]) keeper[r] = q; }
+  const idOf = new Int32Array(pieces);
+  let nextId = count;
+  for (let q = 0; q < pieces; q++) idOf[q] = keeper[pieceRegion[q]] === q ? pieceRegion[q] : nextId++;
+  for (let f = 0; f < nt; f++) out[f] = idOf[merged[f]];
   return out;
 }

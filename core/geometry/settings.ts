@@ -29,7 +29,7 @@ export const analysisSettingsSchema = z.object({
    * the bone surface at a shallow angle shares a region with it wherever part of the meeting
    * line bends less than growAngleDeg.
    */
-  regionSplitCreaseAngleDeg: z.number().positive().max(180).default(180),
+  regionSplitCreaseAngleDeg: z.number().positive().max(180).default(15),
   /** Open ends of soft creases are joined to another crease or the region's border at most this far away (mm). */
   regionSplitGapMm: z.number().min(0).default(4),
   /** Each piece of a region split along soft creases keeps at least this area (mm²). */
