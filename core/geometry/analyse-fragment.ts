@@ -161,7 +161,7 @@ export function analyseFragment(
     // Each region judged by itself, then again with the border it has with original surface
     // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
     const fracture = settleFractureRegions(figures, borders, axis, settings,
-      settings.contextBreakExitWeight > 0 ? headOnExits(region, regionCount, rays, settings.headOnCosineMin) : []);
+      settings.contextBreakExitWeight > 0 || settings.contextThinPartnerWeight > 0 ? headOnExits(region, regionCount, rays, settings.headOnCosineMin) : []);
     const programClasses = absorbSmallFractureRegions(
       region,
       topo.neighbours,

@@ -65,6 +65,13 @@ export interface RegionFigures {
    * (thin-wall-crossing.ts; 0 where the axis support is under contextThinCrossingSupportMin).
    */
   thinCrossingShare: number;
+  /**
+   * Set by the neighbourhood pass (region-context.ts), from the classes at its end: the share of
+   * the region's inward rays that leave the bone head-on through regions taken for fracture that
+   * face out from the shaft axis and are themselves read as thin (thinCrossingShare beyond
+   * contextThinCrossingShareMin): the region's wall partner is the other face of a slab.
+   */
+  thinPartnerShare: number;
 }
 
 export function regionFigures(
@@ -86,7 +93,7 @@ export function regionFigures(
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
-    originalCreaseBorderShare: NaN, breakExitShare: 0, thinCrossingShare: 0,
+    originalCreaseBorderShare: NaN, breakExitShare: 0, thinCrossingShare: 0, thinPartnerShare: 0,
   }));
   const medianRough = kthSmallest(triRoughness, Math.floor(triRoughness.length / 2)) || 1e-9;
   // Region roughness: area-weighted mean of each triangle's roughness relative to the

@@ -43,6 +43,10 @@ import type { ShaftAxis } from './shaft-axis';
  *   (thin-wall-crossing.ts): the outer surface crosses the whole wall, so this face is a break
  *   running along the wall, one face of a slab between two near-parallel breaks or a bevel
  *   left along the cavity (contextThinCrossingWeight);
+ * - towards fracture, for a region facing the axis and not concave, the share of its inward
+ *   rays that leave head-on through break regions facing out that the thin-crossing term reads
+ *   (beyond contextThinPartnerShareMin): its wall partner is the slab's outer break face, so it
+ *   is the slab's inner one (contextThinPartnerWeight; needs `exits`);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -69,6 +73,7 @@ export function settleFractureRegions(
     for (const id of order) {
       figures[id].originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture);
       figures[id].breakExitShare = breakExitShare(figures, id, exits[id], fracture, shaft, settings);
+      figures[id].thinPartnerShare = thinPartnerShare(figures, id, exits[id], fracture, shaft, settings);
       const f = first[id] + contextTerms(figures[id], shaft, settings) > settings.contextEvidenceMin;
       if (f !== fracture[id]) { fracture[id] = f; changed++; }
     }
@@ -77,6 +82,7 @@ export function settleFractureRegions(
   figures.forEach((r, id) => {
     r.originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture);
     r.breakExitShare = breakExitShare(figures, id, exits[id], fracture, shaft, settings);
+    r.thinPartnerShare = thinPartnerShare(figures, id, exits[id], fracture, shaft, settings);
   });
   return fracture;
 }
@@ -100,6 +106,24 @@ function breakExitShare(figures: RegionFigures[], id: number, exits: ReadonlyMap
   if (!exits || r.rays === 0) return 0;
   let n = 0;
   for (const [to, count] of exits) if (fracture[to] && inwardConvexity(figures[to], shaft, settings) > 0) n += count;
+  return n / r.rays;
+}
+
+/**
+ * Share of region `id`'s inward rays that leave head-on through regions taken for fracture that
+ * face out from the shaft axis and whose own rays cross a thin wall (the thin-crossing term's
+ * regions: thinCrossingShare beyond contextThinCrossingShareMin). The medullary surface's rays
+ * leave through the outer surface; when the face they leave through is the outer face of a slab
+ * between two near-parallel breaks, this region is the slab's inner break face.
+ */
+function thinPartnerShare(figures: RegionFigures[], id: number, exits: ReadonlyMap<number, number> | undefined, fracture: boolean[], shaft: boolean, settings: AnalysisSettings): number {
+  const r = figures[id];
+  if (!exits || r.rays === 0 || !shaft) return 0;
+  let n = 0;
+  for (const [to, count] of exits) {
+    const p = figures[to];
+    if (fracture[to] && p.radial >= settings.corticalRadialMin && p.thinCrossingShare > settings.contextThinCrossingShareMin) n += count;
+  }
   return n / r.rays;
 }
 
@@ -128,5 +152,6 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
     - settings.contextConcaveWeight * concave
     + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare
     + (shaft && r.radial >= min ? settings.contextThinCrossingWeight * Math.max(0, r.thinCrossingShare - settings.contextThinCrossingShareMin) : 0)
+    + (shaft && r.radial <= -min && r.meanCurvature >= -settings.contextThinPartnerConcaveMin ? settings.contextThinPartnerWeight * Math.max(0, r.thinPartnerShare - settings.contextThinPartnerShareMin) : 0)
     + (shaft && Math.abs(r.radial) >= min ? settings.contextBreakExitWeight * Math.max(0, r.breakExitShare - settings.contextBreakExitShareMin) : 0);
 }

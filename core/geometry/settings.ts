@@ -377,6 +377,31 @@ export const analysisSettingsSchema = z.object({
    * 100 mm and more away have support 0.56-0.64, s362 QS-10467, s15 QS-10937, s105 QS-10375).
    */
   contextThinCrossingSupportMin: z.number().min(0).max(1).default(0.65),
+  /**
+   * Weight (towards fracture) of the share of a region's inward rays that leave the bone head-on
+   * (headOnCosineMin) through regions taken for fracture that face out from the axis and whose
+   * own rays cross a thin wall (thinCrossingShare beyond contextThinCrossingShareMin: the regions
+   * the thin-crossing term reads), beyond `contextThinPartnerShareMin`, for regions facing the
+   * axis (mean radial component at most -corticalRadialMin, axis support at least 0.5) that are
+   * not concave (mean curvature at least -`contextThinPartnerConcaveMin`). The medullary surface's
+   * rays cross the wall to the outer surface; when the face they leave through is the outer
+   * break face of a slab between two near-parallel breaks, this region is the slab's inner break
+   * face (dev s398 QS-10286, s372 QS-10573: their inner faces read medullary after the
+   * thin-crossing term had found the outer ones). The pair of the break-exit term above, for
+   * slabs whose inner face is not convex; 60 as that one (tests/unit/geometry/region-thin-partner.test.ts).
+   * 0 switches it off.
+   */
+  contextThinPartnerWeight: z.number().min(0).default(60),
+  /** ...counted beyond this share of the region's rays (as contextBreakExitShareMin). */
+  contextThinPartnerShareMin: z.number().min(0).max(1).default(0.3),
+  /**
+   * ...and not for regions more concave than this (mean curvature under -this, 1/mm; as
+   * contextUncrossedInwardConcaveMin): the medullary surface curves inwards (-1/2r, do Carmo
+   * 1976), a slab's break face does not, so a true cavity patch lying behind a bevel that runs
+   * just off the cavity (dev s371 QS-10963, H -0.106/mm; s399 QS-10803, -0.035/mm) keeps its
+   * class. Without this gate those two read 98.6 -> 97.4 and 71.0 -> 60.2.
+   */
+  contextThinPartnerConcaveMin: z.number().min(0).default(0.03),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**

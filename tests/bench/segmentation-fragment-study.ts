@@ -44,7 +44,7 @@ console.table(a.regions.filter((r) => r.area > 20).map((r) => ({
   ev: +fractureEvidence(r, a.settings).toFixed(2), ctx: +contextTerms(r, a.axis.support >= 0.5, a.settings).toFixed(2),
   headOn: +r.headOnShare.toFixed(2), oHit: +r.outwardHitShare.toFixed(2), depth: +r.rayDepth.toFixed(1), sharp: +r.sharpBorderShare.toFixed(2), bOut: +r.outwardBorderShare.toFixed(2), bIn: +r.inwardBorderShare.toFixed(2),
   rough: +r.roughnessRatio.toFixed(2), curvd: +r.curvedness.toFixed(3), H: +r.meanCurvature.toFixed(3), radial: +r.radial.toFixed(2), axial: +r.axial.toFixed(2),
-  oCrease: +r.originalCreaseBorderShare.toFixed(2), bExit: +r.breakExitShare.toFixed(2), thin: +r.thinCrossingShare.toFixed(2),
+  oCrease: +r.originalCreaseBorderShare.toFixed(2), bExit: +r.breakExitShare.toFixed(2), thin: +r.thinCrossingShare.toFixed(2), tPart: +r.thinPartnerShare.toFixed(2),
   nb: [...nb[r.id].entries()].sort((x, y) => y[1] - x[1]).slice(0, 5).map(([k, v]) => `${k}:${v}`).join(' '),
 })));
 console.log('faces', a.fractureFaces.map((f) => `${f.id}:${f.area.toFixed(0)}mm2 ${f.angleClass} med${f.medianAngleDeg.toFixed(0)} n${f.anglesDeg.length}`).join(' | '));
