@@ -12,6 +12,7 @@ import { regionBorders } from './region-borders';
 import { settleFractureRegions } from './region-context';
 import { absorbSmallFractureRegions } from './small-faces';
 import { growRegions, mergeSmallRegions } from './regions';
+import { splitRegionsAtCreases } from './region-crease-split';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
@@ -135,6 +136,11 @@ export function analyseFragment(
     const facing = facingGroups(centroids, filtered, axis, settings.corticalRadialMin);
     let region = growRegions(topo.neighbours, filtered, settings.growAngleDeg, facing, ridges.ridge);
     region = mergeSmallRegions(region, topo.neighbours, areas, settings.minRegionAreaShare * area);
+    if (settings.regionSplitCreaseAngleDeg < 180) {
+      region = splitRegionsAtCreases(mesh, topo.neighbours, filtered, areas, centroids, rings, curvature.k1, curvature.k2, region, {
+        creaseAngleDeg: settings.regionSplitCreaseAngleDeg, gapMm: settings.regionSplitGapMm, curvatureWeight: settings.ridgeCurvatureWeight, minPieceArea: settings.regionSplitMinPieceAreaMm2, convexOnly: settings.regionSplitConvexOnly,
+      });
+    }
     let regionCount = 0;
     for (let f = 0; f < nt; f++) if (region[f] + 1 > regionCount) regionCount = region[f] + 1;
     const figures = regionFigures(region, regionCount, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin, settings.outwardFacingCosineMin, settings.outwardAxialMax, settings.outwardRadialMax);

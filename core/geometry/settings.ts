@@ -23,6 +23,24 @@ export const analysisSettingsSchema = z.object({
   ridgeGapMm: z.number().min(0).default(3),
   /** How strongly closing paths prefer bent surface: edge cost = length / (1 + weight |k| mean edge). */
   ridgeCurvatureWeight: z.number().min(0).default(10),
+  /**
+   * Regions split along soft creases (region-crease-split.ts): an edge inside a region whose
+   * filtered normals differ by more than this angle is a soft crease (180: off). A break meeting
+   * the bone surface at a shallow angle shares a region with it wherever part of the meeting
+   * line bends less than growAngleDeg.
+   */
+  regionSplitCreaseAngleDeg: z.number().positive().max(180).default(15),
+  /** Open ends of soft creases are joined to another crease or the region's border at most this far away (mm). */
+  regionSplitGapMm: z.number().min(0).default(4),
+  /** Each piece of a region split along soft creases keeps at least this area (mm²). */
+  regionSplitMinPieceAreaMm2: z.number().min(0).default(150),
+  /**
+   * Only convex edges are soft creases: where a break meets the bone surface of a solid the rim
+   * is convex, while creases inside a rough break face or a lobed cavity are as often concave
+   * (dev seeds 13, 16, 21: 2% of creases between break and bone surface concave, 24-33% of those
+   * inside bone surface).
+   */
+  regionSplitConvexOnly: z.boolean().default(true),
   /** Regions smaller than this share of the fragment's area are merged into a neighbour. */
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**

@@ -26,9 +26,10 @@ import { reliability, table } from './calibration';
 import { FEATURE_NAMES, SCORE_MODEL, scoreFeatures, scoreProbability, type ScoreComponents, type ScoreModel } from '../../core/geometry/registration/score-model';
 
 /** The score components a fixture keeps (ScoreComponents, in this order). */
-export const COMPONENT_FIELDS = ['contactFraction', 'contactFractionOther', 'contactAreaMm2', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngleDeg', 'axisSide', 'radiusRatio'] as const satisfies ReadonlyArray<keyof ScoreComponents>;
+export const COMPONENT_FIELDS = ['contactFraction', 'contactFractionOther', 'contactAreaMm2', 'gapRmsMm', 'contactGapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axesCompared', 'axisOffset', 'axisAngleDeg', 'axisSide', 'radiusRatio'] as const satisfies ReadonlyArray<keyof ScoreComponents>;
 
-export interface Motion { set: string; a: string; b: string; trueJoin: boolean; correct: boolean; score: number; components: Record<string, number> }
+/** `weight` (optional, default 1): how many motions this one stands for (a dump that sampled the other fragment pairs, worker-motion-dump.ts); the motion is counted that many times. */
+export interface Motion { set: string; a: string; b: string; trueJoin: boolean; correct: boolean; score: number; components: Record<string, number>; weight?: number }
 
 function solve(A: number[][], b: number[]): number[] {
   const n = b.length;
@@ -143,7 +144,7 @@ function main(): void {
   const fixture = fx >= 0 ? args.splice(fx, 2)[1] : undefined;
   const files = args;
   const setName = (s: string): string => s.split(/[\\/]/).pop()!;
-  const motions: Motion[] = files.flatMap((f) => JSON.parse(readFileSync(f, 'utf8')) as Motion[]);
+  const motions: Motion[] = files.flatMap((f) => JSON.parse(readFileSync(f, 'utf8')) as Motion[]).flatMap((m) => new Array<Motion>(Math.max(1, Math.round(m.weight ?? 1))).fill(m));
   const fitted = motions.filter((m) => !fitSets || fitSets.includes(setName(m.set)));
   const checked = motions.filter((m) => fitSets && !fitSets.includes(setName(m.set)));
   // inputs as the model in score-model.ts reads them (its interlock cap)

@@ -17,16 +17,13 @@
  * KNITBONE_STUDY_OUT=file.jsonl one record per studied join, KNITBONE_STUDY_WHOLE whole faces added per face
  * (candidate-index.ts `wholeFacePartners`, default WHOLE_FACE_PARTNERS; 0: none).
  */
-import { appendFileSync, existsSync, readFileSync, readdirSync } from 'node:fs';
+import { appendFileSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { candidateFacePairs, sizeClassCompatible, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
+import { WHOLE_FACE_PARTNERS } from '../../core/geometry/proposals/candidate-index';
 import { DEFAULT_MATCH_PARAMETERS, matchFragments, refineFacePair, screenFacePair, type MatchParameters, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
-import { assemblePrepared, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
-import { readFragment, readPrepared } from '../../core/jobs/fragment-cache';
-import { sizeClassesFromCsv } from './candidate-recall';
-import type { StudyFragment } from './candidate-study';
 import { isCorrectMotion } from './correct-motion';
+import { readStudiedFolder } from './studied-folder';
 
 interface Join { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 const [dirs, extra] = process.argv.slice(2);
@@ -39,18 +36,7 @@ const tally = new Map<string, number>();
 let cpuMatch = 0, cpuStudy = 0, studiedJoins = 0;
 for (const dir of dirs.split(',')) {
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { joins: Join[] };
-  const study = readdirSync(join(dir, 'candidate-study')).filter((f) => f.endsWith('.json'))
-    .map((f) => JSON.parse(readFileSync(join(dir, 'candidate-study', f), 'utf8')) as StudyFragment)
-    .filter((f) => f.faces.length > 0);
-  const spacing = study[0].spacing;
-  const fragOf = new Map(study.map((f, i) => [f.no, i]));
-  const faces: IndexedFace[] = [];
-  study.forEach((f, i) => f.faces.forEach((x, face) => faces.push({ fragment: i, face, whole: f.faces.findIndex((y) => y.parent === x.parent), traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } })));
-  const classes = existsSync(join(dir, 'specimens.csv')) ? sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8')) : undefined;
-  const compatible = classes ? sizeClassCompatible(study.map((f) => classes.get(f.no) ?? null)) : undefined;
-  const candidates = candidateFacePairs(faces, { k: K, wholeFacePartners: WHOLE, ...(compatible ? { compatible } : {}) });
-  const pairsOf = new Map<string, Array<[number, number]>>();
-  for (const c of candidates) pairsOf.set(`${c.a}:${c.b}`, [...(pairsOf.get(`${c.a}:${c.b}`) ?? []), [c.faceA, c.faceB]]);
+  const { study, fragOf, pairsOf, prep } = readStudiedFolder(dir, { k: K, wholeFacePartners: WHOLE });
   // KNITBONE_STUDY_EXPAND=whole: each candidate's pieces and patches paired with the other's whole face too; siblings: with every part of the other's face
   const expand = process.env.KNITBONE_STUDY_EXPAND;
   let before = 0, after = 0;
@@ -71,20 +57,7 @@ for (const dir of dirs.split(',')) {
     }
     after += list.length;
   }
-  console.log(`${dir}: candidate face pairs ${before} -> ${after} (${expand ?? 'no expansion'}; whole faces added per face ${WHOLE}: ${candidates.filter((c) => c.a >= 0).length} face pairs)`);
-  const cache = join(dir, 'candidate-cache');
-  const prepared = new Map<number, PreparedFragment>();
-  const prep = (i: number): PreparedFragment => {
-    let p = prepared.get(i);
-    if (!p) {
-      const no = study[i].no;
-      const c = readFragment(cache, no), parts = readPrepared(cache, no, { spacing, fpfhRadiusSpacings: 5 });
-      if (!c || !parts) throw new Error(`${no}: not in ${cache}`);
-      p = assemblePrepared(c.input, parts);
-      prepared.set(i, p);
-    }
-    return p;
-  };
+  console.log(`${dir}: candidate face pairs ${before} -> ${after} (${expand ?? 'no expansion'}; whole faces added per face ${WHOLE}: ${before} face pairs)`);
   const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && fragOf.has(j.a) && fragOf.has(j.b));
   for (const j of eligible) {
     if (only && !only.includes(`${j.a}|${j.b}`)) continue;

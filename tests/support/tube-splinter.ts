@@ -42,6 +42,12 @@ export interface SplitOptions {
   length?: number;
   /** Keep only the half z < 0 of the splinter (cut across at z = 0): it meets half of each break. */
   halveSplinter?: boolean;
+  /**
+   * Chips taken out of the splinter only (balls centred on the rough break at (x, relief, z)),
+   * as post-depositional damage takes material from one side of a break: the shaft's break face
+   * then faces a pit there. The pits' surfaces are not break (label 0).
+   */
+  chips?: Array<{ x: number; z: number; radius: number }>;
 }
 
 export async function splitTube(options: SplitOptions = {}): Promise<{ shaft: SplitPiece; splinter: SplitPiece }> {
@@ -62,13 +68,15 @@ export async function splitTube(options: SplitOptions = {}): Promise<{ shaft: Sp
     if (Math.abs(v[1]) < 1e-6 && v[0] > 2.9) v[1] = splitRelief(v[0], v[2]);
   });
   const [inside, outside] = fineTube.split(cutter);
-  const [upperHalf, lowerHalf] = options.halveSplinter ? inside.splitByPlane([0, 0, 1], 0) : [inside, inside];
+  const [upperHalf, lowerHalf0] = options.halveSplinter ? inside.splitByPlane([0, 0, 1], 0) : [inside, inside];
+  const balls = (options.chips ?? []).map((c) => Manifold.sphere(c.radius, 48).translate([c.x, splitRelief(c.x, c.z), c.z]));
+  const lowerHalf = balls.length ? lowerHalf0.subtract(Manifold.union(balls)) : lowerHalf0;
   const rand = mulberry32(options.seed ?? 7);
   const noise = options.noise ?? 0.02;
   const shape = { R, r, L, halved: options.halveSplinter ?? false };
   const splinter = toPiece(lowerHalf.getMesh(), rand, noise, shape);
   const shaft = toPiece(outside.getMesh(), rand, noise, { ...shape, halved: false });
-  for (const o of new Set([outer, inner, tube, fineTube, section, wedge, fineWedge, cutter, inside, outside, upperHalf, lowerHalf])) o.delete();
+  for (const o of new Set([outer, inner, tube, fineTube, section, wedge, fineWedge, cutter, inside, outside, upperHalf, lowerHalf0, lowerHalf, ...balls])) o.delete();
   return { shaft, splinter };
 }
 

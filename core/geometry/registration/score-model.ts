@@ -20,6 +20,13 @@ export interface ScoreComponents {
   contactAreaMm2: number;
   /** RMS distance (mm) between the faces where they face each other within 3 tolerances. */
   gapRmsMm: number;
+  /**
+   * RMS distance (mm) of the samples in contact (within `contactTolerance`, opposed normals),
+   * both sides together; the tolerance itself when none are. How tight the faces fit where they
+   * touch: unlike gapRmsMm it does not read the margin of a partial contact (a chipped or eroded
+   * rim, a break face that meets the partner over part of its area), where the faces part.
+   */
+  contactGapRmsMm: number;
   /** Depth (mm) that the deepest 2% of one piece's surface samples reach inside the other. */
   penetrationMm: number;
   /** Share of outline samples that meet the other face's outline within 2 tolerances (better side). */
@@ -42,7 +49,7 @@ export interface ScoreComponents {
   radiusRatio: number;
 }
 
-export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'sqrtContactFractionOther', 'logContactArea', 'gapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axisAngle', 'axisSideMismatch'] as const;
+export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'sqrtContactFractionOther', 'logContactArea', 'gapRmsMm', 'contactGapRmsMm', 'penetrationMm', 'outlineAgreement', 'interlock', 'axisAngle', 'axisSideMismatch'] as const;
 
 /**
  * The model's inputs, in FEATURE_NAMES order (penetration and interlock capped where they stop
@@ -53,7 +60,11 @@ export const FEATURE_NAMES = ['contactFraction', 'contactFractionOther', 'sqrtCo
  * small face). Since method /8,
  * with the root and the interlock capped at 0.2 (was 0.1): fitted on dev seeds 11-15 and checked
  * on 16 and 21, Brier 0.0098 -> 0.0087 against the same fit without them
- * (tests/bench/score-feature-study.ts).
+ * (tests/bench/score-feature-study.ts). Since session 20 the contact gap as well (the RMS
+ * distance of the samples in contact only): the band RMS gap reads the margin of a partial
+ * contact (chipped or eroded rims, a face meeting its partner over part of its area), and put
+ * true joins with small contacts among the wrong motions; fitted, the contact gap takes the
+ * gap's weight (DEVELOPERS.md, join proposals).
  */
 export function scoreFeatures(c: ScoreComponents, model: Pick<ScoreModel, 'interlockCap'> = SCORE_MODEL): number[] {
   return [
@@ -62,6 +73,7 @@ export function scoreFeatures(c: ScoreComponents, model: Pick<ScoreModel, 'inter
     Math.sqrt(Math.max(0, c.contactFractionOther)),
     Math.log1p(Math.max(0, c.contactAreaMm2)),
     Math.min(c.gapRmsMm, 3),
+    Math.min(c.contactGapRmsMm, 3),
     Math.min(c.penetrationMm, 3),
     c.outlineAgreement,
     Math.min(c.interlock, model.interlockCap),
@@ -96,10 +108,10 @@ export interface ScoreModel {
 
 export const SCORE_MODEL: ScoreModel = {
   methodVersion: 'axis-direction-fpfh-ransac-pair-vote-icp/8',
-  fittedOn: 'knitbone demo, dev seed 340 at 200 fragments (scanner spacing 1.0 mm, run spacing 1.2 mm), session 17: 26078 motions (ranks 1-5 of every candidate fragment pair at k 30 and every face pair of the true joins, each face pair through its own fine step, the best 3 of each fragment pair polished from the other side), 277 correct (within 5 degrees and 5 mm); five folds by fragment pair: Brier 0.00371 against 0.00452 for the fit of method /8 (seeds 11-15 at 30 fragments), above 0.8 139/145 correct against 117/128; on the 30-fragment checked seeds 16 and 21 (tests/support/score-motions-checked.json) Brier 0.0209 against 0.0230, above 0.8 33/34 against 31/32',
+  fittedOn: 'knitbone demo, dev seed 340 at 200 fragments (scanner spacing 1.0 mm, run spacing 1.2 mm), session 20, with the contact gap (contactGapRmsMm) as an input: the motions a propose worker returns (matchFragments, best 5 of each fragment pair, polished; tests/bench/worker-motion-dump.ts) on every true candidate fragment pair and a third of the others (each of those counted 3 times), 1,734 fragment pairs, 7,024 motions (19,018 counted), 176 correct (within 5 degrees and 5 mm); five folds by fragment pair: Brier 0.00206 against 0.00290 for the session-17 fit (0.00311 refitting its inputs alone), above 0.8 129/133 correct against 100/104, true pairs whose correct motion is first in its pair and scores at least 0.05: 148 against 140 of 154',
   interlockCap: 0.2,
-  intercept: -5.2818,
-  slopes: { contactFraction: 1.2524, contactFractionOther: 6.3137, sqrtContactFractionOther: -12.586, logContactArea: 1.7719, gapRmsMm: -37.651, penetrationMm: -0.6589, outlineAgreement: 2.9225, interlock: 32.2803, axisAngle: -1.08, axisSideMismatch: -0.3959 },
+  intercept: -6.8092,
+  slopes: { contactFraction: -0.1955, contactFractionOther: 0.9419, sqrtContactFractionOther: 0.4458, logContactArea: 1.8664, gapRmsMm: -2.2535, contactGapRmsMm: -104.3626, penetrationMm: -0.7359, outlineAgreement: 4.1974, interlock: 33.8104, axisAngle: -1.52, axisSideMismatch: -1.0986 },
 };
 
 /**

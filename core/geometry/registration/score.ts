@@ -78,11 +78,13 @@ export function deferredScore(a: ScoredSide, b: ScoredSide, transform: RigidTran
   const contactFractionOther = Math.min(ca.share, cb.share);
   const gapSum = ca.gapSum + cb.gapSum, gapN = ca.gapN + cb.gapN;
   const gapRmsMm = gapN > 0 ? Math.sqrt(gapSum / gapN) : 3 * tol;
+  const contactN = ca.contactN + cb.contactN;
+  const contactGapRmsMm = contactN > 0 ? Math.sqrt((ca.contactSum + cb.contactSum) / contactN) : tol;
   const outlineAgreement = outlineMeeting(a.outline, applyToPoints(transform, b.outline), 2 * tol);
   const spacing = options.spacing ?? tol / 0.4;
   const contactAreaMm2 = Math.min(ca.share * (a.facePoints.length / 3), cb.share * (b.facePoints.length / 3)) * spacing * spacing;
   const axes = axisAgreement(a.axis, b.axis, transform, bFaceInA);
-  const withPenetration = (penetrationMm: number): ScoreComponents => ({ contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes });
+  const withPenetration = (penetrationMm: number): ScoreComponents => ({ contactFraction, contactFractionOther, contactAreaMm2, gapRmsMm, contactGapRmsMm, penetrationMm, outlineAgreement, interlock, ...axes });
   return {
     // the model is linear in the capped interpenetration (0 to 3 mm, score-model.ts): its best is at an end
     upper: Math.max(scoreProbability(withPenetration(0)), scoreProbability(withPenetration(3))),
@@ -178,13 +180,14 @@ function interlockOf(points: ArrayLike<number>, normals: ArrayLike<number>, kept
 
 /**
  * Share of face samples within `tol` of the other surface with opposed normals, the squared gaps
- * of those within 3 tol, and (for the interlock) every sample within `tol` whatever its normal.
+ * of those within 3 tol and of those in contact, and (for the interlock) every sample within
+ * `tol` whatever its normal.
  */
-function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): { share: number; gapSum: number; gapN: number; touching: number[] } {
+function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, surface: TargetSurface, tol: number): { share: number; gapSum: number; gapN: number; contactSum: number; contactN: number; touching: number[] } {
   const n = points.length / 3;
   const touching: number[] = [];
-  if (n === 0) return { share: 0, gapSum: 0, gapN: 0, touching };
-  let inContact = 0, gapSum = 0, gapN = 0;
+  if (n === 0) return { share: 0, gapSum: 0, gapN: 0, contactSum: 0, contactN: 0, touching };
+  let inContact = 0, gapSum = 0, gapN = 0, contactSum = 0;
   const cp = {} as ClosestPoint;
   for (let i = 0; i < n; i++) {
     const hit = surface.closest(points[3 * i], points[3 * i + 1], points[3 * i + 2], 3 * tol, cp);
@@ -194,9 +197,12 @@ function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, sur
     if (c > -0.5) continue;
     gapSum += hit.distance * hit.distance;
     gapN++;
-    if (hit.distance <= tol) inContact++;
+    if (hit.distance <= tol) {
+      inContact++;
+      contactSum += hit.distance * hit.distance;
+    }
   }
-  return { share: inContact / n, gapSum, gapN, touching };
+  return { share: inContact / n, gapSum, gapN, contactSum, contactN: inContact, touching };
 }
 
 /**

@@ -16,7 +16,7 @@ import { deferredScore, scoreJoin, type JoinScore } from '../../../../core/geome
 import { applyToPoints, compose, rotationAboutAxis, transformFrom } from '../../../../core/geometry/registration/rigid-transform';
 
 const components = (score: number, contactFraction: number): JoinScore => ({
-  score, contactFraction, contactFractionOther: 0, contactAreaMm2: 0, gapRmsMm: 0, penetrationMm: 0, outlineAgreement: 0, interlock: 0,
+  score, contactFraction, contactFractionOther: 0, contactAreaMm2: 0, gapRmsMm: 0, contactGapRmsMm: 0, penetrationMm: 0, outlineAgreement: 0, interlock: 0,
   axesCompared: 0, axisOffset: 0, axisAngleDeg: 0, axisSide: 1, radiusRatio: 1,
 });
 

@@ -21,7 +21,7 @@ const METHOD_7_FIT: ScoreModel = {
   fittedOn: 'dev seeds 11-15',
   interlockCap: 0.1,
   intercept: -6.3928,
-  slopes: { contactFraction: -0.8664, contactFractionOther: -1.7292, sqrtContactFractionOther: 0, logContactArea: 1.0481, gapRmsMm: -30.9317, penetrationMm: -0.6512, outlineAgreement: 4.8316, interlock: 48.2222, axisAngle: -3.0803, axisSideMismatch: -4.4996 },
+  slopes: { contactFraction: -0.8664, contactFractionOther: -1.7292, sqrtContactFractionOther: 0, logContactArea: 1.0481, gapRmsMm: -30.9317, contactGapRmsMm: 0, penetrationMm: -0.6512, outlineAgreement: 4.8316, interlock: 48.2222, axisAngle: -3.0803, axisSideMismatch: -4.4996 },
 };
 
 const brier = (model: ScoreModel): number => motions.reduce((s, m) => s + (scoreProbability(m.components, model) - (m.correct ? 1 : 0)) ** 2, 0) / motions.length;
