@@ -69,6 +69,50 @@ export function unionRecall(p: Parts, C: Float32Array, k: number): { recall: num
   return { recall: hit / s.reachable, pairs };
 }
 
+/**
+ * Coordinate search over the cost parameters: each round tries, for each figure in turn (and the
+ * texture weight), its weight x0, x0.5, x0.7, x1.4, x2 (0.5, 1, 2 when it is 0) and its scale
+ * x0.5, x2, keeping any change that raises `score`; prints each step.
+ */
+export function coordinateSearch(start: CostParameters, score: (q: CostParameters) => number, rounds: number): CostParameters {
+  let best = start, bestScore = score(best);
+  const copy = (q: CostParameters): CostParameters => ({ w: [...q.w], sc: [...q.sc], tw: q.tw });
+  for (let round = 0; round < rounds; round++) {
+    for (let c = 0; c <= best.w.length; c++) {
+      const tries: CostParameters[] = [];
+      const w0 = c < best.w.length ? best.w[c] : best.tw;
+      for (const m of w0 === 0 ? [0.5, 1, 2] : [0, 0.5, 0.7, 1.4, 2]) {
+        const q = copy(best);
+        if (c < q.w.length) q.w[c] = w0 === 0 ? m : w0 * m;
+        else q.tw = w0 * m;
+        tries.push(q);
+      }
+      if (c < best.w.length && best.w[c] > 0) for (const m of [0.5, 2]) { const q = copy(best); q.sc[c] *= m; tries.push(q); }
+      for (const q of tries) {
+        const v = score(q);
+        if (v > bestScore + 1e-9) {
+          best = q;
+          bestScore = v;
+          console.log(`  round ${round + 1}, ${c < best.w.length ? DESCRIPTOR_FIGURES[c].name : 'texture'}: ${(100 * v).toFixed(2)}% ${JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) })}`);
+        }
+      }
+    }
+  }
+  return best;
+}
+
+/** The command lines' end: report the given parameters (CANDIDATE_WEIGHTS), or fit from `current` and report and print the fit. */
+export function fitOrReport(current: CostParameters, score: (q: CostParameters) => number, report: (q: CostParameters, label: string) => void, rounds: number): void {
+  report(current, 'current');
+  if (process.env.CANDIDATE_WEIGHTS) {
+    report(JSON.parse(process.env.CANDIDATE_WEIGHTS) as CostParameters, 'given');
+    return;
+  }
+  const best = coordinateSearch(current, score, rounds);
+  report(best, 'fitted');
+  console.log(JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) }));
+}
+
 if (process.argv[1]?.endsWith('candidate-weights.ts')) {
   const dirs = process.argv[2].split(',');
   const rounds = Number(process.argv[3] ?? 2);
@@ -87,35 +131,5 @@ if (process.argv[1]?.endsWith('candidate-weights.ts')) {
     const a = unionRecall(p, C, 30), b = unionRecall(p, C, 60);
     console.log(`${label} ${dirs[i]}: ${p.n} faces, ${p.s.reachable} reachable joins; k 30: ${(100 * a.recall).toFixed(1)}% (${(a.pairs / p.n).toFixed(1)} pairs/face), k 60: ${(100 * b.recall).toFixed(1)}% (${(b.pairs / p.n).toFixed(1)} pairs/face)`);
   });
-  report(current, 'current');
-  if (process.env.CANDIDATE_WEIGHTS) {
-    report(JSON.parse(process.env.CANDIDATE_WEIGHTS) as CostParameters, 'given');
-  } else {
-    let best = current, bestScore = score(best);
-    const copy = (q: CostParameters): CostParameters => ({ w: [...q.w], sc: [...q.sc], tw: q.tw });
-    for (let round = 0; round < rounds; round++) {
-      for (let c = 0; c <= best.w.length; c++) {
-        const tries: CostParameters[] = [];
-        const w0 = c < best.w.length ? best.w[c] : best.tw;
-        for (const m of w0 === 0 ? [0.5, 1, 2] : [0, 0.5, 0.7, 1.4, 2]) {
-          const q = copy(best);
-          if (c < q.w.length) q.w[c] = w0 === 0 ? m : w0 * m;
-          else q.tw = w0 * m;
-          tries.push(q);
-        }
-        if (c < best.w.length && best.w[c] > 0) for (const m of [0.5, 2]) { const q = copy(best); q.sc[c] *= m; tries.push(q); }
-        const base = best;
-        for (const q of tries) {
-          const v = score(q);
-          if (v > bestScore + 1e-9) {
-            best = q;
-            bestScore = v;
-            console.log(`  round ${round + 1}, ${c < base.w.length ? DESCRIPTOR_FIGURES[c].name : 'texture'}: ${(100 * v).toFixed(2)}% ${JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) })}`);
-          }
-        }
-      }
-    }
-    report(best, 'fitted');
-    console.log(JSON.stringify({ w: best.w, sc: best.sc.map((x) => +x.toFixed(4)), tw: +best.tw.toFixed(4) }));
-  }
+  fitOrReport(current, score, report, rounds);
 }

@@ -46,6 +46,13 @@
  * of the circumference and cortical thickness less or nothing (the rim wall says the same about
  * the wall as the cortical thickness: on seed 340 the median difference between two random faces
  * is 7.4 times that between true partners for the rim wall, 1.7 times for the cortical thickness).
+ * At 1,000 fragments the lists crowd (a true partner's median best rank 21 there, 3 at 200), and
+ * a partial round of the same search on the dev assemblage of seed 160 at 1,000 fragments
+ * (tests/bench/candidate-weights-rows.ts, the five figures it reached before the machine time
+ * ran out) compares area and the largest extent on half the scales (0.51, 0.0775), weighs the
+ * relief of the face across its own plane (log extent 3) twice as much (4) and the second
+ * normal scatter half as much (0.7): there the figures of size and relief tell the many
+ * look-alike faces apart better than the bend of the normals (DEVELOPERS.md, pruning section).
  */
 import { FPFH_DIM } from '../registration/fpfh';
 import { mirrorFpfh } from '../registration/ransac-alignment';
@@ -58,12 +65,12 @@ import { principalSpread, type FaceTraits } from './face-traits';
  * of their values, not the difference.
  */
 export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number; opposite?: boolean }> = [
-  { name: 'log area', scale: 1.02, weight: 0.35 },
-  { name: 'log extent 1', scale: 0.155, weight: 0.7 },
+  { name: 'log area', scale: 0.51, weight: 0.35 },
+  { name: 'log extent 1', scale: 0.0775, weight: 0.7 },
   { name: 'log extent 2', scale: 0.35, weight: 0 },
-  { name: 'log extent 3', scale: 0.63, weight: 2 },
+  { name: 'log extent 3', scale: 0.63, weight: 4 },
   { name: 'normal scatter 1', scale: 0.077, weight: 1 },
-  { name: 'normal scatter 2', scale: 0.055, weight: 1.4 },
+  { name: 'normal scatter 2', scale: 0.055, weight: 0.7 },
   { name: 'log outer radius', scale: 0.17, weight: 0 },
   { name: 'log inner radius', scale: 0.19, weight: 0 },
   { name: 'log cortical thickness', scale: 0.19, weight: 0 },
