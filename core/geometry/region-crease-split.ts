@@ -1,7 +1,7 @@
 import type { VertexRings } from './adjacency';
 import { hypot } from './hypot';
 import type { TriangleMesh } from './mesh';
-import { MinHeap } from './min-heap';
+import { cheapestClosingPath, createClosingPathSpace, vertexBendOf } from './curvature-closing-path';
 import { growRegions, mergeSmallRegions } from './regions';
 
 export interface RegionCreaseSplitOptions {
@@ -9,7 +9,7 @@ export interface RegionCreaseSplitOptions {
   creaseAngleDeg: number;
   /** Open ends of soft creases are joined to another crease or to the region's border at most this far away (mm). */
   gapMm: number;
-  /** Edge cost of a closing path = length / (1 + weight x bend x mean edge), as in ridges.ts. */
+  /** Edge cost of a closing path = length / (1 + weight x bend x mean edge) (curvature-closing-path.ts). */
   curvatureWeight: number;
   /** Each piece of a split keeps at least this area (mm²); smaller pieces rejoin a neighbour piece. */
   minPieceArea: number;
@@ -85,10 +85,8 @@ export function splitRegionsAtCreases(
   // Work space, reset per region through the touched lists.
   const stamp = new Int32Array(nv).fill(-1);
   const border = new Uint8Array(nv), degree = new Uint16Array(nv), parent = new Int32Array(nv);
-  const dist = new Float64Array(nv).fill(Infinity);
-  const prev = new Int32Array(nv).fill(-1);
-  const heap = new MinHeap();
-  const touched: number[] = [];
+  const closing = { positions: p, rings, vertexBend: vertexBendOf(k1, k2), meanEdge };
+  const space = createClosingPathSpace(nv);
   const find = (x: number): number => {
     while (parent[x] !== x) { parent[x] = parent[parent[x]]; x = parent[x]; }
     return x;
@@ -121,37 +119,10 @@ export function splitRegionsAtCreases(
     for (const s of verts) {
       if (degree[s] !== 1 || border[s]) continue;
       const own = find(s);
-      heap.clear();
-      dist[s] = 0;
-      touched.push(s);
-      heap.push(s, 0);
-      let target = -1;
-      while (heap.size > 0) {
-        const v = heap.pop(), d = heap.lastKey;
-        if (d > dist[v]) continue;
-        if (v !== s && (border[v] || degree[v] > 0) && find(v) !== own) { target = v; break; }
-        const bv = Math.max(Math.abs(k1[v]), Math.abs(k2[v]));
-        for (let i = rings.start[v]; i < rings.start[v + 1]; i++) {
-          const w = rings.list[i];
-          if (stamp[w] !== r) continue;
-          if (hypot(p[3 * s] - p[3 * w], p[3 * s + 1] - p[3 * w + 1], p[3 * s + 2] - p[3 * w + 2]) > options.gapMm) continue;
-          const len = hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
-          const bend = Math.max(bv, Math.abs(k1[w]), Math.abs(k2[w]));
-          const nd = d + len / (1 + options.curvatureWeight * bend * meanEdge);
-          if (nd < dist[w]) {
-            if (dist[w] === Infinity) touched.push(w);
-            dist[w] = nd;
-            prev[w] = v;
-            heap.push(w, nd);
-          }
-        }
-      }
-      if (target >= 0) {
-        for (let v = target; v !== s; v = prev[v]) barrier.add(Math.min(prev[v], v) * nv + Math.max(prev[v], v));
-      }
-      for (const v of touched) { dist[v] = Infinity; prev[v] = -1; }
-      touched.length = 0;
+      const target = cheapestClosingPath(closing, s, options.gapMm, options.curvatureWeight,
+        (v) => (border[v] === 1 || degree[v] > 0) && find(v) !== own, (w) => stamp[w] === r, space);
       if (target < 0) continue;
+      for (let v = target; v !== s; v = space.prev[v]) barrier.add(Math.min(space.prev[v], v) * nv + Math.max(space.prev[v], v));
       const rt = find(target), rs = find(s);
       if (rt !== rs) parent[rs] = rt;
     }

@@ -1,16 +1,15 @@
 import type { VertexRings } from './adjacency';
 import type { TriangleMesh } from './mesh';
 import { hypot } from './hypot';
-import { MinHeap } from './min-heap';
+import { cheapestClosingPath, createClosingPathSpace, vertexBendOf } from './curvature-closing-path';
 
 /**
  * Ridges: mesh edges where the filtered normals of the two triangles differ by more than a
  * threshold angle (the crease where a break meets the bone surface). Worn or chipped edges
  * leave gaps in them; each open end of a ridge is joined to the nearest vertex of another
  * ridge within a search radius by the cheapest path over mesh edges, where an edge costs
- * its length divided by (1 + weight x |largest principal curvature| x mean edge length):
- * paths prefer to run along sharp, strongly bent parts of the surface (the minimal-path
- * closing of feature lines, cf. Kimmel & Sethian 1998 geodesics with a curvature metric).
+ * its length divided by (1 + weight x |largest principal curvature| x mean edge length)
+ * (curvature-closing-path.ts: paths prefer sharp, strongly bent parts of the surface).
  * The ends are found from the ridges themselves: no points are placed by hand.
  *
  * Returns one flag per half-edge (3 f + i, edge i of triangle f): 1 when it lies on a ridge.
@@ -67,48 +66,18 @@ export function detectAndCloseRidges(
   const markEdge = (a: number, b: number): void => {
     pending.push(a, b);
   };
-  // Dijkstra from each open end.
-  // The larger principal curvature's magnitude at each vertex: a path is cheaper where the surface bends.
-  const vertexBend = new Float64Array(nv);
-  for (let v = 0; v < nv; v++) vertexBend[v] = Math.max(Math.abs(k1[v]), Math.abs(k2[v]));
-  const dist = new Float64Array(nv).fill(Infinity);
-  const prev = new Int32Array(nv).fill(-1);
-  const touched: number[] = [];
+  // The cheapest closing path from each open end to another ridge line.
+  const closing = { positions: p, rings, vertexBend: vertexBendOf(k1, k2), meanEdge };
+  const space = createClosingPathSpace(nv);
   let closingPaths = 0;
-  const heap = new MinHeap();
   for (let s = 0; s < nv; s++) {
     if (degree[s] !== 1) continue;
     const own = find(s);
-    for (const v of touched) { dist[v] = Infinity; prev[v] = -1; }
-    touched.length = 0;
-    heap.clear();
-    dist[s] = 0;
-    touched.push(s);
-    heap.push(s, 0);
-    let target = -1;
-    while (heap.size > 0) {
-      const v = heap.pop(), d = heap.lastKey;
-      if (d > dist[v]) continue;
-      if (v !== s && degree[v] > 0 && find(v) !== own) { target = v; break; }
-      for (let i = rings.start[v]; i < rings.start[v + 1]; i++) {
-        const w = rings.list[i];
-        // Euclidean reach limit keeps the search local.
-        const reach = hypot(p[3 * s] - p[3 * w], p[3 * s + 1] - p[3 * w + 1], p[3 * s + 2] - p[3 * w + 2]);
-        if (reach > settings.ridgeGapMm) continue;
-        const len = hypot(p[3 * v] - p[3 * w], p[3 * v + 1] - p[3 * w + 1], p[3 * v + 2] - p[3 * w + 2]);
-        const bend = Math.max(vertexBend[v], vertexBend[w]);
-        const nd = d + len / (1 + settings.ridgeCurvatureWeight * bend * meanEdge);
-        if (nd < dist[w]) {
-          if (dist[w] === Infinity) touched.push(w);
-          dist[w] = nd;
-          prev[w] = v;
-          heap.push(w, nd);
-        }
-      }
-    }
+    const target = cheapestClosingPath(closing, s, settings.ridgeGapMm, settings.ridgeCurvatureWeight,
+      (v) => degree[v] > 0 && find(v) !== own, null, space);
     if (target < 0) continue;
     closingPaths++;
-    for (let v = target; prev[v] >= 0; v = prev[v]) markEdge(prev[v], v);
+    for (let v = target; space.prev[v] >= 0; v = space.prev[v]) markEdge(space.prev[v], v);
     parent[find(s)] = find(target);
   }
   // Mark the half-edges of the closing paths.
