@@ -172,7 +172,7 @@ export function analyseFragment(
     );
     // Flake scars split off the regions read medullary (flake-scar-split.ts), as breaks.
     if (settings.flakeScarDepthRatio > 0 && axis.support >= settings.flakeScarSupportMin) {
-      const scar = splitFlakeScars(region, regionCount, (r) => programClasses[r] === 'medullary', (r) => programClasses[r] === 'outer-cortical' || programClasses[r] === 'articular', topo.neighbours, filtered, areas, triMean, rays, {
+      const scar = splitFlakeScars(region, regionCount, (r) => programClasses[r] === 'medullary', (r) => programClasses[r] === 'outer-cortical' || programClasses[r] === 'articular', (f) => facing[f] === 2, topo.neighbours, filtered, areas, triMean, rays, {
         depthRatio: settings.flakeScarDepthRatio, referenceQuantile: settings.flakeScarReferenceQuantile, minPieceArea: settings.flakeScarMinPieceAreaMm2,
         concaveMin: settings.flakeScarConcaveMin, headOnCosineMin: settings.headOnCosineMin, minRays: settings.flakeScarMinRays,
         wallShareMin: settings.flakeScarWallShareMin, wallDepth,

@@ -39,7 +39,8 @@ export interface FlakeScarOptions {
  * piece of `minPieceArea` beside it, the reference depth is at least `wallShareMin` of the
  * fragment's typical wall depth (a region of thin wall all over is a slab or a cavity patch
  * under a break on the outer side, the thin-crossing terms' kind, region-context.ts), and the
- * shallow piece is not concave (a true cavity patch whose rays leave
+ * shallow piece faces the shaft axis over most of its area (as the cavity wall it runs along;
+ * a region read medullary by its concavity alone may face neither way) and is not concave (a true cavity patch whose rays leave
  * early through a thin bevel over it curves inwards).
  *
  * Returns the region of every triangle, scars under new ids from `regionCount` on (other ids
@@ -50,6 +51,8 @@ export function splitFlakeScars(
   regionCount: number,
   medullary: (region: number) => boolean,
   outer: (region: number) => boolean,
+  /** Per triangle, whether it faces the shaft axis (shaft-axis.ts facingGroups: 2). */
+  facingAxis: (triangle: number) => boolean,
   neighbours: Int32Array,
   normals: Float32Array,
   areas: Float64Array,
@@ -90,12 +93,14 @@ export function splitFlakeScars(
   // Labels: 1 shallow, 0 deep, spread to unlabelled triangles of the region (breadth first).
   const label = new Int8Array(nt).fill(-1);
   const queue = new Int32Array(nt);
-  let head = 0, tail = 0;
+  let head = 0, tail = 0, shallowAny = false;
   for (let f = 0; f < nt; f++) {
     if (!candidate[region[f]] || rayOf[f] < 0) continue;
     label[f] = rays.distance[rayOf[f]] < limit[region[f]] ? 1 : 0;
+    if (label[f] === 1) shallowAny = true;
     queue[tail++] = f;
   }
+  if (!shallowAny) return { region: out, scars: 0 };
   while (head < tail) {
     const f = queue[head++];
     for (let j = 0; j < 3; j++) {
@@ -119,12 +124,13 @@ export function splitFlakeScars(
   const piece = mergeSmallRegions(growRegions(inner, normals, 180, undefined, barrier), inner, areas, options.minPieceArea);
   let pieces = 0;
   for (let f = 0; f < nt; f++) if (piece[f] + 1 > pieces) pieces = piece[f] + 1;
-  const area = new Float64Array(pieces), shallow = new Float64Array(pieces), curvature = new Float64Array(pieces), pieceRegion = new Int32Array(pieces);
+  const area = new Float64Array(pieces), shallow = new Float64Array(pieces), curvature = new Float64Array(pieces), inward = new Float64Array(pieces), pieceRegion = new Int32Array(pieces);
   for (let f = 0; f < nt; f++) {
     const q = piece[f];
     area[q] += areas[f];
     curvature[q] += areas[f] * triMeanCurvature[f];
     if (label[f] === 1) shallow[q] += areas[f];
+    if (facingAxis(f)) inward[q] += areas[f];
     pieceRegion[q] = region[f];
   }
   const hasDeep = new Uint8Array(regionCount);
@@ -134,7 +140,7 @@ export function splitFlakeScars(
   for (let q = 0; q < pieces; q++) {
     const r = pieceRegion[q];
     if (!candidate[r] || !hasDeep[r] || area[q] < options.minPieceArea || shallow[q] <= 0.5 * area[q]) continue;
-    if (curvature[q] / area[q] < -options.concaveMin) continue;
+    if (curvature[q] / area[q] < -options.concaveMin || inward[q] <= 0.5 * area[q]) continue;
     idOf[q] = regionCount + scars++;
   }
   if (!scars) return { region: out, scars: 0 };
