@@ -3,7 +3,7 @@
  * A's face moved onto B's, each motion turned round into B onto A. The Stanford bunny (open data
  * in the npm package `bunny`) cut in two by a rough surface (tests/support/bunny-cut.ts), one half
  * moved by a known rigid motion (the truth, analytic by construction). With the other coarse
- * stages off (no shaft axes, no point pair voting, no hypotheses of B onto A), the screen's motions
+ * stages off (no shaft axes, no point pair voting, no principal frames, no hypotheses of B onto A), the screen's motions
  * come from the reversed RANSAC alone: the best must lie within 5 degrees and 3 mm of the
  * truth, which fails if the reversed motions are not turned round (or turned round wrongly).
  */
@@ -23,7 +23,7 @@ function prepare(piece: CutPiece, motion: number[]): PreparedFragment {
 }
 
 let A: PreparedFragment, B: PreparedFragment, truth: number[];
-const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, pairVoteHypotheses: 0, directionPeaks: 0, ransacReverseHypotheses: 0 };
+const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, pairVoteHypotheses: 0, directionPeaks: 0, ransacReverseHypotheses: 0, principalFrameMotions: 0 };
 
 beforeAll(async () => {
   const cut = await cutBunny({ amplitude: 2, seed: 5 });
