@@ -12,9 +12,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { principalFrameMotions } from '../../../../core/geometry/registration/principal-frame-motions';
 import { applyToDirections, applyToPoints, compose, displacementAt, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom } from '../../../../core/geometry/registration/rigid-transform';
-import { cutBunny, type CutPiece } from '../../../support/bunny-cut';
-import { breakFaceFromLabels } from '../../../support/break-face-from-labels';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
+import { preparedBunnyHalves } from '../../../support/bunny-halves';
+import type { PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
 import { DEFAULT_MATCH_PARAMETERS, screenFacePair, type MatchParameters, type MatchTrace } from '../../../../core/geometry/proposals/pairwise-match';
 
 /** A 40 x 10 mm plate on a 1 mm grid, gently bent (z = 0.002 x^2), with its upward unit normals. */
@@ -77,22 +76,11 @@ describe('principal frame motions (analytic)', () => {
 });
 
 describe('the screen with principal frame motions', () => {
-  const spacing = 1.2;
-  function prepare(piece: CutPiece, motion: number[]): PreparedFragment {
-    const positions = applyToPoints(motion, piece.positions) as Float32Array;
-    const face = breakFaceFromLabels(positions, piece.triangles, piece.onCut, spacing);
-    // no shaft axis: the axis searches stay out
-    return { ...prepareFragment({ positions, triangles: piece.triangles, faces: [face] }, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS, patches: false }), axis: null };
-  }
   let A: PreparedFragment, B: PreparedFragment, truth: number[];
   // every other coarse stage off
   const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, hypothesesPerPair: 0, pairVoteHypotheses: 0, directionPeaks: 0, ransacReverseHypotheses: 0, principalFrameMinSamples: 0 };
   beforeAll(async () => {
-    const cut = await cutBunny({ amplitude: 2, seed: 5 });
-    A = prepare(cut.lower, transformFrom([1, 0, 0, 0, 1, 0, 0, 0, 1], [0, 0, 0]));
-    const M = transformFrom(rotationAboutAxis([2, -1, 1], 1.9), [25, -40, 10]);
-    B = prepare(cut.upper, M);
-    truth = invert(M);
+    ({ A, B, truth } = await preparedBunnyHalves());
   });
 
   it('screens the truth first from the two faces\' principal frames alone', () => {
