@@ -253,3 +253,35 @@ export function readPrepared(dir: string, key: string, sampling: SamplingParamet
     return undefined;
   }
 }
+
+/** Version of the stored triangle orders (triangle-bvh.ts: how the build splits a node); bump when the build changes. */
+export const TRIANGLE_ORDER_VERSION = 1;
+
+function triangleOrderFile(dir: string, key: string): string {
+  return join(dir, `${key}.bvh-order${TRIANGLE_ORDER_VERSION}.bin`);
+}
+
+/**
+ * The triangle order of a fragment's mesh BVH (TriangleBvh.triangleOrder, uint32 per triangle),
+ * so that a worker that assembles the fragment again builds the same tree without sorting
+ * (about two thirds of assembling it: each worker assembles every fragment it meets, again after
+ * its cache let it go). One per scan key, whatever the sampling.
+ */
+export function writeTriangleOrder(dir: string, key: string, order: Uint32Array): void {
+  writeAtomically(triangleOrderFile(dir, key), Buffer.from(order.buffer, order.byteOffset, order.byteLength));
+}
+
+/** The stored order, or undefined (TriangleBvh ignores an order that is not a permutation of the mesh's triangles). */
+export function readTriangleOrder(dir: string, key: string): Uint32Array | undefined {
+  const file = triangleOrderFile(dir, key);
+  if (!existsSync(file)) return undefined;
+  try {
+    const buf = readFileSync(file);
+    if (buf.length % 4 !== 0) return undefined;
+    const copy = new ArrayBuffer(buf.length);
+    new Uint8Array(copy).set(buf);
+    return new Uint32Array(copy);
+  } catch {
+    return undefined;
+  }
+}

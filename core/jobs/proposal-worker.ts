@@ -12,7 +12,7 @@ import { KnitboneError } from '../host/errors';
 import { fragmentFaceTraits, type FaceTraits } from '../geometry/proposals/face-traits';
 import { matchFragments, type FaceMatch, type MatchParameters } from '../geometry/proposals/pairwise-match';
 import { assemblePrepared, prepareFragment, preparedParts, type FragmentInput, type PreparedFragment, type SamplingParameters } from '../geometry/proposals/prepared-fragment';
-import { cachedFromLoaded, readFragment, readPrepared, writeFragment, writePrepared, writeProblem, writeTraits, type FragmentSummary } from './fragment-cache';
+import { cachedFromLoaded, readFragment, readPrepared, readTriangleOrder, writeFragment, writePrepared, writeProblem, writeTraits, writeTriangleOrder, type FragmentSummary } from './fragment-cache';
 import { loadFragment, readScanBytes, type AnalysisChoices, type LengthUnit } from './fragment-loader';
 
 export interface ScanRef {
@@ -90,11 +90,13 @@ function preparedFragment(scan: ScanRef, sampling: SamplingParameters): Prepared
   if (hit) return remember(prepared, key, hit);
   const input = analysedFragment(scan).input;
   const parts = scan.cache ? readPrepared(scan.cache.dir, scan.cache.key, sampling) : undefined;
-  if (parts) return remember(prepared, key, assemblePrepared(input, parts));
-  preparations++;
-  const f = prepareFragment(input, sampling);
+  // the mesh BVH's triangle order: the same tree without sorting (written by whoever built it first)
+  const order = scan.cache ? readTriangleOrder(scan.cache.dir, scan.cache.key) : undefined;
+  if (!parts) preparations++;
+  const f = parts ? assemblePrepared(input, parts, order) : prepareFragment(input, sampling);
   try {
-    if (scan.cache) writePrepared(scan.cache.dir, scan.cache.key, sampling, preparedParts(f));
+    if (scan.cache && !parts) writePrepared(scan.cache.dir, scan.cache.key, sampling, preparedParts(f));
+    if (scan.cache && !order) writeTriangleOrder(scan.cache.dir, scan.cache.key, f.surface.bvh.triangleOrder);
   } catch {
     // the cache only saves time: a worker that cannot read it prepares the fragment itself
   }

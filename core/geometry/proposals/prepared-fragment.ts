@@ -142,12 +142,16 @@ export function preparedParts(f: PreparedFragment): PreparedParts {
   };
 }
 
-/** The prepared fragment from its mesh and parts: search structures and what follows from the parts in a few passes. */
-export function assemblePrepared(input: FragmentInput, parts: PreparedParts): PreparedFragment {
+/**
+ * The prepared fragment from its mesh and parts: search structures and what follows from the
+ * parts in a few passes. `triangleOrder` (optional): the triangle BVH's order stored for this
+ * mesh (TriangleBvh.triangleOrder), which builds the same tree without sorting.
+ */
+export function assemblePrepared(input: FragmentInput, parts: PreparedParts, triangleOrder?: Uint32Array): PreparedFragment {
   const { positions, triangles } = input;
   const box = boundsOf(positions);
   return {
-    surface: new TargetSurface(positions, triangles),
+    surface: new TargetSurface(positions, triangles, triangleOrder),
     surfacePoints: parts.surfacePoints,
     surfaceNormals: parts.surfaceNormals,
     surfaceTree: new KdTree(parts.surfacePoints, 3),

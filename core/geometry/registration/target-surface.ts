@@ -56,8 +56,9 @@ export class TargetSurface implements ClosestPointSource {
   readonly triangleNormals: Float32Array;
   private readonly hit = {} as TriangleHit;
 
-  constructor(positions: Float32Array, triangles: Uint32Array) {
-    this.bvh = new TriangleBvh(positions, triangles);
+  /** `order`: a tree's triangle order stored before for this mesh (TriangleBvh), to build the same tree without sorting. */
+  constructor(positions: Float32Array, triangles: Uint32Array, order?: Uint32Array) {
+    this.bvh = new TriangleBvh(positions, triangles, order);
     const nt = triangles.length / 3;
     this.triangleNormals = new Float32Array(nt * 3);
     for (let t = 0; t < nt; t++) {
