@@ -14,6 +14,7 @@ import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } fro
 import { searchAboutSharedAxis } from '../registration/shaft-axis-search';
 import { searchAlongAxisDirections } from '../registration/axis-direction-search';
 import { pointPairVoting } from '../registration/point-pair-voting';
+import { principalFrameMotions } from '../registration/principal-frame-motions';
 import { inOpposedContact } from '../registration/opposed-contact';
 import type { KdTree } from '../registration/nearest-neighbours';
 import { deferredScore, scoreJoin, type DeferredScore, type JoinScore, type ScoredSide } from '../registration/score';
@@ -39,6 +40,14 @@ export interface MatchParameters {
    * above 0.8 118/119 -> 121/122, but matching CPU +14% paired: not made the default.
    */
   ransacReverseHypotheses?: number;
+  /**
+   * Coarse motions laying B's face onto A's by the two faces' principal frames
+   * (principal-frame-motions.ts): 2 (e1 onto +-e1) or 4 (also onto +-e2); 0 or left out: none.
+   * Tried only on face pairs whose sample counts are within principalFrameMinSizeRatio of each other.
+   */
+  principalFrameMotions?: number;
+  principalFrameMinSizeRatio?: number;
+  principalFrameMinSamples?: number;
   /** Peaks of the shared-axis vote tried per flip. */
   axisPeaks: number;
   /** Weight each vote of the shared-axis search by how alike the two samples' FPFH are. */
@@ -165,6 +174,9 @@ export interface MatchParameters {
 export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   ransacIterations: 1500,
   hypothesesPerPair: 4,
+  principalFrameMotions: 2,
+  principalFrameMinSizeRatio: 0.5,
+  principalFrameMinSamples: 300,
   axisPeaks: 2,
   axisFeatureWeights: false,
   directionPeaks: 3,
@@ -340,6 +352,13 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
     if (params.pairVoteHypotheses > 0 && small) {
       const votes = timed(trace?.times, 'pair voting', () => pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: params.pairVoteHypotheses }));
       refined = refined.concat(refine(votes.map((h) => h.transform)));
+    }
+  }
+  const frames = params.principalFrameMotions ?? 0;
+  if (frames > 0) {
+    const na = FA.points.length / 3, nb = FB.points.length / 3;
+    if (Math.min(na, nb) >= (params.principalFrameMinSamples ?? 0) && Math.min(na, nb) >= (params.principalFrameMinSizeRatio ?? 0.5) * Math.max(na, nb)) {
+      refined = refined.concat(refine(principalFrameMotions(FA.points, FA.normals, FB.points, FB.normals, { quarterTurns: frames >= 4 })));
     }
   }
   trace?.refined.push(...refined);

@@ -3,34 +3,22 @@
  * A's face moved onto B's, each motion turned round into B onto A. The Stanford bunny (open data
  * in the npm package `bunny`) cut in two by a rough surface (tests/support/bunny-cut.ts), one half
  * moved by a known rigid motion (the truth, analytic by construction). With the other coarse
- * stages off (no shaft axes, no point pair voting, no hypotheses of B onto A), the screen's motions
+ * stages off (no shaft axes, no point pair voting, no principal frames, no hypotheses of B onto A), the screen's motions
  * come from the reversed RANSAC alone: the best must lie within 5 degrees and 3 mm of the
  * truth, which fails if the reversed motions are not turned round (or turned round wrongly).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { cutBunny, type CutPiece } from '../../../support/bunny-cut';
-import { breakFaceFromLabels } from '../../../support/break-face-from-labels';
-import { DEFAULT_FPFH_RADIUS_SPACINGS, prepareFragment, type PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
+import { preparedBunnyHalves } from '../../../support/bunny-halves';
+import type { PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
 import { DEFAULT_MATCH_PARAMETERS, screenFacePair, type MatchParameters, type MatchTrace } from '../../../../core/geometry/proposals/pairwise-match';
-import { applyToPoints, displacementAt, invert, rotationAboutAxis, rotationErrorDegrees, transformFrom } from '../../../../core/geometry/registration/rigid-transform';
+import { displacementAt, rotationErrorDegrees } from '../../../../core/geometry/registration/rigid-transform';
 
-const spacing = 1.2;
-function prepare(piece: CutPiece, motion: number[]): PreparedFragment {
-  const positions = applyToPoints(motion, piece.positions) as Float32Array;
-  const face = breakFaceFromLabels(positions, piece.triangles, piece.onCut, spacing);
-  // no shaft axis: the axis searches stay out, so only RANSAC gives coarse motions
-  return { ...prepareFragment({ positions, triangles: piece.triangles, faces: [face] }, { spacing, fpfhRadiusSpacings: DEFAULT_FPFH_RADIUS_SPACINGS, patches: false }), axis: null };
-}
-
+// no shaft axis (bunny-halves.ts): the axis searches stay out, so only RANSAC gives coarse motions
 let A: PreparedFragment, B: PreparedFragment, truth: number[];
-const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, pairVoteHypotheses: 0, directionPeaks: 0, ransacReverseHypotheses: 0 };
+const only: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, pairVoteHypotheses: 0, directionPeaks: 0, ransacReverseHypotheses: 0, principalFrameMotions: 0 };
 
 beforeAll(async () => {
-  const cut = await cutBunny({ amplitude: 2, seed: 5 });
-  A = prepare(cut.lower, transformFrom([1, 0, 0, 0, 1, 0, 0, 0, 1], [0, 0, 0]));
-  const M = transformFrom(rotationAboutAxis([2, -1, 1], 1.9), [25, -40, 10]);
-  B = prepare(cut.upper, M);
-  truth = invert(M);
+  ({ A, B, truth } = await preparedBunnyHalves());
 });
 
 describe('the screen with RANSAC run both ways round', () => {
