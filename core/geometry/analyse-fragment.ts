@@ -13,6 +13,7 @@ import { settleFractureRegions } from './region-context';
 import { absorbSmallFractureRegions } from './small-faces';
 import { growRegions, mergeSmallRegions } from './regions';
 import { splitRegionsAtCreases } from './region-crease-split';
+import { splitFlakeScars } from './flake-scar-split';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
@@ -169,6 +170,19 @@ export function analyseFragment(
       figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
       settings.minFaceAreaMm2,
     );
+    // Flake scars split off the regions read medullary (flake-scar-split.ts), as breaks.
+    if (settings.flakeScarDepthRatio > 0 && axis.support >= settings.flakeScarSupportMin) {
+      const scar = splitFlakeScars(region, regionCount, (r) => programClasses[r] === 'medullary', (r) => programClasses[r] === 'outer-cortical' || programClasses[r] === 'articular', (f) => facing[f] === 2, topo.neighbours, filtered, areas, triMean, rays, {
+        depthRatio: settings.flakeScarDepthRatio, referenceQuantile: settings.flakeScarReferenceQuantile, minPieceArea: settings.flakeScarMinPieceAreaMm2,
+        concaveMin: settings.flakeScarConcaveMin, headOnCosineMin: settings.headOnCosineMin, minRays: settings.flakeScarMinRays,
+        wallShareMin: settings.flakeScarWallShareMin, wallDepth,
+      });
+      if (scar.scars > 0) {
+        const all = regionFigures(scar.region, regionCount + scar.scars, filtered, centroids, areas, triRough, triMean, triCurvedness, axis, rays, settings.headOnCosineMin, settings.outwardFacingCosineMin, settings.outwardAxialMax, settings.outwardRadialMax);
+        for (let i = regionCount; i < regionCount + scar.scars; i++) { figures.push(all[i]); programClasses.push('fracture'); }
+        return { region: scar.region, regionCount: regionCount + scar.scars, figures, programClasses };
+      }
+    }
     return { region, regionCount, figures, programClasses };
   };
   let axis = axisOverride ? axisOverride(fittedAxis) : fittedAxis;

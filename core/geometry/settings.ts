@@ -41,6 +41,42 @@ export const analysisSettingsSchema = z.object({
    * inside bone surface).
    */
   regionSplitConvexOnly: z.boolean().default(true),
+  /**
+   * Flake scars along the cavity (flake-scar-split.ts): inside a region read medullary, a
+   * triangle whose inward ray leaves head-on after less than this share of the region's
+   * reference depth (its full wall) lies deeper in the wall than the cavity surface; a patch of
+   * such triangles beside a deep part of the region is split off as a break (0: off). A break
+   * running along the cavity at a shallow angle meets it without a crease in the filtered
+   * normals, so one region holds both.
+   */
+  flakeScarDepthRatio: z.number().min(0).max(1).default(0.6),
+  /** ...the region's reference depth: this area-weighted quantile of its head-on ray depths. */
+  flakeScarReferenceQuantile: z.number().min(0).max(1).default(0.75),
+  /** ...the scar and the rest of its region each keep at least this area (mm²). */
+  flakeScarMinPieceAreaMm2: z.number().min(0).default(150),
+  /**
+   * ...and a scar is not more concave than this (mean curvature under -this, 1/mm; as
+   * contextThinPartnerConcaveMin): the medullary surface curves inwards (-1/2r, do Carmo 1976),
+   * so a cavity patch whose rays leave early through a thin bevel over it is not taken.
+   */
+  flakeScarConcaveMin: z.number().min(0).default(0.03),
+  /** ...and a region needs at least this many head-on rays before its reference depth is read. */
+  flakeScarMinRays: z.number().int().min(1).default(20),
+  /**
+   * ...and its reference depth is at least this share of the fragment's typical wall depth
+   * (classify-regions.ts typicalWallDepth): a region whose wall is thin all over is a slab
+   * between two near-parallel breaks or a cavity patch under a break on the outer side (the
+   * thin-crossing terms' kind), not a cavity wall with a scar in it.
+   */
+  flakeScarWallShareMin: z.number().min(0).default(0.5),
+  /**
+   * ...only on fragments whose axis support is at least this (as contextThinCrossingSupportMin):
+   * where the shaft model is weak (bone ends, flattened pieces read from their narrow edge) a
+   * region read medullary may span walls of different thickness, whose rays leave through
+   * different outer faces (dev s371 QS-10435, support 0.59: a cavity region whose rays cross
+   * 7.5 mm of wall on one side and 18 mm on the other).
+   */
+  flakeScarSupportMin: z.number().min(0).max(1).default(0.65),
   /** Regions smaller than this share of the fragment's area are merged into a neighbour. */
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**
