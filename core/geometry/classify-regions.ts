@@ -72,6 +72,13 @@ export interface RegionFigures {
    * contextThinCrossingShareMin): the region's wall partner is the other face of a slab.
    */
   thinPartnerShare: number;
+  /**
+   * Set by the neighbourhood pass (region-context.ts), from the classes of the moment: for a
+   * region facing across the shaft axis (neither squarely out nor in, axial component at most
+   * contextSlabRimAxialMax), the share of its border length shared with slab faces, regions
+   * taken for fracture that the thin-crossing or thin-partner term reads (0 otherwise).
+   */
+  slabRimShare: number;
 }
 
 export function regionFigures(
@@ -93,7 +100,7 @@ export function regionFigures(
   const out: RegionFigures[] = Array.from({ length: regionCount }, () => ({
     area: 0, triangleCount: 0, radial: 0, axial: 0, roughnessRatio: 0, meanCurvature: 0, curvedness: 0, rayDepth: NaN, rayExitCosine: NaN, rays: 0, outwardHitShare: 0,
     headOnShare: NaN, sharpBorderShare: 0, outwardBorderShare: 0, inwardBorderShare: 0,
-    originalCreaseBorderShare: NaN, breakExitShare: 0, thinCrossingShare: 0, thinPartnerShare: 0,
+    originalCreaseBorderShare: NaN, breakExitShare: 0, thinCrossingShare: 0, thinPartnerShare: 0, slabRimShare: 0,
   }));
   const medianRough = kthSmallest(triRoughness, Math.floor(triRoughness.length / 2)) || 1e-9;
   // Region roughness: area-weighted mean of each triangle's roughness relative to the

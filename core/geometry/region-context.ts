@@ -47,6 +47,12 @@ import type { ShaftAxis } from './shaft-axis';
  *   rays that leave head-on through break regions facing out that the thin-crossing term reads
  *   (beyond contextThinPartnerShareMin): its wall partner is the slab's outer break face, so it
  *   is the slab's inner one (contextThinPartnerWeight; needs `exits`);
+ * - towards original surface, for a region that faces out from or into the axis, runs along
+ *   it and is not itself a slab face, the share of its border shared with slab faces (regions
+ *   taken for fracture that either thin term reads) beyond contextSlabRimShareMin: a slab
+ *   between two near-parallel breaks meets the bone's outer surface or cavity along its long
+ *   rims, so a strip lying between its two faces and facing out or in is that bone surface
+ *   (contextSlabRimWeight);
  * and asks for more evidence than the first pass (contextEvidenceMin). Regions are judged one
  * after another, largest first, each with the classes its neighbours have at that moment (so
  * two regions cannot keep swapping classes as they would if all were judged at once), over
@@ -74,6 +80,7 @@ export function settleFractureRegions(
       figures[id].originalCreaseBorderShare = originalCreaseBorderShare(borders[id], fracture);
       figures[id].breakExitShare = breakExitShare(figures, id, exits[id], fracture, shaft, settings);
       figures[id].thinPartnerShare = thinPartnerShare(figures, id, exits[id], fracture, shaft, settings);
+      figures[id].slabRimShare = slabRimShare(figures, id, borders[id], fracture, shaft, settings);
       const f = first[id] + contextTerms(figures[id], shaft, settings) > settings.contextEvidenceMin;
       if (f !== fracture[id]) { fracture[id] = f; changed++; }
     }
@@ -84,6 +91,7 @@ export function settleFractureRegions(
     r.breakExitShare = breakExitShare(figures, id, exits[id], fracture, shaft, settings);
     r.thinPartnerShare = thinPartnerShare(figures, id, exits[id], fracture, shaft, settings);
   });
+  figures.forEach((r, id) => { r.slabRimShare = slabRimShare(figures, id, borders[id], fracture, shaft, settings); });
   return fracture;
 }
 
@@ -127,6 +135,29 @@ function thinPartnerShare(figures: RegionFigures[], id: number, exits: ReadonlyM
   return n / r.rays;
 }
 
+/** Whether a region taken for fracture is one face of a slab as the thin terms read it (thin-crossing facing out, thin-partner facing the axis). */
+function slabFace(r: RegionFigures, fracture: boolean, settings: AnalysisSettings): boolean {
+  if (!fracture) return false;
+  const min = settings.corticalRadialMin;
+  return (r.radial >= min && r.thinCrossingShare > settings.contextThinCrossingShareMin) || (r.radial <= -min && r.thinPartnerShare > settings.contextThinPartnerShareMin);
+}
+
+/**
+ * Share of region `id`'s border length shared with slab faces (slabFace), for a region that
+ * faces out from or into the axis (|radial| at least contextSlabRimRadialMin) and across it
+ * (|axial| at most contextSlabRimAxialMax) and is not itself a slab face by its figures,
+ * whatever its class (a part of a slab face whose own rays cross thin, thinCrossingShare
+ * beyond contextThinCrossingShareMin, is not a rim); 0 for any other region.
+ */
+function slabRimShare(figures: RegionFigures[], id: number, border: RegionBorder, fracture: boolean[], shaft: boolean, settings: AnalysisSettings): number {
+  const r = figures[id];
+  if (!shaft || !(border.length > 0) || Math.abs(r.axial) > settings.contextSlabRimAxialMax || Math.abs(r.radial) < settings.contextSlabRimRadialMin
+    || r.thinCrossingShare > settings.contextThinCrossingShareMin || slabFace(r, true, settings)) return 0;
+  let n = 0;
+  for (const b of border.neighbours) if (slabFace(figures[b.region], fracture[b.region], settings)) n += b.crease + b.smooth;
+  return n / border.length;
+}
+
 /** How far a region facing the shaft axis is convex beyond contextInwardConvexCurvatureMin (0 when it does not face the axis or is not). */
 function inwardConvexity(r: RegionFigures, shaft: boolean, settings: AnalysisSettings): number {
   return shaft && r.radial <= -settings.corticalRadialMin ? Math.max(0, r.meanCurvature - settings.contextInwardConvexCurvatureMin) : 0;
@@ -153,5 +184,6 @@ export function contextTerms(r: RegionFigures, shaft: boolean, settings: Analysi
     + settings.contextOriginalCreaseWeight * r.originalCreaseBorderShare
     + (shaft && r.radial >= min ? settings.contextThinCrossingWeight * Math.max(0, r.thinCrossingShare - settings.contextThinCrossingShareMin) : 0)
     + (shaft && r.radial <= -min && r.meanCurvature >= -settings.contextThinPartnerConcaveMin ? settings.contextThinPartnerWeight * Math.max(0, r.thinPartnerShare - settings.contextThinPartnerShareMin) : 0)
-    + (shaft && Math.abs(r.radial) >= min ? settings.contextBreakExitWeight * Math.max(0, r.breakExitShare - settings.contextBreakExitShareMin) : 0);
+    + (shaft && Math.abs(r.radial) >= min ? settings.contextBreakExitWeight * Math.max(0, r.breakExitShare - settings.contextBreakExitShareMin) : 0)
+    - settings.contextSlabRimWeight * Math.max(0, r.slabRimShare - settings.contextSlabRimShareMin);
 }

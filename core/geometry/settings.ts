@@ -438,6 +438,29 @@ export const analysisSettingsSchema = z.object({
    * class. Without this gate those two read 98.6 -> 97.4 and 71.0 -> 60.2.
    */
   contextThinPartnerConcaveMin: z.number().min(0).default(0.03),
+  /**
+   * Weight (towards original surface) of the share of a region's border that it shares with
+   * slab faces, beyond `contextSlabRimShareMin`: regions taken for fracture that the
+   * thin-crossing term (facing out) or the thin-partner term (facing the axis) reads, for a
+   * region that is not itself such a face, faces out from or into the axis at least
+   * `contextSlabRimRadialMin` (|mean radial component|) and across it (|mean axial component| at
+   * most `contextSlabRimAxialMax`). A slab between two near-parallel breaks running along the
+   * wall meets the bone's outer surface or its cavity along its long rims: a narrow strip
+   * between the two slab faces that faces out or in is that bone surface, while a rim facing
+   * along the axis is a break across the slab and one facing along the circumference a break
+   * through it. The strips are narrow, curved and seldom crossed head-on, so the first pass and
+   * the curvedness and uncrossed-inward terms read them as break (dev s398 QS-10286: six strips
+   * of cavity surface, 334 mm², first evidence 4.4-7.4, context +2.8 to +10.5; their border
+   * shares with the slab's faces 0.68-0.93). Chosen on dev s398, s372, s12, s21, s366 (60 with
+   * share 0.5: s398 94.52 -> 94.64); tests/unit/geometry/region-slab-rim.test.ts. 0 switches it off.
+   */
+  contextSlabRimWeight: z.number().min(0).default(60),
+  /** ...counted beyond this share of the region's border length. */
+  contextSlabRimShareMin: z.number().min(0).max(1).default(0.5),
+  /** ...only for regions whose |mean axial component| is at most this (rims facing along the axis are the slab's ends). */
+  contextSlabRimAxialMax: z.number().min(0).max(1).default(0.5),
+  /** ...and whose |mean radial component| is at least this (rims facing along the circumference are breaks through the slab). */
+  contextSlabRimRadialMin: z.number().min(0).max(1).default(0.3),
   /** A region whose first evidence plus those terms exceeds this is a fracture face. */
   contextEvidenceMin: z.number().default(4.9),
   /**
