@@ -27,6 +27,7 @@ import { thinWallCrossingShare } from './thin-wall-crossing';
 import { SURFACE_CLASSES, surfaceClassCode, type SurfaceClass } from './surface-classes';
 import { buildTopology, triangleComponents } from './topology';
 import { keepTriangles, weldVertices } from './weld';
+import { refinePartition } from './refine-partition';
 
 export interface SurfaceRegion extends RegionFigures {
   id: number;
@@ -224,13 +225,14 @@ export function analyseFragment(
   for (let f = 0; f < nt; f++) triangleClass[f] = surfaceClassCode(regions[region[f]].surfaceClass);
   const samples = resampleSurface(mesh, triNormals, settings.sampleSpacingMm);
   // Faces: fracture regions grouped, split where breaks meet at a crease (face-split.ts).
-  const groupOfRegion = fractureFaceGroups(mesh, topo.neighbours, filtered, areas, region, regions.map((r) => r.kind === 'fracture'), regions.map((r) => r.surfaceClass === 'outer-cortical'), {
+  const groupRegions = (minFaceArea: number, minOuterEdge: number): Int32Array => fractureFaceGroups(mesh, topo.neighbours, filtered, areas, region, regions.map((r) => r.kind === 'fracture'), regions.map((r) => r.surfaceClass === 'outer-cortical'), {
     creaseAngleDeg: settings.ridgeAngleDeg,
     creaseShareMin: settings.faceSplitCreaseShare,
     meanAngleDeg: settings.faceSplitMeanAngleDeg,
-    minFaceArea: settings.faceSplitMinAreaMm2,
-    minOuterEdge: settings.faceSplitMinOuterEdgeMm,
+    minFaceArea,
+    minOuterEdge,
   });
+  const groupOfRegion = groupRegions(settings.faceSplitMinAreaMm2, settings.faceSplitMinOuterEdgeMm);
   const regionGroup = new Int32Array(nt);
   for (let f = 0; f < nt; f++) regionGroup[f] = groupOfRegion[region[f]];
   // ...and cut where their rim against the outer surface turns sharply (face-corner-split.ts).
@@ -246,7 +248,11 @@ export function analyseFragment(
   });
   const faceGroup = cutAtCorners(regionGroup, settings.faceCornerAngleDeg);
   // Pieces of each face cut at its outer rim's corners, for the matcher only (matched besides the whole face).
-  const pieceGroup = settings.facePieceCornerAngleDeg >= 180 ? faceGroup : cutAtCorners(faceGroup, settings.facePieceCornerAngleDeg);
+  const cornerPieces = settings.facePieceCornerAngleDeg >= 180 ? faceGroup : cutAtCorners(faceGroup, settings.facePieceCornerAngleDeg);
+  // ...and where small breaks meet their neighbours at a crease (kept whole in the faces for want of an angle to read).
+  const pieceGroup = settings.facePieceSplitMinAreaMm2 >= settings.faceSplitMinAreaMm2 && settings.faceSplitMinOuterEdgeMm <= 0
+    ? cornerPieces
+    : refinePartition(cornerPieces, groupRegions(settings.facePieceSplitMinAreaMm2, 0), region);
   const faces = fractureFaces({
     faceGroup,
     mesh,

@@ -504,6 +504,15 @@ export const analysisSettingsSchema = z.object({
    * 1.5x the face pairs.
    */
   facePieceCornerAngleDeg: z.number().positive().max(180).default(35),
+  /**
+   * Pieces for the matcher also where the face split (face-split.ts) parts breaks that meet at a
+   * crease, kept down to this area (mm²) and with no minimum rim against the outer surface: a small
+   * break (a strip across the wall, a short step) that faceSplitMinAreaMm2 and
+   * faceSplitMinOuterEdgeMm fold into a neighbouring break's face, since its fracture angle could
+   * not be read, can still meet its partner. The faces themselves (their figures and angle class)
+   * do not change. At or above faceSplitMinAreaMm2 with faceSplitMinOuterEdgeMm 0: no such pieces.
+   */
+  facePieceSplitMinAreaMm2: z.number().min(0).default(20),
   /** Rim length (mm) either side of a point over which its turn is measured. */
   faceCornerWindowMm: z.number().positive().default(4),
   /** A corner cut is kept only when the two pieces' mean normals differ by at least this (degrees). */

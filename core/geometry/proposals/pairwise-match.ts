@@ -130,6 +130,10 @@ export interface MatchParameters {
    * adds wrong motions of high overlap to the screen: best motion of the true fragment pair
    * correct through the shortlist on dev seeds 11-16, 178 / 315 with 8, 189 with 12 (169 before
    * method /6), 1.02x the CPU on those pairs (tests/bench/coarse-miss-study.ts for the causes).
+   * 24 (was 12) since small breaks are matched as pieces too (facePieceSplitMinAreaMm2) and the
+   * principal-frame motions joined the screen: more faces per fragment and more screened motions
+   * per face pair; the sample join of fine-shortlist.test.ts is found with 16 after the pieces
+   * alone (not with 12-14) and with 24 after both (not with 16-20).
    */
   finePerFragmentPair: number;
   fineMinOverlap: number;
@@ -194,7 +198,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   screenKeepRatio: 0.7,
   screenIcpDistanceSpacings: 3,
   fineHypotheses: 2,
-  finePerFragmentPair: 12,
+  finePerFragmentPair: 24,
   fineMinOverlap: 0.2,
   fineRatio: 0.3,
   icpSamples: 150,
