@@ -83,7 +83,7 @@ export const analysisSettingsSchema = z.object({
    * share of the fragment's reference crossing (the median of all such crossings: its cortex)
    * lies inside the wall, a bevel or the step of an outer flake, and is read as break (0: off).
    * Dev (segmentation-outer-step-study.ts, 11 sets, axis support at least 0.65): breaks read
-   * outer 0.12-0.44, true outer surface 0.79 and more.
+   * outer 0.03-0.44, true outer surface 0.74 and more.
    */
   shallowOuterDepthRatio: z.number().min(0).max(1).default(0.5),
   /** ...a region needs at least this many such crossings (and the fragment as many) before its median is read. */
