@@ -125,6 +125,13 @@ export const analysisSettingsSchema = z.object({
    * support 0.54, and s372 QS-10101, 0.57, lost 1.6-1.7 points with the check).
    */
   shaftCentreWallSupportMin: z.number().min(0).max(1).default(0.65),
+  /**
+   * The same wall check for the section segment / point search (shaft-axis.ts fitSectionSegment):
+   * a searched point centre, or a segment at either end or its middle, whose wallCrossingShare
+   * exceeds this is refused and the consensus centre kept (0: off). Only where the axis support
+   * is at least shaftCentreWallSupportMin; tolerance shaftCentreWallToleranceMm.
+   */
+  sectionWallShareMax: z.number().min(0).max(1).default(0),
   /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
   shaftCentreWallToleranceMm: z.number().positive().default(1),
   /**
