@@ -126,12 +126,14 @@ export const analysisSettingsSchema = z.object({
    */
   shaftCentreWallSupportMin: z.number().min(0).max(1).default(0.65),
   /**
-   * The same wall check for the section segment / point search (shaft-axis.ts fitSectionSegment):
-   * a searched point centre, or a segment at either end or its middle, whose wallCrossingShare
-   * exceeds this is refused and the consensus centre kept (0: off). Only where the axis support
-   * is at least shaftCentreWallSupportMin; tolerance shaftCentreWallToleranceMm.
+   * Stricter wall check on clear shaft pieces (axis support at least shaftCentreWallStrictSupportMin:
+   * no bone end, so the axis must lie in the cavity or the air about the piece along its whole
+   * length): a candidate centre with a wallCrossingShare above this is refused, in fitShaftAxis's
+   * consensus and reweighting and in the section segment / point search (fitSectionSegment: a
+   * point, or a segment at either end or its middle). 0: off.
    */
-  sectionWallShareMax: z.number().min(0).max(1).default(0),
+  shaftCentreWallStrictShareMax: z.number().min(0).max(1).default(0),
+  shaftCentreWallStrictSupportMin: z.number().min(0).max(1).default(0.85),
   /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
   shaftCentreWallToleranceMm: z.number().positive().default(1),
   /**

@@ -36,15 +36,15 @@ const stagedAxis = (settings: AnalysisSettings, mesh: ReturnType<typeof weldVert
   const triMean = new Float32Array(areas.length);
   for (let f = 0; f < areas.length; f++) triMean[f] = (curv.k1[t[3 * f]] + curv.k1[t[3 * f + 1]] + curv.k1[t[3 * f + 2]] + curv.k2[t[3 * f]] + curv.k2[t[3 * f + 1]] + curv.k2[t[3 * f + 2]]) / 6;
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
-  const wall = { rays, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin };
+  const wall = { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin };
   const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin },
-    { ...wall, shareMax: settings.shaftCentreWallShareMax }), centroids, filtered, areas, triMean, { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
+    wall), centroids, filtered, areas, triMean, { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   return settings.sectionSegmentReaches.length > 0
     ? fitSectionSegment(settled, centroids, filtered, areas, rays, {
       reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin,
       neitherWeight: settings.sectionSegmentNeitherWeight, neitherLossMax: settings.sectionSegmentNeitherLossMax,
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
-    }, { ...wall, shareMax: settings.sectionWallShareMax })
+    }, wall)
     : settled;
 };
 const same = (a: ShaftAxis, b: ShaftAxis): boolean => Math.hypot(a.point[0] - b.point[0], a.point[1] - b.point[1], a.point[2] - b.point[2]) < 1e-6
