@@ -10,36 +10,17 @@
  * and at least 0.05 with each set (the joins gained and lost listed), and how many pairs' best
  * motion or score moved.
  */
-import { readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
 import { loadavg } from 'node:os';
-import { openCatalogue } from '../../core/catalogue/catalogue';
-import { fragmentKey } from '../../core/jobs/fragment-cache';
 import { DEFAULT_MATCH_PARAMETERS, matchFragments, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
-import { invert, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
-import { matchCachePairs } from './match-cache-pairs';
+import { rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
+import { matchCacheTruth } from './match-cache-truth';
 import { isCorrectMotion } from './correct-motion';
 
 const dir = process.argv[2];
 const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? 200);
 const first: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as Partial<MatchParameters>) };
 const second: MatchParameters = { ...first, ...(JSON.parse(process.env.KNITBONE_COMPARE_PARAMS ?? '{}') as Partial<MatchParameters>) };
-const catalogue = dir.replace(/\.match-cache\/?$/, '');
-interface Join { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
-const truth = JSON.parse(readFileSync(join(dirname(dirname(catalogue)), 'truth.json'), 'utf8')) as { joins: Join[] };
-const cat = openCatalogue(catalogue);
-const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
-const noOfKey = new Map(cat.scans.list().map((s) => [fragmentKey(s.contentHash, s.units, (s.stats as { settings?: unknown }).settings, []), numbers.get(s.specimenId) ?? '']));
-cat.close();
-const { cached, grouped: all, assemble } = matchCachePairs(dir, Infinity);
-const nos = cached.map((c) => noOfKey.get(c.key) ?? '');
-const joins = new Map<string, number[]>();
-for (const j of truth.joins) if (j.type === 'conjoin' && j.survivingFraction >= 0.3) {
-  joins.set(`${j.a}|${j.b}`, j.transformBToA);
-  joins.set(`${j.b}|${j.a}`, invert(j.transformBToA));
-}
-const stride = Math.max(1, Math.floor(all.length / Math.min(maxPairs, all.length)));
-const grouped = all.filter((l, i) => i % stride === 0 || joins.has(`${nos[l[0].a]}|${nos[l[0].b]}`));
+const { nos, joins, studied: grouped, assemble } = matchCacheTruth(dir, maxPairs);
 const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
 const cpuOf = [0, 0], right = [0, 0], stored = [0, 0];
 const lost: string[] = [], won: string[] = [];

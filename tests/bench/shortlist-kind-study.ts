@@ -11,16 +11,13 @@
  * have the same parents (a part and its whole). For the true pairs every shortlisted motion is
  * refined and marked correct (5 degrees, 5 mm), with its shortlist rank and kind.
  */
-import { appendFileSync, readFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { appendFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
-import { openCatalogue } from '../../core/catalogue/catalogue';
-import { fragmentKey } from '../../core/jobs/fragment-cache';
 import { DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, screenFacePair, scoredSide, type CoarseMotion, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
 import type { PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { deferredScore } from '../../core/geometry/registration/score';
-import { displacementAt, invert, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
-import { matchCachePairs } from './match-cache-pairs';
+import { displacementAt, rotationErrorDegrees } from '../../core/geometry/registration/rigid-transform';
+import { matchCacheTruth } from './match-cache-truth';
 import { screenInterlock } from '../../core/geometry/proposals/screen-measures';
 import { isCorrectMotion } from './correct-motion';
 
@@ -30,24 +27,7 @@ const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? Infinity);
 const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as Partial<MatchParameters>) };
 // KNITBONE_STUDY_PLACES: shortlist this many instead (to replay smaller or split shortlists from the ranked list)
 const places = Number(process.env.KNITBONE_STUDY_PLACES ?? params.finePerFragmentPair);
-const catalogue = dir.replace(/\.match-cache\/?$/, '');
-const generated = dirname(dirname(catalogue));
-interface Join { a: string; b: string; type: string; survivingFraction: number; transformBToA: number[] }
-const truth = JSON.parse(readFileSync(join(generated, 'truth.json'), 'utf8')) as { joins: Join[] };
-const cat = openCatalogue(catalogue);
-const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
-const noOfKey = new Map(cat.scans.list().map((s) => [fragmentKey(s.contentHash, s.units, (s.stats as { settings?: unknown }).settings, []), numbers.get(s.specimenId) ?? '']));
-cat.close();
-const { cached, grouped: all, assemble } = matchCachePairs(dir, Infinity);
-const nos = cached.map((c) => noOfKey.get(c.key) ?? '');
-const joins = new Map<string, number[]>();
-for (const j of truth.joins) if (j.type === 'conjoin' && j.survivingFraction >= 0.3) {
-  joins.set(`${j.a}|${j.b}`, j.transformBToA);
-  joins.set(`${j.b}|${j.a}`, invert(j.transformBToA));
-}
-const isTrue = (l: (typeof all)[number]): boolean => joins.has(`${nos[l[0].a]}|${nos[l[0].b]}`);
-const stride = Math.max(1, Math.floor(all.length / Math.min(maxPairs, all.length)));
-const grouped = all.filter((l, i) => i % stride === 0 || isTrue(l));
+const { nos, joins, studied: grouped, assemble } = matchCacheTruth(dir, maxPairs);
 const whole = (f: PreparedFragment, i: number): boolean => i === 0 || f.faces[i - 1].parent !== f.faces[i].parent;
 const kindOf = (a: PreparedFragment, i: number, b: PreparedFragment, j: number): string => (whole(a, i) ? 'w' : 'p') + (whole(b, j) ? 'w' : 'p');
 const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e6; };
