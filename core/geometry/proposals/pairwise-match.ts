@@ -22,6 +22,7 @@ import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
+import { mostSupportedMotion } from './screen-consensus';
 
 export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
@@ -110,6 +111,13 @@ export interface MatchParameters {
    * instead of under 1); on the committed sample it is no better (DEVELOPERS.md).
    */
   screenWays?: 'given' | 'smaller' | 'both';
+  /**
+   * A face pair's screened motion that at least this many of its coarse motions ended at (after
+   * the short ICP, within 3 degrees and 2 spacings of it, each putting at least minOverlap of the
+   * smaller face in contact) goes on to the fine step beside the fineHypotheses best by rank, when
+   * it is not one of them (screen-consensus.ts; 0 or left out: none). See DEVELOPERS.md.
+   */
+  screenConsensusMin?: number;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** A face pair's screened motions go on to the fine step while their rank is at least this share of the best one's. */
@@ -290,11 +298,20 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     .map((r) => ({ r, rank: r.overlap * screenAxisConsistency(a.axis, b.axis, r.transform, FB.centroid, params.screenAxisTiltDeg) }))
     .sort((p, q) => q.rank - p.rank);
   const kept: CoarseMotion[] = [];
+  const near = (k: CoarseMotion, r: CoarseMotion): boolean => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing;
   for (const { r, rank } of ranked) {
     if (rank <= 0 || (kept.length && rank < params.screenKeepRatio * ranked[0].rank)) break;
-    if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
+    if (kept.some((k) => near(k, r))) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
+  }
+  // the motion most starts ended at goes on as well (screen-consensus.ts), when enough did
+  const consensusMin = params.screenConsensusMin ?? 0;
+  if (consensusMin > 0 && ranked.length >= consensusMin) {
+    const eligible: number[] = [];
+    ranked.forEach((q, i) => { if (q.rank > 0) eligible.push(i); });
+    const c = mostSupportedMotion(ranked.map((q) => q.r.transform), eligible, FB.centroid, 3, 2 * spacing);
+    if (c.support >= consensusMin && !kept.some((k) => near(k, ranked[c.index].r))) kept.push(ranked[c.index].r);
   }
   if (trace) trace.kept.push(...kept.map((k) => k.transform));
   return kept;
