@@ -115,7 +115,11 @@ export interface MatchParameters {
    * A face pair's screened motion that at least this many of its coarse motions ended at (after
    * the short ICP, within 3 degrees and 2 spacings of it, each putting at least minOverlap of the
    * smaller face in contact) goes on to the fine step beside the fineHypotheses best by rank, when
-   * it is not one of them (screen-consensus.ts; 0 or left out: none). See DEVELOPERS.md.
+   * it is not one of them (screen-consensus.ts; 0 or left out: none). 3 since session 22: the
+   * overlap share ranks a wrong turn that covers a small face above the truth, while several
+   * starts ending at one motion mark the truth's wide basin; on the true joins of dev s340 at 200
+   * fragments that stored nothing (stored-gap-study.ts) stored right 209 -> 212 of 277 with 2 or
+   * 3, none lost (DEVELOPERS.md, "The screen's consensus motion").
    */
   screenConsensusMin?: number;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
@@ -202,6 +206,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisGoodOverlap: 0.35,
   axisSettlesDirections: false,
   screenAxisTiltDeg: [20, 45],
+  screenConsensusMin: 3,
   minOverlap: 0.08,
   screenKeepRatio: 0.7,
   screenIcpDistanceSpacings: 3,
