@@ -22,7 +22,7 @@ import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
-import { mostSupportedMotion } from './screen-consensus';
+import { consensusMotion } from './screen-consensus';
 
 export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
@@ -311,13 +311,8 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     if (kept.length >= params.fineHypotheses) break;
   }
   // the motion most starts ended at goes on as well (screen-consensus.ts), when enough did
-  const consensusMin = params.screenConsensusMin ?? 0;
-  if (consensusMin > 0 && ranked.length >= consensusMin) {
-    const eligible: number[] = [];
-    ranked.forEach((q, i) => { if (q.rank > 0) eligible.push(i); });
-    const c = mostSupportedMotion(ranked.map((q) => q.r.transform), eligible, FB.centroid, 3, 2 * spacing);
-    if (c.support >= consensusMin && !kept.some((k) => near(k, ranked[c.index].r))) kept.push(ranked[c.index].r);
-  }
+  const consensus = consensusMotion(ranked, kept, FB.centroid, 3, 2 * spacing, params.screenConsensusMin ?? 0);
+  if (consensus) kept.push(consensus);
   if (trace) trace.kept.push(...kept.map((k) => k.transform));
   return kept;
 }

@@ -29,3 +29,27 @@ export function mostSupportedMotion(
   }
   return { index, support };
 }
+
+/**
+ * The screen's consensus motion of one face pair: of the screened motions (each with its rank,
+ * best first; every one counts as support, only those of rank above 0 may be chosen), the most
+ * supported one (mostSupportedMotion) when at least `minSupport` motions ended at it and it is
+ * not within the same distance of one already kept; else null.
+ */
+export function consensusMotion<M extends { transform: RigidTransform }>(
+  ranked: ReadonlyArray<{ r: M; rank: number }>,
+  kept: readonly M[],
+  at: ArrayLike<number>,
+  maxRotationDeg: number,
+  maxDisplacement: number,
+  minSupport: number,
+): M | null {
+  if (minSupport <= 0 || ranked.length < minSupport) return null;
+  const eligible: number[] = [];
+  ranked.forEach((q, i) => { if (q.rank > 0) eligible.push(i); });
+  const c = mostSupportedMotion(ranked.map((q) => q.r.transform), eligible, at, maxRotationDeg, maxDisplacement);
+  if (c.support < minSupport) return null;
+  const m = ranked[c.index].r;
+  const near = (k: M): boolean => rotationErrorDegrees(k.transform, m.transform) < maxRotationDeg && displacementAt(k.transform, m.transform, at) < maxDisplacement;
+  return kept.some(near) ? null : m;
+}
