@@ -12,27 +12,11 @@
  * through the far side of the tube after the outer diameter, 24 mm (analytic).
  */
 import { describe, expect, it } from 'vitest';
-import { brokenTube, type Cut } from '../broken-tube';
-import { breakFaceFromLabels } from '../../../support/break-face-from-labels';
+import { firstBreakFaceTraits } from './first-break-face-traits';
 import { candidateFacePairs, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
 import { cappedCauchyLoss } from '../../../../core/geometry/proposals/capped-cauchy-loss';
 import { DESCRIPTOR_FIGURES, RIM_WALL_LOSS_CAP, describeFace, partnerCost } from '../../../../core/geometry/proposals/face-descriptor';
-import { fragmentFaceTraits, type FaceTraits } from '../../../../core/geometry/proposals/face-traits';
-import { prepareFragment } from '../../../../core/geometry/proposals/prepared-fragment';
-
-const spacing = 1;
-const zAxis = { direction: [0, 0, 1] as [number, number, number], point: [0, 0, 0] as [number, number, number], support: 1 };
-
-/** Traits of the first cut's break face of a broken tube (the face from the construction's labels). */
-async function firstBreakFace(cuts: Cut[], roughness: number): Promise<FaceTraits> {
-  const tube = await brokenTube({ cuts, roughness });
-  const { positions, triangles } = tube.mesh;
-  const label = Uint8Array.from(tube.cutOf, (c) => (c === 0 ? 1 : 0));
-  const ids: number[] = [];
-  label.forEach((v, t) => { if (v) ids.push(t); });
-  const input = { positions, triangles, faces: [{ ...breakFaceFromLabels(positions, triangles, label, spacing), triangleIds: Uint32Array.from(ids) }] };
-  return fragmentFaceTraits(input, prepareFragment(input, { spacing, fpfhRadiusSpacings: 5, patches: false }), zAxis)[0];
-}
+import type { FaceTraits } from '../../../../core/geometry/proposals/face-traits';
 
 describe('the capped Lorentzian', () => {
   it('is log(1 + z^2) up to the cap and log(1 + cap^2) beyond it; uncapped without one', () => {
@@ -49,10 +33,10 @@ describe('the capped Lorentzian', () => {
 describe('a wall reading that failed on one side of a break', () => {
   it('costs the pair a bounded amount, so the partner still ranks ahead of a break of another course', async () => {
     const r = 0.5;
-    const face = await firstBreakFace([{ normal: [0, 0, 1], offset: 0 }], r);
-    const partner = await firstBreakFace([{ normal: [0, 0, -1], offset: 0 }], r);
+    const face = await firstBreakFaceTraits([{ normal: [0, 0, 1], offset: 0 }], r);
+    const partner = await firstBreakFaceTraits([{ normal: [0, 0, -1], offset: 0 }], r);
     const tilt = (50 * Math.PI) / 180;
-    const otherCourse = await firstBreakFace([{ normal: [0, -Math.sin(tilt), -Math.cos(tilt)], offset: 0 }], r);
+    const otherCourse = await firstBreakFaceTraits([{ normal: [0, -Math.sin(tilt), -Math.cos(tilt)], offset: 0 }], r);
     // both sides read the 5 mm wall (analytic: 12 - 7 mm) within 10%
     for (const t of [face, partner, otherCourse]) expect(Math.abs((t.rimThickness ?? 0) - 5)).toBeLessThan(0.5);
     // the partner's rays missed the cavity: 24 mm (the outer diameter); worse still, 60 mm
