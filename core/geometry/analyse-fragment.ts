@@ -14,6 +14,7 @@ import { absorbSmallFractureRegions } from './small-faces';
 import { growRegions, mergeSmallRegions } from './regions';
 import { splitRegionsAtCreases } from './region-crease-split';
 import { splitFlakeScars } from './flake-scar-split';
+import { shallowOuterRegions } from './shallow-outer-regions';
 import { detectAndCloseRidges } from './ridges';
 import { resampleSurface, type SurfaceSamples } from './resample';
 import { analysisSettings, type AnalysisSettings } from './settings';
@@ -164,13 +165,15 @@ export function analyseFragment(
     // (region-context.ts); small fracture patches absorbed; the analyst's corrections on top.
     const fracture = settleFractureRegions(figures, borders, axis, settings,
       settings.contextBreakExitWeight > 0 || settings.contextThinPartnerWeight > 0 ? headOnExits(region, regionCount, rays, settings.headOnCosineMin) : []);
-    const programClasses = absorbSmallFractureRegions(
-      region,
-      topo.neighbours,
-      areas,
-      figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth))),
-      settings.minFaceAreaMm2,
-    );
+    const firstClasses: SurfaceClass[] = figures.map((fig, id) => (fracture[id] ? 'fracture' : originalClass(fig, axis, settings, wallDepth)));
+    // Breaks read outer whose wall to the cavity is thin for this piece (shallow-outer-regions.ts).
+    if (settings.shallowOuterDepthRatio > 0 && axis.support >= settings.shallowOuterSupportMin) {
+      const shallow = shallowOuterRegions(region, regionCount, (r) => firstClasses[r] === 'outer-cortical', (r) => firstClasses[r] === 'medullary', rays, {
+        depthRatio: settings.shallowOuterDepthRatio, headOnCosineMin: settings.headOnCosineMin, minRays: settings.shallowOuterMinRays,
+      });
+      shallow.forEach((s, r) => { if (s) firstClasses[r] = 'fracture'; });
+    }
+    const programClasses = absorbSmallFractureRegions(region, topo.neighbours, areas, firstClasses, settings.minFaceAreaMm2);
     // Flake scars split off the regions read medullary (flake-scar-split.ts), as breaks.
     if (settings.flakeScarDepthRatio > 0 && axis.support >= settings.flakeScarSupportMin) {
       const scar = splitFlakeScars(region, regionCount, (r) => programClasses[r] === 'medullary', (r) => programClasses[r] === 'outer-cortical' || programClasses[r] === 'articular', (f) => facing[f] === 2, topo.neighbours, filtered, areas, triMean, rays, {

@@ -77,6 +77,23 @@ export const analysisSettingsSchema = z.object({
    * 7.5 mm of wall on one side and 18 mm on the other).
    */
   flakeScarSupportMin: z.number().min(0).max(1).default(0.65),
+  /**
+   * Breaks read as outer surface (shallow-outer-regions.ts): a region read outer cortical whose
+   * inward rays leave head-on through regions read medullary after a median depth under this
+   * share of the fragment's reference crossing (the median of all such crossings: its cortex)
+   * lies inside the wall, a bevel or the step of an outer flake, and is read as break (0: off).
+   * Dev (segmentation-outer-step-study.ts, 11 sets, axis support at least 0.65): breaks read
+   * outer 0.03-0.44, true outer surface 0.74 and more.
+   */
+  shallowOuterDepthRatio: z.number().min(0).max(1).default(0.5),
+  /** ...a region needs at least this many such crossings (and the fragment as many) before its median is read. */
+  shallowOuterMinRays: z.number().int().min(1).default(10),
+  /**
+   * ...only on fragments whose axis support is at least this (as flakeScarSupportMin): bone
+   * ends (support 0.56-0.64 on dev) hold crossings of 17-57 mm beside the shaft's 5-9 mm, and
+   * their true outer surface then reads 0.23-0.41.
+   */
+  shallowOuterSupportMin: z.number().min(0).max(1).default(0.65),
   /** Regions smaller than this share of the fragment's area are merged into a neighbour. */
   minRegionAreaShare: z.number().min(0).max(0.5).default(0.002),
   /**
