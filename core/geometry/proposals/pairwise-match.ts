@@ -23,6 +23,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
 import { repeatsMotion } from './repeated-motion';
+import { consensusMotion } from './screen-consensus';
 
 export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
@@ -125,6 +126,17 @@ export interface MatchParameters {
    * instead of under 1); on the committed sample it is no better (DEVELOPERS.md).
    */
   screenWays?: 'given' | 'smaller' | 'both';
+  /**
+   * A face pair's screened motion that at least this many of its coarse motions ended at (after
+   * the short ICP, within 3 degrees and 2 spacings of it, each putting at least minOverlap of the
+   * smaller face in contact) goes on to the fine step beside the fineHypotheses best by rank, when
+   * it is not one of them (screen-consensus.ts; 0 or left out: none). 3 since session 22: the
+   * overlap share ranks a wrong turn that covers a small face above the truth, while several
+   * starts ending at one motion mark the truth's wide basin; on the true joins of dev s340 at 200
+   * fragments that stored nothing (stored-gap-study.ts) stored right 209 -> 212 of 277 with 2 or
+   * 3, none lost (DEVELOPERS.md, "The screen's consensus motion").
+   */
+  screenConsensusMin?: number;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** A face pair's screened motions go on to the fine step while their rank is at least this share of the best one's. */
@@ -223,6 +235,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   axisGoodOverlap: 0.35,
   axisSettlesDirections: false,
   screenAxisTiltDeg: [20, 45],
+  screenConsensusMin: 3,
   minOverlap: 0.08,
   screenKeepRatio: 0.7,
   screenIcpDistanceSpacings: 3,
@@ -321,12 +334,16 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     .map((r) => ({ r, rank: r.overlap * screenAxisConsistency(a.axis, b.axis, r.transform, FB.centroid, params.screenAxisTiltDeg) }))
     .sort((p, q) => q.rank - p.rank);
   const kept: CoarseMotion[] = [];
+  const near = (k: CoarseMotion, r: CoarseMotion): boolean => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing;
   for (const { r, rank } of ranked) {
     if (rank <= 0 || (kept.length && rank < params.screenKeepRatio * ranked[0].rank)) break;
-    if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
+    if (kept.some((k) => near(k, r))) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
   }
+  // the motion most starts ended at goes on as well (screen-consensus.ts), when enough did
+  const consensus = consensusMotion(ranked, kept, FB.centroid, 3, 2 * spacing, params.screenConsensusMin ?? 0);
+  if (consensus) kept.push(consensus);
   if (trace) trace.kept.push(...kept.map((k) => k.transform));
   return kept;
 }
@@ -685,7 +702,6 @@ export function fineShortlist<T extends { i: number; j: number; motion: CoarseMo
   }
   return out;
 }
-
 
 /** Sort by score and drop motions that repeat a better one (within 3 degrees and `shift` mm). */
 export function distinctBest(list: FaceMatch[], shift: number): FaceMatch[] {
