@@ -13,6 +13,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { sizeClassCompatible } from '../../core/geometry/proposals/candidate-index';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT, partnerCost } from '../../core/geometry/proposals/face-descriptor';
+import { cappedCauchyLoss } from '../../core/geometry/proposals/capped-cauchy-loss';
 import { readStudy, sizeClassesFromCsv } from './candidate-recall';
 import { loadSet, ranks } from './candidate-rules';
 
@@ -24,7 +25,7 @@ if (process.argv[1]?.endsWith('candidate-misses.ts')) {
   const n = s.nFaces;
   // loadSet's fragments are readStudy's, without the fragments that have no faces
   const study = readStudy(dir).filter((f) => f.faces.length > 0);
-  const flat = study.flatMap((f) => f.faces.map((x, i) => ({ no: f.no, patch: x.parent !== i, samples: x.samples, share: Math.max(0, ...Object.values(x.breaks)) })));
+  const flat = study.flatMap((f) => f.faces.map((x, i) => ({ no: f.no, patch: f.faces.findIndex((y) => y.parent === x.parent) !== i, samples: x.samples, share: Math.max(0, ...Object.values(x.breaks)) })));
   const classes = process.env.KNITBONE_SIZE_CLASS === '0' || !existsSync(join(dir, 'specimens.csv')) ? undefined : sizeClassesFromCsv(readFileSync(join(dir, 'specimens.csv'), 'utf8'));
   const ok = classes ? sizeClassCompatible(study.map((f) => classes.get(f.no) ?? null)) : () => true;
   const C = new Float32Array(n * n).fill(Infinity);
@@ -37,12 +38,12 @@ if (process.argv[1]?.endsWith('candidate-misses.ts')) {
   const F = DESCRIPTOR_FIGURES.length;
   const contributions = (x: number, y: number): number[] => {
     const A = s.desc[x], B = s.desc[y];
-    const out = DESCRIPTOR_FIGURES.map(({ scale, weight, opposite }, c) => {
+    const out = DESCRIPTOR_FIGURES.map(({ scale, weight, opposite, cap }, c) => {
       const u = A.figures[c], v = B.figures[c];
       if (weight === 0) return 0;
       if (Number.isNaN(u) || Number.isNaN(v)) return weight * Math.log(2);
       const z = (opposite ? u + v : u - v) / scale;
-      return weight * Math.log1p(z * z);
+      return weight * cappedCauchyLoss(z, cap);
     });
     let d = 0;
     for (let m = 0; m < A.mirrored.length; m++) d += (A.mirrored[m] - B.fpfh[m]) ** 2;

@@ -10,6 +10,7 @@
  *   npx tsx tests/bench/candidate-weights-rows.ts <demo-dir>[,<demo-dir>...] [rounds]
  *   CANDIDATE_WEIGHTS='<json>' only reports the given parameters.
  */
+import { cappedCauchyLoss } from '../../core/geometry/proposals/capped-cauchy-loss';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../core/geometry/proposals/face-descriptor';
 import { fitOrReport, type CostParameters } from './candidate-weights';
 import { loadSet, type RuleSet } from './candidate-rules';
@@ -38,7 +39,7 @@ function termsFor(r: Rows, c: number, scale: number): Uint16Array {
     const x = s.desc[rows[a]].figures[c];
     for (let j = 0; j < n; j++) {
       const y = s.desc[j].figures[c];
-      const v = Number.isNaN(x) || Number.isNaN(y) ? MISSING : Math.log1p(((opp ? x + y : x - y) / scale) ** 2);
+      const v = Number.isNaN(x) || Number.isNaN(y) ? MISSING : cappedCauchyLoss((opp ? x + y : x - y) / scale, DESCRIPTOR_FIGURES[c].cap);
       out[a * n + j] = Math.min(65535, Math.round(v * Q));
     }
   }

@@ -9,6 +9,7 @@
  * only reports the given parameters (to check a fit on an assemblage it was not fitted on).
  *   npx tsx tests/bench/candidate-weights.ts <demo-dir>[,<demo-dir>...] [rounds]
  */
+import { cappedCauchyLoss } from '../../core/geometry/proposals/capped-cauchy-loss';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../core/geometry/proposals/face-descriptor';
 import { loadSet, type RuleSet } from './candidate-rules';
 
@@ -46,7 +47,7 @@ function cost(p: Parts, q: CostParameters): Float32Array {
     const D = p.diff[c], s = q.sc[c];
     for (let x = 0; x < n * n; x++) {
       const v = D[x];
-      C[x] += Number.isNaN(v) ? w * MISSING : w * Math.log1p((v / s) ** 2);
+      C[x] += Number.isNaN(v) ? w * MISSING : w * cappedCauchyLoss(v / s, DESCRIPTOR_FIGURES[c].cap);
     }
   });
   // faces of one fragment, and fragments of different recorded size classes, never pair

@@ -14,6 +14,7 @@ import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } fro
 import { readFragment, readPrepared } from '../../core/jobs/fragment-cache';
 import type { StudyFragment } from './candidate-study';
 import { isCorrectMotion } from './correct-motion';
+import { screenAxisConsistency } from '../../core/geometry/proposals/screen-measures';
 
 interface Join { a: string; b: string; type: string; transformBToA: number[] }
 interface Rec { join: string; cause: string; truePairs?: Array<{ faces: [number, number] }> }
@@ -54,7 +55,8 @@ for (const r of recs) {
     for (const { faces: [x, y] } of r.truePairs!) {
       const tr: MatchTrace = { coarse: [], refined: [], kept: [] };
       const t0 = process.cpuUsage();
-      screenFacePair(A, x, B, y, { ...DEFAULT_MATCH_PARAMETERS, ...v.p }, tr);
+      const prm = { ...DEFAULT_MATCH_PARAMETERS, ...v.p };
+      screenFacePair(A, x, B, y, prm, tr);
       const d = process.cpuUsage(t0);
       cpu.set(v.name, (cpu.get(v.name) ?? 0) + (d.user + d.system) / 1000);
       hyps += tr.coarse.length;
@@ -63,7 +65,7 @@ for (const r of recs) {
       if (rank[st] > rank[best]) best = st;
       if (process.env.KNITBONE_EXP_VERBOSE) {
         console.log(`  ${v.name} faces ${x},${y} n ${A.faces[x].points.length / 3}/${B.faces[y].points.length / 3} axes ${!!A.axis}/${!!B.axis} r ${A.axis?.radius.toFixed(1)}/${B.axis?.radius.toFixed(1)}`);
-        tr.coarse.forEach((T, k) => console.log(`    coarse ${k}: rot ${rotationErrorDegrees(T, want).toFixed(1)} disp ${displacementAt(T, want, B.centroid).toFixed(1)} -> icp rot ${rotationErrorDegrees(tr.refined[k].transform, want).toFixed(1)} disp ${displacementAt(tr.refined[k].transform, want, B.centroid).toFixed(1)} ov ${tr.refined[k].overlap.toFixed(2)}`));
+        tr.coarse.forEach((T, k) => console.log(`    coarse ${k}: rot ${rotationErrorDegrees(T, want).toFixed(1)} disp ${displacementAt(T, want, B.centroid).toFixed(1)} -> icp rot ${rotationErrorDegrees(tr.refined[k].transform, want).toFixed(1)} disp ${displacementAt(tr.refined[k].transform, want, B.centroid).toFixed(1)} ov ${tr.refined[k].overlap.toFixed(2)} axes ${screenAxisConsistency(A.axis, B.axis, tr.refined[k].transform, B.faces[y].centroid, prm.screenAxisTiltDeg).toFixed(2)}${tr.kept.includes(tr.refined[k].transform) ? ' kept' : ''}`));
       }
     }
     tally.set(v.name + best, (tally.get(v.name + best) ?? 0) + 1);

@@ -56,15 +56,28 @@
  */
 import { FPFH_DIM } from '../registration/fpfh';
 import { mirrorFpfh } from '../registration/ransac-alignment';
+import { cappedCauchyLoss } from './capped-cauchy-loss';
 import { principalSpread, type FaceTraits } from './face-traits';
+
+/**
+ * Where the rim wall's loss stops growing (`cappedCauchyLoss`), in scales: a difference of 0.5
+ * in log thickness (a ratio of 1.65) costs as much as any larger one. Of the true joins of dev
+ * seed 340 at 200 fragments that the index lost at k = 30, the rim wall alone put 16 out of
+ * reach, some of them through readings no wall has (0.6 or 27 mm beside 6-8 mm on the partner:
+ * rays that left through the far side of the shaft or through a sliver). Chosen from caps of
+ * 3-10 on dev s340 and s502 at 200 fragments and seed 160 at 1,000 (DEVELOPERS.md, pruning
+ * section); no cap on the other figures (a cap on all of them lost 0.6-2 points).
+ */
+export const RIM_WALL_LOSS_CAP = 5;
 
 /**
  * Name, scale (median |difference| across true breaks) and weight of each figure of
  * `descriptorFigures`; a weight of 0 leaves the figure out of the cost. A figure marked
  * `opposite` is seen by the partner with the other sign, so two faces are compared by the sum
- * of their values, not the difference.
+ * of their values, not the difference. A figure with a `cap` costs no more beyond a difference
+ * of that many scales (`cappedCauchyLoss`).
  */
-export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number; opposite?: boolean }> = [
+export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; weight: number; opposite?: boolean; cap?: number }> = [
   { name: 'log area', scale: 0.51, weight: 0.35 },
   { name: 'log extent 1', scale: 0.0775, weight: 0.7 },
   { name: 'log extent 2', scale: 0.35, weight: 0 },
@@ -76,7 +89,7 @@ export const DESCRIPTOR_FIGURES: ReadonlyArray<{ name: string; scale: number; we
   { name: 'log cortical thickness', scale: 0.19, weight: 0 },
   { name: 'log span along axis', scale: 0.28, weight: 2 },
   { name: 'share of circumference', scale: 0.14, weight: 0.175 },
-  { name: 'log wall thickness at the rim', scale: 0.1, weight: 5.6 },
+  { name: 'log wall thickness at the rim', scale: 0.1, weight: 5.6, cap: RIM_WALL_LOSS_CAP },
   { name: 'normal cosine with the axis', scale: 0.025, weight: 1.4 },
   { name: 'normal lean out from the axis', scale: 0.1, weight: 2, opposite: true },
 ];
@@ -120,7 +133,7 @@ export function describeFace(t: FaceTraits): FaceDescriptor {
 export function partnerCost(a: FaceDescriptor, b: FaceDescriptor): number {
   let s = 0;
   for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) {
-    const { scale, weight, opposite } = DESCRIPTOR_FIGURES[c];
+    const { scale, weight, opposite, cap } = DESCRIPTOR_FIGURES[c];
     if (weight === 0) continue;
     const x = a.figures[c], y = b.figures[c];
     if (Number.isNaN(x) || Number.isNaN(y)) {
@@ -128,7 +141,7 @@ export function partnerCost(a: FaceDescriptor, b: FaceDescriptor): number {
       continue;
     }
     const z = (opposite ? x + y : x - y) / scale;
-    s += weight * Math.log1p(z * z);
+    s += weight * cappedCauchyLoss(z, cap);
   }
   let d = 0;
   const n = Math.min(a.mirrored.length, b.fpfh.length);

@@ -22,6 +22,8 @@ import type { PreparedFace, PreparedFragment } from './prepared-fragment';
 import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
+import { repeatsMotion } from './repeated-motion';
+import { consensusMotion } from './screen-consensus';
 
 export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
@@ -72,6 +74,20 @@ export interface MatchParameters {
   /** Samples of the smaller face in the vote, and reference samples of the larger face. */
   pairVoteSamples: number;
   pairVoteReferences: number;
+  /**
+   * Whether RANSAC (smallPairRansac) and the search along the axis directions (smallPairDirections)
+   * still run on a face pair that pair voting serves (pairVoteHypotheses above 0 and the smaller
+   * face at most pairVoteMaxFaceSamples samples; left out: true, as before session 22). false since
+   * session 22: FPFH over a radius as wide as a small face barely differ from sample to sample, and
+   * a wrong turn about the axis covers a small face as well as the truth, so on such pairs the
+   * motions that reach the fine step come from pair voting and the shared axis; most of them are
+   * the small breaks matched as pieces (facePieceSplitMinAreaMm2). Dev s340 at 200 fragments (all
+   * 304 candidate fragment pairs of true joins and 145 others, tests/bench/match-truth-ab.ts):
+   * RANSAC off 193 -> 194 true pairs whose best motion is correct (-1 +2), matching CPU -3.1%;
+   * the direction search off 193 -> 194 (-1 +2), -6.4%.
+   */
+  smallPairRansac?: boolean;
+  smallPairDirections?: boolean;
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
   maxRadiusRatio: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
@@ -110,6 +126,17 @@ export interface MatchParameters {
    * instead of under 1); on the committed sample it is no better (DEVELOPERS.md).
    */
   screenWays?: 'given' | 'smaller' | 'both';
+  /**
+   * A face pair's screened motion that at least this many of its coarse motions ended at (after
+   * the short ICP, within 3 degrees and 2 spacings of it, each putting at least minOverlap of the
+   * smaller face in contact) goes on to the fine step beside the fineHypotheses best by rank, when
+   * it is not one of them (screen-consensus.ts; 0 or left out: none). 3 since session 22: the
+   * overlap share ranks a wrong turn that covers a small face above the truth, while several
+   * starts ending at one motion mark the truth's wide basin; on the true joins of dev s340 at 200
+   * fragments that stored nothing (stored-gap-study.ts) stored right 209 -> 212 of 277 with 2 or
+   * 3, none lost (DEVELOPERS.md, "The screen's consensus motion").
+   */
+  screenConsensusMin?: number;
   /** Hypotheses whose overlap share is below this are dropped before the fine step. */
   minOverlap: number;
   /** A face pair's screened motions go on to the fine step while their rank is at least this share of the best one's. */
@@ -134,10 +161,22 @@ export interface MatchParameters {
    * principal-frame motions joined the screen: more faces per fragment and more screened motions
    * per face pair; the sample join of fine-shortlist.test.ts is found with 16 after the pieces
    * alone (not with 12-14) and with 24 after both (not with 16-20).
+   * fineRatio 0.5 (was 0.3) since session 22: on dev s340 at 200 fragments (the shortlists of 495
+   * fragment pairs replayed, tests/bench/shortlist-kind-study.ts) 6% fewer fine runs and every
+   * pair's best motion as before; with 0.6 a true join's correct best motion is lost.
    */
   finePerFragmentPair: number;
   fineMinOverlap: number;
   fineRatio: number;
+  /**
+   * A screened motion does not take a place in the fine shortlist when a better one already there
+   * came from a face pair of the same two faces (the whole face or any of its pieces and patches
+   * on each side) and lies within fineRepeatDeg degrees and fineRepeatSpacings sample spacings
+   * (at B's face centroid) of it (0 or left out: no such check). A piece's motion that coincides
+   * with its whole face's converges to about the same place in the fine step.
+   */
+  fineRepeatDeg?: number;
+  fineRepeatSpacings?: number;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -190,17 +229,22 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   pairVoteMaxFaceSamples: 150,
   pairVoteSamples: 120,
   pairVoteReferences: 30,
+  smallPairRansac: false,
+  smallPairDirections: false,
   maxRadiusRatio: 1.35,
   axisGoodOverlap: 0.35,
   axisSettlesDirections: false,
   screenAxisTiltDeg: [20, 45],
+  screenConsensusMin: 3,
   minOverlap: 0.08,
   screenKeepRatio: 0.7,
   screenIcpDistanceSpacings: 3,
   fineHypotheses: 2,
   finePerFragmentPair: 24,
   fineMinOverlap: 0.2,
-  fineRatio: 0.3,
+  fineRatio: 0.5,
+  fineRepeatDeg: 2,
+  fineRepeatSpacings: 1,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
@@ -290,12 +334,16 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
     .map((r) => ({ r, rank: r.overlap * screenAxisConsistency(a.axis, b.axis, r.transform, FB.centroid, params.screenAxisTiltDeg) }))
     .sort((p, q) => q.rank - p.rank);
   const kept: CoarseMotion[] = [];
+  const near = (k: CoarseMotion, r: CoarseMotion): boolean => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing;
   for (const { r, rank } of ranked) {
     if (rank <= 0 || (kept.length && rank < params.screenKeepRatio * ranked[0].rank)) break;
-    if (kept.some((k) => rotationErrorDegrees(k.transform, r.transform) < 3 && displacementAt(k.transform, r.transform, FB.centroid) < 2 * spacing)) continue;
+    if (kept.some((k) => near(k, r))) continue;
     kept.push(r);
     if (kept.length >= params.fineHypotheses) break;
   }
+  // the motion most starts ended at goes on as well (screen-consensus.ts), when enough did
+  const consensus = consensusMotion(ranked, kept, FB.centroid, 3, 2 * spacing, params.screenConsensusMin ?? 0);
+  if (consensus) kept.push(consensus);
   if (trace) trace.kept.push(...kept.map((k) => k.transform));
   return kept;
 }
@@ -328,7 +376,7 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
   const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
   // a small face is easily covered by a wrong turn about the axis: it never settles the search
   let settled = shafts && !small && good(refined, params.axisGoodOverlap);
-  if (a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections)) {
+  if (a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections) && !(small && params.pairVoteHypotheses > 0 && params.smallPairDirections === false)) {
     const hyps = timed(trace?.times, 'axis directions', () => searchAlongAxisDirections(a.axis!.direction, FA.points, FA.normals, b.axis!.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg }));
     const more = refine(hyps.map((h) => h.transform));
     refined = refined.concat(more);
@@ -337,7 +385,7 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
   }
   // 2. general path (and shaft pieces whose axes find nothing): FPFH correspondences, RANSAC
   if (!settled) {
-    const hyps = params.hypothesesPerPair <= 0 ? [] : timed(trace?.times, 'ransac', () => ransacAlignFaces(
+    const hyps = params.hypothesesPerPair <= 0 || (small && params.pairVoteHypotheses > 0 && params.smallPairRansac === false) ? [] : timed(trace?.times, 'ransac', () => ransacAlignFaces(
       { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, mirroredFpfh: FB.mirroredFpfh, mirroredFeatureFpfh: FB.mirroredFeatureFpfh },
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, featureFpfh: FA.featureFpfh },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
@@ -642,7 +690,17 @@ export function fineShortlist<T extends { i: number; j: number; motion: CoarseMo
     .map((s) => ({ s, rank: s.motion.overlap * Math.min(1, screenInterlock(a.faces[s.i], b.faces[s.j], s.motion.transform, spacing) / LOCKED_INTERLOCK) }))
     .sort((p, q) => q.rank - p.rank);
   const best = ranked[0]?.rank ?? 0;
-  return ranked.filter((r) => r.rank >= params.fineRatio * best).slice(0, params.finePerFragmentPair).map((r) => r.s);
+  const within = ranked.filter((r) => r.rank >= params.fineRatio * best).map((r) => r.s);
+  const deg = params.fineRepeatDeg ?? 0;
+  if (!(deg > 0)) return within.slice(0, params.finePerFragmentPair);
+  const shift = (params.fineRepeatSpacings ?? 0) * spacing;
+  const out: T[] = [];
+  for (const s of within) {
+    if (out.length >= params.finePerFragmentPair) break;
+    if (out.some((o) => repeatsMotion(a, b, o, s, deg, shift))) continue;
+    out.push(s);
+  }
+  return out;
 }
 
 /** Sort by score and drop motions that repeat a better one (within 3 degrees and `shift` mm). */

@@ -9,26 +9,11 @@
  * amplitude is another break.
  */
 import { describe, expect, it } from 'vitest';
-import { brokenTube, type Cut } from '../broken-tube';
-import { breakFaceFromLabels } from '../../../support/break-face-from-labels';
+import type { Cut } from '../broken-tube';
+import { firstBreakFaceTraits } from './first-break-face-traits';
 import { candidateFacePairs, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
 import { describeFace, partnerCost } from '../../../../core/geometry/proposals/face-descriptor';
-import { fragmentFaceTraits, type FaceTraits } from '../../../../core/geometry/proposals/face-traits';
-import { prepareFragment } from '../../../../core/geometry/proposals/prepared-fragment';
-
-const spacing = 1;
-const zAxis = { direction: [0, 0, 1] as [number, number, number], point: [0, 0, 0] as [number, number, number], support: 1 };
-
-/** Traits of the first cut's break face of a broken tube (the face from the construction's labels). */
-async function firstBreakFace(cuts: Cut[], roughness: number): Promise<FaceTraits> {
-  const tube = await brokenTube({ cuts, roughness });
-  const { positions, triangles } = tube.mesh;
-  const label = Uint8Array.from(tube.cutOf, (c) => (c === 0 ? 1 : 0));
-  const ids: number[] = [];
-  label.forEach((v, t) => { if (v) ids.push(t); });
-  const input = { positions, triangles, faces: [{ ...breakFaceFromLabels(positions, triangles, label, spacing), triangleIds: Uint32Array.from(ids) }] };
-  return fragmentFaceTraits(input, prepareFragment(input, { spacing, fpfhRadiusSpacings: 5, patches: false }), zAxis)[0];
-}
+import type { FaceTraits } from '../../../../core/geometry/proposals/face-traits';
 
 const above: Cut = { normal: [0, 0, 1], offset: 0 };
 const below: Cut = { normal: [0, 0, -1], offset: 0 };
@@ -36,13 +21,13 @@ const below: Cut = { normal: [0, 0, -1], offset: 0 };
 describe('the relief of a break across the shaft', () => {
   it('is the same on both sides of one break, and the face ranks its partner, met only in part, ahead of whole breaks of another relief', async () => {
     const r = 0.5;
-    const face = await firstBreakFace([above], r);
+    const face = await firstBreakFaceTraits([above], r);
     // the other side of the same break, split lengthwise: half and three quarters of the ring remain
-    const half = await firstBreakFace([below, { normal: [0, 1, 0], offset: 0 }], r);
-    const most = await firstBreakFace([below, { normal: [0, 1, 0], offset: -6 }], r);
+    const half = await firstBreakFaceTraits([below, { normal: [0, 1, 0], offset: 0 }], r);
+    const most = await firstBreakFaceTraits([below, { normal: [0, 1, 0], offset: -6 }], r);
     // whole rings of other breaks across the shaft, their relief 1.5 times larger and smaller
-    const rougher = await firstBreakFace([below], 1.5 * r);
-    const smoother = await firstBreakFace([below], r / 1.5);
+    const rougher = await firstBreakFaceTraits([below], 1.5 * r);
+    const smoother = await firstBreakFaceTraits([below], r / 1.5);
     const logRelief = (t: FaceTraits): number => Math.log(t.extents[2]);
     // one break, one relief: within 0.05 in log (about 5%) on a part of the ring, while the other breaks differ by more than 0.3
     for (const p of [half, most]) expect(Math.abs(logRelief(p) - logRelief(face))).toBeLessThan(0.05);
