@@ -7,7 +7,9 @@
  * the fragment's area-weighted z (BoneShape.center and tangent), as in segmentation-ellipse-study.ts;
  * segmentation-axis-study.ts and segmentation-section-study.ts take the bone's straight z axis,
  * which on a long piece of a bowed bone lies several mm off (s362 QS-10053: the straight axis
- * reads 69.7 % with the pipeline, the bowed centre line 98.2 %).
+ * reads 69.7 % with the pipeline, the bowed centre line 98.2 %). Also the wall-crossing share
+ * (wall-crossing.ts) and the consensus score split by truth class at the fitted, final and
+ * generator's centres (which surface supports each centre).
  * Run: npx tsx tests/bench/segmentation-axis-stages.ts DIR QS-1,QS-2 [settings JSON]
  */
 import { readFileSync } from 'node:fs';
