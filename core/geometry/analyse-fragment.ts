@@ -120,7 +120,7 @@ export function analyseFragment(
   const filtered = bilateralNormalFilter(triNormals, areas, centroids, topo.neighbours, settings.normalFilterIterations, settings.normalFilterRange);
   const rays = castWallRays(mesh, filtered, centroids, settings.maxWallRays, undefined, settings.outwardHitWeight > 0);
   const settled = settleAxisSide(fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin },
-    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin }), centroids, filtered, areas, triMean,
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin }), centroids, filtered, areas, triMean,
     { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   // The segment fitted in direction and extent where it is kept, else the one along the line from the area centroid to the centre.
   const sectioned = settings.sectionSegmentReaches.length > 0
@@ -128,7 +128,7 @@ export function analyseFragment(
       reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin,
       neitherWeight: settings.sectionSegmentNeitherWeight, neitherLossMax: settings.sectionSegmentNeitherLossMax,
       supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
-    })
+    }, { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin })
     : settled;
   const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).

@@ -125,6 +125,20 @@ export const analysisSettingsSchema = z.object({
    * support 0.54, and s372 QS-10101, 0.57, lost 1.6-1.7 points with the check).
    */
   shaftCentreWallSupportMin: z.number().min(0).max(1).default(0.65),
+  /**
+   * Stricter wall check on clear shaft pieces (axis support at least shaftCentreWallStrictSupportMin:
+   * no bone end, so the axis must lie in the cavity or the air about the piece along its whole
+   * length): a candidate centre with a wallCrossingShare above this is refused, in fitShaftAxis's
+   * consensus and reweighting and in the section segment / point search (fitSectionSegment: a
+   * point, or a segment at either end or its middle). 0: off. Why 0.2: a consensus centre
+   * landed on the meeting point of a thick tibia slab's break faces (s362 QS-10053, share 0.34,
+   * 15 mm off; the generator's centre 0.00) and passed the 0.5 of shaftCentreWallShareMax; a
+   * global 0.2 refused true centres of pieces with a bone end (s372 QS-10771: the generator's
+   * centre reads 0.38, support 0.74), hence the support gate.
+   */
+  shaftCentreWallStrictShareMax: z.number().min(0).max(1).default(0.2),
+  /** Least axis support for shaftCentreWallStrictShareMax (pieces read as no bone end). */
+  shaftCentreWallStrictSupportMin: z.number().min(0).max(1).default(0.85),
   /** How near (mm) a wall ray's line must pass a candidate centre to be aimed at it (shaftCentreWallShareMax). */
   shaftCentreWallToleranceMm: z.number().positive().default(1),
   /**

@@ -117,7 +117,7 @@ export function fitMedialSegment(
  */
 export function fitShaftAxis(
   centroids: Float32Array, normals: Float32Array, areas: Float64Array, centreTolerance?: number, directionSearch?: { gain: number; count: number; supportMin: number },
-  wall?: { rays: { triangles: Uint32Array; distance: Float32Array }; shareMax: number; tolerance: number; supportMin: number },
+  wall?: { rays: { triangles: Uint32Array; distance: Float32Array }; shareMax: number; tolerance: number; supportMin: number; strictShareMax?: number; strictSupportMin?: number },
 ): ShaftAxis {
   const nt = areas.length;
   let dir = refineDirection(normals, areas, smallestEigen(normals, areas, () => true));
@@ -137,9 +137,13 @@ export function fitShaftAxis(
   // Candidate centres inside the wall (wall-crossing.ts) are refused where the wall rays are
   // given and the piece is a shaft piece (`supportMin` of its area along the axis): the axis
   // of a piece holding a bone end runs through the end's solid bone.
-  const segments = wall && wall.shareMax > 0 && acrossShare(normals, areas, dir) >= wall.supportMin
+  // On a clear shaft piece (strictSupportMin of its area along the axis: no bone end, whose
+  // solid bone the axis would run through) the stricter strictShareMax applies.
+  const across = wall ? acrossShare(normals, areas, dir) : 0;
+  const shareMax = wall ? wallShareMax(wall, across) : 0;
+  const segments = wall && shareMax > 0 && across >= wall.supportMin
     ? wallSegments(wall.rays, centroids, normals, areas, dir, [ux, uy, uz], [vx, vy, vz]) : undefined;
-  const refuse = segments && wall ? (cu: number, cv: number): boolean => wallCrossingShare(segments, cu, cv, wall.tolerance) > wall.shareMax : undefined;
+  const refuse = segments && wall ? (cu: number, cv: number): boolean => wallCrossingShare(segments, cu, cv, wall.tolerance) > shareMax : undefined;
   const start = centreTolerance ? consensusCentre(centroids, normals, areas, dir, [ux, uy, uz], [vx, vy, vz], centreTolerance, refuse) : undefined;
   let first = 0;
   if (start) {
@@ -197,6 +201,12 @@ export function fitShaftAxis(
   const point: [number, number, number] = [cu * ux + cv * vx + mid * ax, cu * uy + cv * vy + mid * ay, cu * uz + cv * vz + mid * az];
   const radius = outerRadius(centroids, normals, areas, dir, point);
   return { direction: dir, point, radius, support: total ? supported / total : 0 };
+}
+
+/** The wall-crossing share above which a candidate centre is refused, for a piece with `across` of its area along the axis. */
+function wallShareMax(wall: { shareMax: number; strictShareMax?: number; strictSupportMin?: number }, across: number): number {
+  const strict = wall.strictShareMax ?? 0;
+  return strict > 0 && across >= (wall.strictSupportMin ?? Infinity) && (wall.shareMax <= 0 || strict < wall.shareMax) ? strict : wall.shareMax;
 }
 
 /** Share of the area whose normal runs within 20 degrees of perpendicular to `d` (the axis support of that direction). */
@@ -498,6 +508,7 @@ export interface SectionRays { triangles: Uint32Array; exitCosine: Float32Array;
 export function fitSectionSegment(
   axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: SectionRays,
   options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; neitherLossMax: number; supportMin: number; maxRows: number; pointGain?: number; pointSupportMin?: number; pointLineShareMin?: number; centreTolerance?: number },
+  wall?: { rays: { triangles: Uint32Array; distance: Float32Array }; shareMax: number; tolerance: number; supportMin: number; strictShareMax?: number; strictSupportMin?: number },
 ): ShaftAxis {
   const segmentAllowed = axis.support >= options.supportMin;
   const pointAllowed = options.pointGain !== undefined && axis.support >= (options.pointSupportMin ?? options.supportMin);
@@ -541,6 +552,12 @@ export function fitSectionSegment(
   const width = Math.max(uMax - uMin, vMax - vMin);
   const c0u = axis.point[0] * ux + axis.point[1] * uy + axis.point[2] * uz;
   const c0v = axis.point[0] * vx + axis.point[1] * vy + axis.point[2] * vz;
+  // As in fitShaftAxis, on a clear shaft piece only (strictSupportMin): a point or segment inside
+  // the wall (wall-crossing.ts, above strictShareMax) is refused; a segment is checked at its two
+  // ends and its middle.
+  const strict = wall && (wall.strictShareMax ?? 0) > 0 && axis.support >= (wall.strictSupportMin ?? Infinity);
+  const segments = strict && wall ? wallSegments(wall.rays, centroids, normals, areas, axis.direction, [ux, uy, uz], [vx, vy, vz]) : undefined;
+  const inWall = (su: number, sv: number): boolean => segments !== undefined && wall !== undefined && wallCrossingShare(segments, su, sv, wall.tolerance) > wall.strictShareMax!;
   // Radial component of a 2D normal at (x, y) against the segment from (su, sv) along (du, dv), lengths h1 forward, h2 back.
   const radial = (x: number, y: number, nu: number, nv: number, su: number, sv: number, du: number, dv: number, h1: number, h2: number): number => {
     const rx = x - su, ry = y - sv;
@@ -604,7 +621,7 @@ export function fitSectionSegment(
     // surface (a lens-shaped cavity's flat faces) that faces another point more squarely.
     const lines = (cu0: number, cv0: number): number => normalLineSupport(cu0, cv0, px, py, mx, my, w, options.centreTolerance ?? 0.45, Infinity);
     if (pointAllowed && bestPoint.s > consensus * (1 + options.pointGain!)
-      && lines(bestPoint.su, bestPoint.sv) >= (options.pointLineShareMin ?? 0) * lines(c0u, c0v)) {
+      && lines(bestPoint.su, bestPoint.sv) >= (options.pointLineShareMin ?? 0) * lines(c0u, c0v) && !inWall(bestPoint.su, bestPoint.sv)) {
       const point = at(bestPoint.su, bestPoint.sv);
       return { ...axis, point, radius: outerRadius(centroids, normals, areas, axis.direction, point) };
     }
@@ -622,6 +639,8 @@ export function fitSectionSegment(
   for (let k = 0; k < n; k++) if (Number.isNaN(ex[k])) loose += w[k];
   if (neither(best.su, best.sv, best.theta, best.h1, best.h2) < neither(c0u, c0v, 0, 0, 0) - options.neitherLossMax * loose) return axis;
   const du = Math.cos(best.theta), dv = Math.sin(best.theta);
+  if (inWall(best.su + best.h1 * du, best.sv + best.h1 * dv) || inWall(best.su - best.h2 * du, best.sv - best.h2 * dv)
+    || inWall(best.su + 0.5 * (best.h1 - best.h2) * du, best.sv + 0.5 * (best.h1 - best.h2) * dv)) return axis;
   const d3: [number, number, number] = [du * ux + dv * vx, du * uy + dv * vy, du * uz + dv * vz];
   const t = axis.point[0] * ax + axis.point[1] * ay + axis.point[2] * az;
   const su = best.su - best.h2 * du, sv = best.sv - best.h2 * dv;

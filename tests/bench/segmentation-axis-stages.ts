@@ -7,7 +7,9 @@
  * the fragment's area-weighted z (BoneShape.center and tangent), as in segmentation-ellipse-study.ts;
  * segmentation-axis-study.ts and segmentation-section-study.ts take the bone's straight z axis,
  * which on a long piece of a bowed bone lies several mm off (s362 QS-10053: the straight axis
- * reads 69.7 % with the pipeline, the bowed centre line 98.2 %).
+ * reads 69.7 % with the pipeline, the bowed centre line 98.2 %). Also the wall-crossing share
+ * (wall-crossing.ts) and the consensus score split by truth class at the fitted, final and
+ * generator's centres (which surface supports each centre).
  * Run: npx tsx tests/bench/segmentation-axis-stages.ts DIR QS-1,QS-2 [settings JSON]
  */
 import { readFileSync } from 'node:fs';
@@ -20,6 +22,8 @@ import { analysisSettings } from '../../core/geometry/settings';
 import { fitMedialSegment, fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../core/geometry/shaft-axis';
 import { ellipseFitOptions, fitEllipseSection } from '../../core/geometry/shaft-section';
 import { castWallRays } from '../../core/geometry/wall-rays';
+import { wallCrossingShare, wallSegments } from '../../core/geometry/wall-crossing';
+import { acrossAxisBasis } from '../../core/geometry/shaft-axis';
 import { buildTopology, triangleComponents } from '../../core/geometry/topology';
 import { keepTriangles, weldVertices } from '../../core/geometry/weld';
 import { principalCurvatures } from '../../core/geometry/curvature';
@@ -40,7 +44,9 @@ for (const no of nos.split(',')) {
   const labels = Buffer.from(frag.triangleLabels, 'base64');
   const welded = weldVertices(parsed.mesh, settings.weldToleranceMm);
   const comps = triangleComponents(welded.mesh);
-  const mesh = comps.sizes.length > 1 ? keepTriangles(welded.mesh, (f) => comps.component[f] === 0).mesh : welded.mesh;
+  const keptPart = comps.sizes.length > 1 ? keepTriangles(welded.mesh, (f) => comps.component[f] === 0) : undefined;
+  const mesh = keptPart ? keptPart.mesh : welded.mesh;
+  const srcOf = (f: number): number => welded.sourceTriangle[keptPart ? keptPart.kept[f] : f];
   const topo = buildTopology(mesh);
   const { normals, areas } = triangleNormalsAndAreas(mesh);
   const centroids = triangleCentroids(mesh.positions, mesh.triangles);
@@ -71,7 +77,7 @@ for (const no of nos.split(',')) {
   for (let f = 0; f < labels.length; f++) split[labels[f] >= 10 ? 3 : Math.min(labels[f], 3)] += inAreas[f];
   console.log(`${no} ${frag.element} outer ${split[0].toFixed(0)} medullary ${split[1].toFixed(0)} damage ${split[2].toFixed(0)} break ${split[3].toFixed(0)} mm2`);
   const fitted = fitShaftAxis(centroids, filtered, areas, settings.shaftCentreTolerance, { gain: settings.shaftDirectionSearchGain, count: settings.shaftDirectionSearchCount, supportMin: settings.shaftDirectionSearchSupportMin },
-    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin });
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin });
   describe('consensus', fitted);
   const settled = settleAxisSide(fitted, centroids, filtered, areas, triMean, { areaRatio: settings.axisSideAreaRatio, facingShare: settings.axisSideFacingShare });
   describe('side', settled);
@@ -79,13 +85,48 @@ for (const no of nos.split(',')) {
     reaches: settings.sectionSegmentReaches, directions: settings.sectionSegmentDirections, gain: settings.sectionSegmentGain, headOnCosineMin: settings.headOnCosineMin,
     neitherWeight: settings.sectionSegmentNeitherWeight, neitherLossMax: settings.sectionSegmentNeitherLossMax,
     supportMin: settings.sectionSegmentSupportMin, maxRows: settings.sectionSegmentMaxRays, pointGain: settings.sectionPointGain, pointSupportMin: settings.sectionPointSupportMin, pointLineShareMin: settings.sectionPointLineShareMin, centreTolerance: settings.shaftCentreTolerance,
-  });
+  }, { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin });
   describe('segment', sectioned);
   const round = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   describe('medial', round);
   const ell = fitEllipseSection(round, centroids, filtered, areas, rays, ellipseFitOptions(settings));
   describe('ellipse', ell);
   describe('generator', { direction: zb as [number, number, number], point: org as [number, number, number], radius: 0, support: 1 });
+  // The consensus score (area whose normal line passes within shaftCentreTolerance times its
+  // distance, biweight, triangles within 20 degrees of perpendicular to the fitted direction),
+  // split by truth class (outer / medullary / damage / break), at the fitted centre and the generator's.
+  const consensusSplit = (pt: readonly number[]): string => {
+    const d = fitted.direction;
+    const sp = [0, 0, 0, 0], face = [0, 0], dsum = [0, 0], bins = new Array<number>(24).fill(0);
+    const [[ux, uy, uz], [vx, vy, vz]] = ((): number[][] => { const e = Math.abs(d[0]) < 0.9 ? [1, 0, 0] : [0, 1, 0]; const u0 = [d[1] * e[2] - d[2] * e[1], d[2] * e[0] - d[0] * e[2], d[0] * e[1] - d[1] * e[0]]; const ul = Math.hypot(u0[0], u0[1], u0[2]); const u1 = u0.map((x) => x / ul); return [u1, [d[1] * u1[2] - d[2] * u1[1], d[2] * u1[0] - d[0] * u1[2], d[0] * u1[1] - d[1] * u1[0]]]; })();
+    for (let f = 0; f < areas.length; f++) {
+      const nx = filtered[3 * f], ny = filtered[3 * f + 1], nz = filtered[3 * f + 2];
+      const al = nx * d[0] + ny * d[1] + nz * d[2];
+      if (Math.abs(al) > 0.342) continue;
+      const rx0 = centroids[3 * f] - pt[0], ry0 = centroids[3 * f + 1] - pt[1], rz0 = centroids[3 * f + 2] - pt[2];
+      const ra = rx0 * d[0] + ry0 * d[1] + rz0 * d[2];
+      const rx = rx0 - ra * d[0], ry = ry0 - ra * d[1], rz = rz0 - ra * d[2];
+      const mx = nx - al * d[0], my = ny - al * d[1], mz = nz - al * d[2];
+      const ml = Math.hypot(mx, my, mz) || 1, dist = Math.hypot(rx, ry, rz);
+      // miss = |r x m| / |m|
+      const cx = ry * mz - rz * my, cy = rz * mx - rx * mz, cz = rx * my - ry * mx;
+      const x = Math.hypot(cx, cy, cz) / ml / (settings.shaftCentreTolerance * dist + 1e-9);
+      if (x < 1) {
+        const l = labels[srcOf(f)]; sp[l >= 10 ? 3 : Math.min(l, 3)] += areas[f] * (1 - x * x);
+        const b = Math.floor(((Math.atan2(rx * vx + ry * vy + rz * vz, rx * ux + ry * uy + rz * uz) + Math.PI) / (2 * Math.PI)) * 24) % 24; bins[b] += areas[f] * (1 - x * x);
+        const k = rx * mx + ry * my + rz * mz > 0 ? 0 : 1; face[k] += areas[f] * (1 - x * x); dsum[k] += areas[f] * (1 - x * x) * dist;
+      }
+    }
+    return `${sp.map((v) => v.toFixed(0)).join(' / ')} (away ${face[0].toFixed(0)} at ${(dsum[0] / (face[0] || 1)).toFixed(1)} mm, towards ${face[1].toFixed(0)} at ${(dsum[1] / (face[1] || 1)).toFixed(1)} mm) bins ${((bins.reduce((a, x) => a + x, 0) ** 2) / (bins.reduce((a, x) => a + x * x, 0) || 1)).toFixed(1)} [${bins.map((x) => x.toFixed(0)).join(' ')}]`;
+  };
+  const genOnFitted = ((): number[] => { const r = [org[0] - fitted.point[0], org[1] - fitted.point[1], org[2] - fitted.point[2]]; return [org[0], org[1], org[2]].map((v, i) => v + 0 * r[i]); })();
+  const [bu, bv] = acrossAxisBasis(fitted.direction);
+  const segs = wallSegments(rays, centroids, filtered, areas, fitted.direction, bu, bv);
+  const share = (pt: readonly number[]): string => wallCrossingShare(segs, pt[0] * bu[0] + pt[1] * bu[1] + pt[2] * bu[2], pt[0] * bv[0] + pt[1] * bv[1] + pt[2] * bv[2], settings.shaftCentreWallToleranceMm).toFixed(2);
+  console.log(`  wall crossing share: fitted ${share(fitted.point)} final ${share(ell.point)} generator ${share(org)}`);
+  console.log(`  consensus score out/med/dmg/brk: fitted ${consensusSplit(fitted.point)};
+    final ${consensusSplit(ell.point)};
+    generator ${consensusSplit(genOnFitted)}`);
   const agreement = (override?: (a: ShaftAxis) => ShaftAxis): number => {
     const a = analyseFragment(parsed.mesh, overrides, new Map(), override);
     let ok = 0, all = 0;

@@ -1,6 +1,6 @@
 /**
  * A shaft axis centre inside the wall (wall-crossing.ts, shaft-axis.ts fitShaftAxis with
- * `shaftCentreWallShareMax`), on broken tubes whose truth comes from their construction
+ * `shaftCentreWallShareMax` and, on clear shaft pieces, `shaftCentreWallStrictShareMax`), on broken tubes whose truth comes from their construction
  * (broken-tube.ts, manifold-3d): a thick-walled round tube (outer radius 18 mm, cavity 7.5 mm,
  * the proportions of a cattle tibia's shaft wall, common practice) whose axis is the z axis.
  */
@@ -52,7 +52,7 @@ describe('a piece whose break faces all face a line inside the wall', () => {
 
   it('gets its centre on the tube axis, not in the wall', () => {
     const checked = analyseFragment(piece.mesh);
-    const unchecked = analyseFragment(piece.mesh, { shaftCentreWallShareMax: 0 });
+    const unchecked = analyseFragment(piece.mesh, { shaftCentreWallShareMax: 0, shaftCentreWallStrictShareMax: 0 });
     // Truth: the z axis (construction). Measured: 11.4 mm off without the check (the scoop's
     // line), 0.0 with it; agreement 0.960 -> 0.980.
     expect(offAxis(unchecked.axis.point, unchecked.axis.direction)).toBeGreaterThan(8);
@@ -60,4 +60,21 @@ describe('a piece whose break faces all face a line inside the wall', () => {
     expect(checked.axis.radius).toBeGreaterThan(R - 1.5);
     expect(fractureAgreement(checked, piece.truth, inputAreas)).toBeGreaterThan(fractureAgreement(unchecked, piece.truth, inputAreas) + 0.01);
   });
+
+  it('gets it on the axis by the strict check alone, only on clear shaft pieces (shaftCentreWallStrictShareMax)', () => {
+    // The strict check (0.2, support at least shaftCentreWallStrictSupportMin 0.85) with the
+    // plain one (shaftCentreWallShareMax) off. Measured: 11.4 mm off without any check, 0.0
+    // with the strict one alone (support 0.90); agreement 0.960 -> 0.980.
+    const none = analyseFragment(piece.mesh, { shaftCentreWallShareMax: 0, shaftCentreWallStrictShareMax: 0 });
+    const strict = analyseFragment(piece.mesh, { shaftCentreWallShareMax: 0, shaftCentreWallStrictShareMax: 0.2 });
+    // Gate above the piece's support: the strict check does not apply, the centre stays on the line.
+    const gated = analyseFragment(piece.mesh, { shaftCentreWallShareMax: 0, shaftCentreWallStrictShareMax: 0.2, shaftCentreWallStrictSupportMin: 0.99 });
+    // The piece's walls and break run along the axis: more than 0.85 of its area.
+    expect(none.axis.support).toBeGreaterThan(0.85);
+    // Truth: the z axis (construction); the line inside the wall is 12.75 mm off it.
+    expect(offAxis(none.axis.point, none.axis.direction)).toBeGreaterThan(8);
+    expect(offAxis(gated.axis.point, gated.axis.direction)).toBeGreaterThan(8);
+    expect(offAxis(strict.axis.point, strict.axis.direction)).toBeLessThan(1);
+    expect(fractureAgreement(strict, piece.truth, inputAreas)).toBeGreaterThan(fractureAgreement(none, piece.truth, inputAreas) + 0.01);
+  }, 60_000);
 });
