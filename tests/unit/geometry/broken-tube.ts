@@ -6,9 +6,12 @@
  */
 import Module from 'manifold-3d';
 import { vertexRings } from '../../../core/geometry/adjacency';
+import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
 import { principalCurvatures } from '../../../core/geometry/curvature';
 import { triangleNormalsAndAreas, vertexNormals, type TriangleMesh } from '../../../core/geometry/mesh';
 import { triangleCentroids } from '../../../core/geometry/normal-filter';
+import type { AnalysisSettings } from '../../../core/geometry/settings';
+import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
 
 /** A plane cut: keeps the side the unit normal points into. */
 export interface PlaneCut {
@@ -51,6 +54,8 @@ export interface BrokenTube {
 }
 
 let wasm: Awaited<ReturnType<typeof Module>> | undefined;
+
+export type BrokenTubeOptions = Parameters<typeof brokenTube>[0];
 
 export async function brokenTube(options: {
   outerRadius?: number;
@@ -271,4 +276,30 @@ export function mirroredThroughCentroid<T extends { point: number[] | readonly n
   let cx = 0, cy = 0, w = 0;
   for (let f = 0; f < areas.length; f++) { cx += areas[f] * centroids[3 * f]; cy += areas[f] * centroids[3 * f + 1]; w += areas[f]; }
   return { ...axis, point: [2 * cx / w, 2 * cy / w, 0] };
+}
+
+/**
+ * The tube's own axis (the z axis through `point`, default the origin) in place of the fitted
+ * one, keeping the fit's support: with it only the stages after the axis fit are under test.
+ */
+export function tubeAxis(radius: number, point: [number, number, number] = [0, 0, 0]): (fitted: ShaftAxis) => ShaftAxis {
+  return (fitted) => ({ direction: [0, 0, 1], point, radius, support: fitted.support });
+}
+
+/**
+ * A broken tube analysed once per named set of setting overrides (e.g. `{ off: {...}, on: {} }`),
+ * all with the same axis override (none: the fitted axis), with the input triangles' areas for
+ * fractureAgreement and cutReadAsBreak: the common set-up of the tests that read a rule's effect
+ * on one piece by switching it off and on.
+ */
+export async function analysedTube<K extends string>(
+  options: BrokenTubeOptions,
+  runs: Record<K, Partial<AnalysisSettings>>,
+  axis?: (fitted: ShaftAxis) => ShaftAxis,
+): Promise<{ tube: BrokenTube; areas: Float64Array } & Record<K, FragmentAnalysis>> {
+  const tube = await brokenTube(options);
+  const areas = triangleNormalsAndAreas(tube.mesh).areas;
+  const analyses = {} as Record<K, FragmentAnalysis>;
+  for (const name of Object.keys(runs) as K[]) analyses[name] = analyseFragment(tube.mesh, runs[name], new Map(), axis);
+  return { tube, areas, ...analyses };
 }

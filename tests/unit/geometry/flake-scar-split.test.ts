@@ -1,8 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
-import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
+import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
+import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube } from './broken-tube';
 
 /**
  * Flake scars along the cavity (flake-scar-split.ts, `flakeScarDepthRatio`), checked on pieces
@@ -21,7 +19,6 @@ import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from '
  * - The control: the same splinter without the scar, which must read the same with the rule
  *   and without (no region there has a shallow part beside a deep one).
  */
-const imposed = (fitted: ShaftAxis): ShaftAxis => ({ direction: [0, 0, 1], point: [0, 0, 0], radius: 12, support: fitted.support });
 const SIDE = (60 * Math.PI) / 180;
 const OFF = { flakeScarDepthRatio: 0 };
 const ON = { flakeScarDepthRatio: 0.6 };
@@ -29,17 +26,15 @@ type Piece = { tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; ar
 let scarred: Piece;
 let plain: Piece;
 
-async function piece(scar: boolean): Promise<Piece> {
-  const tube = await brokenTube({
+function piece(scar: boolean): Promise<Piece> {
+  return analysedTube({
     outerRadius: 12, innerRadius: 8, length: 90, roughness: 0.05, edgeLength: 0.8,
     cuts: [
       { normal: [Math.sin(SIDE), Math.cos(SIDE), 0], offset: 0 }, { normal: [Math.sin(SIDE), -Math.cos(SIDE), 0], offset: 0 },
       { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
       ...(scar ? [{ baseZ: -32, baseRadius: 11.2, halfAngleDeg: 6, keepOutside: true }] : []),
     ],
-  });
-  const areas = triangleNormalsAndAreas(tube.mesh).areas;
-  return { tube, areas, off: analyseFragment(tube.mesh, OFF, new Map(), imposed), on: analyseFragment(tube.mesh, ON, new Map(), imposed) };
+  }, { off: OFF, on: ON }, tubeAxis(12));
 }
 
 describe('a flake scar along the cavity (analytic truth)', () => {

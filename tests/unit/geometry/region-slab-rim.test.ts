@@ -1,8 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
+import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
 import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube, type Cut } from './broken-tube';
+import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube, type Cut } from './broken-tube';
 
 /**
  * The slab-rim term of the neighbourhood pass (region-context.ts, `contextSlabRimWeight`),
@@ -26,17 +25,15 @@ import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube, type Cu
  *   wall cut again 0.4 mm outside the cavity (the thin bevel of region-thin-partner.test.ts),
  *   and a flake of outer surface cut off by the plane x = 17.4: their agreement must not move.
  */
-const imposed = (fitted: ShaftAxis): ShaftAxis => ({ direction: [0, 0, 1], point: [0, 0, 0], radius: 18, support: fitted.support });
+const imposed = tubeAxis(18);
 const SIDE = (40 * Math.PI) / 180;
 const OFF = { contextSlabRimWeight: 0 };
 const ON = { contextSlabRimWeight: 60 };
 const ENDS: Cut[] = [{ normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 }];
 type Piece = { tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; areas: Float64Array };
 
-async function piece(cuts: Cut[], edgeLength: number | undefined, axis: ((fitted: ShaftAxis) => ShaftAxis) | undefined): Promise<Piece> {
-  const tube = await brokenTube({ outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25, ...(edgeLength ? { edgeLength } : {}), cuts });
-  const areas = triangleNormalsAndAreas(tube.mesh).areas;
-  return { tube, areas, off: analyseFragment(tube.mesh, OFF, new Map(), axis), on: analyseFragment(tube.mesh, ON, new Map(), axis) };
+function piece(cuts: Cut[], edgeLength: number | undefined, axis: ((fitted: ShaftAxis) => ShaftAxis) | undefined): Promise<Piece> {
+  return analysedTube({ outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25, ...(edgeLength ? { edgeLength } : {}), cuts }, { off: OFF, on: ON }, axis);
 }
 
 const slabs: Piece[] = [];

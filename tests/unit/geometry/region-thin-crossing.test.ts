@@ -1,10 +1,9 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
+import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
 import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
 import { thinWallCrossingShare } from '../../../core/geometry/thin-wall-crossing';
 import type { WallRays } from '../../../core/geometry/wall-rays';
-import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
+import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube } from './broken-tube';
 
 /**
  * The thin-crossing term of the neighbourhood pass (region-context.ts,
@@ -21,7 +20,7 @@ import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from '
  * apart) is the control: its outer surface crosses the whole 10.5 mm wall. The shaft axis is
  * imposed (the tube's own, the z axis) so that only the classification is under test.
  */
-const imposed = (fitted: ShaftAxis): ShaftAxis => ({ direction: [0, 0, 1], point: [0, 0, 0], radius: 18, support: fitted.support });
+const RUNS = { off: { contextThinCrossingWeight: 0 }, on: {} };
 const SIDE = (40 * Math.PI) / 180;
 const slabs: Array<{ tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; areas: Float64Array }> = [];
 let splinter: { tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; areas: Float64Array };
@@ -29,25 +28,21 @@ let splinter: { tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; a
 describe('a slab cut from a thick wall by two near-parallel breaks (analytic truth)', () => {
   beforeAll(async () => {
     for (const [c, t] of [[13, 1], [12, 0.8]]) {
-      const tube = await brokenTube({
+      slabs.push(await analysedTube({
         outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25, edgeLength: 0.7,
         cuts: [
           { normal: [1, 0, 0], offset: c }, { normal: [-1, 0, 0], offset: -(c + t) },
           { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
         ],
-      });
-      const areas = triangleNormalsAndAreas(tube.mesh).areas;
-      slabs.push({ tube, areas, off: analyseFragment(tube.mesh, { contextThinCrossingWeight: 0 }, new Map(), imposed), on: analyseFragment(tube.mesh, {}, new Map(), imposed) });
+      }, RUNS, tubeAxis(18)));
     }
-    const tube = await brokenTube({
+    splinter = await analysedTube({
       outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25,
       cuts: [
         { normal: [Math.sin(SIDE), Math.cos(SIDE), 0], offset: 0 }, { normal: [Math.sin(SIDE), -Math.cos(SIDE), 0], offset: 0 },
         { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
       ],
-    });
-    const areas = triangleNormalsAndAreas(tube.mesh).areas;
-    splinter = { tube, areas, off: analyseFragment(tube.mesh, { contextThinCrossingWeight: 0 }, new Map(), imposed), on: analyseFragment(tube.mesh, {}, new Map(), imposed) };
+    }, RUNS, tubeAxis(18));
   }, 300_000);
 
   it('reads the slab face that looks away from the axis as break face', () => {

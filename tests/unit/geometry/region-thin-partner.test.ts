@@ -1,8 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
-import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
+import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
+import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube, type Cut } from './broken-tube';
 
 /**
  * The thin-partner term of the neighbourhood pass (region-context.ts,
@@ -23,7 +21,6 @@ import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from '
  *   curvature -1/2r = -0.067/mm for a cylinder of radius r, do Carmo 1976, section 3-3), which a
  *   slab's flat break face is not, so it must stay original surface.
  */
-const imposed = (fitted: ShaftAxis): ShaftAxis => ({ direction: [0, 0, 1], point: [0, 0, 0], radius: 18, support: fitted.support });
 const SIDE = (40 * Math.PI) / 180;
 const OFF = { contextThinPartnerWeight: 0 };
 const ON = { contextThinPartnerWeight: 60 };
@@ -31,15 +28,12 @@ type Piece = { tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; un
 const slabs: Piece[] = [];
 let crescent: Piece;
 
-async function piece(cuts: Parameters<typeof brokenTube>[0]['cuts'], edgeLength?: number): Promise<Piece> {
-  const tube = await brokenTube({ outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25, ...(edgeLength ? { edgeLength } : {}), cuts });
-  const areas = triangleNormalsAndAreas(tube.mesh).areas;
-  return {
-    tube, areas,
-    off: analyseFragment(tube.mesh, OFF, new Map(), imposed),
-    on: analyseFragment(tube.mesh, ON, new Map(), imposed),
-    ungated: analyseFragment(tube.mesh, { ...ON, contextThinPartnerConcaveMin: 1 }, new Map(), imposed),
-  };
+function piece(cuts: Cut[], edgeLength?: number): Promise<Piece> {
+  return analysedTube(
+    { outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25, ...(edgeLength ? { edgeLength } : {}), cuts },
+    { off: OFF, on: ON, ungated: { ...ON, contextThinPartnerConcaveMin: 1 } },
+    tubeAxis(18),
+  );
 }
 
 describe('the inner face of a slab whose outer face reads as a thin break (analytic truth)', () => {

@@ -1,8 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
-import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
-import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
+import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
+import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube } from './broken-tube';
 
 /**
  * The uncrossed-inward term of the neighbourhood pass (region-context.ts,
@@ -29,22 +27,16 @@ describe('a break face that faces the axis but neither crosses the wall nor is c
   beforeAll(async () => {
     // Two depths of the bevel: it leaves the cavity 13 and 14 mm / cos 35 from the axis along x.
     for (const c of [13, 14]) {
-      const tube = await brokenTube({
+      const { tube, areas, off, on } = await analysedTube({
         outerRadius: 18, innerRadius: 7.5, length: 90, roughness: 0.25,
         cuts: [
           { normal: [COS, 0, SIN], offset: c },
           { normal: [Math.sin(SIDE), Math.cos(SIDE), 0], offset: 0 }, { normal: [Math.sin(SIDE), -Math.cos(SIDE), 0], offset: 0 },
           { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
         ],
-      });
-      const areas = triangleNormalsAndAreas(tube.mesh).areas;
-      const imposed = (fitted: ShaftAxis): ShaftAxis => ({ direction: [0, 0, 1], point: [0, 0, 0], radius: 18, support: fitted.support });
+      }, { off: { contextUncrossedInwardWeight: 0 }, on: {} }, tubeAxis(18));
       tubes.push(tube);
-      runs.push({
-        off: analyseFragment(tube.mesh, { contextUncrossedInwardWeight: 0 }, new Map(), imposed),
-        on: analyseFragment(tube.mesh, {}, new Map(), imposed),
-        areas,
-      });
+      runs.push({ off, on, areas });
     }
   }, 240_000);
 

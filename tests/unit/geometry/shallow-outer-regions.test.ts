@@ -1,10 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { analyseFragment, type FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { triangleNormalsAndAreas } from '../../../core/geometry/mesh';
-import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
+import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
 import { shallowOuterRegions } from '../../../core/geometry/shallow-outer-regions';
 import type { WallRays } from '../../../core/geometry/wall-rays';
-import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
+import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube } from './broken-tube';
 
 /**
  * Breaks read as outer surface because they face out like it (shallow-outer-regions.ts,
@@ -23,7 +21,6 @@ import { brokenTube, cutReadAsBreak, fractureAgreement, type BrokenTube } from '
  * - The control: the same splinter without the flat cut, which must read the same with the rule
  *   and without (every crossing from its outer surface is the whole 4 mm wall).
  */
-const imposed = (fitted: ShaftAxis): ShaftAxis => ({ direction: [0, 0, 1], point: [0, 0, 0], radius: 12, support: fitted.support });
 const SIDE = (75 * Math.PI) / 180;
 const OFF = { shallowOuterDepthRatio: 0 };
 const ON = { shallowOuterDepthRatio: 0.5 };
@@ -31,17 +28,15 @@ type Piece = { tube: BrokenTube; off: FragmentAnalysis; on: FragmentAnalysis; ar
 let bevelled: Piece;
 let plain: Piece;
 
-async function piece(bevel: boolean): Promise<Piece> {
-  const tube = await brokenTube({
+function piece(bevel: boolean): Promise<Piece> {
+  return analysedTube({
     outerRadius: 12, innerRadius: 8, length: 90, roughness: 0.05, edgeLength: 0.8,
     cuts: [
       { normal: [Math.sin(SIDE), Math.cos(SIDE), 0], offset: 0 }, { normal: [Math.sin(SIDE), -Math.cos(SIDE), 0], offset: 0 },
       { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
       ...(bevel ? [{ normal: [-1, 0, 0] as [number, number, number], offset: -9 }] : []),
     ],
-  });
-  const areas = triangleNormalsAndAreas(tube.mesh).areas;
-  return { tube, areas, off: analyseFragment(tube.mesh, OFF, new Map(), imposed), on: analyseFragment(tube.mesh, ON, new Map(), imposed) };
+  }, { off: OFF, on: ON }, tubeAxis(12));
 }
 
 describe('a flat break along the outer side of the wall (analytic truth)', () => {
