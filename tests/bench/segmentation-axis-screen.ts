@@ -7,12 +7,9 @@
  * moves no fragment's centre cannot move the figures); the elliptic section is not compared.
  * Run: npx tsx tests/bench/segmentation-axis-screen.ts DIR[,DIR...] '{settings A}' '{settings B}'
  */
-import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
 import { analyseFragment } from '../../core/geometry/analyse-fragment';
 import { triangleNormalsAndAreas, vertexNormals } from '../../core/geometry/mesh';
 import { bilateralNormalFilter, triangleCentroids } from '../../core/geometry/normal-filter';
-import { parseMeshFile } from '../../core/geometry/parse/index';
 import { analysisSettings, type AnalysisSettings } from '../../core/geometry/settings';
 import { fitSectionSegment, fitShaftAxis, settleAxisSide, type ShaftAxis } from '../../core/geometry/shaft-axis';
 import { castWallRays } from '../../core/geometry/wall-rays';
@@ -20,8 +17,8 @@ import { buildTopology, triangleComponents } from '../../core/geometry/topology'
 import { keepTriangles, weldVertices } from '../../core/geometry/weld';
 import { principalCurvatures } from '../../core/geometry/curvature';
 import { vertexRings } from '../../core/geometry/adjacency';
+import { labelAgreement, labelledScans } from './segmentation-study-fragments';
 
-interface Truth { fragments: Array<{ catalogueNo: string; scanFile: string; triangleLabels: string; element: string }> }
 const dirs = (process.argv[2] ?? '').split(',').filter(Boolean);
 const jsons = [process.argv[3] ?? '{}', process.argv[4] ?? '{}'];
 const variants = jsons.map((j) => analysisSettings(JSON.parse(j) as Record<string, unknown>));
@@ -51,31 +48,18 @@ const same = (a: ShaftAxis, b: ShaftAxis): boolean => Math.hypot(a.point[0] - b.
   && !!a.medial === !!b.medial && (!a.medial || !b.medial || Math.abs(a.medial.length - b.medial.length) < 1e-6);
 
 for (const dir of dirs) {
-  const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as Truth;
   let all = 0, delta = 0, moved = 0;
   const lines: string[] = [];
-  for (const frag of truth.fragments) {
-    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const labels = Buffer.from(frag.triangleLabels, 'base64');
-    const { areas } = triangleNormalsAndAreas(parsed.mesh);
-    let total = 0;
-    for (let f = 0; f < labels.length; f++) total += areas[f];
+  for (const scan of labelledScans(dir)) {
+    const { frag, total } = scan;
     all += total;
-    const welded = weldVertices(parsed.mesh, variants[0].weldToleranceMm);
+    const welded = weldVertices(scan.source, variants[0].weldToleranceMm);
     const comps = triangleComponents(welded.mesh);
     const mesh = comps.sizes.length > 1 ? keepTriangles(welded.mesh, (f) => comps.component[f] === 0).mesh : welded.mesh;
     const axes = variants.map((s) => stagedAxis(s, mesh));
     if (same(axes[0], axes[1])) continue;
     moved++;
-    const agree = jsons.map((j) => {
-      const a = analyseFragment(parsed.mesh, JSON.parse(j) as Record<string, unknown>);
-      let ok = 0;
-      for (let f = 0; f < a.triangleClass.length; f++) {
-        const s = a.sourceTriangle[f];
-        if ((a.triangleClass[f] === 0) === (labels[s] >= 2)) ok += areas[s];
-      }
-      return ok / total;
-    });
+    const agree = jsons.map((j) => labelAgreement(analyseFragment(scan.source, JSON.parse(j) as Record<string, unknown>), scan));
     delta += total * (agree[1] - agree[0]);
     lines.push(`  ${frag.catalogueNo} ${frag.element.padEnd(12)} ${total.toFixed(0).padStart(6)} mm2 ${agree.map((x) => (100 * x).toFixed(1)).join(' -> ')}  support ${axes[0].support.toFixed(2)}`);
   }

@@ -27,16 +27,54 @@ export interface StudyFragment {
   filtered: Float32Array;
 }
 
-/** Reads and analyses every fragment of `dir` with `settings` (partial analysis settings). */
-export function* studyFragments(dir: string, settings: Record<string, unknown>): Generator<StudyFragment> {
+/** A fragment of a generated folder as read, with its truth labels and its input triangles' areas (nothing analysed). */
+export interface LabelledScan {
+  frag: StudyTruthFragment;
+  /** Truth label per input triangle (>= 2: break). */
+  labels: Buffer;
+  /** The mesh as read (input triangles). */
+  source: TriangleMesh;
+  /** Area of each input triangle, and their sum. */
+  inputAreas: Float64Array;
+  total: number;
+}
+
+/** Reads every fragment of `dir` (truth.json and its scans) with its truth labels. */
+export function* labelledScans(dir: string): Generator<LabelledScan> {
   const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: StudyTruthFragment[] };
   for (const frag of truth.fragments) {
-    const parsed = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile);
-    const a = analyseFragment(parsed.mesh, settings);
+    const source = parseMeshFile(readFileSync(join(dir, frag.scanFile)), frag.scanFile).mesh;
+    const inputAreas = triangleNormalsAndAreas(source).areas;
+    let total = 0;
+    for (let f = 0; f < inputAreas.length; f++) total += inputAreas[f];
+    yield { frag, labels: Buffer.from(frag.triangleLabels, 'base64'), source, inputAreas, total };
+  }
+}
+
+/**
+ * Per-triangle fracture/original agreement of an analysis with the truth labels, weighted by the
+ * input triangles' areas (the segmentation benchmark's figure for one fragment): an analysed
+ * triangle of class 0 (fracture) agrees with a label >= 2 (break), any other class with a label < 2.
+ */
+export function labelAgreement(
+  a: { triangleClass: ArrayLike<number>; sourceTriangle: ArrayLike<number> }, scan: Pick<LabelledScan, 'labels' | 'inputAreas' | 'total'>,
+): number {
+  let ok = 0;
+  for (let f = 0; f < a.triangleClass.length; f++) {
+    const s = a.sourceTriangle[f];
+    if ((a.triangleClass[f] === 0) === (scan.labels[s] >= 2)) ok += scan.inputAreas[s];
+  }
+  return ok / scan.total;
+}
+
+/** Reads and analyses every fragment of `dir` with `settings` (partial analysis settings). */
+export function* studyFragments(dir: string, settings: Record<string, unknown>): Generator<StudyFragment> {
+  for (const { frag, labels, source } of labelledScans(dir)) {
+    const a = analyseFragment(source, settings);
     const topo = buildTopology(a.mesh);
     const { normals, areas } = triangleNormalsAndAreas(a.mesh);
     const centroids = triangleCentroids(a.mesh.positions, a.mesh.triangles);
     const filtered = bilateralNormalFilter(normals, areas, centroids, topo.neighbours, a.settings.normalFilterIterations, a.settings.normalFilterRange);
-    yield { frag, labels: Buffer.from(frag.triangleLabels, 'base64'), source: parsed.mesh, a, topo, normals, areas, centroids, filtered };
+    yield { frag, labels, source, a, topo, normals, areas, centroids, filtered };
   }
 }
