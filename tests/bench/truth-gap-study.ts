@@ -18,6 +18,7 @@ import { DEFAULT_MATCH_PARAMETERS, fineTransform, matchFragments, scoredSide, ty
 import type { PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
 import { applyToDirections, applyToPoints, invert, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { scoreJoin, type ScoredSide } from '../../core/geometry/registration/score';
+import { FEATURE_NAMES, SCORE_MODEL, scoreFeatures } from '../../core/geometry/registration/score-model';
 import type { ClosestPoint } from '../../core/geometry/registration/target-surface';
 import { readStudiedFolder } from './studied-folder';
 import { isCorrectMotion } from './correct-motion';
@@ -73,7 +74,10 @@ function extra(A: PreparedFragment, fa: number, B: PreparedFragment, fb: number,
 
 function row(kind: string, jn: string, cause: string, A: PreparedFragment, fa: number, B: PreparedFragment, fb: number, T: RigidTransform, more: Record<string, unknown>): void {
   const s = scoreJoin(scoredSide(A, A.faces[fa]), scoredSide(B, B.faces[fb]), T, { contactTolerance: tol, spacing });
-  console.log(JSON.stringify({ kind, join: jn, cause, faces: [fa, fb], samples: [A.faces[fa].points.length / 3, B.faces[fb].points.length / 3], ...more, score: +s.score.toFixed(4), c: { contactFraction: s.contactFraction, contactFractionOther: s.contactFractionOther, contactAreaMm2: s.contactAreaMm2, gapRmsMm: s.gapRmsMm, penetrationMm: s.penetrationMm, outlineAgreement: s.outlineAgreement, interlock: s.interlock, axesCompared: s.axesCompared, axisOffset: s.axisOffset, axisAngleDeg: s.axisAngleDeg, axisSide: s.axisSide, radiusRatio: s.radiusRatio }, x: extra(A, fa, B, fb, T) }));
+  // each input's share of the logit (slope x input), to see which one pulls a motion down
+  const xs = scoreFeatures(s);
+  const logit = Object.fromEntries(FEATURE_NAMES.map((n, k) => [n, +(SCORE_MODEL.slopes[n] * xs[k]).toFixed(2)]));
+  console.log(JSON.stringify({ kind, join: jn, cause, faces: [fa, fb], samples: [A.faces[fa].points.length / 3, B.faces[fb].points.length / 3], ...more, score: +s.score.toFixed(4), logit, c: { contactFraction: s.contactFraction, contactFractionOther: s.contactFractionOther, contactAreaMm2: s.contactAreaMm2, gapRmsMm: s.gapRmsMm, contactGapRmsMm: s.contactGapRmsMm, penetrationMm: s.penetrationMm, outlineAgreement: s.outlineAgreement, interlock: s.interlock, axesCompared: s.axesCompared, axisOffset: s.axisOffset, axisAngleDeg: s.axisAngleDeg, axisSide: s.axisSide, radiusRatio: s.radiusRatio }, x: extra(A, fa, B, fb, T) }));
 }
 
 /** The candidate face pair (piece or patch) whose score is the motion's own. */
@@ -102,15 +106,20 @@ for (const j of truth.joins) {
   const on = (fr: number, face: number): boolean => (study[fr].faces[face].breaks[String(j.breakId)] ?? 0) >= 0.3;
   const meta = { pattern: j.pattern, damaged: j.damaged, age: j.breakAge, area: j.contactAreaMm2, surviving: j.survivingFraction };
   for (let x = 0; x < A.faces.length; x++) for (let y = 0; y < B.faces.length; y++) {
+    // KNITBONE_STUDY_ALL_FACES=1: every face pair at the exact truth (a face the labels put on another break may be the one that meets)
+    if (process.env.KNITBONE_STUDY_ALL_FACES && !(on(ia, x) && on(ib, y))) {
+      row('truth', jn, cause, A, x, B, y, want, { ...meta, shares: [0, 0], labelled: false });
+      continue;
+    }
     if (!on(ia, x) || !on(ib, y)) continue;
     const shares = [study[ia].faces[x].breaks[String(j.breakId)], study[ib].faces[y].breaks[String(j.breakId)]];
     row('truth', jn, cause, A, x, B, y, want, { ...meta, shares });
     const R = fineTransform(A, x, B, y, want, params);
     row('fromTruth', jn, cause, A, x, B, y, R, { ...meta, shares, near: isCorrectMotion(R, want, B.centroid) });
   }
-  // what a worker returns on this pair
+  // what a worker returns on this pair (KNITBONE_STUDY_TRUTH_ONLY=1: only the truth and the fine step from it)
   const list = pairsOf.get(`${ia}:${ib}`) ?? [];
-  if (!list.length) continue;
+  if (!list.length || process.env.KNITBONE_STUDY_TRUTH_ONLY) continue;
   const got: FaceMatch[] = matchFragments(A, B, params, list, 3, 0);
   for (const m of got) {
     const [fa, fb] = facesOf(A, B, list, m);

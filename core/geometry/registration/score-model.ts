@@ -123,8 +123,18 @@ export function scoreModelKey(model: ScoreModel = SCORE_MODEL): string {
   const key: unknown[] = [model.methodVersion, model.interlockCap, model.intercept, FEATURE_NAMES.map((n) => model.slopes[n])];
   // the rules below the fit (since session 16, when the side rule stopped judging joins on the axis)
   key.push({ rules: [LOCKED_INTERLOCK, SIDE_NONE, SIDE_FULL, SIDE_MIN_OFF_AXIS, TRUSTED_RADIUS_RATIO] });
+  // how the components are measured, when that changes without a refit (SCORE_MEASURES)
+  if (SCORE_MEASURES > 1) key.push({ measures: SCORE_MEASURES });
   return JSON.stringify(key);
 }
+
+/**
+ * Version of how score.ts measures the components the model reads, raised when a measure
+ * changes without a refit so that a run keyed on scoreModelKey scores its pairs again: 1 up to
+ * session 22; 2 since session 23 (a sample counts as inside the other piece only when the
+ * closest triangle's own normal agrees with the vote of the nearest surface samples).
+ */
+export const SCORE_MEASURES = 2;
 
 /**
  * Below this interlock the contact could slide or turn (flat or cylindrical faces): the motion

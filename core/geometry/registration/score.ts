@@ -207,9 +207,10 @@ function contactShare(points: ArrayLike<number>, normals: ArrayLike<number>, sur
 
 /**
  * 98th percentile of how deep samples sit inside the other piece (0 when outside). Depth is
- * the distance to the closest surface point (BVH); inside or outside is decided by a vote of
- * the nearest surface samples' normals, which a single sliver triangle with a flipped normal
- * (common in scans) cannot swing.
+ * the distance to the closest surface point (BVH); a sample is inside when both the vote of the
+ * nearest surface samples' normals (which a single sliver triangle with a flipped normal, common
+ * in scans, cannot swing) and the closest triangle's own normal say so (at a thin wall the
+ * nearest samples may belong to its far side).
  */
 function penetration(points: ArrayLike<number>, other: ScoredSide): number {
   const n = points.length / 3;
@@ -237,7 +238,13 @@ function penetration(points: ArrayLike<number>, other: ScoredSide): number {
     }
     const ml = hypot(mx, my, mz) || 1;
     const c = ((x - hit.x) * mx + (y - hit.y) * my + (z - hit.z) * mz) / (ml * hit.distance);
-    if (c < -0.5) depths[i] = hit.distance;
+    // ...and the closest triangle's own normal must agree: at a thin wall or a sharp rim (the tip
+    // of a v-shaped or spiral break) the nearest samples can lie on the far side, whose normals
+    // point the other way, and outvote the triangle the sample actually faces (true joins read
+    // 4-6 mm deep at their exact motion). A flipped sliver triangle can now only hide a sample
+    // that is inside, never invent one that is not.
+    const own = (x - hit.x) * hit.nx + (y - hit.y) * hit.ny + (z - hit.z) * hit.nz;
+    if (c < -0.5 && own < 0) depths[i] = hit.distance;
   }
   depths.sort();
   return depths[Math.min(n - 1, Math.floor(0.98 * n))];
