@@ -277,6 +277,13 @@ export const analysisSettingsSchema = z.object({
    * smallest of one that hurts (2.50).
    */
   ellipseSectionMinorWallRatioMax: z.number().min(0).default(2.25),
+  /**
+   * ...and on a clear shaft piece (axis support at least shaftCentreWallStrictSupportMin) a
+   * section whose centre lies inside the wall (wall-crossing share above
+   * shaftCentreWallStrictShareMax, wall-crossing.ts) is refused for the round axis fitted before,
+   * as the consensus and the section segment / point search refuse such centres (false: off).
+   */
+  ellipseSectionWallCheck: z.boolean().default(true),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */
