@@ -105,6 +105,8 @@ export interface EllipseFitOptions {
    * given to fitEllipseSection, at its strict share and support; wall-crossing.ts).
    */
   wallCheck?: boolean;
+  /** The wall-crossing share above which that check refuses the section's centre (default: the check's strictShareMax). */
+  wallShareMax?: number;
 }
 
 /** fitEllipseSection's cut-offs as the settings give them (settings.ts, ellipseSection*). */
@@ -113,7 +115,7 @@ export function ellipseFitOptions(s: AnalysisSettings): EllipseFitOptions {
     supportMin: s.ellipseSectionSupportMin, ratioMin: s.ellipseSectionRatioMin, ratioMax: s.ellipseSectionRatioMax, gain: s.ellipseSectionGain,
     headOnCosineMin: s.headOnCosineMin, maxRows: s.ellipseSectionMaxRays, distanceTolerance: s.ellipseSectionToleranceMm, gridSteps: s.ellipseSectionGridSteps,
     cavityRatioSteps: s.ellipseSectionCavityRatioSteps, cavityRetryShare: s.ellipseSectionCavityRetryShare, wallRatioMax: s.ellipseSectionWallRatioMax,
-    minorWallRatioMax: s.ellipseSectionMinorWallRatioMax, wallCheck: s.ellipseSectionWallCheck,
+    minorWallRatioMax: s.ellipseSectionMinorWallRatioMax, wallCheck: s.ellipseSectionWallCheck, wallShareMax: s.ellipseSectionWallShareMax,
   };
 }
 
@@ -418,7 +420,7 @@ export function fitEllipseSection(
   // Searching again among centres outside the wall read the same there (a 56.7 x 23.6 mm
   // section); the plain check (share 0.5 from support 0.65) refused true sections of radius,
   // metapodial and humerus pieces towards a bone end (support 0.69-0.77, 0.3-1.5 points each).
-  if (options.wallCheck && strictWallCheck(wall, axis.support, axis.direction, centroids, normals, areas)?.(e.cu, e.cv)) return axis;
+  if (options.wallCheck && strictWallCheck(wall, axis.support, axis.direction, centroids, normals, areas, options.wallShareMax ?? wall?.strictShareMax)?.(e.cu, e.cv)) return axis;
   const minorLimit = options.minorWallRatioMax ?? 0;
   if (minorLimit > 0 && !(e.A - e.Ai <= minorLimit * (e.B - e.Bi))) {
     circles = true;

@@ -1,7 +1,7 @@
 /**
  * The elliptic section's wall check (shaft-section.ts fitEllipseSection with a wall check,
- * strict-wall-check.ts; setting `ellipseSectionWallCheck`, cut-offs
- * `shaftCentreWallStrictShareMax` and `shaftCentreWallStrictSupportMin`): a section whose centre
+ * strict-wall-check.ts; settings `ellipseSectionWallCheck`, `ellipseSectionWallShareMax` and
+ * `shaftCentreWallStrictSupportMin`): a section whose centre
  * lies inside the material is refused on a clear shaft piece, as the consensus and the section
  * segment / point search refuse such centres. Rows built from analytic geometry: a piece of a
  * flattened tube, outer ellipse 22 x 12 mm and cavity 15 x 5 mm about the z axis (the proportions
@@ -103,7 +103,7 @@ describe('fitEllipseSection with the wall check', () => {
     // Without the check the wall pairs alone decide: the same section as above.
     expect(unchecked.section).toBeDefined();
     expect(Math.hypot(unchecked.point[0], unchecked.point[1])).toBeLessThan(1);
-    // With it: every ray aimed at the centre crosses it in the material (share 1 > 0.2), so the
+    // With it: every ray aimed at the centre crosses it in the material (share 1 > 0.5), so the
     // axis fitted before is kept as it was.
     expect(checked.section).toBeUndefined();
     expect(checked).toEqual(axis);
