@@ -132,7 +132,8 @@ export function analyseFragment(
     : settled;
   const roundAxis = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   // An elliptic section where it explains the wall clearly better than the round model (shaft-section.ts).
-  const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, ellipseFitOptions(settings));
+  const fittedAxis = fitEllipseSection(roundAxis, centroids, filtered, areas, rays, ellipseFitOptions(settings),
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin });
   const ridges = detectAndCloseRidges(mesh, topo.neighbours, filtered, rings, curvature.k1, curvature.k2, settings);
   // Regions and the program's class of each about a shaft axis.
   const classify = (axis: ShaftAxis): { region: Uint32Array; regionCount: number; figures: RegionFigures[]; programClasses: SurfaceClass[] } => {

@@ -277,6 +277,21 @@ export const analysisSettingsSchema = z.object({
    * smallest of one that hurts (2.50).
    */
   ellipseSectionMinorWallRatioMax: z.number().min(0).default(2.25),
+  /**
+   * ...and on a clear shaft piece (axis support at least shaftCentreWallStrictSupportMin) a
+   * section whose centre lies inside the wall (wall-crossing share above
+   * shaftCentreWallStrictShareMax, wall-crossing.ts) is refused for the round axis fitted before,
+   * as the consensus and the section segment / point search refuse such centres (false: off).
+   */
+  ellipseSectionWallCheck: z.boolean().default(true),
+  /**
+   * The share above which that check refuses the section's centre: the plain check's share
+   * (shaftCentreWallShareMax, more than half the wall crossed) at the strict check's support.
+   * The strict share (0.2) also refused a metacarpal's section whose centre read 0.42, for a
+   * round axis further off (dev s370 QS-10203: 6.3 -> 15.1 mm off, two faces' angle class lost);
+   * the section taken along a break through a thick tibia wall reads 0.81 (s398 QS-10994).
+   */
+  ellipseSectionWallShareMax: z.number().min(0).max(1).default(0.5),
   /** Most inward rays cast to measure wall depth (a sample of triangles when there are more). */
   maxWallRays: z.number().int().positive().default(20000),
   /** An inward ray that leaves the bone with at least this cosine against the exit surface crossed a wall head-on. */

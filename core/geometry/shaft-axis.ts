@@ -5,6 +5,7 @@ import { analysisSettings } from './settings';
 import { ellipseOffset, type EllipseSection } from './shaft-section';
 import { hypot } from './hypot';
 import { wallCrossingShare, wallSegments } from './wall-crossing';
+import { strictWallCheck } from './strict-wall-check';
 
 /**
  * The long axis of a shaft fragment from its surface normals: on a (roughly) cylindrical
@@ -117,7 +118,7 @@ export function fitMedialSegment(
  */
 export function fitShaftAxis(
   centroids: Float32Array, normals: Float32Array, areas: Float64Array, centreTolerance?: number, directionSearch?: { gain: number; count: number; supportMin: number },
-  wall?: { rays: { triangles: Uint32Array; distance: Float32Array }; shareMax: number; tolerance: number; supportMin: number; strictShareMax?: number; strictSupportMin?: number },
+  wall?: ShaftWallCheck,
 ): ShaftAxis {
   const nt = areas.length;
   let dir = refineDirection(normals, areas, smallestEigen(normals, areas, () => true));
@@ -318,6 +319,17 @@ function facingArea(
 }
 
 /** Cut-offs of settleAxisSide (settings.ts: axisSideAreaRatio, axisSideFacingShare; defaults there). */
+/**
+ * The wall check of a candidate axis centre (wall-crossing.ts): the inward wall rays, the
+ * wall-crossing share above which a centre lies in the wall (settings shaftCentreWall*), the
+ * tolerance of aiming, the least axis support for the check, and the stricter share on clear
+ * shaft pieces (support at least strictSupportMin).
+ */
+export interface ShaftWallCheck {
+  rays: { triangles: Uint32Array; distance: Float32Array };
+  shareMax: number; tolerance: number; supportMin: number; strictShareMax?: number; strictSupportMin?: number;
+}
+
 export interface AxisSideCutoffs { areaRatio: number; facingShare: number }
 
 function defaultAxisSideCutoffs(): AxisSideCutoffs {
@@ -508,7 +520,7 @@ export interface SectionRays { triangles: Uint32Array; exitCosine: Float32Array;
 export function fitSectionSegment(
   axis: ShaftAxis, centroids: Float32Array, normals: Float32Array, areas: Float64Array, rays: SectionRays,
   options: { reaches: number[]; directions: number; gain: number; headOnCosineMin: number; neitherWeight: number; neitherLossMax: number; supportMin: number; maxRows: number; pointGain?: number; pointSupportMin?: number; pointLineShareMin?: number; centreTolerance?: number },
-  wall?: { rays: { triangles: Uint32Array; distance: Float32Array }; shareMax: number; tolerance: number; supportMin: number; strictShareMax?: number; strictSupportMin?: number },
+  wall?: ShaftWallCheck,
 ): ShaftAxis {
   const segmentAllowed = axis.support >= options.supportMin;
   const pointAllowed = options.pointGain !== undefined && axis.support >= (options.pointSupportMin ?? options.supportMin);
@@ -555,9 +567,8 @@ export function fitSectionSegment(
   // As in fitShaftAxis, on a clear shaft piece only (strictSupportMin): a point or segment inside
   // the wall (wall-crossing.ts, above strictShareMax) is refused; a segment is checked at its two
   // ends and its middle.
-  const strict = wall && (wall.strictShareMax ?? 0) > 0 && axis.support >= (wall.strictSupportMin ?? Infinity);
-  const segments = strict && wall ? wallSegments(wall.rays, centroids, normals, areas, axis.direction, [ux, uy, uz], [vx, vy, vz]) : undefined;
-  const inWall = (su: number, sv: number): boolean => segments !== undefined && wall !== undefined && wallCrossingShare(segments, su, sv, wall.tolerance) > wall.strictShareMax!;
+  const strict = strictWallCheck(wall, axis.support, axis.direction, centroids, normals, areas);
+  const inWall = (su: number, sv: number): boolean => strict !== undefined && strict(su, sv);
   // Radial component of a 2D normal at (x, y) against the segment from (su, sv) along (du, dv), lengths h1 forward, h2 back.
   const radial = (x: number, y: number, nu: number, nv: number, su: number, sv: number, du: number, dv: number, h1: number, h2: number): number => {
     const rx = x - su, ry = y - sv;

@@ -89,7 +89,8 @@ for (const no of nos.split(',')) {
   describe('segment', sectioned);
   const round = sectioned.medial ? sectioned : fitMedialSegment(sectioned, centroids, filtered, areas, settings.medialSegmentLengths, settings.medialSegmentGain);
   describe('medial', round);
-  const ell = fitEllipseSection(round, centroids, filtered, areas, rays, ellipseFitOptions(settings));
+  const ell = fitEllipseSection(round, centroids, filtered, areas, rays, ellipseFitOptions(settings),
+    { rays, shareMax: settings.shaftCentreWallShareMax, tolerance: settings.shaftCentreWallToleranceMm, supportMin: settings.shaftCentreWallSupportMin, strictShareMax: settings.shaftCentreWallStrictShareMax, strictSupportMin: settings.shaftCentreWallStrictSupportMin });
   describe('ellipse', ell);
   describe('generator', { direction: zb as [number, number, number], point: org as [number, number, number], radius: 0, support: 1 });
   // The consensus score (area whose normal line passes within shaftCentreTolerance times its
