@@ -177,6 +177,12 @@ export interface MatchParameters {
    */
   fineRepeatDeg?: number;
   fineRepeatSpacings?: number;
+  /**
+   * A face pair with a part (piece or patch) on either side is not screened when a motion screened
+   * on a pair of the same faces' wholes already puts at least this share of the smaller of its two
+   * faces in contact (screenFacePairs; 0 or left out: every pair screened).
+   */
+  partCoverShare?: number;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -575,8 +581,7 @@ export function matchFragments(
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
-  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
-  for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
+  const screened = screenFacePairs(a, b, pairs, params);
   const spacing = Math.max(a.spacing, b.spacing);
   const shortlist = fineShortlist(a, b, screened, params);
   // which prepared faces (piece or patch) each refined motion came from, for polishing
@@ -610,6 +615,53 @@ export function matchFragments(
     if (out.length >= keep || best.length < draw) return out.slice(0, keep);
     draw += keep - out.length;
   }
+}
+
+/**
+ * The screened motions of the given face pairs of A and B (screenFacePair), in the pairs' order.
+ * With params.partCoverShare above 0 the pairs are screened whole faces first, and a face pair
+ * with a part (piece or patch) on either side is left out when a motion already screened on a
+ * pair of its faces' wholes (or of one whole and the other part) puts at least that share of the
+ * smaller of the two faces in contact: the part is where its whole face's motion already lays it,
+ * and a motion of the part near that one would be left out of the fine shortlist as a repeat
+ * (fineRepeatDeg) while costing a whole screen.
+ */
+export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs: Array<[number, number]>, params: MatchParameters): Array<{ i: number; j: number; motion: CoarseMotion }> {
+  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+  const share = params.partCoverShare ?? 0;
+  if (!(share > 0)) {
+    for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
+    return screened;
+  }
+  const wholeA = wholeFaces(a), wholeB = wholeFaces(b);
+  const parts = ([i, j]: [number, number]): number => (wholeA[i] === i ? 0 : 1) + (wholeB[j] === j ? 0 : 1);
+  const order = pairs.map((p, k) => ({ p, k, n: parts(p) })).sort((x, y) => x.n - y.n || x.k - y.k);
+  const found = new Map<string, CoarseMotion[]>();
+  const spacing = Math.max(a.spacing, b.spacing);
+  for (const { p: [i, j], n } of order) {
+    if (n > 0) {
+      const FA = a.faces[i], FB = b.faces[j];
+      const wi = wholeA[i], wj = wholeB[j];
+      const prior = [[wi, wj], [wi, j], [i, wj]].filter(([x, y]) => x !== i || y !== j).flatMap(([x, y]) => found.get(`${x},${y}`) ?? []);
+      if (prior.length) {
+        const sb = stridedSamples(FB.points, FB.normals, params.icpSamples), sa = stridedSamples(FA.points, FA.normals, params.icpSamples);
+        if (prior.some((m) => overlapShare(m.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) >= share)) continue;
+      }
+    }
+    const motions = screenFacePair(a, i, b, j, params);
+    found.set(`${i},${j}`, motions);
+    for (const motion of motions) screened.push({ i, j, motion });
+  }
+  return screened;
+}
+
+/** For each prepared face, the index of its whole face (the first prepared face of its parent). */
+function wholeFaces(f: PreparedFragment): number[] {
+  const first = new Map<number, number>();
+  return f.faces.map((x, k) => {
+    if (!first.has(x.parent)) first.set(x.parent, k);
+    return first.get(x.parent)!;
+  });
 }
 
 /**
