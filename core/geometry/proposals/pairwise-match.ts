@@ -180,7 +180,8 @@ export interface MatchParameters {
   /**
    * A face pair with a part (piece or patch) on either side is not screened when a motion screened
    * on a pair of the same faces' wholes already puts at least this share of the smaller of its two
-   * faces in contact (screenFacePairs; 0 or left out: every pair screened).
+   * faces in contact; that motion stands for the pair's own (screenFacePairs; 0 or left out: every
+   * pair screened).
    */
   partCoverShare?: number;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
@@ -620,11 +621,12 @@ export function matchFragments(
 /**
  * The screened motions of the given face pairs of A and B (screenFacePair), in the pairs' order.
  * With params.partCoverShare above 0 the pairs are screened whole faces first, and a face pair
- * with a part (piece or patch) on either side is left out when a motion already screened on a
+ * with a part (piece or patch) on either side is not screened when a motion already screened on a
  * pair of its faces' wholes (or of one whole and the other part) puts at least that share of the
- * smaller of the two faces in contact: the part is where its whole face's motion already lays it,
- * and a motion of the part near that one would be left out of the fine shortlist as a repeat
- * (fineRepeatDeg) while costing a whole screen.
+ * smaller of the two faces in contact: such motions stand for the pair's own, with the share of
+ * these two faces they cover as their overlap, so the fine shortlist ranks them as the part's
+ * (a part's motion found again near its whole's costs a whole screen, and one of the two is left
+ * out of the shortlist as a repeat, fineRepeatDeg, anyway).
  */
 export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs: Array<[number, number]>, params: MatchParameters): Array<{ i: number; j: number; motion: CoarseMotion }> {
   const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
@@ -645,7 +647,13 @@ export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs:
       const prior = [[wi, wj], [wi, j], [i, wj]].filter(([x, y]) => x !== i || y !== j).flatMap(([x, y]) => found.get(`${x},${y}`) ?? []);
       if (prior.length) {
         const sb = stridedSamples(FB.points, FB.normals, params.icpSamples), sa = stridedSamples(FA.points, FA.normals, params.icpSamples);
-        if (prior.some((m) => overlapShare(m.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) >= share)) continue;
+        const covering = prior.map((m) => ({ transform: m.transform, overlap: overlapShare(m.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) })).filter((m) => m.overlap >= share);
+        if (covering.length) {
+          // the covering motions stand for the pair's own, ranked by the share of these faces they cover
+          found.set(`${i},${j}`, covering);
+          for (const motion of covering) screened.push({ i, j, motion });
+          continue;
+        }
       }
     }
     const motions = screenFacePair(a, i, b, j, params);
