@@ -184,6 +184,8 @@ export interface MatchParameters {
    * pair screened).
    */
   partCoverShare?: number;
+  /** Whether partCoverShare applies to small face pairs too (those pair voting serves, pairVoteMaxFaceSamples). */
+  partCoverSmall?: boolean;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -252,6 +254,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineRatio: 0.5,
   fineRepeatDeg: 2,
   fineRepeatSpacings: 1,
+  partCoverShare: 0.5,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
@@ -641,7 +644,7 @@ export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs:
   const found = new Map<string, CoarseMotion[]>();
   const spacing = Math.max(a.spacing, b.spacing);
   for (const { p: [i, j], n } of order) {
-    if (n > 0) {
+    if (n > 0 && (params.partCoverSmall || !smallPair(a.faces[i], b.faces[j], params))) {
       const FA = a.faces[i], FB = b.faces[j];
       const wi = wholeA[i], wj = wholeB[j];
       const prior = [[wi, wj], [wi, j], [i, wj]].filter(([x, y]) => x !== i || y !== j).flatMap(([x, y]) => found.get(`${x},${y}`) ?? []);
