@@ -181,7 +181,10 @@ export interface MatchParameters {
    * A face pair with a part (piece or patch) on either side is not screened when a motion screened
    * on a pair of the same faces' wholes already puts at least this share of the smaller of its two
    * faces in contact; that motion stands for the pair's own (screenFacePairs; 0 or left out: every
-   * pair screened).
+   * pair screened). 0 by default: 0.5 (pairs above pairVoteMaxFaceSamples only) measured on dev s340
+   * at 200 fragments matching CPU -16.6% paired and propose CPU 474.6 -> 369.7 s, but true joins in a
+   * top 3 244 -> 242 and the committed sample's transverse join lands 4.7 degrees off (also at 0.8:
+   * polish-both-ways.test.ts, screen-ways.test.ts fail); see DEVELOPERS.md, session 23.
    */
   partCoverShare?: number;
   /** Whether partCoverShare applies to small face pairs too (those pair voting serves, pairVoteMaxFaceSamples). */
@@ -254,7 +257,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineRatio: 0.5,
   fineRepeatDeg: 2,
   fineRepeatSpacings: 1,
-  partCoverShare: 0.5,
+  partCoverShare: 0,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
