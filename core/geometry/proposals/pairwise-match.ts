@@ -177,6 +177,18 @@ export interface MatchParameters {
    */
   fineRepeatDeg?: number;
   fineRepeatSpacings?: number;
+  /**
+   * A face pair with a part (piece or patch) on either side is not screened when a motion screened
+   * on a pair of the same faces' wholes already puts at least this share of the smaller of its two
+   * faces in contact; that motion stands for the pair's own (screenFacePairs; 0 or left out: every
+   * pair screened). 0 by default: 0.5 (pairs above pairVoteMaxFaceSamples only) measured on dev s340
+   * at 200 fragments matching CPU -16.6% paired and propose CPU 474.6 -> 369.7 s, but true joins in a
+   * top 3 244 -> 242 and the committed sample's transverse join lands 4.7 degrees off (also at 0.8:
+   * polish-both-ways.test.ts, screen-ways.test.ts fail); see DEVELOPERS.md, session 23.
+   */
+  partCoverShare?: number;
+  /** Whether partCoverShare applies to small face pairs too (those pair voting serves, pairVoteMaxFaceSamples). */
+  partCoverSmall?: boolean;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -245,6 +257,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineRatio: 0.5,
   fineRepeatDeg: 2,
   fineRepeatSpacings: 1,
+  partCoverShare: 0,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
@@ -575,8 +588,7 @@ export function matchFragments(
 ): FaceMatch[] {
   const pairs: Array<[number, number]> = facePairs ?? [];
   if (!facePairs) for (let i = 0; i < a.faces.length; i++) for (let j = 0; j < b.faces.length; j++) pairs.push([i, j]);
-  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
-  for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
+  const screened = screenFacePairs(a, b, pairs, params);
   const spacing = Math.max(a.spacing, b.spacing);
   const shortlist = fineShortlist(a, b, screened, params);
   // which prepared faces (piece or patch) each refined motion came from, for polishing
@@ -610,6 +622,60 @@ export function matchFragments(
     if (out.length >= keep || best.length < draw) return out.slice(0, keep);
     draw += keep - out.length;
   }
+}
+
+/**
+ * The screened motions of the given face pairs of A and B (screenFacePair), in the pairs' order.
+ * With params.partCoverShare above 0 the pairs are screened whole faces first, and a face pair
+ * with a part (piece or patch) on either side is not screened when a motion already screened on a
+ * pair of its faces' wholes (or of one whole and the other part) puts at least that share of the
+ * smaller of the two faces in contact: such motions stand for the pair's own, with the share of
+ * these two faces they cover as their overlap, so the fine shortlist ranks them as the part's
+ * (a part's motion found again near its whole's costs a whole screen, and one of the two is left
+ * out of the shortlist as a repeat, fineRepeatDeg, anyway).
+ */
+export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs: Array<[number, number]>, params: MatchParameters): Array<{ i: number; j: number; motion: CoarseMotion }> {
+  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+  const share = params.partCoverShare ?? 0;
+  if (!(share > 0)) {
+    for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
+    return screened;
+  }
+  const wholeA = wholeFaces(a), wholeB = wholeFaces(b);
+  const parts = ([i, j]: [number, number]): number => (wholeA[i] === i ? 0 : 1) + (wholeB[j] === j ? 0 : 1);
+  const order = pairs.map((p, k) => ({ p, k, n: parts(p) })).sort((x, y) => x.n - y.n || x.k - y.k);
+  const found = new Map<string, CoarseMotion[]>();
+  const spacing = Math.max(a.spacing, b.spacing);
+  for (const { p: [i, j], n } of order) {
+    if (n > 0 && (params.partCoverSmall || !smallPair(a.faces[i], b.faces[j], params))) {
+      const FA = a.faces[i], FB = b.faces[j];
+      const wi = wholeA[i], wj = wholeB[j];
+      const prior = [[wi, wj], [wi, j], [i, wj]].filter(([x, y]) => x !== i || y !== j).flatMap(([x, y]) => found.get(`${x},${y}`) ?? []);
+      if (prior.length) {
+        const sb = stridedSamples(FB.points, FB.normals, params.icpSamples), sa = stridedSamples(FA.points, FA.normals, params.icpSamples);
+        const covering = prior.map((m) => ({ transform: m.transform, overlap: overlapShare(m.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) })).filter((m) => m.overlap >= share);
+        if (covering.length) {
+          // the covering motions stand for the pair's own, ranked by the share of these faces they cover
+          found.set(`${i},${j}`, covering);
+          for (const motion of covering) screened.push({ i, j, motion });
+          continue;
+        }
+      }
+    }
+    const motions = screenFacePair(a, i, b, j, params);
+    found.set(`${i},${j}`, motions);
+    for (const motion of motions) screened.push({ i, j, motion });
+  }
+  return screened;
+}
+
+/** For each prepared face, the index of its whole face (the first prepared face of its parent). */
+function wholeFaces(f: PreparedFragment): number[] {
+  const first = new Map<number, number>();
+  return f.faces.map((x, k) => {
+    if (!first.has(x.parent)) first.set(x.parent, k);
+    return first.get(x.parent)!;
+  });
 }
 
 /**
