@@ -252,6 +252,7 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
                   <span className="swatch fracture" /> fracture face <span className="swatch selected" /> selected · {(mesh.triangles.length / 3).toLocaleString()} triangles
                   {loading && <span aria-busy="true"> · redrawing...</span>}
                 </p>
+                {regionsByArea.length > 0 && <p className="legend">Surface regions, largest first; click one to see or correct its class.</p>}
                 {regionsByArea.length > 0 && (
                   <div className="regions" role="group" aria-label="Surface regions, largest first">
                     {regionsByArea.map((r) => (
@@ -263,7 +264,7 @@ export function SpecimenScreen({ specimenId }: { specimenId: number | null }) {
                         aria-pressed={selected?.region === r.id}
                         onClick={() => setSelected(selected?.region === r.id ? null : { part: 'scan', region: r.id })}
                       >
-                        <span className={`swatch ${swatchOf(r.surfaceClass)}`} aria-hidden="true" /> Region {r.id} · {surfaceClassLabel(r.surfaceClass)}
+                        <span className={`swatch ${swatchOf(r.surfaceClass)}`} aria-hidden="true" /> Region {r.id} · {surfaceClassLabel(r.surfaceClass)} · {r.area.toFixed(0)} mm²
                         {r.corrected ? ' · corrected' : ''}
                       </button>
                     ))}
