@@ -20,9 +20,9 @@ import { describe, expect, it } from 'vitest';
 import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
 import { ellipseFitOptions, fitEllipseSection } from '../../../core/geometry/shaft-section';
 import { analysisSettings } from '../../../core/geometry/settings';
+import { ellipticTubePiece } from './elliptic-tube-piece';
 import { strictWallCheck } from '../../../core/geometry/strict-wall-check';
 
-const deg = Math.PI / 180;
 const A = 22, B = 12, Ai = 15, Bi = 5;
 
 /** Distance along the ray p + s u (u unit) to the ellipse x²/a² + y²/b² = 1 (the larger root: leaving it, or the first entry when `first`); undefined where it misses. */
@@ -40,34 +40,12 @@ function toEllipse(px: number, py: number, ux: number, uy: number, a: number, b:
  * outer triangle shoots one ray (exit: the cavity triangle of the same parameter, cosine 1) and
  * each cavity triangle one back. `solid`: the rays' lengths are those of a solid wall (above).
  */
-function piece(fromDeg: number, toDeg: number, solid: boolean, steps = 120) {
-  const cen: number[] = [], nor: number[] = [], ar: number[] = [], shooter: number[] = [], exit: number[] = [], dist: number[] = [];
-  const add = (x: number, y: number, z: number, nx: number, ny: number, a: number): number => {
-    cen.push(x, y, z); nor.push(nx, ny, 0); ar.push(a);
-    return ar.length - 1;
-  };
-  const dt = ((toDeg - fromDeg) * deg) / steps;
-  for (let layer = 0; layer < 10; layer++) {
-    for (let i = 0; i <= steps; i++) {
-      const t = (fromDeg + ((toDeg - fromDeg) * i) / steps) * deg;
-      const point = (a: number, b: number, sign: number): number => {
-        const gx = Math.cos(t) / a, gy = Math.sin(t) / b, gl = Math.hypot(gx, gy);
-        return add(a * Math.cos(t), b * Math.sin(t), 3 * layer, (sign * gx) / gl, (sign * gy) / gl, Math.hypot(a * Math.sin(t), b * Math.cos(t)) * dt);
-      };
-      const o = point(A, B, 1), m = point(Ai, Bi, -1);
-      shooter.push(o, m); exit.push(m, o);
-      // Inward rays run along minus the normal.
-      const ox = cen[3 * o], oy = cen[3 * o + 1], onx = -nor[3 * o], ony = -nor[3 * o + 1];
-      const mx = cen[3 * m], my = cen[3 * m + 1], mnx = -nor[3 * m], mny = -nor[3 * m + 1];
-      const throughWall = toEllipse(ox, oy, onx, ony, A, B, false)!;
-      dist.push(solid ? throughWall : toEllipse(ox, oy, onx, ony, Ai, Bi, true) ?? throughWall);
-      dist.push(toEllipse(mx, my, mnx, mny, A, B, false)!);
-    }
-  }
-  return {
-    centroids: Float32Array.from(cen), normals: Float32Array.from(nor), areas: Float64Array.from(ar),
-    rays: { triangles: Uint32Array.from(shooter), exitCosine: new Float32Array(shooter.length).fill(1), exitTriangle: Int32Array.from(exit), distance: Float32Array.from(dist) },
-  };
+function piece(fromDeg: number, toDeg: number, solid: boolean) {
+  // Inward rays run along minus the normal.
+  return ellipticTubePiece(A, B, Ai, Bi, fromDeg, toDeg, 120, (o, m) => {
+    const throughWall = toEllipse(o.x, o.y, -o.nx, -o.ny, A, B, false)!;
+    return [solid ? throughWall : toEllipse(o.x, o.y, -o.nx, -o.ny, Ai, Bi, true) ?? throughWall, toEllipse(m.x, m.y, -m.nx, -m.ny, A, B, false)!];
+  }) as ReturnType<typeof ellipticTubePiece> & { rays: { distance: Float32Array } };
 }
 
 const settings = analysisSettings();

@@ -3,8 +3,8 @@ import type { ShaftAxis } from '../../../core/geometry/shaft-axis';
 import { directEllipseFit, ellipseFitOptions, fitEllipseSection, type EllipseFitOptions, type EllipseRays } from '../../../core/geometry/shaft-section';
 import { sectionWallRatio } from '../../../core/geometry/section-wall-ratio';
 import { analysisSettings } from '../../../core/geometry/settings';
+import { ellipticTubePiece } from './elliptic-tube-piece';
 
-const deg = Math.PI / 180;
 
 /**
  * Points of the inward parallel curve at distance c of the ellipse x²/A² + y²/B² = 1:
@@ -54,36 +54,6 @@ describe('sectionWallRatio (wall thickness at the ends of the major against the 
   });
 });
 
-/**
- * Wall pairs of a piece of a flattened tube with outer ellipse (A, B) and a cavity ellipse
- * (Ai, Bi) about the z axis, major axes along x: each outer point (A cos t, B sin t) paired with
- * the cavity point (Ai cos t, Bi sin t) as one head-on wall ray each way (exit cosine set to 1),
- * on 10 sections 3 mm apart; areas are arc lengths.
- */
-function tubePiece(A: number, B: number, Ai: number, Bi: number, fromDeg: number, toDeg: number, steps = 120): { centroids: Float32Array; normals: Float32Array; areas: Float64Array; rays: EllipseRays } {
-  const cen: number[] = [], nor: number[] = [], ar: number[] = [], shooter: number[] = [], exit: number[] = [];
-  const add = (x: number, y: number, z: number, nx: number, ny: number, a: number): number => {
-    cen.push(x, y, z); nor.push(nx, ny, 0); ar.push(a);
-    return ar.length - 1;
-  };
-  const dt = ((toDeg - fromDeg) * deg) / steps;
-  for (let layer = 0; layer < 10; layer++) {
-    for (let i = 0; i <= steps; i++) {
-      const t = (fromDeg + ((toDeg - fromDeg) * i) / steps) * deg;
-      const point = (a: number, b: number, sign: number): number => {
-        const gx = Math.cos(t) / a, gy = Math.sin(t) / b, gl = Math.hypot(gx, gy);
-        return add(a * Math.cos(t), b * Math.sin(t), 3 * layer, (sign * gx) / gl, (sign * gy) / gl, Math.hypot(a * Math.sin(t), b * Math.cos(t)) * dt);
-      };
-      const o = point(A, B, 1), m = point(Ai, Bi, -1);
-      shooter.push(o, m); exit.push(m, o);
-    }
-  }
-  return {
-    centroids: Float32Array.from(cen), normals: Float32Array.from(nor), areas: Float64Array.from(ar),
-    rays: { triangles: Uint32Array.from(shooter), exitCosine: new Float32Array(shooter.length).fill(1), exitTriangle: Int32Array.from(exit) },
-  };
-}
-
 /** fitEllipseSection's cut-offs from the settings with the wall limit given. */
 const withWallLimit = (ratio: number): EllipseFitOptions => ellipseFitOptions(analysisSettings({ ellipseSectionWallRatioMax: ratio }));
 
@@ -92,7 +62,7 @@ describe('fitEllipseSection with a wall-thickness limit', () => {
 
   it('keeps an even-walled section as it is', () => {
     // Outer 22 x 12 mm, cavity 15 x 5 mm: walls 7 and 7 mm (ratio 1).
-    const piece = tubePiece(22, 12, 15, 5, -40, 80);
+    const piece = ellipticTubePiece(22, 12, 15, 5, -40, 80);
     const free = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(0));
     const limited = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(2));
     expect(free.section).toBeDefined();
@@ -106,7 +76,7 @@ describe('fitEllipseSection with a wall-thickness limit', () => {
     // Outer 22 x 12 mm, cavity 20 x 4 mm: walls 2 and 8 mm (ratio 4, as when a break face through
     // the wall is read as the cavity's flat side). Without a limit the fit finds it; with a limit
     // of 2 the section it keeps has walls within 2 : 1.
-    const piece = tubePiece(22, 12, 20, 4, -40, 80);
+    const piece = ellipticTubePiece(22, 12, 20, 4, -40, 80);
     const free = fitEllipseSection(axis, piece.centroids, piece.normals, piece.areas, piece.rays, withWallLimit(0));
     expect(free.section).toBeDefined();
     const s = free.section!;
