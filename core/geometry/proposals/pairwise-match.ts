@@ -23,6 +23,7 @@ import { stridedSamples } from '../registration/strided-samples';
 import { LOCKED_INTERLOCK } from '../registration/score-model';
 import { screenAxisConsistency, screenInterlock } from './screen-measures';
 import { repeatsMotion } from './repeated-motion';
+import { withFacePairPlaces } from './face-pair-places';
 import { consensusMotion } from './screen-consensus';
 
 export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
@@ -178,6 +179,16 @@ export interface MatchParameters {
   fineRepeatDeg?: number;
   fineRepeatSpacings?: number;
   /**
+   * Places in the fine shortlist beyond finePerFragmentPair for face pairs that have none yet:
+   * after the shortlist is filled, the best-ranked screened motion of each face pair not in it
+   * (at least fineMinOverlap, whatever fineRatio and the repeat rule say) is added, best first,
+   * up to this many (face-pair-places.ts; 0 or left out: none). 4 since session 24: on the true
+   * joins of dev s340 at 200 fragments that stored nothing (stored-gap-study.ts), 5 had their
+   * true face pair's motion out-ranked by wrong turns of other face pairs of the same fragment
+   * pair; with 2 places 4 of them store right, with 4 or 8 all 5, none lost (DEVELOPERS.md).
+   */
+  fineFacePairPlaces?: number;
+  /**
    * A face pair with a part (piece or patch) on either side is not screened when a motion screened
    * on a pair of the same faces' wholes already puts at least this share of the smaller of its two
    * faces in contact; that motion stands for the pair's own (screenFacePairs; 0 or left out: every
@@ -257,6 +268,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineRatio: 0.5,
   fineRepeatDeg: 2,
   fineRepeatSpacings: 1,
+  fineFacePairPlaces: 4,
   partCoverShare: 0,
   icpSamples: 150,
   fineSamples: 300,
@@ -758,7 +770,7 @@ export function fineShortlist<T extends { i: number; j: number; motion: CoarseMo
   const best = ranked[0]?.rank ?? 0;
   const within = ranked.filter((r) => r.rank >= params.fineRatio * best).map((r) => r.s);
   const deg = params.fineRepeatDeg ?? 0;
-  if (!(deg > 0)) return within.slice(0, params.finePerFragmentPair);
+  if (!(deg > 0)) return withFacePairPlaces(within.slice(0, params.finePerFragmentPair), ranked.map((r) => r.s), params.fineFacePairPlaces ?? 0);
   const shift = (params.fineRepeatSpacings ?? 0) * spacing;
   const out: T[] = [];
   for (const s of within) {
@@ -766,7 +778,7 @@ export function fineShortlist<T extends { i: number; j: number; motion: CoarseMo
     if (out.some((o) => repeatsMotion(a, b, o, s, deg, shift))) continue;
     out.push(s);
   }
-  return out;
+  return withFacePairPlaces(out, ranked.map((r) => r.s), params.fineFacePairPlaces ?? 0);
 }
 
 /** Sort by score and drop motions that repeat a better one (within 3 degrees and `shift` mm). */
