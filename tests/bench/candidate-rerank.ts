@@ -19,7 +19,6 @@ import { mirrorFpfh } from '../../core/geometry/registration/ransac-alignment';
 import { fragmentKey, readPrepared, readSummary } from '../../core/jobs/fragment-cache';
 import { readStudy, sizeClassesFromCsv } from './candidate-recall';
 import { loadSet } from './candidate-rules';
-import { quotaUnion } from './candidate-budget';
 
 const args = process.argv.slice(2);
 const opt = (name: string, d?: string): string | undefined => {
@@ -240,11 +239,10 @@ const recall = (s: Set<number>): number => {
   for (const j of set.joins) if (j.some(([x, y]) => s.has(x * n + y))) hit++;
   return hit;
 };
-// quotaUnion over an n x LL order
+// candidate-budget.ts's dithered quota union, over each face's shortlist (n x LL) instead of full rows
 const orderUnion = (order: Int32Array, quota: number): Set<number> => {
   const fin = new Int32Array(n);
   for (let i = 0; i < n; i++) { let m = 0; while (m < LL && order[i * LL + m] >= 0) m++; fin[i] = m; }
-  // quotaUnion reads order[i * n + r]: give it rows of length n by remapping
   const out = new Set<number>();
   for (let i = 0; i < n; i++) {
     const q = Math.min(fin[i], Math.max(0, Math.floor(quota + ((i * 0.6180339887) % 1))));
@@ -252,7 +250,6 @@ const orderUnion = (order: Int32Array, quota: number): Set<number> => {
   }
   return out;
 };
-void quotaUnion;
 const baseSet = orderUnion(listJ, K);
 const budget = baseSet.size;
 const base = recall(baseSet);
