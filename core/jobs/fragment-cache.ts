@@ -176,7 +176,7 @@ export function readFragment(dir: string, key: string): CachedFragment | undefin
 }
 
 /** Version of the stored face traits (face-traits.ts): traits stored under another version are measured again. */
-export const TRAITS_CACHE_VERSION = 3;
+export const TRAITS_CACHE_VERSION = 4;
 
 /** Traits of the prepared faces at one sampling (with each face's parent), as stored. */
 export interface CachedTraits {

@@ -5,7 +5,8 @@
  * that break? The faces and their traits come from candidate-study.ts (one file per fragment).
  * "reachable" counts the joins exhaustive pairing could reach at all (segmentation limits it).
  * With the recorded size classes (the folder's specimens.csv) pieces of different classes are
- * not paired, as in a propose run (KNITBONE_SIZE_CLASS=0 leaves them out).
+ * not paired, as in a propose run (KNITBONE_SIZE_CLASS=0 leaves them out). The index's second
+ * stage (candidate-index.ts CANDIDATE_RERANK) is in force unless KNITBONE_RERANK=0.
  *   npx tsx tests/bench/candidate-recall.ts <demo-dir> [ks]
  */
 import { existsSync, readFileSync, readdirSync } from 'node:fs';
@@ -72,7 +73,7 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
   for (const k of ks) {
     const t0 = performance.now();
     const compatible = sizeClasses ? sizeClassCompatible(study.map((f) => sizeClasses.get(f.no) ?? null)) : undefined;
-    const c = candidateFacePairs(faces, { k, compatible });
+    const c = candidateFacePairs(faces, { k, compatible, ...(process.env.KNITBONE_RERANK === '0' ? { rerank: null } : {}) });
     const ms = performance.now() - t0;
     const set = new Set(c.map((p) => {
       const x = faceIndex.get(`${p.a}:${p.faceA}`)!, y = faceIndex.get(`${p.b}:${p.faceB}`)!;

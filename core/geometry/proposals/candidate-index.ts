@@ -10,6 +10,7 @@
  */
 import { describeFace, partnerCost } from './face-descriptor';
 import type { FaceTraits } from './face-traits';
+import { wordContainmentCost } from './word-containment-cost';
 
 export interface IndexedFace {
   fragment: number;
@@ -45,6 +46,19 @@ export interface PruningOptions {
    * keeps the offers of least partner cost, at most this many (0: none).
    */
   wholeFacePartners?: number;
+  /**
+   * The second stage (CANDIDATE_RERANK): each face's `shortlist` cheapest partners by the trait
+   * cost are ranked again by the trait cost plus `weight` times the FPFH-word containment cost,
+   * and the first k kept. Default CANDIDATE_RERANK; null: the k cheapest by the trait cost alone.
+   */
+  rerank?: CandidateRerank | null;
+}
+
+export interface CandidateRerank {
+  /** Partners per face read by the trait cost before ranking again (at least k). */
+  shortlist: number;
+  /** Weight of `wordContainmentCost` (word-containment-cost.ts) beside the trait cost. */
+  weight: number;
 }
 
 /** Partners kept per face by default (chosen from the recall against pairs printed by the benchmark). */
@@ -61,6 +75,25 @@ export const DEFAULT_K = 30;
  * 62% face pairs; the offers of least partner cost, a few per face, keep most of the gain.
  */
 export const WHOLE_FACE_PARTNERS = 2;
+
+/**
+ * The second stage of the index by default: each face's 90 cheapest partners by the trait cost,
+ * ranked again with twice the FPFH-word containment cost added (fpfh-word-counts.ts,
+ * word-containment-cost.ts), the first k kept. The traits are means over a face, which differ
+ * when a piece keeps only part of its partner's break (the lost joins differ most in the lean,
+ * the axis cosine, the span and the relief: DEVELOPERS.md, pruning section); the words of a part
+ * are a subset of its partner's. Chosen on dev seeds 341 and 150 at 200 fragments and seed 160 at
+ * 1,000 (weights 1-8, shortlists 60-150; tests/bench/candidate-rerank.ts), at the same face pairs
+ * as the plain k = 30 union, with the codebook fitted on s341: candidate recall 290 -> 295 of 316
+ * (s341), 297 -> 299 of 343 (s150), 303 -> 304 of 355 (s340), 1,096 -> 1,118 of 1,728 (s160).
+ * The re-ranked lists overlap less, so k = 30 gives 2-3% more face pairs than without the stage
+ * (k = 29 gives fewer and still gains). Faces without words (traits stored before) all cost the
+ * same, so their order is the trait cost's.
+ */
+export const CANDIDATE_RERANK: CandidateRerank = { shortlist: 90, weight: 2 };
+
+/** The word cost of a face without counted words (traits stored before they were): about the median over shortlisted pairs. */
+const MISSING_WORD_COST = 1;
 
 /**
  * Recorded size classes (the live-weight classes of core/vocab/size-classes.ts) of two pieces
@@ -102,14 +135,17 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
     return [...out.values()];
   }
   const k = Math.max(1, Math.floor(options.k));
+  const rerank = options.rerank === undefined ? CANDIDATE_RERANK : options.rerank;
+  // partners held per face by the trait cost: the shortlist when a second stage ranks them again
+  const L = rerank ? Math.max(k, Math.floor(rerank.shortlist)) : k;
   const desc = faces.map((f) => describeFace(f.traits));
   // each face's k best so far, sorted by cost (insertion into a short list)
-  const bestCost = faces.map(() => new Float64Array(k).fill(Infinity));
-  const bestIndex = faces.map(() => new Int32Array(k).fill(-1));
+  const bestCost = faces.map(() => new Float64Array(L).fill(Infinity));
+  const bestIndex = faces.map(() => new Int32Array(L).fill(-1));
   const offer = (i: number, j: number, c: number): void => {
     const bc = bestCost[i], bi = bestIndex[i];
-    if (c >= bc[k - 1]) return;
-    let p = k - 1;
+    if (c >= bc[L - 1]) return;
+    let p = L - 1;
     while (p > 0 && bc[p - 1] > c) {
       bc[p] = bc[p - 1];
       bi[p] = bi[p - 1];
@@ -127,7 +163,22 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
       offer(j, i, c);
     }
   }
-  for (let i = 0; i < n; i++) for (let m = 0; m < k; m++) if (bestIndex[i][m] >= 0) add(i, bestIndex[i][m], bestCost[i][m]);
+  if (rerank) {
+    // the second stage: each shortlist ranked again with the word cost added, the first k kept
+    const wordCost = (i: number, j: number): number => {
+      const a = faces[i].traits.fpfhWordsMirrored, b = faces[j].traits.fpfhWords;
+      return a && b ? wordContainmentCost(a, b) : MISSING_WORD_COST;
+    };
+    const order: Array<[number, number, number]> = [];
+    for (let i = 0; i < n; i++) {
+      order.length = 0;
+      for (let m = 0; m < L && bestIndex[i][m] >= 0; m++) order.push([bestIndex[i][m], bestCost[i][m], bestCost[i][m] + rerank.weight * wordCost(i, bestIndex[i][m])]);
+      order.sort((x, y) => x[2] - y[2]);
+      for (let m = 0; m < Math.min(k, order.length); m++) add(i, order[m][0], order[m][1]);
+    }
+  } else {
+    for (let i = 0; i < n; i++) for (let m = 0; m < k; m++) if (bestIndex[i][m] >= 0) add(i, bestIndex[i][m], bestCost[i][m]);
+  }
   const w = Math.max(0, Math.floor(options.wholeFacePartners ?? 0));
   if (w > 0) {
     // the whole face of each part, by index into faces (-1: the face is whole or its whole is not indexed)

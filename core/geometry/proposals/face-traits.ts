@@ -13,6 +13,7 @@
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { FPFH_DIM } from '../registration/fpfh';
+import { fpfhWordCounts } from './fpfh-word-counts';
 import type { FragmentInput, PreparedFragment } from './prepared-fragment';
 import { breakTriangleMask, rimWallThicknesses } from './rim-wall-thickness';
 
@@ -37,6 +38,13 @@ export interface FaceTraits {
   meanFpfh: Float32Array;
   /** Median thickness of the bone wall along the face's rim (mm; rim-wall-thickness.ts); absent when not measurable. */
   rimThickness?: number;
+  /**
+   * How many samples take each FPFH word, and each word of their mirrored FPFH (as the partner
+   * would show them; fpfh-word-counts.ts), for the candidate index's second stage. Absent in
+   * traits stored before they were counted.
+   */
+  fpfhWords?: number[];
+  fpfhWordsMirrored?: number[];
   /** Figures about the fragment's shaft axis; absent when the fragment is not a shaft piece. */
   tube?: {
     /** 90th and 10th percentile of the samples' distance from the axis (mm): outer and inner edge of the cortex. */
@@ -80,6 +88,11 @@ export function faceTraits(points: Float32Array, normals: Float32Array, area: nu
     meanFpfh,
   };
   if (rimThickness !== undefined && Number.isFinite(rimThickness)) traits.rimThickness = rimThickness;
+  if (m) {
+    const words = fpfhWordCounts(fpfh);
+    traits.fpfhWords = words.words;
+    traits.fpfhWordsMirrored = words.mirrored;
+  }
   if (axis && axis.support >= AXIS_SUPPORT_MIN && n >= 3) {
     const [dx, dy, dz] = axis.direction;
     const [px, py, pz] = axis.point;
