@@ -8,7 +8,7 @@
  * without the setting.
  *   npx tsx tests/bench/part-cover-study.ts <catalogue>.match-cache 'QS-1|QS-2' ...
  *   npx tsx tests/bench/part-cover-study.ts sample 'QS-10074|QS-10880' ...   (demo-data/sample)
- * KNITBONE_PROFILE_PARAMS='{json}' sets the "on" parameters (the defaults by default; "off" is them with partCoverShare 0); only part
+ * KNITBONE_PROFILE_PARAMS='{json}' sets the "on" parameters (the defaults with partCoverShare 0.8 unless given; "off" is them with partCoverShare 0); only part
  * pairs the truth puts at least KNITBONE_TRUE_SHARE (0.1) of one face in contact are printed.
  */
 import { DEFAULT_MATCH_PARAMETERS, fineShortlist, matchFragments, polishBothWays, refineFacePair, screenFacePairs, type CoarseMotion, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
@@ -20,7 +20,7 @@ import { sampleJoin } from '../integration/proposals/sample-join';
 import { matchCacheTruth } from './match-cache-truth';
 
 const [source, ...wanted] = process.argv.slice(2);
-const on: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as Partial<MatchParameters>) };
+const on: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, partCoverShare: 0.8, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as Partial<MatchParameters>) };
 const off: MatchParameters = { ...on, partCoverShare: 0 };
 
 interface Case { key: string; a: PreparedFragment; b: PreparedFragment; truth: RigidTransform; pairs?: Array<[number, number]> }

@@ -193,13 +193,14 @@ export interface MatchParameters {
    * on a pair of the same faces' wholes (or of one whole and the other part) already puts at least
    * this share of each of its two faces in contact; that motion goes on to the fine shortlist from
    * the faces it was screened on, ranked by the larger share of the part pair's faces it covers
-   * (screenFacePairs; 0 or left out: every pair screened). 0.8 (session 24): paired matching on dev
-   * s340 at 200 fragments, 506 fragment pairs, matching CPU -3.3% and true pairs whose best motion
-   * is correct 198 -> 198; proposals bench there, true joins in a top 3 244 -> 245, precision above
-   * 0.8 188/189 -> 184/184, propose CPU 417.8 -> 409.4 s. Session 23's rule (the larger share at
-   * least 0.5, the motion standing for the part pair on the part's faces) saved 15% of the matching
-   * CPU but lost 2 of those joins and put the committed sample's transverse join 4.7 degrees off
-   * (see DEVELOPERS.md, sessions 23 and 24).
+   * (screenFacePairs; 0 or left out: every pair screened). 0 by default; measured at 0.8 (session
+   * 24): paired matching on dev s340 at 200 fragments, 506 fragment pairs, matching CPU -3.3% and
+   * true pairs whose best motion is correct 198 -> 198; proposals bench there, true joins in a top 3
+   * 244 -> 245, precision above 0.8 188/189 -> 184/184, propose CPU 417.8 -> 409.4 s; but on check
+   * seed 761 at 100 fragments 119 -> 118 and CPU 167.1 -> 169.4 s: too little gained to change every
+   * catalogue's run hash. Session 23's rule (the larger share at least 0.5, the motion standing for
+   * the part pair on the part's faces) saved 15% of the matching CPU but lost 2 of those joins and
+   * put the committed sample's transverse join 4.7 degrees off (see DEVELOPERS.md, sessions 23, 24).
    */
   partCoverShare?: number;
   /** Whether partCoverShare applies to small face pairs too (those pair voting serves, pairVoteMaxFaceSamples). */
@@ -273,7 +274,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineRepeatDeg: 2,
   fineRepeatSpacings: 1,
   fineFacePairPlaces: 4,
-  partCoverShare: 0.8,
+  partCoverShare: 0,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,

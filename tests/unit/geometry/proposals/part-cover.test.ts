@@ -69,10 +69,6 @@ describe('face pairs of pieces that the whole faces cover', () => {
     expect(A.faces.every((f) => f.parent === 0) && B.faces.every((f) => f.parent === 0)).toBe(true);
   });
 
-  it('is on by default', () => {
-    expect(DEFAULT_MATCH_PARAMETERS.partCoverShare).toBeGreaterThan(0);
-  });
-
   it('are screened without the setting, and with it the whole pair\'s motions go on in their place once they find the truth', () => {
     const all = screenFacePairs(A, B, every(), off);
     expect(all.some((s) => s.i > 0 && s.j > 0)).toBe(true);
