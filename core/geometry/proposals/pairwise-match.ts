@@ -190,12 +190,17 @@ export interface MatchParameters {
   fineFacePairPlaces?: number;
   /**
    * A face pair with a part (piece or patch) on either side is not screened when a motion screened
-   * on a pair of the same faces' wholes already puts at least this share of the smaller of its two
-   * faces in contact; that motion stands for the pair's own (screenFacePairs; 0 or left out: every
-   * pair screened). 0 by default: 0.5 (pairs above pairVoteMaxFaceSamples only) measured on dev s340
-   * at 200 fragments matching CPU -16.6% paired and propose CPU 474.6 -> 369.7 s, but true joins in a
-   * top 3 244 -> 242 and the committed sample's transverse join lands 4.7 degrees off (also at 0.8:
-   * polish-both-ways.test.ts, screen-ways.test.ts fail); see DEVELOPERS.md, session 23.
+   * on a pair of the same faces' wholes (or of one whole and the other part) already puts at least
+   * this share of each of its two faces in contact; that motion goes on to the fine shortlist from
+   * the faces it was screened on, ranked by the larger share of the part pair's faces it covers
+   * (screenFacePairs; 0 or left out: every pair screened). 0 by default; measured at 0.8 (session
+   * 24): paired matching on dev s340 at 200 fragments, 506 fragment pairs, matching CPU -3.3% and
+   * true pairs whose best motion is correct 198 -> 198; proposals bench there, true joins in a top 3
+   * 244 -> 245, precision above 0.8 188/189 -> 184/184, propose CPU 417.8 -> 409.4 s; but on check
+   * seed 761 at 100 fragments 119 -> 118 and CPU 167.1 -> 169.4 s: too little gained to change every
+   * catalogue's run hash. Session 23's rule (the larger share at least 0.5, the motion standing for
+   * the part pair on the part's faces) saved 15% of the matching CPU but lost 2 of those joins and
+   * put the committed sample's transverse join 4.7 degrees off (see DEVELOPERS.md, sessions 23, 24).
    */
   partCoverShare?: number;
   /** Whether partCoverShare applies to small face pairs too (those pair voting serves, pairVoteMaxFaceSamples). */
@@ -529,8 +534,22 @@ function overlapShare(
   normalsB: Float32Array,
   spacing: number,
 ): number {
+  return Math.max(...contactShares(T, b, treeA, normalsA, a, treeB, normalsB, spacing));
+}
+
+/** The shares of B's samples and of A's samples in contact under a motion (as overlapShare), in that order. */
+function contactShares(
+  T: RigidTransform,
+  b: { points: Float32Array; normals: Float32Array },
+  treeA: KdTree,
+  normalsA: Float32Array,
+  a: { points: Float32Array; normals: Float32Array },
+  treeB: KdTree,
+  normalsB: Float32Array,
+  spacing: number,
+): [number, number] {
   const nb = b.points.length / 3, na = a.points.length / 3;
-  return Math.max(contactCount(b.points, b.normals, T, treeA, normalsA, spacing) / Math.max(1, nb), contactCount(a.points, a.normals, invert(T), treeB, normalsB, spacing) / Math.max(1, na));
+  return [contactCount(b.points, b.normals, T, treeA, normalsA, spacing) / Math.max(1, nb), contactCount(a.points, a.normals, invert(T), treeB, normalsB, spacing) / Math.max(1, na)];
 }
 
 /** Samples that `M` puts within `spacing` of a sample of the other face with opposed normals. */
@@ -639,12 +658,15 @@ export function matchFragments(
 /**
  * The screened motions of the given face pairs of A and B (screenFacePair), in the pairs' order.
  * With params.partCoverShare above 0 the pairs are screened whole faces first, and a face pair
- * with a part (piece or patch) on either side is not screened when a motion already screened on a
- * pair of its faces' wholes (or of one whole and the other part) puts at least that share of the
- * smaller of the two faces in contact: such motions stand for the pair's own, with the share of
- * these two faces they cover as their overlap, so the fine shortlist ranks them as the part's
- * (a part's motion found again near its whole's costs a whole screen, and one of the two is left
- * out of the shortlist as a repeat, fineRepeatDeg, anyway).
+ * with a part (piece or patch) on either side (above pair voting's size unless partCoverSmall) is
+ * not screened when a motion already screened on a pair of its faces' wholes (or of one whole and
+ * the other part) puts at least that share of each of the two faces in contact: such a motion
+ * goes on from the faces it was screened on, its overlap raised to the larger share of the part
+ * pair's faces it covers, so the fine shortlist ranks it as the part pair's own would rank (the
+ * shortlist's repeat rule, fineRepeatDeg, leaves out its lower-ranked copy). The part pair's own
+ * screen would find about the same motion again, at a whole screen's cost. Not the part's faces:
+ * refined on a part, a motion screened on the whole can settle a few degrees off where the part's
+ * own screen would have led (the committed sample's transverse join, 4.7 degrees; session 24).
  */
 export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs: Array<[number, number]>, params: MatchParameters): Array<{ i: number; j: number; motion: CoarseMotion }> {
   const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
@@ -656,20 +678,21 @@ export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs:
   const wholeA = wholeFaces(a), wholeB = wholeFaces(b);
   const parts = ([i, j]: [number, number]): number => (wholeA[i] === i ? 0 : 1) + (wholeB[j] === j ? 0 : 1);
   const order = pairs.map((p, k) => ({ p, k, n: parts(p) })).sort((x, y) => x.n - y.n || x.k - y.k);
+  // the motions each face pair's own screen found (none for a covered pair)
   const found = new Map<string, CoarseMotion[]>();
   const spacing = Math.max(a.spacing, b.spacing);
   for (const { p: [i, j], n } of order) {
     if (n > 0 && (params.partCoverSmall || !smallPair(a.faces[i], b.faces[j], params))) {
       const FA = a.faces[i], FB = b.faces[j];
       const wi = wholeA[i], wj = wholeB[j];
-      const prior = [[wi, wj], [wi, j], [i, wj]].filter(([x, y]) => x !== i || y !== j).flatMap(([x, y]) => found.get(`${x},${y}`) ?? []);
+      const from = [[wi, wj], [wi, j], [i, wj]].filter(([x, y], k, all) => (x !== i || y !== j) && all.findIndex(([u, v]) => u === x && v === y) === k);
+      const prior = from.flatMap(([x, y]) => (found.get(`${x},${y}`) ?? []).map((motion) => ({ x, y, motion })));
       if (prior.length) {
         const sb = stridedSamples(FB.points, FB.normals, params.icpSamples), sa = stridedSamples(FA.points, FA.normals, params.icpSamples);
-        const covering = prior.map((m) => ({ transform: m.transform, overlap: overlapShare(m.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) })).filter((m) => m.overlap >= share);
+        const covering = prior.map((p) => ({ ...p, shares: contactShares(p.motion.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) })).filter((p) => Math.min(...p.shares) >= share);
         if (covering.length) {
-          // the covering motions stand for the pair's own, ranked by the share of these faces they cover
-          found.set(`${i},${j}`, covering);
-          for (const motion of covering) screened.push({ i, j, motion });
+          found.set(`${i},${j}`, []);
+          for (const { x, y, motion, shares } of covering) screened.push({ i: x, j: y, motion: { transform: motion.transform, overlap: Math.max(motion.overlap, ...shares) } });
           continue;
         }
       }
