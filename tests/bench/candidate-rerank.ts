@@ -9,16 +9,16 @@
  */
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { openCatalogue } from '../../core/catalogue/catalogue';
 import { sizeClassCompatible } from '../../core/geometry/proposals/candidate-index';
 import { partnerCost } from '../../core/geometry/proposals/face-descriptor';
 import type { PreparedFaceParts } from '../../core/geometry/proposals/prepared-fragment';
 import { FPFH_DIM } from '../../core/geometry/registration/fpfh';
 import { KdTree } from '../../core/geometry/registration/nearest-neighbours';
 import { mirrorFpfh } from '../../core/geometry/registration/ransac-alignment';
-import { fragmentKey, readPrepared, readSummary } from '../../core/jobs/fragment-cache';
+import { readPrepared, readSummary } from '../../core/jobs/fragment-cache';
 import { readStudy, sizeClassesFromCsv } from './candidate-recall';
 import { loadSet } from './candidate-rules';
+import { catalogueFragmentKeys } from './catalogue-fragment-keys';
 
 const args = process.argv.slice(2);
 const opt = (name: string, d?: string): string | undefined => {
@@ -157,13 +157,7 @@ const c0 = process.cpuUsage();
 const set = loadSet(dir);
 const n = set.nFaces;
 const study = readStudy(dir).filter((f) => f.faces.length > 0);
-const keyOf = new Map<string, string>();
-if (catalogue) {
-  const cat = openCatalogue(catalogue);
-  const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
-  for (const s of cat.scans.list()) keyOf.set(numbers.get(s.specimenId) ?? '', fragmentKey(s.contentHash, s.units, (s.stats as { settings?: unknown }).settings, []));
-  cat.close();
-}
+const keyOf = catalogue ? catalogueFragmentKeys(catalogue) : new Map<string, string>();
 const makers: Record<string, Maker> = {
   course6: courseHist(6, 6),
   course10: courseHist(10, 10),

@@ -10,14 +10,14 @@
  */
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { openCatalogue } from '../../core/catalogue/catalogue';
 import { analyseFragment } from '../../core/geometry/analyse-fragment';
 import { parseMeshFile } from '../../core/geometry/parse/index';
 import { fragmentFromAnalysis } from '../../core/geometry/proposals/fragment-from-analysis';
 import { assemblePrepared, prepareFragment, preparedParts, type SamplingParameters } from '../../core/geometry/proposals/prepared-fragment';
-import { fragmentKey, readFragment, readPrepared, writeFragment, writePrepared, type CachedFragment } from '../../core/jobs/fragment-cache';
+import { readFragment, readPrepared, writeFragment, writePrepared, type CachedFragment } from '../../core/jobs/fragment-cache';
 import { scanPath, studyFragment, type TruthFragment } from './candidate-study';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
+import { catalogueFragmentKeys } from './catalogue-fragment-keys';
 
 const args = process.argv.slice(2);
 const opt = (name: string): string | undefined => {
@@ -34,13 +34,7 @@ mkdirSync(join(out, 'candidate-study'), { recursive: true });
 mkdirSync(cacheDir, { recursive: true });
 const truth = JSON.parse(readFileSync(join(dir, 'truth.json'), 'utf8')) as { fragments: TruthFragment[] };
 // the cache key of each fragment: the catalogue's scan keys, or the catalogue number in our own cache
-const keyOf = new Map<string, string>();
-if (catalogue) {
-  const cat = openCatalogue(catalogue);
-  const numbers = new Map(cat.specimens.list().map((s) => [s.id, s.catalogueNo]));
-  for (const s of cat.scans.list()) keyOf.set(numbers.get(s.specimenId) ?? '', fragmentKey(s.contentHash, s.units, (s.stats as { settings?: unknown }).settings, []));
-  cat.close();
-}
+const keyOf = catalogue ? catalogueFragmentKeys(catalogue) : new Map<string, string>();
 const c0 = process.cpuUsage();
 let done = 0, missing = 0;
 for (const f of truth.fragments) {

@@ -524,17 +524,8 @@ export function faceOverlapUnder(a: PreparedFragment, fa: number, b: PreparedFra
  * A's samples moved back onto B's face, within one spacing and with opposed normals (k-d tree
  * only, for ranking hypotheses before the fine step).
  */
-function overlapShare(
-  T: RigidTransform,
-  b: { points: Float32Array; normals: Float32Array },
-  treeA: KdTree,
-  normalsA: Float32Array,
-  a: { points: Float32Array; normals: Float32Array },
-  treeB: KdTree,
-  normalsB: Float32Array,
-  spacing: number,
-): number {
-  return Math.max(...contactShares(T, b, treeA, normalsA, a, treeB, normalsB, spacing));
+function overlapShare(...args: Parameters<typeof contactShares>): number {
+  return Math.max(...contactShares(...args));
 }
 
 /** The shares of B's samples and of A's samples in contact under a motion (as overlapShare), in that order. */

@@ -9,29 +9,22 @@
  * carries the truth at a lower overlap, as a partial contact of a multi-face fragment pair does.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { preparedBunnyHalves } from '../../../support/bunny-halves';
+import { bunnyHalvesWithFaceCopies, shortlistEntry, turnedAbout } from '../../../support/shortlist-entries';
 import type { PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
-import { DEFAULT_MATCH_PARAMETERS, fineShortlist, refineFacePair, type CoarseMotion } from '../../../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_MATCH_PARAMETERS, fineShortlist, refineFacePair } from '../../../../core/geometry/proposals/pairwise-match';
 import { withFacePairPlaces } from '../../../../core/geometry/proposals/face-pair-places';
-import { compose, displacementAt, rotationAboutAxis, rotationErrorDegrees, transformFrom, type RigidTransform } from '../../../../core/geometry/registration/rigid-transform';
+import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../../../core/geometry/registration/rigid-transform';
 
 let A: PreparedFragment, B: PreparedFragment, truth: RigidTransform, c: number[];
 
 /** The truth turned by `deg` degrees about an axis through B's face centroid (B's frame). */
-function turned(deg: number, axis: number[] = [0.3, -0.5, 0.8]): RigidTransform {
-  const R = rotationAboutAxis(axis, (deg * Math.PI) / 180);
-  const t = [0, 1, 2].map((r) => c[r] - (R[3 * r] * c[0] + R[3 * r + 1] * c[1] + R[3 * r + 2] * c[2]));
-  return compose(truth, transformFrom(R, t));
+function turned(deg: number, axis?: number[]): RigidTransform {
+  return turnedAbout(truth, c, deg, axis);
 }
-const entry = (i: number, transform: RigidTransform, overlap: number): { i: number; j: number; motion: CoarseMotion } => ({ i, j: 0, motion: { transform, overlap } });
+const entry = shortlistEntry;
 
 beforeAll(async () => {
-  const h = await preparedBunnyHalves();
-  B = h.B;
-  truth = h.truth;
-  c = [...B.faces[0].centroid];
-  const f = h.A.faces[0];
-  A = { ...h.A, faces: [f, { ...f, parent: 1 }] };
+  ({ A, B, truth, c } = await bunnyHalvesWithFaceCopies((f) => [f, { ...f, parent: 1 }]));
 });
 
 describe('places in the fine shortlist for face pairs that have none', () => {

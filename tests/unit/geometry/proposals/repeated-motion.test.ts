@@ -9,35 +9,27 @@
  * between two of them are known exactly (analytic geometry).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { preparedBunnyHalves } from '../../../support/bunny-halves';
+import { bunnyHalvesWithFaceCopies, shortlistEntry, turnedAbout } from '../../../support/shortlist-entries';
 import type { PreparedFragment } from '../../../../core/geometry/proposals/prepared-fragment';
-import { DEFAULT_MATCH_PARAMETERS, fineShortlist, type CoarseMotion } from '../../../../core/geometry/proposals/pairwise-match';
+import { DEFAULT_MATCH_PARAMETERS, fineShortlist } from '../../../../core/geometry/proposals/pairwise-match';
 import { repeatsMotion } from '../../../../core/geometry/proposals/repeated-motion';
-import { compose, rotationAboutAxis, transformFrom, type RigidTransform } from '../../../../core/geometry/registration/rigid-transform';
+import { compose, transformFrom, type RigidTransform } from '../../../../core/geometry/registration/rigid-transform';
 
 let A: PreparedFragment, B: PreparedFragment, truth: RigidTransform, c: number[];
 
 /** The truth turned by `deg` degrees about an axis through B's face centroid (B's frame). */
-function turned(deg: number, axis: number[] = [0.3, -0.5, 0.8]): RigidTransform {
-  const R = rotationAboutAxis(axis, (deg * Math.PI) / 180);
-  // x -> R (x - c) + c
-  const t = [0, 1, 2].map((r) => c[r] - (R[3 * r] * c[0] + R[3 * r + 1] * c[1] + R[3 * r + 2] * c[2]));
-  return compose(truth, transformFrom(R, t));
+function turned(deg: number, axis?: number[]): RigidTransform {
+  return turnedAbout(truth, c, deg, axis);
 }
 /** The truth after shifting B by `mm` along x (B's frame): moved by `mm` everywhere. */
 function shifted(mm: number): RigidTransform {
   return compose(truth, transformFrom([1, 0, 0, 0, 1, 0, 0, 0, 1], [mm, 0, 0]));
 }
-const entry = (i: number, transform: RigidTransform, overlap: number): { i: number; j: number; motion: CoarseMotion } => ({ i, j: 0, motion: { transform, overlap } });
+const entry = shortlistEntry;
 
 beforeAll(async () => {
-  const h = await preparedBunnyHalves();
-  B = h.B;
-  truth = h.truth;
-  c = [...B.faces[0].centroid];
-  const f = h.A.faces[0];
   // face 0, a piece of it (same parent), and the same samples as another face (parent 1)
-  A = { ...h.A, faces: [f, { ...f }, { ...f, parent: 1 }] };
+  ({ A, B, truth, c } = await bunnyHalvesWithFaceCopies((f) => [f, { ...f }, { ...f, parent: 1 }]));
 });
 
 describe('screened motions repeating a better one of the same faces', () => {
