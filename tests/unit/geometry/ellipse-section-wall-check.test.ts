@@ -55,6 +55,11 @@ const wallOf = (rays: { triangles: Uint32Array; distance: Float32Array }) => ({
 });
 const on = ellipseFitOptions(settings);
 const off = ellipseFitOptions(analysisSettings({ ellipseSectionWallCheck: false }));
+/** The section fitted about `axis` on a piece, with the wall check and without it. */
+function fitBothWays(axis: ShaftAxis, p: ReturnType<typeof piece>) {
+  const fit = (options: typeof on) => fitEllipseSection(axis, p.centroids, p.normals, p.areas, p.rays, options, wallOf(p.rays));
+  return { checked: fit(on), unchecked: fit(off) };
+}
 
 describe('fitEllipseSection with the wall check', () => {
   // A clear shaft piece (support 0.9, at least shaftCentreWallStrictSupportMin 0.85), the round centre 4 mm off.
@@ -62,8 +67,7 @@ describe('fitEllipseSection with the wall check', () => {
 
   it('keeps a section whose centre lies in the cavity, as without the check', () => {
     const p = piece(-40, 80, false);
-    const checked = fitEllipseSection(axis, p.centroids, p.normals, p.areas, p.rays, on, wallOf(p.rays));
-    const unchecked = fitEllipseSection(axis, p.centroids, p.normals, p.areas, p.rays, off, wallOf(p.rays));
+    const { checked, unchecked } = fitBothWays(axis, p);
     // Truth: the section about the z axis (construction); measured within 1 mm of 22 mm and 5 mm.
     expect(unchecked.section).toBeDefined();
     expect(Math.hypot(unchecked.point[0], unchecked.point[1])).toBeLessThan(1);
@@ -76,8 +80,7 @@ describe('fitEllipseSection with the wall check', () => {
 
   it('refuses the same section where its centre lies in the material, keeping the round axis', () => {
     const p = piece(-40, 80, true);
-    const unchecked = fitEllipseSection(axis, p.centroids, p.normals, p.areas, p.rays, off, wallOf(p.rays));
-    const checked = fitEllipseSection(axis, p.centroids, p.normals, p.areas, p.rays, on, wallOf(p.rays));
+    const { checked, unchecked } = fitBothWays(axis, p);
     // Without the check the wall pairs alone decide: the same section as above.
     expect(unchecked.section).toBeDefined();
     expect(Math.hypot(unchecked.point[0], unchecked.point[1])).toBeLessThan(1);
