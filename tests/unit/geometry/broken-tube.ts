@@ -282,6 +282,23 @@ export function mirroredThroughCentroid<T extends { point: number[] | readonly n
  * The tube's own axis (the z axis through `point`, default the origin) in place of the fitted
  * one, keeping the fit's support: with it only the stages after the axis fit are under test.
  */
+/**
+ * A splinter of the 12/8 mm tube (90 mm long, roughness 0.05, edges 0.8 mm) between two planes
+ * through its axis at +-`side` radians from +x and across at z = +-30 mm, with `extra` cuts,
+ * analysed with each named set of setting overrides about the tube's own axis (the z axis):
+ * the set-up of the tests that switch one region rule off and on.
+ */
+export function analysedSplinter<K extends string>(side: number, extra: Cut[], runs: Record<K, Partial<AnalysisSettings>>): ReturnType<typeof analysedTube<K>> {
+  return analysedTube({
+    outerRadius: 12, innerRadius: 8, length: 90, roughness: 0.05, edgeLength: 0.8,
+    cuts: [
+      { normal: [Math.sin(side), Math.cos(side), 0], offset: 0 }, { normal: [Math.sin(side), -Math.cos(side), 0], offset: 0 },
+      { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
+      ...extra,
+    ],
+  }, runs, tubeAxis(12));
+}
+
 export function tubeAxis(radius: number, point: [number, number, number] = [0, 0, 0]): (fitted: ShaftAxis) => ShaftAxis {
   return (fitted) => ({ direction: [0, 0, 1], point, radius, support: fitted.support });
 }

@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
-import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube } from './broken-tube';
+import { analysedSplinter, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
 
 /**
  * Flake scars along the cavity (flake-scar-split.ts, `flakeScarDepthRatio`), checked on pieces
@@ -27,14 +27,7 @@ let scarred: Piece;
 let plain: Piece;
 
 function piece(scar: boolean): Promise<Piece> {
-  return analysedTube({
-    outerRadius: 12, innerRadius: 8, length: 90, roughness: 0.05, edgeLength: 0.8,
-    cuts: [
-      { normal: [Math.sin(SIDE), Math.cos(SIDE), 0], offset: 0 }, { normal: [Math.sin(SIDE), -Math.cos(SIDE), 0], offset: 0 },
-      { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
-      ...(scar ? [{ baseZ: -32, baseRadius: 11.2, halfAngleDeg: 6, keepOutside: true }] : []),
-    ],
-  }, { off: OFF, on: ON }, tubeAxis(12));
+  return analysedSplinter(SIDE, scar ? [{ baseZ: -32, baseRadius: 11.2, halfAngleDeg: 6, keepOutside: true }] : [], { off: OFF, on: ON });
 }
 
 describe('a flake scar along the cavity (analytic truth)', () => {

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { FragmentAnalysis } from '../../../core/geometry/analyse-fragment';
 import { shallowOuterRegions } from '../../../core/geometry/shallow-outer-regions';
 import type { WallRays } from '../../../core/geometry/wall-rays';
-import { analysedTube, cutReadAsBreak, fractureAgreement, tubeAxis, type BrokenTube } from './broken-tube';
+import { analysedSplinter, cutReadAsBreak, fractureAgreement, type BrokenTube } from './broken-tube';
 
 /**
  * Breaks read as outer surface because they face out like it (shallow-outer-regions.ts,
@@ -29,14 +29,7 @@ let bevelled: Piece;
 let plain: Piece;
 
 function piece(bevel: boolean): Promise<Piece> {
-  return analysedTube({
-    outerRadius: 12, innerRadius: 8, length: 90, roughness: 0.05, edgeLength: 0.8,
-    cuts: [
-      { normal: [Math.sin(SIDE), Math.cos(SIDE), 0], offset: 0 }, { normal: [Math.sin(SIDE), -Math.cos(SIDE), 0], offset: 0 },
-      { normal: [0, 0, 1], offset: -30 }, { normal: [0, 0, -1], offset: -30 },
-      ...(bevel ? [{ normal: [-1, 0, 0] as [number, number, number], offset: -9 }] : []),
-    ],
-  }, { off: OFF, on: ON }, tubeAxis(12));
+  return analysedSplinter(SIDE, bevel ? [{ normal: [-1, 0, 0], offset: -9 }] : [], { off: OFF, on: ON });
 }
 
 describe('a flat break along the outer side of the wall (analytic truth)', () => {
