@@ -7,7 +7,8 @@
  * the shortlist (and whether it holds a face-pair place), the screen's overlap, after the k-d rounds
  * the share of B's face samples within 1.5 spacings of A's face samples, the trimmed RMS and kept
  * pairs, after the BVH rounds the deferred score's upper bound and its completed score (completed
- * here for every motion, outside the timings), whether it is correct (5 degrees, 5 mm) on a true
+ * here for every motion, outside the timings), the trimmed RMS after the first KNITBONE_STUDY_KD_ROUNDS
+ * (5,10) k-d rounds as well (outside the timings), whether it is correct (5 degrees, 5 mm) on a true
  * pair and where it ends in the pair's answer (-1: not in it).
  *   npx tsx tests/bench/fine-stop-study.ts <catalogue>.match-cache out.jsonl
  * KNITBONE_PROFILE_PAIRS: the stride over all candidate pairs (as match-truth-ab.ts, 200);
@@ -28,6 +29,8 @@ const maxPairs = Number(process.env.KNITBONE_PROFILE_PAIRS ?? 200);
 const params: MatchParameters = { ...DEFAULT_MATCH_PARAMETERS, ...(JSON.parse(process.env.KNITBONE_PROFILE_PARAMS ?? '{}') as Partial<MatchParameters>) };
 const { nos, joins, grouped, assemble } = matchCacheTruth(dir, Infinity);
 const stride = Math.max(1, Math.floor(grouped.length / Math.min(maxPairs, grouped.length)));
+// the trimmed RMS after these k-d rounds as well (the same first rounds as the whole run's: an ICP's rounds depend only on the start)
+const KD_ROUNDS_AT = (process.env.KNITBONE_STUDY_KD_ROUNDS ?? '5,10').split(',').map(Number);
 const ms = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1e3; };
 
 /** Share of B's face samples that T puts within `within` of A's face samples. */
@@ -81,7 +84,7 @@ grouped.forEach((list, idx) => {
     info.push({
       pair: key, true: !!want, strided, k, n: shortlist.length, place: k >= plain, i: s.i, j: s.j, nA: FA.points.length / 3, nB: FB.points.length / 3,
       overlap: s.motion.overlap, nearStart: nearShare(a, s.i, b, s.j, s.motion.transform, 1.5 * spacing), nearKd: nearShare(a, s.i, b, s.j, mid.transform, 1.5 * spacing),
-      kdRms: mid.rms / spacing, kdInliers: mid.inliers, kdIts: mid.iterations, nearEnd: nearShare(a, s.i, b, s.j, transform, 1.5 * spacing),
+      kdRms: mid.rms / spacing, kdRmsAt: KD_ROUNDS_AT.map((r) => fineKdRounds(a, s.i, b, s.j, s.motion.transform, { ...params, fineIterations: r }).rms / spacing), kdInliers: mid.inliers, kdIts: mid.iterations, nearEnd: nearShare(a, s.i, b, s.j, transform, 1.5 * spacing),
       upper: score.upper, contact: score.contactFraction, score: full.score, correct: !!want && isCorrectMotion(transform, want, b.centroid),
       msKd: t1 - t0, msBvh: t2 - t1, msDef: t3 - t2,
     });
