@@ -224,7 +224,10 @@ export interface MatchParameters {
    * ended their k-d rounds at 0.036 / 0.054 / 0.071 spacings (p5 / p50 / p90; highest 0.135
    * but one, 0.288, a correct motion its pair's answer did not hold), while 41% of the motions of
    * pairs that are not joins ended above 0.15: the BVH rounds and the score of those are about
-   * 14% of matching such a pair (DEVELOPERS.md, session 25).
+   * 14% of matching such a pair. Proposals bench there: true joins in a top 3 251 -> 251 of 376,
+   * precision above 0.8 194/195 both, CPU 416.9 -> 361.3 s; check seed 853 at 100 fragments
+   * 126 -> 126 of 189, every pair's best score identical, CPU 196.9 -> 175.3 s (DEVELOPERS.md,
+   * session 25).
    */
   fineKdMaxRmsSpacings?: number;
   /** Share of ICP pairs kept each round (screen). */
