@@ -6,7 +6,7 @@
  * the trimmed ICP only need the shared patch), so one break face may meet several partners.
  */
 import { hypot } from '../hypot';
-import { icpPointToPlane } from '../registration/icp-point-to-plane';
+import { icpPointToPlane, type IcpResult } from '../registration/icp-point-to-plane';
 import { ransacAlignFaces } from '../registration/ransac-alignment';
 import { FPFH_DIM } from '../registration/fpfh';
 import { SampledSurface } from '../registration/target-surface';
@@ -213,6 +213,23 @@ export interface MatchParameters {
   /** Rounds of the fine step against A's face samples, then against A's triangles (BVH). */
   fineIterations: number;
   bvhIterations: number;
+  /**
+   * A shortlisted motion whose k-d rounds end with the trimmed RMS point-to-plane residual of
+   * their kept pairs above this many sample spacings is given up before the BVH rounds and the
+   * score (fineTransformOrNone; 0 or left out: every motion goes on). Faces that meet under the
+   * motion lie on each other's tangent planes at the end of the k-d rounds; faces that do not
+   * conform leave larger residuals, and the BVH rounds never brought such a motion to a score
+   * that counts. 0.15 since session 25: on dev s340 at 200 fragments (501 fragment pairs, 5,180
+   * shortlisted motions; tests/bench/fine-stop-study.ts) the motions whose score reaches 0.05
+   * ended their k-d rounds at 0.036 / 0.054 / 0.071 spacings (p5 / p50 / p90; highest 0.135
+   * but one, 0.288, a correct motion its pair's answer did not hold), while 41% of the motions of
+   * pairs that are not joins ended above 0.15: the BVH rounds and the score of those are about
+   * 14% of matching such a pair. Proposals bench there: true joins in a top 3 251 -> 251 of 376,
+   * precision above 0.8 194/195 both, CPU 416.9 -> 361.3 s; check seed 853 at 100 fragments
+   * 126 -> 126 of 189, every pair's best score identical, CPU 196.9 -> 175.3 s (DEVELOPERS.md,
+   * session 25).
+   */
+  fineKdMaxRmsSpacings?: number;
   /** Share of ICP pairs kept each round (screen). */
   icpTrim: number;
   /** Share of ICP pairs kept each round of the fine step. */
@@ -280,6 +297,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   bvhSamples: 120,
   fineIterations: 20,
   bvhIterations: 8,
+  fineKdMaxRmsSpacings: 0.15,
   icpTrim: 0.7,
   fineTrim: 0.7,
   fineTrimLambda: 2,
@@ -457,7 +475,8 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const spacing = Math.max(a.spacing, b.spacing);
   const out: FaceMatch[] = [];
   for (const r of screened) {
-    const T = fineTransform(a, fa, b, fb, r.transform, params);
+    const T = fineTransformOrNone(a, fa, b, fb, r.transform, params);
+    if (!T) continue;
     const s = scoreJoin(scoredSide(a, FA), scoredSide(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
     out.push({ ...s, transform: T, faceA: FA.parent, faceB: FB.parent });
   }
@@ -470,11 +489,28 @@ export function refineFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
  * rounds against A's triangles (BVH).
  */
 export function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): RigidTransform {
+  return fineBvhRounds(a, fa, b, fb, fineKdRounds(a, fa, b, fb, start, params).transform, params);
+}
+
+/**
+ * The fine step of one shortlisted motion (fineTransform), or undefined when its k-d rounds end
+ * with the trimmed RMS residual above params.fineKdMaxRmsSpacings (faces that do not conform under
+ * the motion): the BVH rounds and the score are then not worth their CPU.
+ */
+export function fineTransformOrNone(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): RigidTransform | undefined {
+  const mid = fineKdRounds(a, fa, b, fb, start, params);
+  const cut = params.fineKdMaxRmsSpacings ?? 0;
+  if (cut > 0 && !(mid.rms <= cut * Math.max(a.spacing, b.spacing))) return undefined;
+  return fineBvhRounds(a, fa, b, fb, mid.transform, params);
+}
+
+/** The fine step's first rounds (fineTransform): B's samples near A's face against A's face samples (k-d). */
+export function fineKdRounds(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): IcpResult {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const fine = nearFace(FB.points, FB.normals, start, FA.tree, 2 * spacing, params.fineSamples);
-  const mid = icpPointToPlane(fine.points, fine.normals, faceSurfaceA, start, {
+  return icpPointToPlane(fine.points, fine.normals, faceSurfaceA, start, {
     maxDistance: 1.5 * spacing,
     trim: params.fineTrim,
     autoTrimLambda: params.fineTrimLambda,
@@ -482,8 +518,14 @@ export function fineTransform(a: PreparedFragment, fa: number, b: PreparedFragme
     maxIterations: params.fineIterations,
     tolerance: 1e-4 * spacing,
   });
-  const last = nearFace(FB.points, FB.normals, mid.transform, FA.tree, 1.5 * spacing, params.bvhSamples);
-  return icpPointToPlane(last.points, last.normals, a.surface, mid.transform, {
+}
+
+/** The fine step's last rounds (fineTransform): B's samples near A's face against A's triangles (BVH), from the k-d rounds' motion. */
+export function fineBvhRounds(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, mid: RigidTransform, params: MatchParameters): RigidTransform {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const last = nearFace(FB.points, FB.normals, mid, FA.tree, 1.5 * spacing, params.bvhSamples);
+  return icpPointToPlane(last.points, last.normals, a.surface, mid, {
     maxDistance: 1.5 * spacing,
     trim: params.fineTrim,
     autoTrimLambda: params.fineTrimLambda,
@@ -623,11 +665,12 @@ export function matchFragments(
     }
     return polishRanked(a, b, distinctBest(all, 2 * spacing), origin, params, spacing);
   }
-  const fine = shortlist.map((s): DeferredMatch => {
+  const fine = shortlist.flatMap((s): DeferredMatch[] => {
     const FA = a.faces[s.i], FB = b.faces[s.j];
-    const transform = fineTransform(a, s.i, b, s.j, s.motion.transform, params);
+    const transform = fineTransformOrNone(a, s.i, b, s.j, s.motion.transform, params);
+    if (!transform) return [];
     const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
-    return { transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j };
+    return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j }];
   });
   if (params.polishBest <= 0) return bestDistinct(fine, keep, 2 * spacing, minScore, origin);
   // The whole list polishes its first polishBest motions and ranks again, which may bring two of

@@ -137,12 +137,17 @@ describe('on a cut Stanford bunny', () => {
     // each way round of the screen (screenWays): with 'smaller' the polish of this pair brings its best two motions
     // together, so the polished list must be drawn from more than `keep` motions, and it polishes polishBest of them
     // (not only `keep`), as the whole list does
+    // (the fine step's k-d cut, fineKdMaxRmsSpacings, off: it gives up most of these motions, which leaves one;
+    // with the cut on, the first keep must still be those of the whole list)
     for (const screenWays of ['given', 'smaller', 'both'] as const) {
-      const params = { ...DEFAULT_MATCH_PARAMETERS, fineHypotheses: 4, minOverlap: 0, fineMinOverlap: 0, fineRatio: 0, screenWays };
+      const params = { ...DEFAULT_MATCH_PARAMETERS, fineHypotheses: 4, minOverlap: 0, fineMinOverlap: 0, fineRatio: 0, screenWays, fineKdMaxRmsSpacings: 0 };
+      const cut = { ...params, fineKdMaxRmsSpacings: DEFAULT_MATCH_PARAMETERS.fineKdMaxRmsSpacings };
       for (const B of [prepare(upper, M), prepare(otherUpper, M)]) {
         const all = matchFragments(A, B, params);
         expect(all.length, screenWays).toBeGreaterThan(1);
         for (const keep of [1, 2, 3]) expect(matchFragments(A, B, params, undefined, keep), `${screenWays} keep ${keep}`).toEqual(all.slice(0, keep));
+        const allCut = matchFragments(A, B, cut);
+        for (const keep of [1, 2, 3]) expect(matchFragments(A, B, cut, undefined, keep), `${screenWays} keep ${keep}, cut`).toEqual(allCut.slice(0, keep));
       }
     }
   });
