@@ -52,7 +52,17 @@ export interface PruningOptions {
    * and the first k kept. Default CANDIDATE_RERANK; null: the k cheapest by the trait cost alone.
    */
   rerank?: CandidateRerank | null;
+  /**
+   * Distinct whole faces (DISTINCT_WHOLE_FACES), where a face and its parts (`IndexedFace.whole`)
+   * are one whole break face: 'face pairs', rank by rank over all faces each face takes its next
+   * partner only when no face pair of the same two whole faces is kept yet, k per face; 'each
+   * list', in each face's list a second face of one whole face moves behind the faces of other
+   * whole faces before the first k are kept; null: each face's first k as ordered.
+   */
+  distinctWholeFaces?: DistinctWholeFaces | null;
 }
+
+export type DistinctWholeFaces = 'face pairs' | 'each list';
 
 export interface CandidateRerank {
   /** Partners per face read by the trait cost before ranking again (at least k). */
@@ -91,6 +101,25 @@ export const WHOLE_FACE_PARTNERS = 2;
  * same, so their order is the trait cost's.
  */
 export const CANDIDATE_RERANK: CandidateRerank = { shortlist: 90, weight: 2 };
+
+/**
+ * How the index keeps its places for distinct whole faces by default (`PruningOptions.
+ * distinctWholeFaces`). A merged break face is indexed as the whole and its parts (corner
+ * pieces, patches: 65% of the faces at 200 fragments), which look alike, so each face's list of
+ * k spends several places on one whole face of one piece, and the lists of a face's own parts
+ * repeat the same pairs: at 1,000 fragments the lists crowd and the true partner falls beyond k.
+ * 'face pairs' keeps one face pair per two whole faces (each face, rank by rank, takes its next
+ * partner whose two whole faces are not paired yet), so the places go to other pieces; the whole
+ * faces offered beside their parts (WHOLE_FACE_PARTNERS) still add the whole face of a part.
+ * Measured on dev seeds 340 and 150 at 200 fragments and seed 160 at 1,000 (candidate-recall.ts,
+ * the second stage in force; DEVELOPERS.md, pruning section): at k = 30 candidate recall 306 ->
+ * 312 of 355 (s340) and 302 -> 314 of 343 (s150) with 12-15% fewer face pairs; at 1,000 (the
+ * set the trait weights and the second stage's weight were chosen on) see DEVELOPERS.md.
+ */
+export const DISTINCT_WHOLE_FACES: DistinctWholeFaces | null = 'face pairs';
+
+/** With a distinct rule and no second stage: the trait-cost list held, in multiples of k (partners to move forward or to take instead). */
+export const DISTINCT_LIST_DEPTH = 3;
 
 /** The word cost of a face without counted words (traits stored before they were): about the median over shortlisted pairs. */
 const MISSING_WORD_COST = 1;
@@ -136,8 +165,10 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
   }
   const k = Math.max(1, Math.floor(options.k));
   const rerank = options.rerank === undefined ? CANDIDATE_RERANK : options.rerank;
-  // partners held per face by the trait cost: the shortlist when a second stage ranks them again
-  const L = rerank ? Math.max(k, Math.floor(rerank.shortlist)) : k;
+  const distinct = options.distinctWholeFaces === undefined ? DISTINCT_WHOLE_FACES : options.distinctWholeFaces;
+  // partners held per face by the trait cost: the shortlist when a second stage ranks them again,
+  // a longer list when the distinct rule needs partners to move forward
+  const L = rerank ? Math.max(k, Math.floor(rerank.shortlist)) : distinct ? k * DISTINCT_LIST_DEPTH : k;
   const desc = faces.map((f) => describeFace(f.traits));
   // each face's k best so far, sorted by cost (insertion into a short list)
   const bestCost = faces.map(() => new Float64Array(L).fill(Infinity));
@@ -163,21 +194,41 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
       offer(j, i, c);
     }
   }
-  if (rerank) {
-    // the second stage: each shortlist ranked again with the word cost added, the first k kept
-    const wordCost = (i: number, j: number): number => {
-      const a = faces[i].traits.fpfhWordsMirrored, b = faces[j].traits.fpfhWords;
-      return a && b ? wordContainmentCost(a, b) : MISSING_WORD_COST;
-    };
+  // the second stage: each shortlist ranked again with the word cost added
+  const wordCost = (i: number, j: number): number => {
+    const a = faces[i].traits.fpfhWordsMirrored, b = faces[j].traits.fpfhWords;
+    return a && b ? wordContainmentCost(a, b) : MISSING_WORD_COST;
+  };
+  const wholeKey = faces.map((f) => `${f.fragment}:${f.whole ?? f.face}`);
+  // each face's list in the order in force: [partner, trait cost, rank key]
+  const lists: Array<Array<[number, number, number]>> = [];
+  for (let i = 0; i < n; i++) {
     const order: Array<[number, number, number]> = [];
-    for (let i = 0; i < n; i++) {
-      order.length = 0;
-      for (let m = 0; m < L && bestIndex[i][m] >= 0; m++) order.push([bestIndex[i][m], bestCost[i][m], bestCost[i][m] + rerank.weight * wordCost(i, bestIndex[i][m])]);
-      order.sort((x, y) => x[2] - y[2]);
-      for (let m = 0; m < Math.min(k, order.length); m++) add(i, order[m][0], order[m][1]);
+    for (let m = 0; m < L && bestIndex[i][m] >= 0; m++) order.push([bestIndex[i][m], bestCost[i][m], rerank ? bestCost[i][m] + rerank.weight * wordCost(i, bestIndex[i][m]) : m]);
+    if (rerank) order.sort((x, y) => x[2] - y[2]);
+    lists.push(distinct === 'each list' ? distinctWholeFacesFirst(order, (x) => wholeKey[x[0]]) : order);
+  }
+  if (distinct === 'face pairs') {
+    // rank by rank over all faces, each face takes its next partner whose two whole faces have no
+    // face pair yet, until it has taken k (or its list runs out)
+    const covered = new Set<string>();
+    const pos = new Int32Array(n);
+    for (let round = 0; round < k; round++) {
+      for (let i = 0; i < n; i++) {
+        const list = lists[i];
+        while (pos[i] < list.length) {
+          const [j, c] = list[pos[i]++];
+          const a = wholeKey[i], b = wholeKey[j];
+          const g = a < b ? `${a}|${b}` : `${b}|${a}`;
+          if (covered.has(g)) continue;
+          covered.add(g);
+          add(i, j, c);
+          break;
+        }
+      }
     }
   } else {
-    for (let i = 0; i < n; i++) for (let m = 0; m < k; m++) if (bestIndex[i][m] >= 0) add(i, bestIndex[i][m], bestCost[i][m]);
+    for (let i = 0; i < n; i++) for (let m = 0; m < Math.min(k, lists[i].length); m++) add(i, lists[i][m][0], lists[i][m][1]);
   }
   const w = Math.max(0, Math.floor(options.wholeFacePartners ?? 0));
   if (w > 0) {
@@ -203,6 +254,21 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
     for (let i = 0; i < n; i++) for (const [o, c] of [...offers[i]].sort((x, y) => x[1] - y[1]).slice(0, w)) add(i, o, c);
   }
   return [...out.values()];
+}
+
+/**
+ * A list in its order, except that an item of a group already met moves behind every item that
+ * is not (stable otherwise): the first places go to as many groups as there are.
+ */
+export function distinctWholeFacesFirst<T>(list: readonly T[], group: (item: T) => string): T[] {
+  const seen = new Set<string>();
+  const first: T[] = [], later: T[] = [];
+  for (const item of list) {
+    const g = group(item);
+    (seen.has(g) ? later : first).push(item);
+    seen.add(g);
+  }
+  return first.concat(later);
 }
 
 /** Group face pairs by fragment pair ("a:b"). */
