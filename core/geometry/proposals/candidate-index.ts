@@ -72,7 +72,7 @@ export interface CandidateRerank {
 }
 
 /** Partners kept per face by default (chosen from the recall against pairs printed by the benchmark). */
-export const DEFAULT_K = 30;
+export const DEFAULT_K = 27;
 
 /**
  * Whole faces added per face by default (`PruningOptions.wholeFacePartners`). A merged break
@@ -116,7 +116,7 @@ export const CANDIDATE_RERANK: CandidateRerank = { shortlist: 90, weight: 2 };
  * 312 of 355 (s340) and 302 -> 314 of 343 (s150) with 12-15% fewer face pairs; at 1,000 (the
  * set the trait weights and the second stage's weight were chosen on) see DEVELOPERS.md.
  */
-export const DISTINCT_WHOLE_FACES: DistinctWholeFaces | null = 'face pairs';
+export const DISTINCT_WHOLE_FACES: DistinctWholeFaces | null = 'each list';
 
 /** With a distinct rule and no second stage: the trait-cost list held, in multiples of k (partners to move forward or to take instead). */
 export const DISTINCT_LIST_DEPTH = 3;

@@ -66,7 +66,6 @@ describe('distinct whole faces in the candidate index', () => {
   });
 
   it('one face pair per two whole faces: fewer face pairs, and the places go to other pieces', () => {
-    expect(DISTINCT_WHOLE_FACES).toBe('face pairs');
     const fragmentPairs = (pairs: FacePairCandidate[]): string[] => pairs.map((p) => `${p.a}:${p.b}`);
     const plain = candidateFacePairs(faces, { k: 2, distinctWholeFaces: null, rerank: null });
     for (const rerank of [null, undefined]) {
@@ -84,9 +83,20 @@ describe('distinct whole faces in the candidate index', () => {
   });
 
   it('each list: a second face of one whole face moves behind other whole faces', () => {
+    const fragmentPairs = (pairs: FacePairCandidate[]): string[] => pairs.map((p) => `${p.a}:${p.b}`);
+    const plain = candidateFacePairs(faces, { k: 2, distinctWholeFaces: null, rerank: null });
     const pairs = candidateFacePairs(faces, { k: 2, distinctWholeFaces: 'each list', rerank: null });
+    // D's halves no longer spend both places on E's halves, and every pair of pieces stays reached
+    expect(pairs.filter((p) => p.a === 1 && p.b === 3).length).toBeLessThan(plain.filter((p) => p.a === 1 && p.b === 3).length);
+    for (const fp of fragmentPairs(plain)) expect(fragmentPairs(pairs)).toContain(fp);
     expect(piecesOfX(pairs).size).toBeGreaterThanOrEqual(2);
     // the helper keeps the order within the first of each group and within the rest
     expect(distinctWholeFacesFirst(['a1', 'a2', 'b1', 'a3', 'c1', 'b2'], (s) => s[0])).toEqual(['a1', 'b1', 'c1', 'a2', 'a3', 'b2']);
+  });
+
+  it('the default rule is DISTINCT_WHOLE_FACES', () => {
+    const key = (pairs: FacePairCandidate[]): string[] => pairs.map((p) => `${p.a}.${p.faceA}-${p.b}.${p.faceB}`).sort();
+    expect(key(candidateFacePairs(faces, { k: 2 }))).toEqual(key(candidateFacePairs(faces, { k: 2, distinctWholeFaces: DISTINCT_WHOLE_FACES })));
+    expect(key(candidateFacePairs(faces, { k: 2 }))).not.toEqual(key(candidateFacePairs(faces, { k: 2, distinctWholeFaces: null })));
   });
 });
