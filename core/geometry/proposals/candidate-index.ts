@@ -71,7 +71,11 @@ export interface CandidateRerank {
   weight: number;
 }
 
-/** Partners kept per face by default (chosen from the recall against pairs printed by the benchmark). */
+/**
+ * Partners kept per face by default (chosen from the recall against pairs printed by the
+ * benchmark). 30 until session 25; with distinct whole faces in each list (DISTINCT_WHOLE_FACES)
+ * the lists overlap less, and 27 keeps about the face pairs 30 kept before (1-5% fewer).
+ */
 export const DEFAULT_K = 27;
 
 /**
@@ -105,16 +109,19 @@ export const CANDIDATE_RERANK: CandidateRerank = { shortlist: 90, weight: 2 };
 /**
  * How the index keeps its places for distinct whole faces by default (`PruningOptions.
  * distinctWholeFaces`). A merged break face is indexed as the whole and its parts (corner
- * pieces, patches: 65% of the faces at 200 fragments), which look alike, so each face's list of
- * k spends several places on one whole face of one piece, and the lists of a face's own parts
- * repeat the same pairs: at 1,000 fragments the lists crowd and the true partner falls beyond k.
- * 'face pairs' keeps one face pair per two whole faces (each face, rank by rank, takes its next
- * partner whose two whole faces are not paired yet), so the places go to other pieces; the whole
- * faces offered beside their parts (WHOLE_FACE_PARTNERS) still add the whole face of a part.
- * Measured on dev seeds 340 and 150 at 200 fragments and seed 160 at 1,000 (candidate-recall.ts,
- * the second stage in force; DEVELOPERS.md, pruning section): at k = 30 candidate recall 306 ->
- * 312 of 355 (s340) and 302 -> 314 of 343 (s150) with 12-15% fewer face pairs; at 1,000 (the
- * set the trait weights and the second stage's weight were chosen on) see DEVELOPERS.md.
+ * pieces, patches: 65% of the faces at 200 fragments), which look alike, so a face's list of k
+ * spends several places on one whole face of one piece; at 1,000 fragments the lists crowd and
+ * true partners fall beyond k. 'each list' moves a second face of a whole face already listed
+ * behind the faces of other whole faces, so the places go to other pieces, while a face's own
+ * parts still list the same partner (several face pairs per true join for the aligner to try).
+ * Measured (tests/bench/candidate-fusion.ts, candidate-recall.ts; the second stage in force;
+ * DEVELOPERS.md, pruning section), candidate recall, plain k = 30 -> 'each list' k = 27 with
+ * 1-5% fewer face pairs: dev s340 at 200 fragments 306 -> 314 of 355, s150 302 -> 312 of 343,
+ * seed 160 at 1,000 1,122 -> 1,160 of 1,728 (the set the trait weights and the second stage's
+ * weight were chosen on); proposals bench on s340, in a top 3 251 -> 253 of 376. 'face pairs'
+ * (each face, rank by rank, takes its next partner only when its two whole faces have no face
+ * pair yet) reaches more (s340 312 with 15% fewer face pairs, s160 1,291 with 14% more) but
+ * leaves most true joins one face pair, and the aligner stored less: in a top 3 251 -> 242.
  */
 export const DISTINCT_WHOLE_FACES: DistinctWholeFaces | null = 'each list';
 
