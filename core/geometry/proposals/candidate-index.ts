@@ -9,6 +9,7 @@
  * classes apart).
  */
 import { describeFace, partnerCost } from './face-descriptor';
+import { distinctWholeFacesFirst } from './distinct-whole-faces-first';
 import type { FaceTraits } from './face-traits';
 import { wordContainmentCost } from './word-containment-cost';
 
@@ -261,21 +262,6 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
     for (let i = 0; i < n; i++) for (const [o, c] of [...offers[i]].sort((x, y) => x[1] - y[1]).slice(0, w)) add(i, o, c);
   }
   return [...out.values()];
-}
-
-/**
- * A list in its order, except that an item of a group already met moves behind every item that
- * is not (stable otherwise): the first places go to as many groups as there are.
- */
-export function distinctWholeFacesFirst<T>(list: readonly T[], group: (item: T) => string): T[] {
-  const seen = new Set<string>();
-  const first: T[] = [], later: T[] = [];
-  for (const item of list) {
-    const g = group(item);
-    (seen.has(g) ? later : first).push(item);
-    seen.add(g);
-  }
-  return first.concat(later);
 }
 
 /** Group face pairs by fragment pair ("a:b"). */

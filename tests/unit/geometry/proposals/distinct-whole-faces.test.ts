@@ -8,7 +8,8 @@
  * a face's list, and at k = 2 the plain rule spends places on several faces of one whole face.
  */
 import { describe, expect, it } from 'vitest';
-import { candidateFacePairs, DISTINCT_WHOLE_FACES, distinctWholeFacesFirst, type FacePairCandidate, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
+import { candidateFacePairs, DISTINCT_WHOLE_FACES, type FacePairCandidate, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
+import { distinctWholeFacesFirst } from '../../../../core/geometry/proposals/distinct-whole-faces-first';
 import { faceTraits } from '../../../../core/geometry/proposals/face-traits';
 import { computeFpfh } from '../../../../core/geometry/registration/fpfh';
 import { mulberry32 } from '../../../../core/geometry/seeded-random';
