@@ -6,7 +6,8 @@
  * "reachable" counts the joins exhaustive pairing could reach at all (segmentation limits it).
  * With the recorded size classes (the folder's specimens.csv) pieces of different classes are
  * not paired, as in a propose run (KNITBONE_SIZE_CLASS=0 leaves them out). The index's second
- * stage (candidate-index.ts CANDIDATE_RERANK) is in force unless KNITBONE_RERANK=0.
+ * stage (candidate-index.ts CANDIDATE_RERANK) is in force unless KNITBONE_RERANK=0, distinct whole
+ * faces (DISTINCT_WHOLE_FACES) unless KNITBONE_DISTINCT=0 (or =each for 'each list').
  *   npx tsx tests/bench/candidate-recall.ts <demo-dir> [ks]
  */
 import { existsSync, readFileSync, readdirSync } from 'node:fs';
@@ -49,7 +50,8 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
   const faces: IndexedFace[] = [];
   const breaksOf: Array<Record<string, number>> = [];
   study.forEach((f, i) => f.faces.forEach((x, face) => {
-    faces.push({ fragment: i, face, traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } });
+    // a part knows its whole face (the first face of its analysed face), as in a propose run
+    faces.push({ fragment: i, face, whole: f.faces.findIndex((y) => y.parent === x.parent), traits: { ...x.traits, meanFpfh: Float32Array.from(x.traits.meanFpfh) } });
     breaksOf.push(x.breaks);
   }));
   const faceIndex = new Map(faces.map((f, i) => [`${f.fragment}:${f.face}`, i]));
@@ -73,7 +75,7 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
   for (const k of ks) {
     const t0 = performance.now();
     const compatible = sizeClasses ? sizeClassCompatible(study.map((f) => sizeClasses.get(f.no) ?? null)) : undefined;
-    const c = candidateFacePairs(faces, { k, compatible, ...(process.env.KNITBONE_RERANK === '0' ? { rerank: null } : {}) });
+    const c = candidateFacePairs(faces, { k, compatible, ...(process.env.KNITBONE_RERANK === '0' ? { rerank: null } : {}), ...(process.env.KNITBONE_DISTINCT === '0' ? { distinctWholeFaces: null } : process.env.KNITBONE_DISTINCT === 'each' ? { distinctWholeFaces: 'each list' as const } : {}) });
     const ms = performance.now() - t0;
     const set = new Set(c.map((p) => {
       const x = faceIndex.get(`${p.a}:${p.faceA}`)!, y = faceIndex.get(`${p.b}:${p.faceB}`)!;

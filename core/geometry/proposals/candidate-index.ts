@@ -9,6 +9,7 @@
  * classes apart).
  */
 import { describeFace, partnerCost } from './face-descriptor';
+import { distinctWholeFacesFirst } from './distinct-whole-faces-first';
 import type { FaceTraits } from './face-traits';
 import { wordContainmentCost } from './word-containment-cost';
 
@@ -52,7 +53,17 @@ export interface PruningOptions {
    * and the first k kept. Default CANDIDATE_RERANK; null: the k cheapest by the trait cost alone.
    */
   rerank?: CandidateRerank | null;
+  /**
+   * Distinct whole faces (DISTINCT_WHOLE_FACES), where a face and its parts (`IndexedFace.whole`)
+   * are one whole break face: 'face pairs', rank by rank over all faces each face takes its next
+   * partner only when no face pair of the same two whole faces is kept yet, k per face; 'each
+   * list', in each face's list a second face of one whole face moves behind the faces of other
+   * whole faces before the first k are kept; null: each face's first k as ordered.
+   */
+  distinctWholeFaces?: DistinctWholeFaces | null;
 }
+
+export type DistinctWholeFaces = 'face pairs' | 'each list';
 
 export interface CandidateRerank {
   /** Partners per face read by the trait cost before ranking again (at least k). */
@@ -61,8 +72,12 @@ export interface CandidateRerank {
   weight: number;
 }
 
-/** Partners kept per face by default (chosen from the recall against pairs printed by the benchmark). */
-export const DEFAULT_K = 30;
+/**
+ * Partners kept per face by default (chosen from the recall against pairs printed by the
+ * benchmark). 30 until session 25; with distinct whole faces in each list (DISTINCT_WHOLE_FACES)
+ * the lists overlap less, and 27 keeps about the face pairs 30 kept before (1-5% fewer).
+ */
+export const DEFAULT_K = 27;
 
 /**
  * Whole faces added per face by default (`PruningOptions.wholeFacePartners`). A merged break
@@ -91,6 +106,28 @@ export const WHOLE_FACE_PARTNERS = 2;
  * same, so their order is the trait cost's.
  */
 export const CANDIDATE_RERANK: CandidateRerank = { shortlist: 90, weight: 2 };
+
+/**
+ * How the index keeps its places for distinct whole faces by default (`PruningOptions.
+ * distinctWholeFaces`). A merged break face is indexed as the whole and its parts (corner
+ * pieces, patches: 65% of the faces at 200 fragments), which look alike, so a face's list of k
+ * spends several places on one whole face of one piece; at 1,000 fragments the lists crowd and
+ * true partners fall beyond k. 'each list' moves a second face of a whole face already listed
+ * behind the faces of other whole faces, so the places go to other pieces, while a face's own
+ * parts still list the same partner (several face pairs per true join for the aligner to try).
+ * Measured (tests/bench/candidate-fusion.ts, candidate-recall.ts; the second stage in force;
+ * DEVELOPERS.md, pruning section), candidate recall, plain k = 30 -> 'each list' k = 27 with
+ * 1-5% fewer face pairs: dev s340 at 200 fragments 306 -> 314 of 355, s150 302 -> 312 of 343,
+ * seed 160 at 1,000 1,122 -> 1,160 of 1,728 (the set the trait weights and the second stage's
+ * weight were chosen on); proposals bench on s340, in a top 3 251 -> 253 of 376. 'face pairs'
+ * (each face, rank by rank, takes its next partner only when its two whole faces have no face
+ * pair yet) reaches more (s340 312 with 15% fewer face pairs, s160 1,291 with 14% more) but
+ * leaves most true joins one face pair, and the aligner stored less: in a top 3 251 -> 242.
+ */
+export const DISTINCT_WHOLE_FACES: DistinctWholeFaces | null = 'each list';
+
+/** With a distinct rule and no second stage: the trait-cost list held, in multiples of k (partners to move forward or to take instead). */
+export const DISTINCT_LIST_DEPTH = 3;
 
 /** The word cost of a face without counted words (traits stored before they were): about the median over shortlisted pairs. */
 const MISSING_WORD_COST = 1;
@@ -136,8 +173,10 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
   }
   const k = Math.max(1, Math.floor(options.k));
   const rerank = options.rerank === undefined ? CANDIDATE_RERANK : options.rerank;
-  // partners held per face by the trait cost: the shortlist when a second stage ranks them again
-  const L = rerank ? Math.max(k, Math.floor(rerank.shortlist)) : k;
+  const distinct = options.distinctWholeFaces === undefined ? DISTINCT_WHOLE_FACES : options.distinctWholeFaces;
+  // partners held per face by the trait cost: the shortlist when a second stage ranks them again,
+  // a longer list when the distinct rule needs partners to move forward
+  const L = rerank ? Math.max(k, Math.floor(rerank.shortlist)) : distinct ? k * DISTINCT_LIST_DEPTH : k;
   const desc = faces.map((f) => describeFace(f.traits));
   // each face's k best so far, sorted by cost (insertion into a short list)
   const bestCost = faces.map(() => new Float64Array(L).fill(Infinity));
@@ -163,21 +202,41 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
       offer(j, i, c);
     }
   }
-  if (rerank) {
-    // the second stage: each shortlist ranked again with the word cost added, the first k kept
-    const wordCost = (i: number, j: number): number => {
-      const a = faces[i].traits.fpfhWordsMirrored, b = faces[j].traits.fpfhWords;
-      return a && b ? wordContainmentCost(a, b) : MISSING_WORD_COST;
-    };
+  // the second stage: each shortlist ranked again with the word cost added
+  const wordCost = (i: number, j: number): number => {
+    const a = faces[i].traits.fpfhWordsMirrored, b = faces[j].traits.fpfhWords;
+    return a && b ? wordContainmentCost(a, b) : MISSING_WORD_COST;
+  };
+  const wholeKey = faces.map((f) => `${f.fragment}:${f.whole ?? f.face}`);
+  // each face's list in the order in force: [partner, trait cost, rank key]
+  const lists: Array<Array<[number, number, number]>> = [];
+  for (let i = 0; i < n; i++) {
     const order: Array<[number, number, number]> = [];
-    for (let i = 0; i < n; i++) {
-      order.length = 0;
-      for (let m = 0; m < L && bestIndex[i][m] >= 0; m++) order.push([bestIndex[i][m], bestCost[i][m], bestCost[i][m] + rerank.weight * wordCost(i, bestIndex[i][m])]);
-      order.sort((x, y) => x[2] - y[2]);
-      for (let m = 0; m < Math.min(k, order.length); m++) add(i, order[m][0], order[m][1]);
+    for (let m = 0; m < L && bestIndex[i][m] >= 0; m++) order.push([bestIndex[i][m], bestCost[i][m], rerank ? bestCost[i][m] + rerank.weight * wordCost(i, bestIndex[i][m]) : m]);
+    if (rerank) order.sort((x, y) => x[2] - y[2]);
+    lists.push(distinct === 'each list' ? distinctWholeFacesFirst(order, (x) => wholeKey[x[0]]) : order);
+  }
+  if (distinct === 'face pairs') {
+    // rank by rank over all faces, each face takes its next partner whose two whole faces have no
+    // face pair yet, until it has taken k (or its list runs out)
+    const covered = new Set<string>();
+    const pos = new Int32Array(n);
+    for (let round = 0; round < k; round++) {
+      for (let i = 0; i < n; i++) {
+        const list = lists[i];
+        while (pos[i] < list.length) {
+          const [j, c] = list[pos[i]++];
+          const a = wholeKey[i], b = wholeKey[j];
+          const g = a < b ? `${a}|${b}` : `${b}|${a}`;
+          if (covered.has(g)) continue;
+          covered.add(g);
+          add(i, j, c);
+          break;
+        }
+      }
     }
   } else {
-    for (let i = 0; i < n; i++) for (let m = 0; m < k; m++) if (bestIndex[i][m] >= 0) add(i, bestIndex[i][m], bestCost[i][m]);
+    for (let i = 0; i < n; i++) for (let m = 0; m < Math.min(k, lists[i].length); m++) add(i, lists[i][m][0], lists[i][m][1]);
   }
   const w = Math.max(0, Math.floor(options.wholeFacePartners ?? 0));
   if (w > 0) {

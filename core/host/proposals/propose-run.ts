@@ -17,7 +17,7 @@ import { availableParallelism } from 'node:os';
 import { withCatalogue, type Catalogue } from '../../catalogue/catalogue';
 import { ProposalPairRepository } from '../../catalogue/proposal-pairs';
 import type { Join } from '../../catalogue/records';
-import { byFragmentPair, CANDIDATE_RERANK, candidateFacePairs, DEFAULT_K, SIZE_CLASS_MAX_DIFFERENCE, sizeClassCompatible, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../geometry/proposals/candidate-index';
+import { byFragmentPair, CANDIDATE_RERANK, candidateFacePairs, DEFAULT_K, DISTINCT_WHOLE_FACES, SIZE_CLASS_MAX_DIFFERENCE, sizeClassCompatible, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../geometry/proposals/candidate-index';
 import { DESCRIPTOR_FIGURES, TEXTURE_WEIGHT } from '../../geometry/proposals/face-descriptor';
 import { DEFAULT_MATCH_PARAMETERS, METHOD_VERSION, type MatchParameters } from '../../geometry/proposals/pairwise-match';
 import { scoreModelKey } from '../../geometry/registration/score-model';
@@ -136,7 +136,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sizeClassMaxDifference = options.exhaustive ? null : options.sizeClassMaxDifference === undefined ? SIZE_CLASS_MAX_DIFFERENCE : options.sizeClassMaxDifference;
       // prepared: how faces become samples, patches and corner pieces (fragment-cache.ts); a change
       // there changes every pair's outcome, so pairs done before it are aligned again
-      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, wholeFacePartners, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, rerank: CANDIDATE_RERANK, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
+      const parameters = { method: METHOD_VERSION, scoreModel: scoreModelKey(), prepared: PREPARED_CACHE_VERSION, sampling, match: params, wholeFacePartners, pruning: { k, figures: DESCRIPTOR_FIGURES, textureWeight: TEXTURE_WEIGHT, rerank: CANDIDATE_RERANK, distinctWholeFaces: DISTINCT_WHOLE_FACES, sizeClassMaxDifference }, exhaustive: options.exhaustive ?? false, minScore: options.minScore ?? 0.05, provenience: 'not used' };
       // The whole faces offered beside their parts (wholeFacePartners) add face pairs to a
       // fragment pair that is aligned anyway, so they decide its outcome like the matcher does.
       // A pair is done for the parameters that decide its outcome; which pairs are aligned
@@ -163,7 +163,7 @@ export async function proposeJoins(options: ProposeOptions, ctx: RequestContext)
       const sizeClasses = usable.map((s) => sizeClassOf.get(specimenOfScan.get(s.scanId)!) ?? null);
       const compatible = sizeClassMaxDifference === null ? undefined : sizeClassCompatible(sizeClasses, sizeClassMaxDifference);
       const sizeClassReport = { gap: sizeClassMaxDifference, piecesWithClass: sizeClasses.filter((c) => c !== null).length };
-      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive, wholeFacePartners, rerank: CANDIDATE_RERANK, ...(compatible ? { compatible } : {}) });
+      const candidates = candidateFacePairs(faces, { k, exhaustive: options.exhaustive, wholeFacePartners, rerank: CANDIDATE_RERANK, distinctWholeFaces: DISTINCT_WHOLE_FACES, ...(compatible ? { compatible } : {}) });
       const grouped = byFragmentPair(candidates);
 
       // 3. what is left to do
