@@ -57,23 +57,24 @@ if (process.env.KNITBONE_COMPARE_PARAMS) {
   });
   process.stdout.write(`paired CPU s: parameters ${mine.toFixed(2)}, compared ${theirs.toFixed(2)} (${((100 * (theirs - mine)) / mine).toFixed(1)}%); best motion above the minimum only with the first ${lost}, only with the second ${won}, moved over 1 degree or 0.01 in score ${moved}\n`);
 }
-// KNITBONE_STAGES=1: every face pair screened once more with the CPU ms of each screen step
+// KNITBONE_STAGES=1: every face pair screened once more with the CPU ms of each screen step (with
+// KNITBONE_PROFILE_PARAMS's parameters)
 const stages: Record<string, number> = {};
 if (process.env.KNITBONE_STAGES === '1') {
   for (const list of grouped) {
     const a = prepared[list[0].a], b = prepared[list[0].b];
     const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
-    for (const c of list) for (const motion of screenFacePair(a, c.faceA, b, c.faceB, DEFAULT_MATCH_PARAMETERS, { coarse: [], refined: [], kept: [], times: stages } satisfies MatchTrace)) screened.push({ i: c.faceA, j: c.faceB, motion });
+    for (const c of list) for (const motion of screenFacePair(a, c.faceA, b, c.faceB, params, { coarse: [], refined: [], kept: [], times: stages } satisfies MatchTrace)) screened.push({ i: c.faceA, j: c.faceB, motion });
     // the fine step and the score of every shortlisted motion (completed too), as matchFragments runs them
     const ms = (): number => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
     const add = (k: string, t0: number): void => { stages[k] = (stages[k] ?? 0) + ms() - t0; };
-    for (const s of fineShortlist(a, b, screened, DEFAULT_MATCH_PARAMETERS)) {
+    for (const s of fineShortlist(a, b, screened, params)) {
       let t0 = ms();
-      const T = fineTransform(a, s.i, b, s.j, s.motion.transform, DEFAULT_MATCH_PARAMETERS);
+      const T = fineTransform(a, s.i, b, s.j, s.motion.transform, params);
       add('fine icp', t0);
       const FA = a.faces[s.i], FB = b.faces[s.j];
       t0 = ms();
-      const d = deferredScore(scoredSide(a, FA), scoredSide(b, FB), T, { contactTolerance: DEFAULT_MATCH_PARAMETERS.contactToleranceSpacings * spacing(), spacing: spacing() });
+      const d = deferredScore(scoredSide(a, FA), scoredSide(b, FB), T, { contactTolerance: params.contactToleranceSpacings * spacing(), spacing: spacing() });
       add('deferred score', t0);
       t0 = ms();
       d.complete();
