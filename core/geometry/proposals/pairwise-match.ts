@@ -678,7 +678,7 @@ export function matchFragments(
       origin.set(m, [s.i, s.j]);
       all.push(m);
     }
-    // (one refined motion per shortlist entry, in its order)
+    // (at most one refined motion per shortlist entry, in its order: none where the fine step gave it up)
     for (const d of onContactPairs(a, b, all.map((m) => ({ transform: m.transform, i: origin.get(m)![0], j: origin.get(m)![1] })), pairs, params)) {
       const m: FaceMatch = { ...d.score.complete(), transform: d.transform, faceA: d.faceA, faceB: d.faceB };
       origin.set(m, [d.i!, d.j!]);
@@ -713,18 +713,20 @@ export function matchFragments(
 
 /**
  * The first params.contactPairMotions of a fragment pair's refined motions (the fine shortlist's
- * order), refined again and scored on the face pair each puts most in contact, when that is not one of the
+ * order, those the fine step gave up left out), refined again and scored on the face pair each puts most in contact, when that is not one of the
  * screened face pairs (contact-face-pairs.ts contactPairStarts; none when the setting is 0 or left out).
  */
 function onContactPairs(a: PreparedFragment, b: PreparedFragment, refined: Array<{ transform: RigidTransform; i: number; j: number }>, screened: Array<[number, number]>, params: MatchParameters): DeferredMatch[] {
   const n = params.contactPairMotions ?? 0;
   if (!(n > 0)) return [];
   const spacing = Math.max(a.spacing, b.spacing);
-  return contactPairStarts(a, b, refined.slice(0, n), params.contactPairSamples ?? 40, params.contactPairMinShare ?? 0.2, spacing, screened).map((s) => {
+  return contactPairStarts(a, b, refined.slice(0, n), params.contactPairSamples ?? 40, params.contactPairMinShare ?? 0.2, spacing, screened).flatMap((s): DeferredMatch[] => {
     const FA = a.faces[s.i], FB = b.faces[s.j];
-    const transform = fineTransform(a, s.i, b, s.j, s.transform, params);
+    // the same fine step as a shortlisted motion's, given up alike when the faces do not conform
+    const transform = fineTransformOrNone(a, s.i, b, s.j, s.transform, params);
+    if (!transform) return [];
     const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
-    return { transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j };
+    return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j }];
   });
 }
 
