@@ -8,8 +8,9 @@
  * not a candidate, is what meets it): scored on its own pair it reads near 0 (dev s340 at 200
  * fragments, QS-10088|QS-10591: 0.008 on the faces it was found on, 0.999 on the faces that
  * meet; DEVELOPERS.md, session 24). The faces a motion puts most in contact are the ones to
- * refine and score it on. Cheap: strided samples, and a pair is skipped when the two faces'
- * bounding spheres do not meet under the motion.
+ * refine and score it on. Kept cheap (it runs on every fragment pair): strided samples, a pair
+ * skipped when the two faces' bounding spheres do not meet under the motion, and A's side counted
+ * only when B's side reaches the minimum share.
  */
 import { inOpposedContact } from '../registration/opposed-contact';
 import { invert, type RigidTransform } from '../registration/rigid-transform';

@@ -195,7 +195,10 @@ export interface MatchParameters {
    * put most in contact, when that is not their own pair and the smaller of its two faces' contact
    * shares is at least contactPairMinShare (contact-face-pairs.ts; shares over contactPairSamples
    * strided samples per face). 0 or left out: none. A motion near the truth found on a face pair
-   * that does not meet under it scores near 0 on that pair (DEVELOPERS.md, session 25).
+   * that does not meet under it scores near 0 on that pair. 6, 0.2 and 40 since session 25: on dev
+   * s340 at 200 fragments true joins in a top 3 251 -> 254 of 376, precision above 0.8 194/195 ->
+   * 197/198, paired matching CPU +5.9% (match-truth-ab.ts, after the fine step's k-d cut); check
+   * seed 861 at 100 fragments 127 -> 127 (DEVELOPERS.md, session 25). 12 motions: +7.6% CPU.
    */
   contactPairMotions?: number;
   contactPairMinShare?: number;
