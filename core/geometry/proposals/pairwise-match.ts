@@ -25,6 +25,7 @@ import { screenAxisConsistency, screenInterlock } from './screen-measures';
 import { repeatsMotion } from './repeated-motion';
 import { withFacePairPlaces } from './face-pair-places';
 import { consensusMotion } from './screen-consensus';
+import { contactPairStarts } from './contact-face-pairs';
 
 export const METHOD_VERSION = 'axis-direction-fpfh-ransac-pair-vote-icp/8';
 
@@ -189,6 +190,20 @@ export interface MatchParameters {
    */
   fineFacePairPlaces?: number;
   /**
+   * The fine shortlist's first this many motions (by the screen's rank), once refined, are also
+   * refined and scored on the face pair of the two fragments (whole face, piece or patch) that they
+   * put most in contact, when that is not their own pair and the smaller of its two faces' contact
+   * shares is at least contactPairMinShare (contact-face-pairs.ts; shares over contactPairSamples
+   * strided samples per face). 0 or left out: none. A motion near the truth found on a face pair
+   * that does not meet under it scores near 0 on that pair. 6, 0.2 and 40 since session 25: on dev
+   * s340 at 200 fragments true joins in a top 3 251 -> 254 of 376, precision above 0.8 194/195 ->
+   * 197/198, paired matching CPU +5.9% (match-truth-ab.ts, after the fine step's k-d cut); check
+   * seed 861 at 100 fragments 127 -> 127 (DEVELOPERS.md, session 25). 12 motions: +7.6% CPU.
+   */
+  contactPairMotions?: number;
+  contactPairMinShare?: number;
+  contactPairSamples?: number;
+  /**
    * A face pair with a part (piece or patch) on either side is not screened when a motion screened
    * on a pair of the same faces' wholes (or of one whole and the other part) already puts at least
    * this share of each of its two faces in contact; that motion goes on to the fine shortlist from
@@ -291,6 +306,9 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   fineRepeatDeg: 2,
   fineRepeatSpacings: 1,
   fineFacePairPlaces: 4,
+  contactPairMotions: 6,
+  contactPairMinShare: 0.2,
+  contactPairSamples: 40,
   partCoverShare: 0,
   icpSamples: 150,
   fineSamples: 300,
@@ -663,6 +681,12 @@ export function matchFragments(
       origin.set(m, [s.i, s.j]);
       all.push(m);
     }
+    // (at most one refined motion per shortlist entry, in its order: none where the fine step gave it up)
+    for (const d of onContactPairs(a, b, all.map((m) => ({ transform: m.transform, i: origin.get(m)![0], j: origin.get(m)![1] })), pairs, params)) {
+      const m: FaceMatch = { ...d.score.complete(), transform: d.transform, faceA: d.faceA, faceB: d.faceB };
+      origin.set(m, [d.i!, d.j!]);
+      all.push(m);
+    }
     return polishRanked(a, b, distinctBest(all, 2 * spacing), origin, params, spacing);
   }
   const fine = shortlist.flatMap((s): DeferredMatch[] => {
@@ -672,6 +696,7 @@ export function matchFragments(
     const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
     return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j }];
   });
+  fine.push(...onContactPairs(a, b, fine.map((d) => ({ transform: d.transform, i: d.i!, j: d.j! })), pairs, params));
   if (params.polishBest <= 0) return bestDistinct(fine, keep, 2 * spacing, minScore, origin);
   // The whole list polishes its first polishBest motions and ranks again, which may bring two of
   // them together (or lift the third above the second): drawn from only `keep` motions the polished
@@ -687,6 +712,25 @@ export function matchFragments(
     if (out.length >= keep || best.length < draw) return out.slice(0, keep);
     draw += keep - out.length;
   }
+}
+
+/**
+ * The first params.contactPairMotions of a fragment pair's refined motions (the fine shortlist's
+ * order, those the fine step gave up left out), refined again and scored on the face pair each puts most in contact, when that is not one of the
+ * screened face pairs (contact-face-pairs.ts contactPairStarts; none when the setting is 0 or left out).
+ */
+function onContactPairs(a: PreparedFragment, b: PreparedFragment, refined: Array<{ transform: RigidTransform; i: number; j: number }>, screened: Array<[number, number]>, params: MatchParameters): DeferredMatch[] {
+  const n = params.contactPairMotions ?? 0;
+  if (!(n > 0)) return [];
+  const spacing = Math.max(a.spacing, b.spacing);
+  return contactPairStarts(a, b, refined.slice(0, n), params.contactPairSamples ?? 40, params.contactPairMinShare ?? 0.2, spacing, screened).flatMap((s): DeferredMatch[] => {
+    const FA = a.faces[s.i], FB = b.faces[s.j];
+    // the same fine step as a shortlisted motion's, given up alike when the faces do not conform
+    const transform = fineTransformOrNone(a, s.i, b, s.j, s.transform, params);
+    if (!transform) return [];
+    const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+    return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j }];
+  });
 }
 
 /**
