@@ -16,10 +16,9 @@ import { join } from 'node:path';
 import { WHOLE_FACE_PARTNERS } from '../../core/geometry/proposals/candidate-index';
 import { contactFacePairs } from '../../core/geometry/proposals/contact-face-pairs';
 import { DEFAULT_MATCH_PARAMETERS, fineShortlist, fineTransform, matchFragments, scoredSide, screenFacePairs, type MatchParameters } from '../../core/geometry/proposals/pairwise-match';
-import { invert } from '../../core/geometry/registration/rigid-transform';
 import { deferredScore, scoreJoin } from '../../core/geometry/registration/score';
 import { isCorrectMotion } from './correct-motion';
-import { readStudiedFolder } from './studied-folder';
+import { orderedJoin, readStudiedFolder } from './studied-folder';
 
 interface Join { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 const [dir, extra] = process.argv.slice(2);
@@ -33,10 +32,7 @@ const tally = new Map<string, number>();
 let studied = 0;
 for (const j of truth.joins.filter((x) => x.type === 'conjoin' && x.survivingFraction >= 0.3 && fragOf.has(x.a) && fragOf.has(x.b))) {
   if (only && !only.includes(`${j.a}|${j.b}`)) continue;
-  let ia = fragOf.get(j.a)!, ib = fragOf.get(j.b)!;
-  let want = j.transformBToA;
-  if (ia > ib) { [ia, ib] = [ib, ia]; want = invert(want); }
-  const on = (fr: number, face: number): boolean => (study[fr].faces[face].breaks[String(j.breakId)] ?? 0) >= 0.3;
+  const { ia, ib, want, on } = orderedJoin({ study, fragOf }, j);
   const list = pairsOf.get(`${ia}:${ib}`) ?? [];
   if (!list.some(([x, y]) => on(ia, x) && on(ib, y))) continue;
   studied++;

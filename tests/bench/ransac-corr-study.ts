@@ -15,7 +15,7 @@ import { WHOLE_FACE_PARTNERS } from '../../core/geometry/proposals/candidate-ind
 import { featureCorrespondences } from '../../core/geometry/registration/feature-correspondences';
 import { FPFH_DIM } from '../../core/geometry/registration/fpfh';
 import { applyToPoints, invert } from '../../core/geometry/registration/rigid-transform';
-import { readStudiedFolder } from './studied-folder';
+import { orderedJoin, readStudiedFolder } from './studied-folder';
 
 const [dir, recordsFile, causesArg] = process.argv.slice(2);
 const causes = (causesArg ?? 'coarse').split(',');
@@ -26,11 +26,8 @@ for (const r of recs) {
   if (!causes.includes(r.cause)) continue;
   const [na, nb] = r.join.split('|');
   const j = truth.joins.find((x) => x.a === na && x.b === nb && x.type === 'conjoin')!;
-  let ia = fragOf.get(na)!, ib = fragOf.get(nb)!;
-  let want = j.transformBToA;
-  if (ia > ib) { [ia, ib] = [ib, ia]; want = invert(want); }
+  const { ia, ib, want, on } = orderedJoin({ study, fragOf }, j);
   const A = prep(ia), B = prep(ib);
-  const on = (fr: number, face: number): boolean => (study[fr].faces[face].breaks[String(j.breakId)] ?? 0) >= 0.3;
   for (const [x, y] of pairsOf.get(`${ia}:${ib}`) ?? []) {
     if (!on(ia, x) || !on(ib, y)) continue;
     const FA = A.faces[x], FB = B.faces[y];

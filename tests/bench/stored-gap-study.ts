@@ -21,9 +21,9 @@ import { appendFileSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { WHOLE_FACE_PARTNERS } from '../../core/geometry/proposals/candidate-index';
 import { DEFAULT_MATCH_PARAMETERS, matchFragments, refineFacePair, screenFacePair, type MatchParameters, type MatchTrace } from '../../core/geometry/proposals/pairwise-match';
-import { displacementAt, invert, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
+import { displacementAt, rotationErrorDegrees, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { isCorrectMotion } from './correct-motion';
-import { readStudiedFolder } from './studied-folder';
+import { orderedJoin, readStudiedFolder } from './studied-folder';
 
 interface Join { a: string; b: string; type: string; breakId: number; pattern: string; survivingFraction: number; contactAreaMm2?: number; transformBToA: number[] }
 const [dirs, extra] = process.argv.slice(2);
@@ -61,10 +61,7 @@ for (const dir of dirs.split(',')) {
   const eligible = truth.joins.filter((j) => j.type === 'conjoin' && j.survivingFraction >= 0.3 && fragOf.has(j.a) && fragOf.has(j.b));
   for (const j of eligible) {
     if (only && !only.includes(`${j.a}|${j.b}`)) continue;
-    let ia = fragOf.get(j.a)!, ib = fragOf.get(j.b)!;
-    let want = j.transformBToA;
-    if (ia > ib) { [ia, ib] = [ib, ia]; want = invert(want); }
-    const on = (fr: number, face: number): boolean => (study[fr].faces[face].breaks[String(j.breakId)] ?? 0) >= 0.3;
+    const { ia, ib, want, on } = orderedJoin({ study, fragOf }, j);
     const list = pairsOf.get(`${ia}:${ib}`) ?? [];
     const trueListed = list.filter(([x, y]) => on(ia, x) && on(ib, y));
     if (!trueListed.length) continue; // pruned or unreachable: not this study's loss

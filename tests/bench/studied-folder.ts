@@ -9,6 +9,7 @@ import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { candidateFacePairs, sizeClassCompatible, type IndexedFace } from '../../core/geometry/proposals/candidate-index';
 import { assemblePrepared, type PreparedFragment } from '../../core/geometry/proposals/prepared-fragment';
+import { invert, type RigidTransform } from '../../core/geometry/registration/rigid-transform';
 import { readFragment, readPrepared } from '../../core/jobs/fragment-cache';
 import { sizeClassesFromCsv } from './candidate-recall';
 import type { StudyFragment } from './candidate-study';
@@ -53,4 +54,17 @@ export function readStudiedFolder(dir: string, options: { k: number; wholeFacePa
     return p;
   };
   return { study, spacing, fragOf, pairsOf, prep };
+}
+
+/**
+ * A true join of the generator's truth as the studies read it: the two pieces' indices in
+ * `study` in increasing order (the order candidate pairs are keyed by), the true motion of the
+ * second onto the first in that order, and whether a face of a piece holds at least 30% of the
+ * join's break (the bench's reachability share).
+ */
+export function orderedJoin(folder: Pick<StudiedFolder, 'study' | 'fragOf'>, j: { a: string; b: string; breakId: number; transformBToA: RigidTransform }): { ia: number; ib: number; want: RigidTransform; on(fr: number, face: number): boolean } {
+  let ia = folder.fragOf.get(j.a)!, ib = folder.fragOf.get(j.b)!;
+  let want = j.transformBToA;
+  if (ia > ib) { [ia, ib] = [ib, ia]; want = invert(want); }
+  return { ia, ib, want, on: (fr, face) => (folder.study[fr].faces[face].breaks[String(j.breakId)] ?? 0) >= 0.3 };
 }

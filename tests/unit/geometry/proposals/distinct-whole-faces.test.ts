@@ -12,37 +12,24 @@ import { candidateFacePairs, DISTINCT_WHOLE_FACES, type FacePairCandidate, type 
 import { distinctWholeFacesFirst } from '../../../../core/geometry/proposals/distinct-whole-faces-first';
 import { faceTraits } from '../../../../core/geometry/proposals/face-traits';
 import { computeFpfh } from '../../../../core/geometry/registration/fpfh';
-import { mulberry32 } from '../../../../core/geometry/seeded-random';
+import { sampledRing, type SampledRing } from '../../../support/sampled-ring';
 
 const zAxis = { direction: [0, 0, 1] as [number, number, number], point: [0, 0, 0] as [number, number, number], support: 1 };
 
-/** Samples spread evenly by area over an annulus in z = 0, or the half of it with x of the given sign; normals +z or -z. */
-function ring(R: number, r: number, n: number, seed: number, half: -1 | 0 | 1, flip: boolean): { points: Float32Array; normals: Float32Array; area: number } {
-  const rand = mulberry32(seed);
-  const points = new Float32Array(3 * n), normals = new Float32Array(3 * n);
-  for (let i = 0; i < n; i++) {
-    // inverse of the radial CDF (rho^2 - r^2) / (R^2 - r^2) of uniform area
-    const rho = Math.sqrt(r * r + rand() * (R * R - r * r));
-    const phi = half === 0 ? rand() * 2 * Math.PI : (half > 0 ? -Math.PI / 2 : Math.PI / 2) + rand() * Math.PI;
-    points.set([rho * Math.cos(phi), rho * Math.sin(phi), 0], 3 * i);
-    normals.set([0, 0, flip ? -1 : 1], 3 * i);
-  }
-  return { points, normals, area: (half === 0 ? 1 : 0.5) * Math.PI * (R * R - r * r) };
-}
 
-function indexed(fragment: number, face: number, s: ReturnType<typeof ring>, whole: number): IndexedFace {
+function indexed(fragment: number, face: number, s: SampledRing, whole: number): IndexedFace {
   return { fragment, face, whole, traits: faceTraits(s.points, s.normals, s.area, computeFpfh(s.points, s.normals, 3), zAxis) };
 }
 
 /** A piece indexed as its whole ring (face 0) and both halves (faces 1 and 2, parts of face 0). */
 function ringAndHalves(fragment: number, R: number, r: number, seed: number, flip: boolean): IndexedFace[] {
-  return [indexed(fragment, 0, ring(R, r, 1500, seed, 0, flip), 0), indexed(fragment, 1, ring(R, r, 750, seed + 1, 1, flip), 0), indexed(fragment, 2, ring(R, r, 750, seed + 2, -1, flip), 0)];
+  return [indexed(fragment, 0, sampledRing(R, r, 1500, seed, 0, flip), 0), indexed(fragment, 1, sampledRing(R, r, 750, seed + 1, 1, flip), 0), indexed(fragment, 2, sampledRing(R, r, 750, seed + 2, -1, flip), 0)];
 }
 
 describe('distinct whole faces in the candidate index', () => {
   // X (fragment 0): one ring; D (1): its look-alike, whole and halves; T (2): another ring, wider
   // in the wall; E (3): T's look-alike, whole and halves, so that T's own places go to E.
-  const faces = [indexed(0, 0, ring(12, 8, 1500, 1, 0, false), 0), ...ringAndHalves(1, 12, 8, 10, true), indexed(2, 0, ring(13.5, 8, 1500, 20, 0, true), 0), ...ringAndHalves(3, 13.5, 8, 30, false)];
+  const faces = [indexed(0, 0, sampledRing(12, 8, 1500, 1, 0, false), 0), ...ringAndHalves(1, 12, 8, 10, true), indexed(2, 0, sampledRing(13.5, 8, 1500, 20, 0, true), 0), ...ringAndHalves(3, 13.5, 8, 30, false)];
   const piecesOfX = (pairs: FacePairCandidate[]): Set<number> => new Set(pairs.filter((p) => p.a === 0).map((p) => p.b));
   // each piece here has one whole face, so a fragment pair is a pair of whole faces
 

@@ -11,25 +11,12 @@ import { describe, expect, it } from 'vitest';
 import { candidateFacePairs, WHOLE_FACE_PARTNERS, type IndexedFace } from '../../../../core/geometry/proposals/candidate-index';
 import { faceTraits } from '../../../../core/geometry/proposals/face-traits';
 import { computeFpfh } from '../../../../core/geometry/registration/fpfh';
-import { mulberry32 } from '../../../../core/geometry/seeded-random';
+import { sampledRing, type SampledRing } from '../../../support/sampled-ring';
 
 const zAxis = { direction: [0, 0, 1] as [number, number, number], point: [0, 0, 0] as [number, number, number], support: 1 };
 
-/** Samples spread evenly by area over the part of an annulus in z = 0 whose x has the given sign (0: all of it); normals +z or -z. */
-function ring(R: number, r: number, n: number, seed: number, half: -1 | 0 | 1, flip: boolean): { points: Float32Array; normals: Float32Array; area: number } {
-  const rand = mulberry32(seed);
-  const points = new Float32Array(3 * n), normals = new Float32Array(3 * n);
-  for (let i = 0; i < n; i++) {
-    // inverse of the radial CDF (rho^2 - r^2) / (R^2 - r^2) of uniform area
-    const rho = Math.sqrt(r * r + rand() * (R * R - r * r));
-    const phi = half === 0 ? rand() * 2 * Math.PI : (half > 0 ? -Math.PI / 2 : Math.PI / 2) + rand() * Math.PI;
-    points.set([rho * Math.cos(phi), rho * Math.sin(phi), 0], 3 * i);
-    normals.set([0, 0, flip ? -1 : 1], 3 * i);
-  }
-  return { points, normals, area: (half === 0 ? 1 : 0.5) * Math.PI * (R * R - r * r) };
-}
 
-function indexed(fragment: number, face: number, s: ReturnType<typeof ring>, whole?: number): IndexedFace {
+function indexed(fragment: number, face: number, s: SampledRing, whole?: number): IndexedFace {
   return { fragment, face, ...(whole === undefined ? {} : { whole }), traits: faceTraits(s.points, s.normals, s.area, computeFpfh(s.points, s.normals, 3), zAxis) };
 }
 
@@ -38,8 +25,8 @@ describe('whole faces offered beside their parts', () => {
   // A (fragment 0): the whole ring (face 0) and the half with x > 0 (face 1, a part of face 0).
   // B (fragment 1): broke off the half with x < 0; in place its face lies on A's ring, normals opposed.
   // C (fragment 2): the mirror of A's whole ring, a look-alike that takes A's whole face's best place.
-  const aWhole = ring(R, r, 1500, 1, 0, false), aPart = ring(R, r, 750, 2, 1, false);
-  const b = ring(R, r, 750, 3, -1, true), c = ring(R, r, 1500, 4, 0, true);
+  const aWhole = sampledRing(R, r, 1500, 1, 0, false), aPart = sampledRing(R, r, 750, 2, 1, false);
+  const b = sampledRing(R, r, 750, 3, -1, true), c = sampledRing(R, r, 1500, 4, 0, true);
   const faces = [indexed(0, 0, aWhole, 0), indexed(0, 1, aPart, 0), indexed(1, 0, b, 0), indexed(2, 0, c, 0)];
   const has = (pairs: ReturnType<typeof candidateFacePairs>, fa: number, fb: number, ib: number): boolean => pairs.some((p) => p.a === 0 && p.faceA === fa && p.b === ib && p.faceB === fb);
 
