@@ -689,13 +689,7 @@ export function matchFragments(
     }
     return polishRanked(a, b, distinctBest(all, 2 * spacing), origin, params, spacing);
   }
-  const fine = shortlist.flatMap((s): DeferredMatch[] => {
-    const FA = a.faces[s.i], FB = b.faces[s.j];
-    const transform = fineTransformOrNone(a, s.i, b, s.j, s.motion.transform, params);
-    if (!transform) return [];
-    const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
-    return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j }];
-  });
+  const fine = shortlist.flatMap((s) => refinedDeferred(a, s.i, b, s.j, s.motion.transform, params));
   fine.push(...onContactPairs(a, b, fine.map((d) => ({ transform: d.transform, i: d.i!, j: d.j! })), pairs, params));
   if (params.polishBest <= 0) return bestDistinct(fine, keep, 2 * spacing, minScore, origin);
   // The whole list polishes its first polishBest motions and ranks again, which may bring two of
@@ -723,14 +717,22 @@ function onContactPairs(a: PreparedFragment, b: PreparedFragment, refined: Array
   const n = params.contactPairMotions ?? 0;
   if (!(n > 0)) return [];
   const spacing = Math.max(a.spacing, b.spacing);
-  return contactPairStarts(a, b, refined.slice(0, n), params.contactPairSamples ?? 40, params.contactPairMinShare ?? 0.2, spacing, screened).flatMap((s): DeferredMatch[] => {
-    const FA = a.faces[s.i], FB = b.faces[s.j];
-    // the same fine step as a shortlisted motion's, given up alike when the faces do not conform
-    const transform = fineTransformOrNone(a, s.i, b, s.j, s.transform, params);
-    if (!transform) return [];
-    const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
-    return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: s.i, j: s.j }];
-  });
+  // the same fine step as a shortlisted motion's, given up alike when the faces do not conform
+  return contactPairStarts(a, b, refined.slice(0, n), params.contactPairSamples ?? 40, params.contactPairMinShare ?? 0.2, spacing, screened)
+    .flatMap((s) => refinedDeferred(a, s.i, b, s.j, s.transform, params));
+}
+
+/**
+ * One motion through the fine step on face pair (fa, fb) (fineTransformOrNone) with its score
+ * deferred: none when the fine step gives it up, else one DeferredMatch.
+ */
+function refinedDeferred(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, start: RigidTransform, params: MatchParameters): DeferredMatch[] {
+  const FA = a.faces[fa], FB = b.faces[fb];
+  const spacing = Math.max(a.spacing, b.spacing);
+  const transform = fineTransformOrNone(a, fa, b, fb, start, params);
+  if (!transform) return [];
+  const score = deferredScore(scoredSide(a, FA), scoredSide(b, FB), transform, { contactTolerance: params.contactToleranceSpacings * spacing, spacing });
+  return [{ transform, faceA: FA.parent, faceB: FB.parent, score, i: fa, j: fb }];
 }
 
 /**
