@@ -5,7 +5,10 @@
  * read for its scans' cache keys; copy it first, the match cache folder beside the original is
  * only read) or, without one, analysed once and kept under `<out>/candidate-cache-<hash of the
  * analysis sources>/`. The study
- * files are written again every time under `<out>/candidate-study/`.
+ * files are written again every time under `<out>/candidate-study/`. `--generator-axis`: the
+ * traits about the generator's shaft axis (generator-axis.ts; the fitted support kept), to see
+ * what the fitted axis costs the traits that read it; `--generator-axis=direction` only its
+ * direction (through the fitted point), `--generator-axis=centre` only its point (the fitted direction).
  *   npx tsx tests/bench/candidate-restudy.ts <demo-dir> [--out <dir>] [--spacing 1.2] [--catalogue <copy.sqlite> --cache <match-cache-dir>]
  */
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -18,6 +21,7 @@ import { readFragment, readPrepared, writeFragment, writePrepared, type CachedFr
 import { scanPath, studyFragment, type TruthFragment } from './candidate-study';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
 import { catalogueFragmentKeys } from './catalogue-fragment-keys';
+import { generatorAxis, type TruthFragment as AxisTruthFragment } from './generator-axis';
 
 const args = process.argv.slice(2);
 const opt = (name: string): string | undefined => {
@@ -57,7 +61,12 @@ for (const f of truth.fragments) {
       if (!catalogue) writePrepared(cacheDir, key, sampling, parts);
     }
     const prepared = assemblePrepared(cached.input, parts);
-    writeFileSync(file, JSON.stringify(studyFragment(f, mesh, cached.input, cached.summary.axis, sampling.spacing, undefined, prepared)));
+    const fitted = cached.summary.axis;
+    const mode = args.find((x) => x.startsWith('--generator-axis'))?.split('=')[1] ?? (args.includes('--generator-axis') ? 'both' : undefined);
+    const g = mode ? generatorAxis(f as unknown as AxisTruthFragment, mesh) : undefined;
+    // 'direction': the generator's direction through the fitted point; 'centre': the fitted direction through the generator's point
+    const axis = g ? { direction: mode === 'centre' ? fitted.direction : g.direction, point: mode === 'direction' ? fitted.point : g.point, support: fitted.support } : fitted;
+    writeFileSync(file, JSON.stringify(studyFragment(f, mesh, cached.input, axis, sampling.spacing, undefined, prepared)));
   } catch (err) {
     if (!existsSync(file)) writeFileSync(file, JSON.stringify({ no: f.catalogueNo, spacing: sampling.spacing, faces: [], cpuMs: 0, error: String(err) }));
   }

@@ -132,21 +132,29 @@ export function describeFace(t: FaceTraits): FaceDescriptor {
 /** Dissimilarity of two faces as partners (symmetric; 0 for a face and its perfect mirror image). */
 export function partnerCost(a: FaceDescriptor, b: FaceDescriptor): number {
   let s = 0;
-  for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) {
-    const { scale, weight, opposite, cap } = DESCRIPTOR_FIGURES[c];
-    if (weight === 0) continue;
-    const x = a.figures[c], y = b.figures[c];
-    if (Number.isNaN(x) || Number.isNaN(y)) {
-      s += weight * MISSING_COST;
-      continue;
-    }
-    const z = (opposite ? x + y : x - y) / scale;
-    s += weight * cappedCauchyLoss(z, cap);
-  }
+  for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) s += figureCost(a, b, c);
+  return s + textureCost(a, b);
+}
+
+/**
+ * The cost figure `c` of DESCRIPTOR_FIGURES adds to `partnerCost`: weight times the (capped)
+ * robust loss of the difference in scales, the missing-figure cost when a side lacks the figure,
+ * 0 for a weight of 0. Exported for the studies that take the cost apart (candidate-term-misses.ts).
+ */
+export function figureCost(a: FaceDescriptor, b: FaceDescriptor, c: number): number {
+  const { scale, weight, opposite, cap } = DESCRIPTOR_FIGURES[c];
+  if (weight === 0) return 0;
+  const x = a.figures[c], y = b.figures[c];
+  if (Number.isNaN(x) || Number.isNaN(y)) return weight * MISSING_COST;
+  return weight * cappedCauchyLoss((opposite ? x + y : x - y) / scale, cap);
+}
+
+/** The texture term of `partnerCost`: TEXTURE_WEIGHT times the distance between one face's mirrored mean FPFH and the other's mean FPFH. */
+export function textureCost(a: FaceDescriptor, b: FaceDescriptor): number {
   let d = 0;
   const n = Math.min(a.mirrored.length, b.fpfh.length);
   for (let k = 0; k < n; k++) d += (a.mirrored[k] - b.fpfh[k]) ** 2;
-  return s + TEXTURE_WEIGHT * Math.sqrt(d);
+  return TEXTURE_WEIGHT * Math.sqrt(d);
 }
 
 export const SIZE_DIMS = 3;
