@@ -3,14 +3,15 @@
  * generator's truth:
  *   npx tsx tests/bench/screen-kind-study.ts <catalogue>.match-cache [out.jsonl]
  * (KNITBONE_PROFILE_PAIRS: strided fragment pairs besides every true pair, default 200;
- * KNITBONE_PROFILE_PARAMS: match parameters over the defaults). Every candidate face pair of the
- * studied fragment pairs goes through screenFacePairs (one fragment pair at a time, as a worker
- * runs it) with each step timed (MatchTrace.times); the table splits face pairs, coarse
- * hypotheses (short ICP runs) and the CPU of each step by kind (ww whole-whole, wp a part against
- * a whole, pp part-part; a part is a piece or patch of a break face), by whether the face pair
- * is small (pair voting's size) and by whether the fragment pair is a true join. For the true
- * pairs it counts the face pairs whose screened motions hold one within 5 degrees and 5 mm of the
- * truth, by kind.
+ * KNITBONE_PROFILE_PARAMS: match parameters over the defaults). Each studied fragment pair's
+ * candidate face pairs go through screenFacePairs together, as a worker screens them, each pair
+ * with its steps timed (MatchTrace.times; a pair's CPU is the sum of its steps); the table splits
+ * face pairs, coarse hypotheses (short ICP runs) and the CPU of each step by kind (ww whole-whole,
+ * wp a part against a whole, pp part-part; a part is a piece or patch of a break face), by whether
+ * the face pair is small (pair voting's size) and by whether the fragment pair is a true join;
+ * "correct" counts the face pairs whose screened motions hold one within 5 degrees and 5 mm of the
+ * truth, "only" those that are the only such face pair of their fragment pair. out.jsonl gets one
+ * row per face pair with every coarse hypothesis's step, overlap share and correctness.
  */
 import { appendFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
