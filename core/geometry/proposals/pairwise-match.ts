@@ -226,7 +226,16 @@ export interface MatchParameters {
    * same faces' wholes (or of one whole and the other part) screened before it, as starts of its
    * own short ICP, instead of running those two searches itself (screenFacePairs; false or left
    * out: every pair runs its own searches). The shared-axis search and the principal frames still
-   * run on the part pair, and its motions are ranked and kept on its own faces as before.
+   * run on the part pair, and its motions are ranked and kept on its own faces as before; a pair
+   * whose wholes' searches gave no hypothesis searches by itself. A part's samples are those of its
+   * whole or a stretch of the same break, so the wholes' hypotheses already hold most of what the
+   * part's own searches find, and the short ICP on the part's faces takes each into the part's own
+   * basin. true since session 26 (prop26v): on dev s340 at 200 fragments the part pairs were 78% of
+   * the screen's CPU on fragment pairs that are not joins, the two searches half of a large part
+   * pair's (tests/bench/screen-kind-study.ts); paired matching -8.4% (match-truth-ab.ts, 497
+   * fragment pairs, true pairs whose best motion is correct 201 -> 201) and -7.7% on the run's mix
+   * (match-speed.ts, 600 strided pairs); proposals bench there 252 -> 253 true joins in a top 3,
+   * precision above 0.8 197/198 both (DEVELOPERS.md, session 26).
    */
   partReusesSearches?: boolean;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
