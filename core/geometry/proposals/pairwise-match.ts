@@ -230,12 +230,16 @@ export interface MatchParameters {
    * whose wholes' searches gave no hypothesis searches by itself. A part's samples are those of its
    * whole or a stretch of the same break, so the wholes' hypotheses already hold most of what the
    * part's own searches find, and the short ICP on the part's faces takes each into the part's own
-   * basin. true since session 26 (prop26v): on dev s340 at 200 fragments the part pairs were 78% of
+   * basin, unless the wholes' few hypotheses (3 direction peaks, 4 RANSAC motions) miss what only
+   * the part's own searches find. Left out of the defaults (off; the run's parameters hash is
+   * main's) since session 26 (prop26v): on dev s340 at 200 fragments the part pairs were 78% of
    * the screen's CPU on fragment pairs that are not joins, the two searches half of a large part
-   * pair's (tests/bench/screen-kind-study.ts); paired matching -8.4% (match-truth-ab.ts, 497
-   * fragment pairs, true pairs whose best motion is correct 201 -> 201) and -7.7% on the run's mix
-   * (match-speed.ts, 600 strided pairs); proposals bench there 252 -> 253 true joins in a top 3,
-   * precision above 0.8 197/198 both (DEVELOPERS.md, session 26).
+   * pair's (tests/bench/screen-kind-study.ts); with the rule paired matching -8.4% (match-truth-ab.ts,
+   * 497 fragment pairs, true pairs whose best motion is correct 201 -> 201), -7.7% on the run's mix
+   * (match-speed.ts, 600 strided pairs), proposals bench there 252 -> 253 true joins in a top 3; but
+   * check seed 886 at 100 fragments 120 -> 116 (paired matching 101 -> 98, -10.5% CPU): on each lost
+   * join every correct screened motion came from a large part pair's own direction search or RANSAC,
+   * and no hypothesis of its wholes' pairs led there (DEVELOPERS.md, session 26).
    */
   partReusesSearches?: boolean;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
@@ -328,7 +332,6 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   contactPairMinShare: 0.2,
   contactPairSamples: 40,
   partCoverShare: 0,
-  partReusesSearches: true,
   icpSamples: 150,
   fineSamples: 300,
   bvhSamples: 120,
