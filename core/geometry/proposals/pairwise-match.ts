@@ -220,6 +220,28 @@ export interface MatchParameters {
   partCoverShare?: number;
   /** Whether partCoverShare applies to small face pairs too (those pair voting serves, pairVoteMaxFaceSamples). */
   partCoverSmall?: boolean;
+  /**
+   * A face pair with a part (piece or patch) on either side, above pair voting's size, takes the
+   * coarse hypotheses that the search along the axis directions and RANSAC found on a pair of the
+   * same faces' wholes (or of one whole and the other part) screened before it, as starts of its
+   * own short ICP, instead of running those two searches itself (screenFacePairs; false or left
+   * out: every pair runs its own searches). The shared-axis search and the principal frames still
+   * run on the part pair, and its motions are ranked and kept on its own faces as before; a pair
+   * whose wholes' searches gave no hypothesis searches by itself. A part's samples are those of its
+   * whole or a stretch of the same break, so the wholes' hypotheses already hold most of what the
+   * part's own searches find, and the short ICP on the part's faces takes each into the part's own
+   * basin, unless the wholes' few hypotheses (3 direction peaks, 4 RANSAC motions) miss what only
+   * the part's own searches find. Left out of the defaults (off; the run's parameters hash is
+   * main's) since session 26 (prop26v): on dev s340 at 200 fragments the part pairs were 78% of
+   * the screen's CPU on fragment pairs that are not joins, the two searches half of a large part
+   * pair's (tests/bench/screen-kind-study.ts); with the rule paired matching -8.4% (match-truth-ab.ts,
+   * 497 fragment pairs, true pairs whose best motion is correct 201 -> 201), -7.7% on the run's mix
+   * (match-speed.ts, 600 strided pairs), proposals bench there 252 -> 253 true joins in a top 3; but
+   * check seed 886 at 100 fragments 120 -> 116 (paired matching 101 -> 98, -10.5% CPU): on each lost
+   * join every correct screened motion came from a large part pair's own direction search or RANSAC,
+   * and no hypothesis of its wholes' pairs led there (DEVELOPERS.md, session 26).
+   */
+  partReusesSearches?: boolean;
   /** Samples of B's face in the coarse ICP rounds and in the fine rounds. */
   icpSamples: number;
   fineSamples: number;
@@ -341,6 +363,8 @@ export interface MatchTrace {
   kept: RigidTransform[];
   /** When given, CPU ms spent per step of the screen are added here (tests/bench/screen-stages.ts). */
   times?: Record<string, number>;
+  /** When given, the step each coarse hypothesis came from, in the order of `coarse` (tests/bench/screen-kind-study.ts). */
+  stages?: string[];
 }
 
 /** f(), its CPU time (ms) added to times[step] when timing. */
@@ -376,11 +400,21 @@ export function matchFacePair(a: PreparedFragment, fa: number, b: PreparedFragme
  * Touches only the two faces' samples and k-d trees.
  */
 export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters = DEFAULT_MATCH_PARAMETERS, trace?: MatchTrace): CoarseMotion[] {
+  return screenWithStarts(a, fa, b, fb, params, trace).kept;
+}
+
+/**
+ * screenFacePair, with the axis-direction and RANSAC hypotheses of B's face onto A's taken from
+ * `inherited` instead of searched when given (MatchParameters.partReusesSearches); also returns
+ * the hypotheses of those two steps it used (searched or inherited), for the pairs after it.
+ */
+function screenWithStarts(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters, trace?: MatchTrace, inherited?: RigidTransform[]): { kept: CoarseMotion[]; searched: RigidTransform[] } {
   const FA = a.faces[fa], FB = b.faces[fb];
   const ways = params.screenWays ?? 'given';
   const reverse = ways === 'both' || (ways === 'smaller' && FB.points.length > FA.points.length);
   const forward = ways !== 'smaller' || !reverse;
-  let refined: CoarseMotion[] = forward ? coarseMotions(a, fa, b, fb, params, trace) : [];
+  const searched: RigidTransform[] = [];
+  let refined: CoarseMotion[] = forward ? coarseMotions(a, fa, b, fb, params, trace, inherited, searched) : [];
   if (reverse) {
     // A's face moved onto B's, each motion turned round (B onto A): the coarse stages and the
     // short ICP are not symmetric in the two faces
@@ -411,14 +445,16 @@ export function screenFacePair(a: PreparedFragment, fa: number, b: PreparedFragm
   const consensus = consensusMotion(ranked, kept, FB.centroid, 3, 2 * spacing, params.screenConsensusMin ?? 0);
   if (consensus) kept.push(consensus);
   if (trace) trace.kept.push(...kept.map((k) => k.transform));
-  return kept;
+  return { kept, searched };
 }
 
 /**
  * The screen's coarse motions of B's face onto A's face (steps 1-2 of screenFacePair), each after
- * the short ICP with its overlap share; every one is added to the trace.
+ * the short ICP with its overlap share; every one is added to the trace. With `inherited`, those
+ * hypotheses stand for the axis-direction search's and RANSAC's, which do not run; `searched`
+ * (when given) receives the hypotheses of those two steps that were refined.
  */
-function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters, trace?: MatchTrace): CoarseMotion[] {
+function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb: number, params: MatchParameters, trace?: MatchTrace, inherited?: RigidTransform[], searched?: RigidTransform[]): CoarseMotion[] {
   const FA = a.faces[fa], FB = b.faces[fb];
   const spacing = Math.max(a.spacing, b.spacing);
   const starts: RigidTransform[] = [];
@@ -431,20 +467,27 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
   const small = smallPair(FA, FB, params);
   const faceSurfaceA = new SampledSurface(FA.points, FA.normals, FA.tree);
   const checkA = stridedSamples(FA.points, FA.normals, params.icpSamples);
-  const refine = (list: RigidTransform[]): CoarseMotion[] =>
+  const refine = (list: RigidTransform[], stage: string): CoarseMotion[] =>
     list.map((h) => {
       trace?.coarse.push(h);
+      trace?.stages?.push(stage);
       const icp = timed(trace?.times, 'short icp', () => icpPointToPlane(coarse.points, coarse.normals, faceSurfaceA, h, { maxDistance: params.screenIcpDistanceSpacings * spacing, trim: params.icpTrim, maxIterations: 15, tolerance: 1e-3 * spacing }));
       return { transform: icp.transform, overlap: timed(trace?.times, 'overlap share', () => overlapShare(icp.transform, coarse, FA.tree, FA.normals, checkA, FB.tree, FB.normals, spacing)) };
     });
-  let refined = refine(starts);
+  let refined = refine(starts, 'shared axis');
   // shaft pieces whose fitted axis points or radii disagree (partial arcs): the axis directions only
   const good = (list: CoarseMotion[], share: number): boolean => list.some((r) => r.overlap >= share);
   // a small face is easily covered by a wrong turn about the axis: it never settles the search
   let settled = shafts && !small && good(refined, params.axisGoodOverlap);
-  if (a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections) && !(small && params.pairVoteHypotheses > 0 && params.smallPairDirections === false)) {
+  if (inherited) {
+    searched?.push(...inherited);
+    refined = refined.concat(refine(inherited, 'inherited'));
+    settled = true;
+  }
+  if (!inherited && a.axis && b.axis && params.directionPeaks > 0 && (!settled || !params.axisSettlesDirections) && !(small && params.pairVoteHypotheses > 0 && params.smallPairDirections === false)) {
     const hyps = timed(trace?.times, 'axis directions', () => searchAlongAxisDirections(a.axis!.direction, FA.points, FA.normals, b.axis!.direction, FB.points, FB.normals, { spacing, peaks: params.directionPeaks, maxSamples: params.icpSamples, tiltsDeg: params.directionTiltsDeg }));
-    const more = refine(hyps.map((h) => h.transform));
+    searched?.push(...hyps.map((h) => h.transform));
+    const more = refine(hyps.map((h) => h.transform), 'axis directions');
     refined = refined.concat(more);
     // the directions alone are a weaker prior than the shared axis: only a clear contact skips RANSAC
     settled = settled || (params.directionGoodOverlap <= 1 && !small && good(more, params.directionGoodOverlap));
@@ -456,7 +499,8 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
       { points: FA.points, normals: FA.normals, fpfh: FA.fpfh, tree: FA.tree, featureIndex: FA.featureIndex, featureFpfh: FA.featureFpfh },
       { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: params.hypothesesPerPair, seed: params.seed + 7919 * fa + 104729 * fb },
     ));
-    refined = refined.concat(refine(hyps.map((h) => h.transform)));
+    searched?.push(...hyps.map((h) => h.transform));
+    refined = refined.concat(refine(hyps.map((h) => h.transform), 'ransac'));
     const back = params.ransacReverseHypotheses ?? 0;
     if (back > 0) {
       const rev = timed(trace?.times, 'ransac', () => ransacAlignFaces(
@@ -464,19 +508,20 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
         { points: FB.points, normals: FB.normals, fpfh: FB.fpfh, tree: FB.tree, featureIndex: FB.featureIndex, featureFpfh: FB.featureFpfh },
         { inlierDistance: 1.5 * spacing, iterations: params.ransacIterations, keep: back, seed: params.seed + 7919 * fb + 104729 * fa },
       ));
-      refined = refined.concat(refine(rev.map((h) => invert(h.transform))));
+      searched?.push(...rev.map((h) => invert(h.transform)));
+      refined = refined.concat(refine(rev.map((h) => invert(h.transform)), 'ransac'));
     }
     // point pair features: on a small face FPFH histograms over a radius as wide as the face barely differ, pair features still do
     if (params.pairVoteHypotheses > 0 && small) {
       const votes = timed(trace?.times, 'pair voting', () => pointPairVoting(FA.points, FA.normals, FB.points, FB.normals, { spacing, maxSamples: params.pairVoteSamples, references: params.pairVoteReferences, hypotheses: params.pairVoteHypotheses }));
-      refined = refined.concat(refine(votes.map((h) => h.transform)));
+      refined = refined.concat(refine(votes.map((h) => h.transform), 'pair voting'));
     }
   }
   const frames = params.principalFrameMotions ?? 0;
   if (frames > 0) {
     const na = FA.points.length / 3, nb = FB.points.length / 3;
     if (Math.min(na, nb) >= (params.principalFrameMinSamples ?? 0) && Math.min(na, nb) >= (params.principalFrameMinSizeRatio ?? 0.5) * Math.max(na, nb)) {
-      refined = refined.concat(refine(principalFrameMotions(FA.points, FA.normals, FB.points, FB.normals, { quarterTurns: frames >= 4 })));
+      refined = refined.concat(refine(principalFrameMotions(FA.points, FA.normals, FB.points, FB.normals, { quarterTurns: frames >= 4 }), 'principal frames'));
     }
   }
   trace?.refined.push(...refined);
@@ -747,41 +792,59 @@ function refinedDeferred(a: PreparedFragment, fa: number, b: PreparedFragment, f
  * screen would find about the same motion again, at a whole screen's cost. Not the part's faces:
  * refined on a part, a motion screened on the whole can settle a few degrees off where the part's
  * own screen would have led (the committed sample's transverse join, 4.7 degrees; session 24).
+ * With params.partReusesSearches the pairs are screened whole faces first as well, and a part
+ * pair above pair voting's size takes the axis-direction and RANSAC hypotheses of the pairs of
+ * its wholes screened before it as starts instead of searching (coarseMotions' `inherited`).
+ * `traces` (optional, one per pair): what each pair's screen went through (MatchTrace).
  */
-export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs: Array<[number, number]>, params: MatchParameters): Array<{ i: number; j: number; motion: CoarseMotion }> {
-  const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+export function screenFacePairs(a: PreparedFragment, b: PreparedFragment, pairs: Array<[number, number]>, params: MatchParameters, traces?: MatchTrace[]): Array<{ i: number; j: number; motion: CoarseMotion }> {
   const share = params.partCoverShare ?? 0;
-  if (!(share > 0)) {
-    for (const [i, j] of pairs) for (const motion of screenFacePair(a, i, b, j, params)) screened.push({ i, j, motion });
+  const reuse = params.partReusesSearches ?? false;
+  if (!(share > 0) && !reuse) {
+    const screened: Array<{ i: number; j: number; motion: CoarseMotion }> = [];
+    pairs.forEach(([i, j], k) => { for (const motion of screenFacePair(a, i, b, j, params, traces?.[k])) screened.push({ i, j, motion }); });
     return screened;
   }
   const wholeA = wholeFaces(a), wholeB = wholeFaces(b);
   const parts = ([i, j]: [number, number]): number => (wholeA[i] === i ? 0 : 1) + (wholeB[j] === j ? 0 : 1);
   const order = pairs.map((p, k) => ({ p, k, n: parts(p) })).sort((x, y) => x.n - y.n || x.k - y.k);
-  // the motions each face pair's own screen found (none for a covered pair)
+  // the motions each face pair's own screen found (none for a covered pair), and the hypotheses
+  // of its axis-direction search and RANSAC (searched or inherited)
   const found = new Map<string, CoarseMotion[]>();
+  const searchedOf = new Map<string, RigidTransform[]>();
+  // each pair's screened motions, given out in the pairs' order
+  const out: Array<Array<{ i: number; j: number; motion: CoarseMotion }>> = pairs.map(() => []);
   const spacing = Math.max(a.spacing, b.spacing);
-  for (const { p: [i, j], n } of order) {
-    if (n > 0 && (params.partCoverSmall || !smallPair(a.faces[i], b.faces[j], params))) {
+  for (const { p: [i, j], k, n } of order) {
+    const wi = wholeA[i], wj = wholeB[j];
+    const from = n > 0 ? [[wi, wj], [wi, j], [i, wj]].filter(([x, y], m, all) => (x !== i || y !== j) && all.findIndex(([u, v]) => u === x && v === y) === m) : [];
+    const large = !smallPair(a.faces[i], b.faces[j], params);
+    if (share > 0 && n > 0 && (params.partCoverSmall || large)) {
       const FA = a.faces[i], FB = b.faces[j];
-      const wi = wholeA[i], wj = wholeB[j];
-      const from = [[wi, wj], [wi, j], [i, wj]].filter(([x, y], k, all) => (x !== i || y !== j) && all.findIndex(([u, v]) => u === x && v === y) === k);
       const prior = from.flatMap(([x, y]) => (found.get(`${x},${y}`) ?? []).map((motion) => ({ x, y, motion })));
       if (prior.length) {
         const sb = stridedSamples(FB.points, FB.normals, params.icpSamples), sa = stridedSamples(FA.points, FA.normals, params.icpSamples);
         const covering = prior.map((p) => ({ ...p, shares: contactShares(p.motion.transform, sb, FA.tree, FA.normals, sa, FB.tree, FB.normals, spacing) })).filter((p) => Math.min(...p.shares) >= share);
         if (covering.length) {
           found.set(`${i},${j}`, []);
-          for (const { x, y, motion, shares } of covering) screened.push({ i: x, j: y, motion: { transform: motion.transform, overlap: Math.max(motion.overlap, ...shares) } });
+          for (const { x, y, motion, shares } of covering) out[k].push({ i: x, j: y, motion: { transform: motion.transform, overlap: Math.max(motion.overlap, ...shares) } });
           continue;
         }
       }
     }
-    const motions = screenFacePair(a, i, b, j, params);
-    found.set(`${i},${j}`, motions);
-    for (const motion of motions) screened.push({ i, j, motion });
+    // a large part pair takes the searches' hypotheses of the pairs of its wholes screened before it
+    let inherited: RigidTransform[] | undefined;
+    if (reuse && n > 0 && large) {
+      const lists = from.map(([x, y]) => searchedOf.get(`${x},${y}`)).filter((l): l is RigidTransform[] => l !== undefined);
+      const starts = [...new Set(lists.flat())];
+      if (starts.length) inherited = starts;
+    }
+    const { kept, searched } = screenWithStarts(a, i, b, j, params, traces?.[k], inherited);
+    found.set(`${i},${j}`, kept);
+    searchedOf.set(`${i},${j}`, searched);
+    for (const motion of kept) out[k].push({ i, j, motion });
   }
-  return screened;
+  return out.flat();
 }
 
 /** For each prepared face, the index of its whole face (the first prepared face of its parent). */
