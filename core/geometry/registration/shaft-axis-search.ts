@@ -12,6 +12,7 @@
  */
 import type { RigidTransform } from './rigid-transform';
 import { acrossAxisBasis } from '../shaft-axis';
+import { axisMeetingOuterSurface } from './axis-meeting-outer-surface';
 
 export interface ShaftFrame {
   direction: [number, number, number];
@@ -43,6 +44,13 @@ export interface AxisSearchOptions {
   featuresA?: Float32Array;
   featuresB?: Float32Array;
   featureDim?: number;
+  /**
+   * When given, A's axis is first moved so that B's outer surface meets A's at A's face
+   * (axis-meeting-outer-surface.ts; each face's outer radius read as this quantile of its
+   * samples' distances from its own axis): pieces whose fitted radii differ still pair samples
+   * at the join. Left out: the two axes laid on one line.
+   */
+  outerQuantile?: number;
 }
 
 interface Cyl {
@@ -96,6 +104,7 @@ export function searchAboutSharedAxis(
   options: AxisSearchOptions,
 ): AxisHypothesis[] {
   const max = options.maxSamples ?? 220;
+  if (options.outerQuantile !== undefined) axisA = axisMeetingOuterSurface(axisA, faceAPoints, axisB, faceBPoints, options.outerQuantile);
   const A = cylinder(faceAPoints, faceANormals, axisA, max);
   const B = cylinder(faceBPoints, faceBNormals, axisB, max);
   if (A.n < 3 || B.n < 3) return [];
