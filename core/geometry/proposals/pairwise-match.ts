@@ -102,7 +102,7 @@ export interface MatchParameters {
    * in the vote. 0.9 since session 26: on the true joins of dev s340 at 200 fragments that store
    * nothing and have a true face pair scoring at least 0.05 at the truth, the difference of the two
    * faces' 0.9 quantiles predicts the radial gap of the samples the truth pairs within 1.1 mm on
-   * 14 of 18; paired matching (match-truth-ab.ts, 497 fragment pairs, 304 true) true
+   * 13 of 18 (tests/bench/shared-axis-radius-study.ts); paired matching (match-truth-ab.ts, 497 fragment pairs, 304 true) true
    * pairs whose best motion is correct 201 -> 202, CPU +1.5% (DEVELOPERS.md, session 26).
    */
   axisOuterQuantile?: number;
