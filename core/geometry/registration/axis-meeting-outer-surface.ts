@@ -19,16 +19,20 @@ import type { ShaftFrame } from './shaft-axis-search';
 import { kthSmallest } from '../kth-smallest';
 import { SIDE_MIN_OFF_AXIS } from './score-model';
 
-/** A's frame moved so that B's outer surface (radius about its own axis) meets A's at A's face; `quantile` reads each face's outer radius. */
+/**
+ * A's frame moved so that B's outer surface (radius about its own axis) meets A's at A's face;
+ * `quantile` reads each face's outer radius. `move`: how far it moved (A's face outer radius
+ * minus B's; 0 when kept).
+ */
 export function axisMeetingOuterSurface(
   axisA: ShaftFrame,
   faceAPoints: ArrayLike<number>,
   axisB: ShaftFrame,
   faceBPoints: ArrayLike<number>,
   quantile: number,
-): ShaftFrame {
+): { frame: ShaftFrame; move: number } {
   const na = faceAPoints.length / 3, nb = faceBPoints.length / 3;
-  if (na < 3 || nb < 3) return axisA;
+  if (na < 3 || nb < 3) return { frame: axisA, move: 0 };
   const across = (axis: ShaftFrame, p: ArrayLike<number>, i: number, out: number[]): number[] => {
     const d = axis.direction, o = axis.point;
     const x = p[3 * i] - o[0], y = p[3 * i + 1] - o[1], z = p[3 * i + 2] - o[2];
@@ -48,7 +52,7 @@ export function axisMeetingOuterSurface(
   };
   const ra = outer(axisA, faceAPoints, na, c), rb = outer(axisB, faceBPoints, nb);
   const off = Math.hypot(c[0], c[1], c[2]);
-  if (!(off >= SIDE_MIN_OFF_AXIS * ra) || !(rb > 0)) return axisA;
+  if (!(off >= SIDE_MIN_OFF_AXIS * ra) || !(rb > 0)) return { frame: axisA, move: 0 };
   const m = (ra - rb) / off, o = axisA.point;
-  return { direction: axisA.direction, point: [o[0] + m * c[0], o[1] + m * c[1], o[2] + m * c[2]], radius: rb };
+  return { frame: { direction: axisA.direction, point: [o[0] + m * c[0], o[1] + m * c[1], o[2] + m * c[2]], radius: rb }, move: ra - rb };
 }

@@ -90,7 +90,7 @@ describe('the shared-axis search for pieces whose fitted radii differ (elliptic 
   });
 
   it('moves A\'s axis so that B\'s outer circle passes through the join\'s outer edge', () => {
-    const moved = axisMeetingOuterSurface(axisA, faceA.points, axisB0, faceB0.points, 0.9);
+    const moved = axisMeetingOuterSurface(axisA, faceA.points, axisB0, faceB0.points, 0.9).frame;
     const o = ellipse(A_OUT, B_OUT, JOIN);
     // B's outer radius at its own face about the moved axis: within a millimetre of the join's outer edge
     expect(Math.abs(Math.hypot(o[0] - moved.point[0], o[1] - moved.point[1]) - moved.radius)).toBeLessThan(1);
