@@ -99,11 +99,13 @@ export interface MatchParameters {
    * laid on one line, as before session 26). A fit on a partial arc of a flattened shaft reads the
    * local curvature, so two pieces of one shaft fit radii and centres some millimetres apart, and
    * with the axes on one line the samples at the join lie at different radii and no longer pair
-   * in the vote. 0.9 since session 26: on the true joins of dev s340 at 200 fragments that store
+   * in the vote. Moved only when the two outer radii differ by more than the vote's radial
+   * tolerance. 0.9 since session 26: on the true joins of dev s340 at 200 fragments that store
    * nothing and have a true face pair scoring at least 0.05 at the truth, the difference of the two
    * faces' 0.9 quantiles predicts the radial gap of the samples the truth pairs within 1.1 mm on
-   * 13 of 18 (tests/bench/shared-axis-radius-study.ts); paired matching (match-truth-ab.ts, 497 fragment pairs, 304 true) true
-   * pairs whose best motion is correct 201 -> 202, CPU +1.5% (DEVELOPERS.md, session 26).
+   * 13 of 18 (tests/bench/shared-axis-radius-study.ts); proposals bench there true joins in a top
+   * 3 252 -> 251 of 376, precision above 0.8 197/198 -> 198/199, CPU +2.6% at a higher load: the
+   * cause found, not a recall gain (DEVELOPERS.md, session 26).
    */
   axisOuterQuantile?: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
