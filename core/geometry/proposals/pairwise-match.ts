@@ -92,6 +92,22 @@ export interface MatchParameters {
   smallPairDirections?: boolean;
   /** Shaft pieces whose fitted radii differ by more than this factor are not searched about a shared axis. */
   maxRadiusRatio: number;
+  /**
+   * The search about the shared axis moves A's axis across itself so that B's outer surface meets
+   * A's at A's face (registration/axis-meeting-outer-surface.ts), each face's outer radius read as
+   * this quantile of its samples' distances from its own axis (0 or left out: the two fitted axes
+   * laid on one line, as before session 26). A fit on a partial arc of a flattened shaft reads the
+   * local curvature, so two pieces of one shaft fit radii and centres some millimetres apart, and
+   * with the axes on one line the samples at the join lie at different radii and no longer pair
+   * in the vote. Moved only when the two outer radii differ by more than the vote's radial
+   * tolerance. 0.9 since session 26: on the true joins of dev s340 at 200 fragments that store
+   * nothing and have a true face pair scoring at least 0.05 at the truth, the difference of the two
+   * faces' 0.9 quantiles predicts the radial gap of the samples the truth pairs within 1.1 mm on
+   * 13 of 18 (tests/bench/shared-axis-radius-study.ts); proposals bench there true joins in a top
+   * 3 252 -> 251 of 376, precision above 0.8 197/198 -> 198/199, CPU +2.6% at a higher load: the
+   * cause found, not a recall gain (DEVELOPERS.md, session 26).
+   */
+  axisOuterQuantile?: number;
   /** Skip RANSAC when a shared-axis hypothesis already puts this share of the smaller face in contact. */
   axisGoodOverlap: number;
   /**
@@ -314,6 +330,7 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   smallPairRansac: false,
   smallPairDirections: false,
   maxRadiusRatio: 1.35,
+  axisOuterQuantile: 0.9,
   axisGoodOverlap: 0.35,
   axisSettlesDirections: false,
   screenAxisTiltDeg: [20, 45],
@@ -461,7 +478,7 @@ function coarseMotions(a: PreparedFragment, fa: number, b: PreparedFragment, fb:
   // 1. shaft pieces: turn about and shift along the shared axis (cheap, hard to fool)
   const shafts = !!a.axis && !!b.axis && sameShaft(a.axis.radius, b.axis.radius, params.maxRadiusRatio);
   if (shafts) {
-    for (const h of timed(trace?.times, 'shared axis', () => searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) }))) starts.push(h.transform);
+    for (const h of timed(trace?.times, 'shared axis', () => searchAboutSharedAxis(a.axis!, FA.points, FA.normals, b.axis!, FB.points, FB.normals, { spacing, peaks: params.axisPeaks, maxSamples: params.icpSamples, ...(params.axisOuterQuantile ? { outerQuantile: params.axisOuterQuantile } : {}), ...(params.axisFeatureWeights ? { featuresA: FA.fpfh, featuresB: FB.mirroredFpfh, featureDim: FPFH_DIM } : {}) }))) starts.push(h.transform);
   }
   const coarse = stridedSamples(FB.points, FB.normals, params.icpSamples);
   const small = smallPair(FA, FB, params);

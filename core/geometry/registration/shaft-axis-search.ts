@@ -12,6 +12,7 @@
  */
 import type { RigidTransform } from './rigid-transform';
 import { acrossAxisBasis } from '../shaft-axis';
+import { axisMeetingOuterSurface } from './axis-meeting-outer-surface';
 
 export interface ShaftFrame {
   direction: [number, number, number];
@@ -43,6 +44,14 @@ export interface AxisSearchOptions {
   featuresA?: Float32Array;
   featuresB?: Float32Array;
   featureDim?: number;
+  /**
+   * When given, A's axis is first moved so that B's outer surface meets A's at A's face
+   * (axis-meeting-outer-surface.ts; each face's outer radius read as this quantile of its
+   * samples' distances from its own axis), when the two outer radii differ by more than the
+   * vote's radial tolerance: pieces whose fitted radii differ still pair samples at the join.
+   * Left out: the two axes laid on one line.
+   */
+  outerQuantile?: number;
 }
 
 interface Cyl {
@@ -82,6 +91,11 @@ function cylinder(points: ArrayLike<number>, normals: ArrayLike<number>, frame: 
   return out;
 }
 
+/** Two samples vote together when their radii differ by at most this (mm): 2 spacings, or 12% of A's face's mean radius. */
+function radialTolerance(spacing: number, meanRadius: number): number {
+  return Math.max(2 * spacing, 0.12 * meanRadius);
+}
+
 /**
  * Motions carrying B's face onto A's face with the two shaft axes laid on one line, best
  * voted first. `faceB` and `faceA` are packed xyz samples with outward normals.
@@ -96,18 +110,27 @@ export function searchAboutSharedAxis(
   options: AxisSearchOptions,
 ): AxisHypothesis[] {
   const max = options.maxSamples ?? 220;
-  const A = cylinder(faceAPoints, faceANormals, axisA, max);
+  let A = cylinder(faceAPoints, faceANormals, axisA, max);
   const B = cylinder(faceBPoints, faceBNormals, axisB, max);
   if (A.n < 3 || B.n < 3) return [];
   const s = options.spacing;
-  let rMean = 0;
-  for (let j = 0; j < A.n; j++) rMean += A.r[j] / A.n;
+  const meanRadius = (c: Cyl): number => { let m = 0; for (let j = 0; j < c.n; j++) m += c.r[j] / c.n; return m; };
+  let rMean = meanRadius(A);
+  if (options.outerQuantile !== undefined) {
+    // moved only when the two outer radii differ by more than the vote pairs across (radialTolerance)
+    const moved = axisMeetingOuterSurface(axisA, faceAPoints, axisB, faceBPoints, options.outerQuantile);
+    if (Math.abs(moved.move) > radialTolerance(s, rMean)) {
+      axisA = moved.frame;
+      A = cylinder(faceAPoints, faceANormals, axisA, max);
+      rMean = meanRadius(A);
+    }
+  }
   const dTh = Math.min(0.2, s / Math.max(rMean, s));
   const nTh = Math.ceil((2 * Math.PI) / dTh);
   let zaMin = Infinity, zaMax = -Infinity, zbMin = Infinity, zbMax = -Infinity;
   for (let j = 0; j < A.n; j++) { zaMin = Math.min(zaMin, A.z[j]); zaMax = Math.max(zaMax, A.z[j]); }
   for (let i = 0; i < B.n; i++) { zbMin = Math.min(zbMin, B.z[i]); zbMax = Math.max(zbMax, B.z[i]); }
-  const rTol = Math.max(2 * s, 0.12 * rMean);
+  const rTol = radialTolerance(s, rMean);
   const minCos = options.minNormalCos ?? 0.6;
   // feature likeness per (B sample, A sample): 1 / (1 + (d / d0)^2), d0 the median distance
   let like: Float32Array | null = null;
