@@ -100,8 +100,8 @@ export interface MatchParameters {
    * local curvature, so two pieces of one shaft fit radii and centres some millimetres apart, and
    * with the axes on one line the samples at the join lie at different radii and no longer pair
    * in the vote. Moved only when the two outer radii differ by more than the vote's radial
-   * tolerance. 0.9 since session 26: on the true joins of dev s340 at 200 fragments that store
-   * nothing and have a true face pair scoring at least 0.05 at the truth, the difference of the two
+   * tolerance. Left out of the defaults (off); measured at 0.9 in session 26 (prop26a): on the
+   * true joins of dev s340 at 200 fragments that store nothing and have a true face pair scoring at least 0.05 at the truth, the difference of the two
    * faces' 0.9 quantiles predicts the radial gap of the samples the truth pairs within 1.1 mm on
    * 13 of 18 (tests/bench/shared-axis-radius-study.ts); proposals bench there true joins in a top
    * 3 252 -> 251 of 376, precision above 0.8 197/198 -> 198/199, CPU +2.6% at a higher load: the
@@ -330,7 +330,6 @@ export const DEFAULT_MATCH_PARAMETERS: MatchParameters = {
   smallPairRansac: false,
   smallPairDirections: false,
   maxRadiusRatio: 1.35,
-  axisOuterQuantile: 0.9,
   axisGoodOverlap: 0.35,
   axisSettlesDirections: false,
   screenAxisTiltDeg: [20, 45],
