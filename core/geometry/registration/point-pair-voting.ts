@@ -184,30 +184,7 @@ function filedFace(points: ArrayLike<number>, normals: ArrayLike<number>, max: n
   const aBins = Math.ceil(Math.PI / aStep) + 1;
   const extent = extentOf(s);
   const dBins = Math.floor(extent / dStep) + 1;
-  // a counting sort on the key
-  const nPairs = s.count * (s.count - 1);
-  const keyOf = new Int32Array(nPairs), refOf = new Uint16Array(nPairs), alphaOf = new Float32Array(nPairs);
-  const keySpace = dBins * aBins * aBins * aBins;
-  const start = new Int32Array(keySpace + 1);
-  let m = 0;
-  for (let i = 0; i < s.count; i++) {
-    for (let j = 0; j < s.count; j++) {
-      if (i === j) continue;
-      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins);
-      if (k < 0) continue;
-      keyOf[m] = k; refOf[m] = i; alphaOf[m] = pairAngle(s, R, i, j);
-      start[k + 1]++;
-      m++;
-    }
-  }
-  for (let k = 0; k < keySpace; k++) start[k + 1] += start[k];
-  const fill = start.slice(0, keySpace);
-  const pairRef = new Uint16Array(m), pairAlpha = new Float32Array(m);
-  for (let k = 0; k < m; k++) {
-    const at = fill[keyOf[k]]++;
-    pairRef[at] = refOf[k];
-    pairAlpha[at] = alphaOf[k];
-  }
+  const { start, pairRef, pairAlpha } = filePairs(s, R, dStep, aStep, dBins, aBins);
   // kept while the face lives (weakly, by its points array)
   const filed: FiledFace = { s, R, extent, start, pairRef, pairAlpha };
   if (!byKey) {
@@ -217,6 +194,40 @@ function filedFace(points: ArrayLike<number>, normals: ArrayLike<number>, max: n
   }
   byKey.set(key, filed);
   return filed;
+}
+
+/**
+ * The pairs of s filed by key (a counting sort, stable: pairs of one key in the order (i, j)
+ * ascending). A function of its own, so that the engine compiles its loops apart from the
+ * caching about them (inside filedFace the optimised code was thrown away at the cache's Map).
+ * Counts go to start[k + 2] so that after the running sum start[k + 1] is where key k's pairs
+ * begin; filing each pair at start[key + 1]++ leaves start[k] there instead (no copy of the
+ * table). start has keySpace + 2 entries, its last unused by the lookups.
+ */
+function filePairs(s: Oriented, R: Float64Array, dStep: number, aStep: number, dBins: number, aBins: number): { start: Int32Array; pairRef: Uint16Array; pairAlpha: Float32Array } {
+  const nPairs = s.count * (s.count - 1);
+  const keyOf = new Int32Array(nPairs), refOf = new Uint16Array(nPairs), alphaOf = new Float32Array(nPairs);
+  const keySpace = dBins * aBins * aBins * aBins;
+  const start = new Int32Array(keySpace + 2);
+  let m = 0;
+  for (let i = 0; i < s.count; i++) {
+    for (let j = 0; j < s.count; j++) {
+      if (i === j) continue;
+      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins);
+      if (k < 0) continue;
+      keyOf[m] = k; refOf[m] = i; alphaOf[m] = pairAngle(s, R, i, j);
+      start[k + 2]++;
+      m++;
+    }
+  }
+  for (let k = 0; k <= keySpace; k++) start[k + 1] += start[k];
+  const pairRef = new Uint16Array(m), pairAlpha = new Float32Array(m);
+  for (let k = 0; k < m; k++) {
+    const at = start[keyOf[k] + 1]++;
+    pairRef[at] = refOf[k];
+    pairAlpha[at] = alphaOf[k];
+  }
+  return { start, pairRef, pairAlpha };
 }
 
 /** The normals a cached filed face was made with (a points array met again with other normals is filed anew). */
