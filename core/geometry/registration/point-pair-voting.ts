@@ -93,8 +93,10 @@ function frames(s: Oriented): Float64Array {
 
 /**
  * Feature key of the pair (i, j) of one face (or -1 when the pair is too short or too long).
+ * `bins` is angleBins(aStep, aBins): each angle's bin is read from a table by its cosine, or is
+ * floor(acos / aStep) where the table cannot tell (the same bin either way; see angleBins).
  */
-function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number): number {
+function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number, bins: Int8Array): number {
   const dx = s.p[3 * j] - s.p[3 * i], dy = s.p[3 * j + 1] - s.p[3 * i + 1], dz = s.p[3 * j + 2] - s.p[3 * i + 2];
   const d = hypot(dx, dy, dz);
   const kd = Math.floor(d / dStep);
@@ -102,12 +104,51 @@ function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number
   const ux = dx / d, uy = dy / d, uz = dz / d;
   const n1x = s.n[3 * i], n1y = s.n[3 * i + 1], n1z = s.n[3 * i + 2];
   const n2x = s.n[3 * j], n2y = s.n[3 * j + 1], n2z = s.n[3 * j + 2];
-  const a1 = Math.acos(Math.max(-1, Math.min(1, n1x * ux + n1y * uy + n1z * uz)));
-  const a2 = Math.acos(Math.max(-1, Math.min(1, n2x * ux + n2y * uy + n2z * uz)));
-  const a3 = Math.acos(Math.max(-1, Math.min(1, n1x * n2x + n1y * n2y + n1z * n2z)));
-  const q1 = Math.min(aBins - 1, Math.floor(a1 / aStep)), q2 = Math.min(aBins - 1, Math.floor(a2 / aStep)), q3 = Math.min(aBins - 1, Math.floor(a3 / aStep));
+  const c1 = Math.max(-1, Math.min(1, n1x * ux + n1y * uy + n1z * uz));
+  const c2 = Math.max(-1, Math.min(1, n2x * ux + n2y * uy + n2z * uz));
+  const c3 = Math.max(-1, Math.min(1, n1x * n2x + n1y * n2y + n1z * n2z));
+  // (a NaN cosine fails c >= -1 and takes the arc cosine, as before)
+  let q1 = c1 >= -1 ? bins[((c1 + 1) * BIN_CELLS) | 0] : -1;
+  if (q1 < 0) q1 = Math.min(aBins - 1, Math.floor(Math.acos(c1) / aStep));
+  let q2 = c2 >= -1 ? bins[((c2 + 1) * BIN_CELLS) | 0] : -1;
+  if (q2 < 0) q2 = Math.min(aBins - 1, Math.floor(Math.acos(c2) / aStep));
+  let q3 = c3 >= -1 ? bins[((c3 + 1) * BIN_CELLS) | 0] : -1;
+  if (q3 < 0) q3 = Math.min(aBins - 1, Math.floor(Math.acos(c3) / aStep));
   return ((kd * aBins + q1) * aBins + q2) * aBins + q3;
 }
+
+/** Cells of the angle bin table per unit of cosine. */
+const BIN_CELLS = 2048;
+/** A table cell holds a bin only when no bin boundary lies within this much cosine of it. */
+const BIN_MARGIN = 1e-6;
+
+/**
+ * The bins min(aBins - 1, floor(acos(c) / aStep)) of pairKey's angles by their cosine c in
+ * [-1, 1], read from a table where they cannot differ (the arc cosine, a call of some 20 ns, was
+ * most of a key's cost): the cell of c ((c + 1) BIN_CELLS rounded down; 2 BIN_CELLS + 1 cells)
+ * holds the bin when no boundary cos(m aStep) lies within BIN_MARGIN of the cell and the bins at
+ * its two ends (BIN_MARGIN outside) agree, else -1 (take the arc cosine). An angle moves at
+ * least as fast as its cosine (|d acos / dc| >= 1), so a cosine BIN_MARGIN from a boundary is an
+ * angle over 1e-6 rad from it, against rounding errors of acos(c) / aStep near 1e-14. Kept by step.
+ */
+function angleBins(aStep: number, aBins: number): Int8Array {
+  const key = `${aStep} ${aBins}`;
+  const hit = binTables.get(key);
+  if (hit) return hit;
+  const exact = (c: number): number => Math.min(aBins - 1, Math.floor(Math.acos(Math.max(-1, Math.min(1, c))) / aStep));
+  const bounds: number[] = [];
+  for (let m = 1; m < aBins && m * aStep <= Math.PI + 1e-6; m++) bounds.push(Math.cos(m * aStep));
+  const table = new Int8Array(2 * BIN_CELLS + 1);
+  for (let g = 0; g <= 2 * BIN_CELLS; g++) {
+    const lo = g / BIN_CELLS - 1 - BIN_MARGIN, hi = (g + 1) / BIN_CELLS - 1 + BIN_MARGIN;
+    const q = exact(lo);
+    table[g] = q === exact(hi) && q <= 127 && !bounds.some((b) => b >= lo && b <= hi) ? q : -1;
+  }
+  binTables.set(key, table);
+  return table;
+}
+
+const binTables = new Map<string, Int8Array>();
 
 /** The angle of sample j about sample i's normal in i's frame (atan2 of its z and y there). */
 function pairAngle(s: Oriented, R: Float64Array, i: number, j: number): number {
@@ -206,6 +247,7 @@ function filedFace(points: ArrayLike<number>, normals: ArrayLike<number>, max: n
  */
 function filePairs(s: Oriented, R: Float64Array, dStep: number, aStep: number, dBins: number, aBins: number): { start: Int32Array; pairRef: Uint16Array; pairAlpha: Float32Array } {
   const nPairs = s.count * (s.count - 1);
+  const bins = angleBins(aStep, aBins);
   const keyOf = new Int32Array(nPairs), refOf = new Uint16Array(nPairs), alphaOf = new Float32Array(nPairs);
   const keySpace = dBins * aBins * aBins * aBins;
   const start = new Int32Array(keySpace + 2);
@@ -213,7 +255,7 @@ function filePairs(s: Oriented, R: Float64Array, dStep: number, aStep: number, d
   for (let i = 0; i < s.count; i++) {
     for (let j = 0; j < s.count; j++) {
       if (i === j) continue;
-      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins);
+      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins, bins);
       if (k < 0) continue;
       keyOf[m] = k; refOf[m] = i; alphaOf[m] = pairAngle(s, R, i, j);
       start[k + 2]++;
@@ -319,6 +361,7 @@ function referencePeaks(
   peakCell: Int32Array, peakVotes: Int32Array,
 ): void {
   const count = A.count;
+  const bins = angleBins(aStep, aBins);
   const dTurn = (2 * Math.PI) / nTurn, twoPi = 2 * Math.PI, perTurn = 1 / dTurn;
   const acc = new Int32Array(nFiled * nTurn);
   // one slot more than the cells: every vote writes its cell at the end of the list
@@ -327,7 +370,7 @@ function referencePeaks(
   for (let r = 0, t = 0; r < count; r += stride, t++) {
     for (let j = 0; j < count; j++) {
       if (j === r) continue;
-      const key = pairKey(A, r, j, dStep, aStep, dBins, aBins);
+      const key = pairKey(A, r, j, dStep, aStep, dBins, aBins, bins);
       if (key < 0) continue;
       const aS = pairAngle(A, RA, r, j);
       for (let k = start[key], end = start[key + 1]; k < end; k++) {
