@@ -93,8 +93,10 @@ function frames(s: Oriented): Float64Array {
 
 /**
  * Feature key of the pair (i, j) of one face (or -1 when the pair is too short or too long).
+ * `bins` is angleBins(aStep, aBins): each angle's bin is read from a table by its cosine, or is
+ * floor(acos / aStep) where the table cannot tell (the same bin either way; see angleBins).
  */
-function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number): number {
+function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number, dBins: number, aBins: number, bins: Int8Array): number {
   const dx = s.p[3 * j] - s.p[3 * i], dy = s.p[3 * j + 1] - s.p[3 * i + 1], dz = s.p[3 * j + 2] - s.p[3 * i + 2];
   const d = hypot(dx, dy, dz);
   const kd = Math.floor(d / dStep);
@@ -102,12 +104,51 @@ function pairKey(s: Oriented, i: number, j: number, dStep: number, aStep: number
   const ux = dx / d, uy = dy / d, uz = dz / d;
   const n1x = s.n[3 * i], n1y = s.n[3 * i + 1], n1z = s.n[3 * i + 2];
   const n2x = s.n[3 * j], n2y = s.n[3 * j + 1], n2z = s.n[3 * j + 2];
-  const a1 = Math.acos(Math.max(-1, Math.min(1, n1x * ux + n1y * uy + n1z * uz)));
-  const a2 = Math.acos(Math.max(-1, Math.min(1, n2x * ux + n2y * uy + n2z * uz)));
-  const a3 = Math.acos(Math.max(-1, Math.min(1, n1x * n2x + n1y * n2y + n1z * n2z)));
-  const q1 = Math.min(aBins - 1, Math.floor(a1 / aStep)), q2 = Math.min(aBins - 1, Math.floor(a2 / aStep)), q3 = Math.min(aBins - 1, Math.floor(a3 / aStep));
+  const c1 = Math.max(-1, Math.min(1, n1x * ux + n1y * uy + n1z * uz));
+  const c2 = Math.max(-1, Math.min(1, n2x * ux + n2y * uy + n2z * uz));
+  const c3 = Math.max(-1, Math.min(1, n1x * n2x + n1y * n2y + n1z * n2z));
+  // (a NaN cosine fails c >= -1 and takes the arc cosine, as before)
+  let q1 = c1 >= -1 ? bins[((c1 + 1) * BIN_CELLS) | 0] : -1;
+  if (q1 < 0) q1 = Math.min(aBins - 1, Math.floor(Math.acos(c1) / aStep));
+  let q2 = c2 >= -1 ? bins[((c2 + 1) * BIN_CELLS) | 0] : -1;
+  if (q2 < 0) q2 = Math.min(aBins - 1, Math.floor(Math.acos(c2) / aStep));
+  let q3 = c3 >= -1 ? bins[((c3 + 1) * BIN_CELLS) | 0] : -1;
+  if (q3 < 0) q3 = Math.min(aBins - 1, Math.floor(Math.acos(c3) / aStep));
   return ((kd * aBins + q1) * aBins + q2) * aBins + q3;
 }
+
+/** Cells of the angle bin table per unit of cosine. */
+const BIN_CELLS = 2048;
+/** A table cell holds a bin only when no bin boundary lies within this much cosine of it. */
+const BIN_MARGIN = 1e-6;
+
+/**
+ * The bins min(aBins - 1, floor(acos(c) / aStep)) of pairKey's angles by their cosine c in
+ * [-1, 1], read from a table where they cannot differ (the arc cosine, a call of some 20 ns, was
+ * most of a key's cost): the cell of c ((c + 1) BIN_CELLS rounded down; 2 BIN_CELLS + 1 cells)
+ * holds the bin when no boundary cos(m aStep) lies within BIN_MARGIN of the cell and the bins at
+ * its two ends (BIN_MARGIN outside) agree, else -1 (take the arc cosine). An angle moves at
+ * least as fast as its cosine (|d acos / dc| >= 1), so a cosine BIN_MARGIN from a boundary is an
+ * angle over 1e-6 rad from it, against rounding errors of acos(c) / aStep near 1e-14. Kept by step.
+ */
+function angleBins(aStep: number, aBins: number): Int8Array {
+  const key = `${aStep} ${aBins}`;
+  const hit = binTables.get(key);
+  if (hit) return hit;
+  const exact = (c: number): number => Math.min(aBins - 1, Math.floor(Math.acos(Math.max(-1, Math.min(1, c))) / aStep));
+  const bounds: number[] = [];
+  for (let m = 1; m < aBins && m * aStep <= Math.PI + 1e-6; m++) bounds.push(Math.cos(m * aStep));
+  const table = new Int8Array(2 * BIN_CELLS + 1);
+  for (let g = 0; g <= 2 * BIN_CELLS; g++) {
+    const lo = g / BIN_CELLS - 1 - BIN_MARGIN, hi = (g + 1) / BIN_CELLS - 1 + BIN_MARGIN;
+    const q = exact(lo);
+    table[g] = q === exact(hi) && q <= 127 && !bounds.some((b) => b >= lo && b <= hi) ? q : -1;
+  }
+  binTables.set(key, table);
+  return table;
+}
+
+const binTables = new Map<string, Int8Array>();
 
 /** The angle of sample j about sample i's normal in i's frame (atan2 of its z and y there). */
 function pairAngle(s: Oriented, R: Float64Array, i: number, j: number): number {
@@ -184,30 +225,7 @@ function filedFace(points: ArrayLike<number>, normals: ArrayLike<number>, max: n
   const aBins = Math.ceil(Math.PI / aStep) + 1;
   const extent = extentOf(s);
   const dBins = Math.floor(extent / dStep) + 1;
-  // a counting sort on the key
-  const nPairs = s.count * (s.count - 1);
-  const keyOf = new Int32Array(nPairs), refOf = new Uint16Array(nPairs), alphaOf = new Float32Array(nPairs);
-  const keySpace = dBins * aBins * aBins * aBins;
-  const start = new Int32Array(keySpace + 1);
-  let m = 0;
-  for (let i = 0; i < s.count; i++) {
-    for (let j = 0; j < s.count; j++) {
-      if (i === j) continue;
-      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins);
-      if (k < 0) continue;
-      keyOf[m] = k; refOf[m] = i; alphaOf[m] = pairAngle(s, R, i, j);
-      start[k + 1]++;
-      m++;
-    }
-  }
-  for (let k = 0; k < keySpace; k++) start[k + 1] += start[k];
-  const fill = start.slice(0, keySpace);
-  const pairRef = new Uint16Array(m), pairAlpha = new Float32Array(m);
-  for (let k = 0; k < m; k++) {
-    const at = fill[keyOf[k]]++;
-    pairRef[at] = refOf[k];
-    pairAlpha[at] = alphaOf[k];
-  }
+  const { start, pairRef, pairAlpha } = filePairs(s, R, dStep, aStep, dBins, aBins);
   // kept while the face lives (weakly, by its points array)
   const filed: FiledFace = { s, R, extent, start, pairRef, pairAlpha };
   if (!byKey) {
@@ -217,6 +235,41 @@ function filedFace(points: ArrayLike<number>, normals: ArrayLike<number>, max: n
   }
   byKey.set(key, filed);
   return filed;
+}
+
+/**
+ * The pairs of s filed by key (a counting sort, stable: pairs of one key in the order (i, j)
+ * ascending). A function of its own, so that the engine compiles its loops apart from the
+ * caching about them (inside filedFace the optimised code was thrown away at the cache's Map).
+ * Counts go to start[k + 2] so that after the running sum start[k + 1] is where key k's pairs
+ * begin; filing each pair at start[key + 1]++ leaves start[k] there instead (no copy of the
+ * table). start has keySpace + 2 entries, its last unused by the lookups.
+ */
+function filePairs(s: Oriented, R: Float64Array, dStep: number, aStep: number, dBins: number, aBins: number): { start: Int32Array; pairRef: Uint16Array; pairAlpha: Float32Array } {
+  const nPairs = s.count * (s.count - 1);
+  const bins = angleBins(aStep, aBins);
+  const keyOf = new Int32Array(nPairs), refOf = new Uint16Array(nPairs), alphaOf = new Float32Array(nPairs);
+  const keySpace = dBins * aBins * aBins * aBins;
+  const start = new Int32Array(keySpace + 2);
+  let m = 0;
+  for (let i = 0; i < s.count; i++) {
+    for (let j = 0; j < s.count; j++) {
+      if (i === j) continue;
+      const k = pairKey(s, i, j, dStep, aStep, dBins, aBins, bins);
+      if (k < 0) continue;
+      keyOf[m] = k; refOf[m] = i; alphaOf[m] = pairAngle(s, R, i, j);
+      start[k + 2]++;
+      m++;
+    }
+  }
+  for (let k = 0; k <= keySpace; k++) start[k + 1] += start[k];
+  const pairRef = new Uint16Array(m), pairAlpha = new Float32Array(m);
+  for (let k = 0; k < m; k++) {
+    const at = start[keyOf[k] + 1]++;
+    pairRef[at] = refOf[k];
+    pairAlpha[at] = alphaOf[k];
+  }
+  return { start, pairRef, pairAlpha };
 }
 
 /** The normals a cached filed face was made with (a points array met again with other normals is filed anew). */
@@ -245,37 +298,16 @@ function vote(A: Oriented, filed: FiledFace, options: PointPairVotingOptions): P
   const dBins = Math.floor(Math.min(extentOf(A), filed.extent) / dStep) + 1;
   const RA = frames(A);
   const stride = Math.max(1, Math.ceil(A.count / (options.references ?? 60)));
-  const acc = new Int32Array(B.count * nTurn);
-  const touched = new Int32Array(B.count * nTurn);
-  let nTouched = 0;
+  const nRefs = Math.ceil(A.count / stride);
+  const peakCell = new Int32Array(nRefs), peakVotes = new Int32Array(nRefs);
+  referencePeaks(A, RA, stride, dStep, aStep, aBins, dBins, nTurn, start, pairRef, pairAlpha, B.count, peakCell, peakVotes);
   const poses: Array<{ transform: RigidTransform; votes: number }> = [];
-  for (let r = 0; r < A.count; r += stride) {
-    for (let j = 0; j < A.count; j++) {
-      if (j === r) continue;
-      const key = pairKey(A, r, j, dStep, aStep, dBins, aBins);
-      if (key < 0) continue;
-      const aS = pairAngle(A, RA, r, j);
-      for (let k = start[key], end = start[key + 1]; k < end; k++) {
-        let th = aS - pairAlpha[k];
-        if (th < 0) th += 2 * Math.PI;
-        if (th >= 2 * Math.PI) th -= 2 * Math.PI;
-        // th in [0, 2 pi): its bin is at most nTurn (rounding), which is bin 0 again
-        let bin = Math.floor(th / dTurn);
-        if (bin >= nTurn) bin -= nTurn;
-        const cell = pairRef[k] * nTurn + bin;
-        if (acc[cell] === 0) touched[nTouched++] = cell;
-        acc[cell]++;
-      }
-    }
-    // this reference point's best (B sample, turn)
-    let best = -1, votes = 0;
-    for (let t = 0; t < nTouched; t++) { const c = touched[t]; if (acc[c] > votes) { votes = acc[c]; best = c; } }
+  for (let t = 0; t < nRefs; t++) {
+    const best = peakCell[t], votes = peakVotes[t];
     if (best >= 0 && votes >= 3) {
       const i = Math.floor(best / nTurn), th = ((best % nTurn) + 0.5) * dTurn;
-      poses.push({ transform: poseOf(A, RA, r, B, RB, i, th), votes });
+      poses.push({ transform: poseOf(A, RA, t * stride, B, RB, i, th), votes });
     }
-    for (let t = 0; t < nTouched; t++) acc[touched[t]] = 0;
-    nTouched = 0;
   }
   // cluster the poses (Drost et al.: poses within a rotation and translation threshold), summing votes
   poses.sort((p, q) => q.votes - p.votes);
@@ -303,6 +335,68 @@ function vote(A: Oriented, filed: FiledFace, options: PointPairVotingOptions): P
   }
   clusters.sort((p, q) => q.votes - p.votes);
   return clusters.slice(0, options.hypotheses ?? 4).map((k) => ({ transform: k.transform, votes: k.votes }));
+}
+
+/**
+ * The voting itself: for each reference sample r = 0, stride, 2 stride... of the searched face A
+ * (frames RA), every pair (r, j) of its face looks up the filed pairs with its feature (pairKey)
+ * and each votes for (filed reference sample, turn bin) in a table of nFiled x nTurn cells; the
+ * cell with the most votes (the first voted among equals) and its votes go to peakCell[t] /
+ * peakVotes[t] for the t-th reference (-1 and 0 when nothing voted).
+ *
+ * Speed (the innermost loop runs some 110,000 times per call on small faces; 72 million times
+ * in match-speed.ts on 300 fragment pairs of s340): this loop has a function of its own, which
+ * the engine compiles alone (inside vote() the optimised code was thrown away at the clustering
+ * below on most calls, for want of type feedback there); a vote writes its cell at the end of the
+ * touched list and only a cell's first vote moves the end on (no unpredictable branch); the turn
+ * bin is a product with 1 / dTurn, and the quotient th / dTurn itself where the product lies
+ * within 1e-9 of a whole number (the two differ by a few units in the last place, under 1e-14
+ * for quotients up to nTurn, so elsewhere their floors agree). Results are bit for bit those of
+ * the plain loop (the same votes in the same order).
+ */
+function referencePeaks(
+  A: Oriented, RA: Float64Array, stride: number,
+  dStep: number, aStep: number, aBins: number, dBins: number, nTurn: number,
+  start: Int32Array, pairRef: Uint16Array, pairAlpha: Float32Array, nFiled: number,
+  peakCell: Int32Array, peakVotes: Int32Array,
+): void {
+  const count = A.count;
+  const bins = angleBins(aStep, aBins);
+  const dTurn = (2 * Math.PI) / nTurn, twoPi = 2 * Math.PI, perTurn = 1 / dTurn;
+  const acc = new Int32Array(nFiled * nTurn);
+  // one slot more than the cells: every vote writes its cell at the end of the list
+  const touched = new Int32Array(nFiled * nTurn + 1);
+  let nTouched = 0;
+  for (let r = 0, t = 0; r < count; r += stride, t++) {
+    for (let j = 0; j < count; j++) {
+      if (j === r) continue;
+      const key = pairKey(A, r, j, dStep, aStep, dBins, aBins, bins);
+      if (key < 0) continue;
+      const aS = pairAngle(A, RA, r, j);
+      for (let k = start[key], end = start[key + 1]; k < end; k++) {
+        let th = aS - pairAlpha[k];
+        if (th < 0) th += twoPi;
+        if (th >= twoPi) th -= twoPi;
+        // th in [0, 2 pi): its bin is at most nTurn (rounding), which is bin 0 again
+        const q = th * perTurn;
+        let bin = Math.floor(q) | 0;
+        if (q - bin < 1e-9 || q - bin > 1 - 1e-9) bin = Math.floor(th / dTurn) | 0;
+        if (bin >= nTurn) bin -= nTurn;
+        const cell = pairRef[k] * nTurn + bin;
+        const v = acc[cell];
+        // (v - 1) >>> 31: 1 for a cell's first vote (v = 0), else 0
+        touched[nTouched] = cell;
+        nTouched += (v - 1) >>> 31;
+        acc[cell] = v + 1;
+      }
+    }
+    // this reference point's best (filed sample, turn)
+    let best = -1, votes = 0;
+    for (let u = 0; u < nTouched; u++) { const c = touched[u]; if (acc[c] > votes) { votes = acc[c]; best = c; } }
+    peakCell[t] = best; peakVotes[t] = votes;
+    for (let u = 0; u < nTouched; u++) acc[touched[u]] = 0;
+    nTouched = 0;
+  }
 }
 
 /**
