@@ -8,6 +8,7 @@
 import { compose, transformFromTwist, type RigidTransform } from './rigid-transform';
 import { SampledSurface, type ClosestPoint, type ClosestPointSource } from './target-surface';
 import { sortIndicesByKey } from './sort-indices';
+import { KdTree } from './nearest-neighbours';
 
 export interface IcpOptions {
   /** Pairs farther apart than this are ignored (mm). */
@@ -67,10 +68,13 @@ export function icpPointToPlane(
   const dist = new Float64Array(n);
   const indices = new Int32Array(n), scratch = new Int32Array(n);
   const cp = {} as ClosestPoint;
-  // each sample's closest target sample in the last round that found one (a sampled target's hint: same answers, fewer searches)
-  const hints = new Int32Array(n).fill(-1);
   let maxD = options.maxDistance;
   const samples = target instanceof SampledSurface && target.tree.dim === 3 ? target : null;
+  // a sampled target: what each sample's last search proved (KdTree.nearestOneMoving: same answers,
+  // most rounds without a search); another target: each sample's closest target sample in the last
+  // round that found one (a hint: same answers)
+  const memo = samples ? KdTree.movingMemo(n) : null;
+  const hints = samples ? null : new Int32Array(n).fill(-1);
   for (iter = 0; iter < maxIter; iter++) {
     let m = 0;
     // the motion's entries in locals (the same products and sums as reading them from T)
@@ -88,17 +92,16 @@ export function icpPointToPlane(
       let hx: number, hy: number, hz: number, hnx: number, hny: number, hnz: number, hd: number;
       if (samples) {
         // oriented samples: the k-d tree asked directly (what SampledSurface.closest does, without its objects)
-        const j = samples.tree.nearestOneNear3(X, Y, Z, maxD2, hints[i]);
+        const j = samples.tree.nearestOneMoving(X, Y, Z, maxD2, memo!, i);
         if (j < 0) continue;
-        hints[i] = j;
         const P = samples.points, N = samples.normals;
         hx = P[3 * j]; hy = P[3 * j + 1]; hz = P[3 * j + 2];
         hnx = N[3 * j]; hny = N[3 * j + 1]; hnz = N[3 * j + 2];
         hd = Math.sqrt(samples.tree.lastDist2);
       } else {
-        const hit = target.closest(X, Y, Z, maxD, cp, hints[i]);
+        const hit = target.closest(X, Y, Z, maxD, cp, hints![i]);
         if (!hit) continue;
-        hints[i] = hit.sample ?? -1;
+        hints![i] = hit.sample ?? -1;
         hx = hit.x; hy = hit.y; hz = hit.z;
         hnx = hit.nx; hny = hit.ny; hnz = hit.nz;
         hd = hit.distance;
