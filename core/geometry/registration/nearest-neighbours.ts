@@ -305,10 +305,10 @@ export class KdTree {
   /** Numbers kept per query by nearestOneMoving. */
   static readonly MEMO = 8;
 
-  /** A memo for `count` queries of nearestOneMoving, nothing known yet. */
-  static movingMemo(count: number): Float64Array {
-    const memo = new Float64Array(KdTree.MEMO * count);
-    for (let o = 0; o < memo.length; o += KdTree.MEMO) { memo[o + 3] = -1; memo[o + 4] = -1; memo[o + 5] = -1; memo[o + 6] = -1; }
+  /** A memo for `count` queries of nearestOneMoving, nothing known yet (in `into` when given, at least KdTree.MEMO * count long). */
+  static movingMemo(count: number, into?: Float64Array): Float64Array {
+    const memo = into ?? new Float64Array(KdTree.MEMO * count);
+    for (let o = 0; o < KdTree.MEMO * count; o += KdTree.MEMO) { memo[o + 3] = -1; memo[o + 4] = -1; memo[o + 5] = -1; memo[o + 6] = -1; }
     return memo;
   }
 
