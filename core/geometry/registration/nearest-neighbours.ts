@@ -162,6 +162,12 @@ export class KdTree {
 
   /** Index of the single nearest point (or -1) and its squared distance. */
   nearestOne(q: ArrayLike<number>, maxDist2 = Infinity): { index: number; dist2: number } {
+    const index = this.nearestIndex(q, maxDist2);
+    return { index, dist2: this.lastDist2 };
+  }
+
+  /** nearestOne's index, its squared distance left in `lastDist2` (Infinity when none), no object made. */
+  nearestIndex(q: ArrayLike<number>, maxDist2 = Infinity): number {
     this.bestIndex = -1;
     this.bestDist2 = maxDist2;
     if (this.count > 0) {
@@ -174,7 +180,8 @@ export class KdTree {
       }
       else this.visitOne(q, 0, this.count);
     }
-    return { index: this.bestIndex, dist2: this.bestIndex < 0 ? Infinity : this.bestDist2 };
+    this.lastDist2 = this.bestIndex < 0 ? Infinity : this.bestDist2;
+    return this.bestIndex;
   }
 
   private bestIndex = -1;
@@ -197,7 +204,7 @@ export class KdTree {
     return { index, dist2: index < 0 ? Infinity : this.lastDist2 };
   }
 
-  /** Squared distance of the point the last nearestOneNear3 returned (Infinity when none). */
+  /** Squared distance of the point the last nearestIndex or nearestOneNear3 returned (Infinity when none). */
   lastDist2 = Infinity;
 
   /**
@@ -322,35 +329,41 @@ export class KdTree {
    * and every other point beyond e - s: when d + 2s < e, j is still the only nearest point, which
    * the search would find whatever its order (no tie), and its squared distance is worked out as
    * the search works it out; when no point is nearer than d - s and that exceeds the radius, there
-   * is no answer. Both comparisons keep a relative margin of 1e-6 and 1e-9 mm, far beyond rounding;
-   * exactly at the radius, and otherwise, the search (nearestOneNear3, guessed from the last answer).
+   * is no answer. Both comparisons keep a margin of 1e-6 of the distances and 1e-9 mm, far beyond
+   * rounding; exactly at the radius, and otherwise, the search (nearestOneNear3, guessed from the
+   * last answer).
    */
   nearestOneMoving(x: number, y: number, z: number, maxDist2: number, memo: Float64Array, slot: number): number {
     const o = KdTree.MEMO * slot;
+    // memo: q0 (3 numbers), j's tree position (-1: none), d (-1: nothing known), the squared reach
+    // of q within which j stays the only nearest ((e - d) / 2 less the margin; -1: none), the last answer
     const d = memo[o + 4];
     if (d >= 0) {
       const ex = x - memo[o], ey = y - memo[o + 1], ez = z - memo[o + 2];
-      const s = Math.sqrt(ex * ex + ey * ey + ez * ez);
-      const pos = memo[o + 3];
-      if (pos >= 0 && (d + 2 * s) * (1 + 1e-6) + 1e-9 < memo[o + 5]) {
-        const P = this.points3!;
+      const s2 = ex * ex + ey * ey + ez * ez;
+      if (s2 < memo[o + 5]) {
+        const P = this.points3!, pos = memo[o + 3];
         const dx = x - P[3 * pos], dy = y - P[3 * pos + 1], dz = z - P[3 * pos + 2];
         const d2 = dx * dx + dy * dy + dz * dz;
         if (d2 < maxDist2) { this.lastDist2 = d2; return this.order[pos]; }
         if (d2 > maxDist2) { this.lastDist2 = Infinity; return -1; }
-      } else if (d - s > Math.sqrt(maxDist2) * (1 + 1e-6) + 1e-9) {
-        this.lastDist2 = Infinity;
-        return -1;
+      } else {
+        const t = d * (1 - 1e-6) - Math.sqrt(maxDist2) * (1 + 1e-6) - 1e-9;
+        if (t > 0 && s2 < t * t) { this.lastDist2 = Infinity; return -1; }
       }
     }
     this.nearPos = -1;
     this.nearDist = this.otherDist = -1;
     const j = this.nearestOneNear3(x, y, z, maxDist2, memo[o + 6]);
+    const near = this.nearDist, other = this.otherDist;
     memo[o] = x; memo[o + 1] = y; memo[o + 2] = z;
-    memo[o + 3] = this.nearPos; memo[o + 4] = this.nearDist; memo[o + 5] = this.otherDist;
+    memo[o + 3] = this.nearPos; memo[o + 4] = near;
+    const reach = (other - near) / 2 - 1e-6 * other - 1e-9;
+    memo[o + 5] = this.nearPos >= 0 && reach > 0 ? reach * reach : -1;
     if (j >= 0) memo[o + 6] = j;
     return j;
   }
+
 
   /**
    * Whether some point lies within sqrt(maxDist2) of q, as `nearestOne(q, maxDist2).index >= 0`
