@@ -8,6 +8,7 @@
 import { compose, transformFromTwist, type RigidTransform } from './rigid-transform';
 import { SampledSurface, type ClosestPoint, type ClosestPointSource } from './target-surface';
 import { sortIndicesByKey } from './sort-indices';
+import { KdTree } from './nearest-neighbours';
 
 export interface IcpOptions {
   /** Pairs farther apart than this are ignored (mm). */
@@ -61,16 +62,17 @@ export function icpPointToPlane(
   let rms = Infinity;
   let inliers = 0;
   let iter = 0;
-  const px = new Float64Array(n), py = new Float64Array(n), pz = new Float64Array(n);
-  const qx = new Float64Array(n), qy = new Float64Array(n), qz = new Float64Array(n);
-  const nx = new Float64Array(n), ny = new Float64Array(n), nz = new Float64Array(n);
-  const dist = new Float64Array(n);
-  const indices = new Int32Array(n), scratch = new Int32Array(n);
+  // per-pair buffers kept between calls (every entry read was written this round)
+  const bufs = pairBuffers(n);
+  const { px, py, pz, qx, qy, qz, nx, ny, nz, dist, indices, scratch, AtA, Atb } = bufs;
   const cp = {} as ClosestPoint;
-  // each sample's closest target sample in the last round that found one (a sampled target's hint: same answers, fewer searches)
-  const hints = new Int32Array(n).fill(-1);
   let maxD = options.maxDistance;
   const samples = target instanceof SampledSurface && target.tree.dim === 3 ? target : null;
+  // a sampled target: what each sample's last search proved (KdTree.nearestOneMoving: same answers,
+  // most rounds without a search); another target: each sample's closest target sample in the last
+  // round that found one (a hint: same answers)
+  const memo = samples ? KdTree.movingMemo(n, bufs.memo) : null;
+  const hints = samples ? null : new Int32Array(n).fill(-1);
   for (iter = 0; iter < maxIter; iter++) {
     let m = 0;
     // the motion's entries in locals (the same products and sums as reading them from T)
@@ -88,17 +90,16 @@ export function icpPointToPlane(
       let hx: number, hy: number, hz: number, hnx: number, hny: number, hnz: number, hd: number;
       if (samples) {
         // oriented samples: the k-d tree asked directly (what SampledSurface.closest does, without its objects)
-        const j = samples.tree.nearestOneNear3(X, Y, Z, maxD2, hints[i]);
+        const j = samples.tree.nearestOneMoving(X, Y, Z, maxD2, memo!, i);
         if (j < 0) continue;
-        hints[i] = j;
         const P = samples.points, N = samples.normals;
         hx = P[3 * j]; hy = P[3 * j + 1]; hz = P[3 * j + 2];
         hnx = N[3 * j]; hny = N[3 * j + 1]; hnz = N[3 * j + 2];
         hd = Math.sqrt(samples.tree.lastDist2);
       } else {
-        const hit = target.closest(X, Y, Z, maxD, cp, hints[i]);
+        const hit = target.closest(X, Y, Z, maxD, cp, hints![i]);
         if (!hit) continue;
-        hints[i] = hit.sample ?? -1;
+        hints![i] = hit.sample ?? -1;
         hx = hit.x; hy = hit.y; hz = hit.z;
         hnx = hit.nx; hny = hit.ny; hnz = hit.nz;
         hd = hit.distance;
@@ -147,22 +148,20 @@ export function icpPointToPlane(
       b4 -= r4 * r; s44 += r4 * r4; s45 += r4 * r5;
       b5 -= r5 * r; s55 += r5 * r5;
     }
-    const AtA = Float64Array.of(
-      s00, s01, s02, s03, s04, s05,
-      s01, s11, s12, s13, s14, s15,
-      s02, s12, s22, s23, s24, s25,
-      s03, s13, s23, s33, s34, s35,
-      s04, s14, s24, s34, s44, s45,
-      s05, s15, s25, s35, s45, s55,
-    );
-    const Atb = Float64Array.of(b0, b1, b2, b3, b4, b5);
+    AtA[0] = s00; AtA[1] = s01; AtA[2] = s02; AtA[3] = s03; AtA[4] = s04; AtA[5] = s05;
+    AtA[6] = s01; AtA[7] = s11; AtA[8] = s12; AtA[9] = s13; AtA[10] = s14; AtA[11] = s15;
+    AtA[12] = s02; AtA[13] = s12; AtA[14] = s22; AtA[15] = s23; AtA[16] = s24; AtA[17] = s25;
+    AtA[18] = s03; AtA[19] = s13; AtA[20] = s23; AtA[21] = s33; AtA[22] = s34; AtA[23] = s35;
+    AtA[24] = s04; AtA[25] = s14; AtA[26] = s24; AtA[27] = s34; AtA[28] = s44; AtA[29] = s45;
+    AtA[30] = s05; AtA[31] = s15; AtA[32] = s25; AtA[33] = s35; AtA[34] = s45; AtA[35] = s55;
+    Atb[0] = b0; Atb[1] = b1; Atb[2] = b2; Atb[3] = b3; Atb[4] = b4; Atb[5] = b5;
     rms = Math.sqrt(ss / keep);
     inliers = keep;
     // light damping keeps sliding directions of thin bands from running away
     let trace = 0;
     for (let a = 0; a < 6; a++) trace += AtA[a * 6 + a];
     for (let a = 0; a < 6; a++) AtA[a * 6 + a] += 1e-9 * trace + 1e-12;
-    const x = solveSymmetric6(AtA, Atb);
+    const x = solveSymmetric6(AtA, Atb, bufs.M, bufs.x);
     if (!x) break;
     // update about the centre c: p' = R (p - c) + c + t
     const step = transformFromTwist([x[0], x[1], x[2]], [0, 0, 0]);
@@ -202,10 +201,38 @@ export function autoTrimKeep(order: ArrayLike<number>, m: number, dist: ArrayLik
   return keep;
 }
 
-/** Solve a symmetric positive (semi)definite 6x6 system by Gaussian elimination with pivoting. */
-function solveSymmetric6(A: Float64Array, b: Float64Array): Float64Array | null {
+/** icpPointToPlane's working arrays, for at least n pairs (one set, kept between calls and grown when needed: ICP calls never overlap). */
+interface PairBuffers {
+  size: number;
+  px: Float64Array; py: Float64Array; pz: Float64Array;
+  qx: Float64Array; qy: Float64Array; qz: Float64Array;
+  nx: Float64Array; ny: Float64Array; nz: Float64Array;
+  dist: Float64Array;
+  indices: Int32Array; scratch: Int32Array;
+  /** KdTree.nearestOneMoving's memo. */
+  memo: Float64Array;
+  AtA: Float64Array; Atb: Float64Array; M: Float64Array; x: Float64Array;
+}
+
+let kept: PairBuffers | undefined;
+
+function pairBuffers(n: number): PairBuffers {
+  if (kept && kept.size >= n) return kept;
+  const size = Math.max(n, 2 * (kept?.size ?? 0), 64);
+  const f = (): Float64Array => new Float64Array(size);
+  kept = {
+    size,
+    px: f(), py: f(), pz: f(), qx: f(), qy: f(), qz: f(), nx: f(), ny: f(), nz: f(), dist: f(),
+    indices: new Int32Array(size), scratch: new Int32Array(size),
+    memo: new Float64Array(KdTree.MEMO * size),
+    AtA: new Float64Array(36), Atb: new Float64Array(6), M: new Float64Array(42), x: new Float64Array(6),
+  };
+  return kept;
+}
+
+/** Solve a symmetric positive (semi)definite 6x6 system by Gaussian elimination with pivoting (M: 42 numbers of working space, x: the answer's 6). */
+function solveSymmetric6(A: Float64Array, b: Float64Array, M: Float64Array, x: Float64Array): Float64Array | null {
   const n = 6;
-  const M = new Float64Array(n * (n + 1));
   for (let i = 0; i < n; i++) {
     for (let j = 0; j < n; j++) M[i * 7 + j] = A[i * 6 + j];
     M[i * 7 + 6] = b[i];
@@ -220,7 +247,6 @@ function solveSymmetric6(A: Float64Array, b: Float64Array): Float64Array | null 
       for (let j = c; j < 7; j++) M[r * 7 + j] -= f * M[c * 7 + j];
     }
   }
-  const x = new Float64Array(n);
   for (let r = n - 1; r >= 0; r--) {
     let s = M[r * 7 + 6];
     for (let j = r + 1; j < n; j++) s -= M[r * 7 + j] * x[j];

@@ -162,6 +162,12 @@ export class KdTree {
 
   /** Index of the single nearest point (or -1) and its squared distance. */
   nearestOne(q: ArrayLike<number>, maxDist2 = Infinity): { index: number; dist2: number } {
+    const index = this.nearestIndex(q, maxDist2);
+    return { index, dist2: this.lastDist2 };
+  }
+
+  /** nearestOne's index, its squared distance left in `lastDist2` (Infinity when none), no object made. */
+  nearestIndex(q: ArrayLike<number>, maxDist2 = Infinity): number {
     this.bestIndex = -1;
     this.bestDist2 = maxDist2;
     if (this.count > 0) {
@@ -174,7 +180,8 @@ export class KdTree {
       }
       else this.visitOne(q, 0, this.count);
     }
-    return { index: this.bestIndex, dist2: this.bestIndex < 0 ? Infinity : this.bestDist2 };
+    this.lastDist2 = this.bestIndex < 0 ? Infinity : this.bestDist2;
+    return this.bestIndex;
   }
 
   private bestIndex = -1;
@@ -197,7 +204,7 @@ export class KdTree {
     return { index, dist2: index < 0 ? Infinity : this.lastDist2 };
   }
 
-  /** Squared distance of the point the last nearestOneNear3 returned (Infinity when none). */
+  /** Squared distance of the point the last nearestIndex or nearestOneNear3 returned (Infinity when none). */
   lastDist2 = Infinity;
 
   /**
@@ -227,6 +234,12 @@ export class KdTree {
       if (rest > 1e-3 * this.beyond![pos] && b2 * (1 + 1e-6) < rest * rest && b2 * (1 + 1e-6) < s2) {
         // exactly at the radius the search may or may not find it (it prunes a side whose plane lies
         // at the radius): that one case is left to the search
+        if (b2 !== maxDist2) {
+          // the nearest point, and no other point nearer than the second of the list or the list's reach
+          this.nearPos = best;
+          this.nearDist = Math.sqrt(b2);
+          this.otherDist = Math.min(Math.sqrt(s2), rest);
+        }
         if (b2 < maxDist2) { this.lastDist2 = b2; return this.order[best]; }
         if (b2 > maxDist2) { this.lastDist2 = Infinity; return -1; }
       }
@@ -254,11 +267,103 @@ export class KdTree {
       const dx = x < b[0] ? b[0] - x : x > b[3] ? x - b[3] : 0;
       const dy = y < b[1] ? b[1] - y : y > b[4] ? y - b[4] : 0;
       const dz = z < b[2] ? b[2] - z : z > b[5] ? z - b[5] : 0;
-      if (dx * dx + dy * dy + dz * dz <= maxDist2) this.visitOne3(x, y, z, 0, this.count);
+      const box2 = dx * dx + dy * dy + dz * dz;
+      if (box2 <= maxDist2) {
+        this.visitOne3(x, y, z, 0, this.count, true);
+        // every point was either visited or behind a plane no nearer than pruned2
+        const v1 = this.visitedMin, pruned = this.pruned2;
+        if (v1 < pruned) {
+          this.nearPos = this.visitedMinPos;
+          this.nearDist = Math.sqrt(v1);
+          this.otherDist = Math.sqrt(Math.min(this.visitedSecond, pruned));
+        } else {
+          this.nearPos = -1;
+          this.nearDist = this.otherDist = Math.sqrt(pruned);
+        }
+      } else {
+        // every point lies at least as far as the bounding box
+        this.nearPos = -1;
+        this.nearDist = this.otherDist = Math.sqrt(box2);
+      }
+    } else {
+      this.nearPos = -1;
+      this.nearDist = this.otherDist = Infinity;
     }
     this.lastDist2 = this.bestIndex < 0 ? Infinity : this.bestDist2;
     return this.bestIndex;
   }
+
+  /**
+   * What the last nearestOneNear3 proved beyond its answer, for nearestOneMoving: nearPos, the tree
+   * position of the nearest point of all (-1 when not known), nearDist its distance (when -1: a
+   * bound below the distance of every point), otherDist a bound below the distance of every other
+   * point. Distances as computed (see nearestOneMoving for the margin that covers rounding).
+   */
+  private nearPos = -1;
+  private nearDist = -1;
+  private otherDist = -1;
+  // visitOne3's extra record: the least and second least squared distance of the points it
+  // visited (and the tree position of the least), and the least squared distance of a pruned side's plane
+  private visitedMin = Infinity;
+  private visitedMinPos = -1;
+  private visitedSecond = Infinity;
+  private pruned2 = Infinity;
+
+  /** Numbers kept per query by nearestOneMoving. */
+  static readonly MEMO = 8;
+
+  /** A memo for `count` queries of nearestOneMoving, nothing known yet (in `into` when given, at least KdTree.MEMO * count long). */
+  static movingMemo(count: number, into?: Float64Array): Float64Array {
+    const memo = into ?? new Float64Array(KdTree.MEMO * count);
+    for (let o = 0; o < KdTree.MEMO * count; o += KdTree.MEMO) { memo[o + 3] = -1; memo[o + 4] = -1; memo[o + 5] = -1; memo[o + 6] = -1; }
+    return memo;
+  }
+
+  /**
+   * nearestOneNear3 for a query that moves a little from call to call (ICP asks for each moved
+   * sample round after round): the same index and squared distance (in lastDist2), with less work.
+   * `memo` (movingMemo; KdTree.MEMO numbers per query, `slot` the query's number) keeps, from the
+   * last call of this query that searched, where the query stood (q0) and what that search proved:
+   * the nearest point j at distance d and no other point nearer than e, or no point nearer than d.
+   * Now the query q lies s = |q - q0| from there, so (triangle inequality) j lies within d + s of q
+   * and every other point beyond e - s: when d + 2s < e, j is still the only nearest point, which
+   * the search would find whatever its order (no tie), and its squared distance is worked out as
+   * the search works it out; when no point is nearer than d - s and that exceeds the radius, there
+   * is no answer. Both comparisons keep a margin of 1e-6 of the distances and 1e-9 mm, far beyond
+   * rounding; exactly at the radius, and otherwise, the search (nearestOneNear3, guessed from the
+   * last answer).
+   */
+  nearestOneMoving(x: number, y: number, z: number, maxDist2: number, memo: Float64Array, slot: number): number {
+    const o = KdTree.MEMO * slot;
+    // memo: q0 (3 numbers), j's tree position (-1: none), d (-1: nothing known), the squared reach
+    // of q within which j stays the only nearest ((e - d) / 2 less the margin; -1: none), the last answer
+    const d = memo[o + 4];
+    if (d >= 0) {
+      const ex = x - memo[o], ey = y - memo[o + 1], ez = z - memo[o + 2];
+      const s2 = ex * ex + ey * ey + ez * ez;
+      if (s2 < memo[o + 5]) {
+        const P = this.points3!, pos = memo[o + 3];
+        const dx = x - P[3 * pos], dy = y - P[3 * pos + 1], dz = z - P[3 * pos + 2];
+        const d2 = dx * dx + dy * dy + dz * dz;
+        if (d2 < maxDist2) { this.lastDist2 = d2; return this.order[pos]; }
+        if (d2 > maxDist2) { this.lastDist2 = Infinity; return -1; }
+      } else {
+        const t = d * (1 - 1e-6) - Math.sqrt(maxDist2) * (1 + 1e-6) - 1e-9;
+        if (t > 0 && s2 < t * t) { this.lastDist2 = Infinity; return -1; }
+      }
+    }
+    this.nearPos = -1;
+    this.nearDist = this.otherDist = -1;
+    const j = this.nearestOneNear3(x, y, z, maxDist2, memo[o + 6]);
+    const near = this.nearDist, other = this.otherDist;
+    memo[o] = x; memo[o + 1] = y; memo[o + 2] = z;
+    memo[o + 3] = this.nearPos; memo[o + 4] = near;
+    const reach = (other - near) / 2 - 1e-6 * other - 1e-9;
+    memo[o + 5] = this.nearPos >= 0 && reach > 0 ? reach * reach : -1;
+    if (j >= 0) memo[o + 6] = j;
+    return j;
+  }
+
 
   /**
    * Whether some point lies within sqrt(maxDist2) of q, as `nearestOne(q, maxDist2).index >= 0`
@@ -338,37 +443,69 @@ export class KdTree {
     }
   }
 
-  /** visitOne for 3-d points: positions k in tree order, coordinates from points3. */
-  private visitOne3(x: number, y: number, z: number, lo: number, hi: number): void {
-    const P = this.points3!;
-    if (hi - lo <= KdTree.LEAF) {
+  /**
+   * visitOne for 3-d points: positions k in tree order, coordinates from points3. Depth first
+   * through an explicit stack instead of calls (no call per node, the best so far in locals): the
+   * nearer side is visited first and the farther side, pushed below it with its plane's squared
+   * distance, is tested against the best when it is popped, i.e. once the nearer side is done,
+   * as the recursive visit tests it: the same nodes in the same order, so the same answer.
+   */
+  private visitOne3(x: number, y: number, z: number, lo0: number, hi0: number, record = false): void {
+    const P = this.points3!, order = this.order, split = this.splitDim, LEAF = KdTree.LEAF;
+    const sLo = this.stackLo, sHi = this.stackHi, sD2 = this.stackD2;
+    let best = this.bestDist2, bestIndex = this.bestIndex;
+    let v1 = Infinity, v1pos = -1, v2 = Infinity, pruned = Infinity;
+    let top = 0, lo = lo0, hi = hi0;
+    for (;;) {
+      // down the nearer sides, pushing each farther side
+      while (hi - lo > LEAF) {
+        const mid = (lo + hi) >> 1;
+        const sd = split[mid];
+        const dx = x - P[3 * mid], dy = y - P[3 * mid + 1], dz = z - P[3 * mid + 2];
+        const diff = sd === 0 ? dx : sd === 1 ? dy : dz;
+        const d2 = dx * dx + dy * dy + dz * dz;
+        if (record && d2 < v2) { if (d2 < v1) { v2 = v1; v1 = d2; v1pos = mid; } else v2 = d2; }
+        if (d2 < best || (d2 === best && bestIndex < 0)) {
+          best = d2;
+          bestIndex = order[mid];
+        }
+        sD2[top] = diff * diff;
+        if (diff < 0) {
+          sLo[top] = mid + 1; sHi[top] = hi;
+          hi = mid;
+        } else {
+          sLo[top] = lo; sHi[top] = mid;
+          lo = mid + 1;
+        }
+        top++;
+      }
       for (let k = lo; k < hi; k++) {
         const dx = x - P[3 * k], dy = y - P[3 * k + 1], dz = z - P[3 * k + 2];
         const d2 = dx * dx + dy * dy + dz * dz;
-        if (d2 < this.bestDist2 || (d2 === this.bestDist2 && this.bestIndex < 0)) {
-          this.bestDist2 = d2;
-          this.bestIndex = this.order[k];
+        if (record && d2 < v2) { if (d2 < v1) { v2 = v1; v1 = d2; v1pos = k; } else v2 = d2; }
+        if (d2 < best || (d2 === best && bestIndex < 0)) {
+          best = d2;
+          bestIndex = order[k];
         }
       }
-      return;
+      // the next farther side whose plane is nearer than the best found by now
+      while (top > 0 && !(sD2[top - 1] < best)) {
+        top--;
+        if (record && sD2[top] < pruned) pruned = sD2[top];
+      }
+      if (top === 0) break;
+      top--;
+      lo = sLo[top]; hi = sHi[top];
     }
-    const mid = (lo + hi) >> 1;
-    const sd = this.splitDim[mid];
-    const dx = x - P[3 * mid], dy = y - P[3 * mid + 1], dz = z - P[3 * mid + 2];
-    const diff = sd === 0 ? dx : sd === 1 ? dy : dz;
-    const d2 = dx * dx + dy * dy + dz * dz;
-    if (d2 < this.bestDist2 || (d2 === this.bestDist2 && this.bestIndex < 0)) {
-      this.bestDist2 = d2;
-      this.bestIndex = this.order[mid];
-    }
-    if (diff < 0) {
-      this.visitOne3(x, y, z, lo, mid);
-      if (diff * diff < this.bestDist2) this.visitOne3(x, y, z, mid + 1, hi);
-    } else {
-      this.visitOne3(x, y, z, mid + 1, hi);
-      if (diff * diff < this.bestDist2) this.visitOne3(x, y, z, lo, mid);
-    }
+    this.bestDist2 = best;
+    this.bestIndex = bestIndex;
+    this.visitedMin = v1; this.visitedMinPos = v1pos; this.visitedSecond = v2; this.pruned2 = pruned;
   }
+
+  /** visitOne3's stack of sides still to visit: ranges of tree positions and their planes' squared distances (one entry per level at most). */
+  private readonly stackLo = new Int32Array(64);
+  private readonly stackHi = new Int32Array(64);
+  private readonly stackD2 = new Float64Array(64);
 
   /** Every point within radius r of q (unordered). */
   within(q: ArrayLike<number>, r: number, out: number[] = []): number[] {

@@ -21,9 +21,8 @@ export function inOpposedContact(
   q[0] = M[0] * x + M[1] * y + M[2] * z + M[3];
   q[1] = M[4] * x + M[5] * y + M[6] * z + M[7];
   q[2] = M[8] * x + M[9] * y + M[10] * z + M[11];
-  const hit = tree.nearestOne(q, radius * radius);
-  if (hit.index < 0) return false;
-  const j = hit.index;
+  const j = tree.nearestIndex(q, radius * radius);
+  if (j < 0) return false;
   const a = normals[3 * i], b = normals[3 * i + 1], c = normals[3 * i + 2];
   const nx = M[0] * a + M[1] * b + M[2] * c;
   const ny = M[4] * a + M[5] * b + M[6] * c;

@@ -202,3 +202,82 @@ describe('some point within a radius from a guess (someWithin)', () => {
     });
   });
 });
+
+describe('nearest one of a moving query (nearestOneMoving)', () => {
+  // Reference: nearestOne (checked against brute force above). What the last search proved may
+  // only spare searches, never change the answer: index and squared distance to the last bit.
+  it('gives nearestOne\'s answers to the last bit for queries wandering over the Stanford bunny (npm package `bunny`), and mostly without searching', () => {
+    const bunny = createRequire(import.meta.url)('bunny') as { positions: number[][] };
+    const P = Float32Array.from(bunny.positions.flat().map((v) => v * 10));
+    const tree = new KdTree(P, 3);
+    const plain = new KdTree(P, 3);
+    const near3 = vi.spyOn(tree, 'nearestOneNear3');
+    const n = P.length / 3, walkers = 200, rounds = 15;
+    const memo = KdTree.movingMemo(walkers);
+    const rnd = mulberry32(17);
+    // each query starts near a vertex (a fifth of them far off) and takes steps of 0.001 to 0.5 mm, as ICP's samples move
+    const q = Array.from({ length: walkers }, (_, w) => {
+      const v = Math.floor(rnd() * n), spread = w % 5 === 0 ? 10 : 1;
+      return [P[3 * v] + (rnd() - 0.5) * spread, P[3 * v + 1] + (rnd() - 0.5) * spread, P[3 * v + 2] + (rnd() - 0.5) * spread];
+    });
+    let calls = 0;
+    for (let r = 0; r < rounds; r++) {
+      const step = [0.5, 0.1, 0.01, 0.001][Math.min(3, Math.floor(r / 4))];
+      // the radius shrinks over the rounds, as ICP's pairing distance does (and once has no limit)
+      const max2 = r === 0 ? Infinity : (3 - r * 0.15) ** 2;
+      for (let w = 0; w < walkers; w++) {
+        for (let k = 0; k < 3; k++) q[w][k] += (rnd() - 0.5) * 2 * step;
+        const want = plain.nearestOne(q[w], max2);
+        const got = tree.nearestOneMoving(q[w][0], q[w][1], q[w][2], max2, memo, w);
+        expect(got).toBe(want.index);
+        expect(Object.is(tree.lastDist2, want.dist2)).toBe(true);
+        calls++;
+      }
+    }
+    // once the steps are small, most queries are answered from what their last search proved
+    expect(near3.mock.calls.length).toBeLessThan(0.5 * calls);
+    expect(near3.mock.calls.length).toBeGreaterThanOrEqual(walkers);
+  });
+
+  it('keeps nearestOne\'s choice among points at the same distance (repeated points, a grid)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
+        let s = seed;
+        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
+        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+        const tree = new KdTree(data, 3);
+        const memo = KdTree.movingMemo(4);
+        // queries on the grid, half way between grid points, or anywhere, moving by small steps or jumping between such places
+        const q = Array.from({ length: 4 }, () => [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2]);
+        for (let k = 0; k < 30; k++) {
+          const max2 = k % 3 === 0 ? Infinity : Math.round(r());
+          for (let w = 0; w < 4; w++) {
+            if (k % 4 === 3) q[w] = [Math.round(r() * 2) / 2, Math.round(r() * 2) / 2, Math.round(r() * 2) / 2];
+            else for (let d = 0; d < 3; d++) q[w][d] += k % 2 ? (r() - 2) * 1e-3 : 0;
+            const want = tree.nearestOne(q[w], max2);
+            expect(tree.nearestOneMoving(q[w][0], q[w][1], q[w][2], max2, memo, w)).toBe(want.index);
+            expect(Object.is(tree.lastDist2, want.dist2)).toBe(true);
+          }
+        }
+      }),
+      { numRuns: 150 },
+    );
+  });
+});
+
+describe('nearest one without an object (nearestIndex)', () => {
+  it('gives nearestOne\'s index and squared distance, in 3 and 8 dimensions', () => {
+    const rnd = mulberry32(23);
+    for (const dim of [3, 8]) {
+      const data = Float64Array.from({ length: 200 * dim }, () => Math.round(rnd() * 8) / 2);
+      const tree = new KdTree(data, dim);
+      for (let k = 0; k < 300; k++) {
+        const q = Array.from({ length: dim }, () => rnd() * 4);
+        const max2 = k % 2 ? Infinity : 1;
+        const want = tree.nearestOne(q, max2);
+        expect(tree.nearestIndex(q, max2)).toBe(want.index);
+        expect(Object.is(tree.lastDist2, want.dist2)).toBe(true);
+      }
+    }
+  });
+});
