@@ -12,6 +12,7 @@
  * transform, Ballard 1981).
  */
 import { hypot } from '../hypot';
+import { roundHalfUp } from '../round-half-up';
 import type { RigidTransform } from './rigid-transform';
 import { acrossAxisBasis } from '../shaft-axis';
 import { turnBetweenFrames } from './shaft-axis-search';
@@ -227,7 +228,7 @@ export function searchAlongAxisDirections(
           // th in [0, 2 pi]: its bin is at most nTh, which is bin 0 again
           let kt = Math.floor(th / dTh);
           if (kt >= nTh) kt -= nTh;
-          const key = ((kt * nb + Math.round(mx / bs) + half) * nb + Math.round(my / bs) + half) * nb + Math.round(tz / bs) + half;
+          const key = ((kt * nb + roundHalfUp(mx / bs) + half) * nb + roundHalfUp(my / bs) + half) * nb + roundHalfUp(tz / bs) + half;
           // (the slot only decides where a bin is kept, never which bins win: `used` keeps the
           // bins in the order of their first vote whatever their slots). The key's own low bits
           // are the slot: neighbouring bins, which the votes of one B sample mostly fall in, share
