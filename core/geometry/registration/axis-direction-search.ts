@@ -170,9 +170,9 @@ export function searchAlongAxisDirections(
   // vote table: open addressing on the bin key, more slots than votes (so never full). The slot
   // only decides where a bin is kept, never which bins win (`used` keeps the bins in the order of
   // their first vote whatever their slots): it is the tag scrambled (Fibonacci hashing, Knuth,
-  // TAOCP vol. 3, 6.4), which on the 1,277 face pairs of two shaft pieces among 300 fragment pairs
-  // of dev seed 340 took 1.5 probes fewer a vote than the key's own low bits (neighbouring turn
-  // planes fell on one another's slots)
+  // TAOCP vol. 3, 6.4): on the 1,277 face pairs of two shaft pieces among 300 fragment pairs of
+  // dev seed 340, 0.22 extra probes a vote against 1.46 with the key's own low bits as the slot
+  // (the turn planes, nb^3 keys apart, fell on one another's slots), and 14% less CPU for the vote
   let size = 1024;
   while (size <= A.count * B.count) size <<= 1;
   const mask = size - 1;
