@@ -64,6 +64,8 @@ describe('the axis-direction vote against its previous form', () => {
     { maxSamples: 20, minPeakVotes: 2 },
     { tiltB: 5, turnBinDeg: 4, shiftBinSpacings: 1 },
     { maxCandidates: 4, peaks: 5 },
+    // translation bins of 0.05 mm: more than 2^31 bin keys (60 turns x 1,000-odd bins cubed), the wide keys' path
+    { shiftBinSpacings: 0.05, minPeakVotes: 1 },
   ];
 
   it('gives the same hypotheses to the last bit on tubes and the bunny, either face moved', () => {
