@@ -5,6 +5,18 @@ import { KdTree } from '../../../../core/geometry/registration/nearest-neighbour
 import { mulberry32 } from '../../../../core/geometry/seeded-random';
 
 // Reference: brute-force search over every point (the definition of the k nearest neighbours).
+/**
+ * n points on the integer grid 0..4 (so many points repeat and many lie at the same distance from
+ * a query), drawn by a seeded linear congruential generator, and that generator (uniform on [0, 4))
+ * for drawing the queries that follow.
+ */
+function tiedGrid(n: number, seed: number): { data: Float32Array; r: () => number } {
+  let s = seed;
+  const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
+  const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+  return { data, r };
+}
+
 function bruteForce(data: number[], dim: number, q: number[], k: number): number[] {
   const n = data.length / dim;
   const d = Array.from({ length: n }, (_, i) => {
@@ -72,9 +84,7 @@ describe('nearest one in 3 dimensions', () => {
   it('finds the nearest distance of brute force on points with many ties', () => {
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 200 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
-        let s = seed;
-        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
-        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+        const { data, r } = tiedGrid(n, seed);
         const q = [r(), r(), r()];
         const got = new KdTree(data, 3).nearestOne(q);
         expect(got.dist2).toBeCloseTo(bruteForce([...data], 3, q, 1)[0], 9);
@@ -242,9 +252,7 @@ describe('nearest one of a moving query (nearestOneMoving)', () => {
   it('keeps nearestOne\'s choice among points at the same distance (repeated points, a grid)', () => {
     fc.assert(
       fc.property(fc.integer({ min: 2, max: 150 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
-        let s = seed;
-        const r = (): number => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648) * 4;
-        const data = Float32Array.from({ length: 3 * n }, () => Math.round(r()));
+        const { data, r } = tiedGrid(n, seed);
         const tree = new KdTree(data, 3);
         const memo = KdTree.movingMemo(4);
         // queries on the grid, half way between grid points, or anywhere, moving by small steps or jumping between such places
