@@ -288,3 +288,18 @@ export function robustNormalLinesPoint(s: SectionSurface, side: Int8Array, scale
 }
 for (const k of [0.15, 0.3]) TRAIT_CENTRE_ESTIMATORS[`normals-robust${k}`] = withSection((s, side) => robustNormalLinesPoint(s, side, k));
 TRAIT_CENTRE_ESTIMATORS['normals-out'] = withSection((s, side) => normalLinesPoint(s, side, (x) => x > 0));
+
+/** normalLinesPoint only where the rows' normal lines spread across (smaller eigenvalue of their scatter over its trace, as cavity-centre.ts) by at least spreadMin; else the fitted centre. */
+export function spreadNormalLinesPoint(s: SectionSurface, side: Int8Array, spreadMin: number): [number, number] | undefined {
+  let s11 = 0, s12 = 0, s22 = 0;
+  for (let i = 0; i < s.n; i++) {
+    if (!side[i]) continue;
+    const pu = -s.q[5 * i + 3], pv = s.q[5 * i + 2], w = s.q[5 * i + 4];
+    s11 += w * pu * pu; s12 += w * pu * pv; s22 += w * pv * pv;
+  }
+  const tr = s11 + s22;
+  if (!(tr > 0)) return undefined;
+  const spread = (tr / 2 - Math.sqrt(Math.max(0, (tr * tr) / 4 - (s11 * s22 - s12 * s12)))) / tr;
+  return spread >= spreadMin ? normalLinesPoint(s, side, (x) => x !== 0) : undefined;
+}
+for (const m of [0.1, 0.2]) TRAIT_CENTRE_ESTIMATORS[`normals-spread${m}`] = withSection((s, side) => spreadNormalLinesPoint(s, side, m));
