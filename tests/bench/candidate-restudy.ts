@@ -9,6 +9,7 @@
  * traits about the generator's shaft axis (generator-axis.ts; the fitted support kept), to see
  * what the fitted axis costs the traits that read it; `--generator-axis=direction` only its
  * direction (through the fitted point), `--generator-axis=centre` only its point (the fitted direction).
+ * `--trait-centre=<name>`: the traits about a centre of trait-centre-estimators.ts (the fitted direction).
  *   npx tsx tests/bench/candidate-restudy.ts <demo-dir> [--out <dir>] [--spacing 1.2] [--catalogue <copy.sqlite> --cache <match-cache-dir>]
  */
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -22,6 +23,7 @@ import { scanPath, studyFragment, type TruthFragment } from './candidate-study';
 import { ANALYSIS_FOLDERS, sourceHash } from './source-hash';
 import { catalogueFragmentKeys } from './catalogue-fragment-keys';
 import { generatorAxis, type TruthFragment as AxisTruthFragment } from './generator-axis';
+import { TRAIT_CENTRE_ESTIMATORS } from './trait-centre-estimators';
 
 const args = process.argv.slice(2);
 const opt = (name: string): string | undefined => {
@@ -58,14 +60,18 @@ for (const f of truth.fragments) {
     let parts = readPrepared(cacheDir, key, sampling);
     if (!parts) {
       parts = preparedParts(prepareFragment(cached.input, sampling));
-      if (!catalogue) writePrepared(cacheDir, key, sampling, parts);
+      // --write-prepared: keep them in the match cache too (only on a copy of it)
+      if (!catalogue || args.includes('--write-prepared')) writePrepared(cacheDir, key, sampling, parts);
     }
     const prepared = assemblePrepared(cached.input, parts);
     const fitted = cached.summary.axis;
     const mode = args.find((x) => x.startsWith('--generator-axis'))?.split('=')[1] ?? (args.includes('--generator-axis') ? 'both' : undefined);
     const g = mode ? generatorAxis(f as unknown as AxisTruthFragment, mesh) : undefined;
     // 'direction': the generator's direction through the fitted point; 'centre': the fitted direction through the generator's point
-    const axis = g ? { direction: mode === 'centre' ? fitted.direction : g.direction, point: mode === 'direction' ? fitted.point : g.point, support: fitted.support } : fitted;
+    let axis = g ? { direction: mode === 'centre' ? fitted.direction : g.direction, point: mode === 'direction' ? fitted.point : g.point, support: fitted.support } : fitted;
+    // --trait-centre=<name>: the traits about another centre (trait-centre-estimators.ts), the fitted direction kept
+    const centre = args.find((x) => x.startsWith('--trait-centre='))?.split('=')[1];
+    if (centre && !g && fitted.support >= 0.5) axis = TRAIT_CENTRE_ESTIMATORS[centre](cached.input, fitted);
     writeFileSync(file, JSON.stringify(studyFragment(f, mesh, cached.input, axis, sampling.spacing, undefined, prepared)));
   } catch (err) {
     if (!existsSync(file)) writeFileSync(file, JSON.stringify({ no: f.catalogueNo, spacing: sampling.spacing, faces: [], cpuMs: 0, error: String(err) }));
