@@ -7,7 +7,8 @@
  * With the recorded size classes (the folder's specimens.csv) pieces of different classes are
  * not paired, as in a propose run (KNITBONE_SIZE_CLASS=0 leaves them out). The index's second
  * stage (candidate-index.ts CANDIDATE_RERANK) is in force unless KNITBONE_RERANK=0, distinct whole
- * faces (DISTINCT_WHOLE_FACES) unless KNITBONE_DISTINCT=0 (or =each for 'each list').
+ * faces (DISTINCT_WHOLE_FACES) unless KNITBONE_DISTINCT=0 (or =each for 'each list'); the lean
+ * reading's error per piece (LEAN_PIECE_ERROR) by KNITBONE_LEAN_PIECE_ERROR.
  *   npx tsx tests/bench/candidate-recall.ts <demo-dir> [ks]
  */
 import { existsSync, readFileSync, readdirSync } from 'node:fs';
@@ -75,7 +76,7 @@ export function candidateRecall(studied: StudyFragment[], joins: TruthJoin[], ks
   for (const k of ks) {
     const t0 = performance.now();
     const compatible = sizeClasses ? sizeClassCompatible(study.map((f) => sizeClasses.get(f.no) ?? null)) : undefined;
-    const c = candidateFacePairs(faces, { k, compatible, ...(process.env.KNITBONE_RERANK === '0' ? { rerank: null } : {}), ...(process.env.KNITBONE_DISTINCT === '0' ? { distinctWholeFaces: null } : process.env.KNITBONE_DISTINCT === 'each' ? { distinctWholeFaces: 'each list' as const } : {}) });
+    const c = candidateFacePairs(faces, { k, compatible, ...(process.env.KNITBONE_LEAN_PIECE_ERROR ? { leanPieceError: Number(process.env.KNITBONE_LEAN_PIECE_ERROR) } : {}), ...(process.env.KNITBONE_RERANK === '0' ? { rerank: null } : {}), ...(process.env.KNITBONE_DISTINCT === '0' ? { distinctWholeFaces: null } : process.env.KNITBONE_DISTINCT === 'each' ? { distinctWholeFaces: 'each list' as const } : {}) });
     const ms = performance.now() - t0;
     const set = new Set(c.map((p) => {
       const x = faceIndex.get(`${p.a}:${p.faceA}`)!, y = faceIndex.get(`${p.b}:${p.faceB}`)!;

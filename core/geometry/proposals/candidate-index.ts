@@ -9,6 +9,7 @@
  * classes apart).
  */
 import { describeFace, partnerCost } from './face-descriptor';
+import { leanReadingVariance } from './lean-reading-variance';
 import { distinctWholeFacesFirst } from './distinct-whole-faces-first';
 import type { FaceTraits } from './face-traits';
 import { wordContainmentCost } from './word-containment-cost';
@@ -61,6 +62,12 @@ export interface PruningOptions {
    * whole faces before the first k are kept; null: each face's first k as ordered.
    */
   distinctWholeFaces?: DistinctWholeFaces | null;
+  /**
+   * The lean reading's error per piece (LEAN_PIECE_ERROR; lean-reading-variance.ts): the lean
+   * figure of two faces is compared on a scale widened by their pieces' reading variances, so a
+   * narrow splinter's lean counts less. 0: the lean's plain scale.
+   */
+  leanPieceError?: number;
 }
 
 export type DistinctWholeFaces = 'face pairs' | 'each list';
@@ -126,6 +133,9 @@ export const CANDIDATE_RERANK: CandidateRerank = { shortlist: 90, weight: 2 };
  */
 export const DISTINCT_WHOLE_FACES: DistinctWholeFaces | null = 'each list';
 
+/** The lean reading's error per piece by default (`PruningOptions.leanPieceError`): 0, off (see DEVELOPERS.md, pruning section, session 27). */
+export const LEAN_PIECE_ERROR = 0;
+
 /** With a distinct rule and no second stage: the trait-cost list held, in multiples of k (partners to move forward or to take instead). */
 export const DISTINCT_LIST_DEPTH = 3;
 
@@ -178,6 +188,7 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
   // a longer list when the distinct rule needs partners to move forward
   const L = rerank ? Math.max(k, Math.floor(rerank.shortlist)) : distinct ? k * DISTINCT_LIST_DEPTH : k;
   const desc = faces.map((f) => describeFace(f.traits));
+  const leanVar = leanReadingVariance(faces, options.leanPieceError ?? LEAN_PIECE_ERROR);
   // each face's k best so far, sorted by cost (insertion into a short list)
   const bestCost = faces.map(() => new Float64Array(L).fill(Infinity));
   const bestIndex = faces.map(() => new Int32Array(L).fill(-1));
@@ -197,7 +208,7 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
     for (let j = i + 1; j < n; j++) {
       const fa = faces[i].fragment, fb = faces[j].fragment;
       if (fa === fb || !compatible(Math.min(fa, fb), Math.max(fa, fb))) continue;
-      const c = partnerCost(desc[i], desc[j]);
+      const c = partnerCost(desc[i], desc[j], leanVar[i] + leanVar[j]);
       offer(i, j, c);
       offer(j, i, c);
     }
@@ -251,7 +262,7 @@ export function candidateFacePairs(faces: IndexedFace[], options: PruningOptions
     const offers = faces.map(() => new Map<number, number>());
     const offerWhole = (i: number, part: number): void => {
       const o = wholeOf[part];
-      if (o >= 0 && !offers[i].has(o) && !out.has(keyOf(i, o))) offers[i].set(o, partnerCost(desc[i], desc[o]));
+      if (o >= 0 && !offers[i].has(o) && !out.has(keyOf(i, o))) offers[i].set(o, partnerCost(desc[i], desc[o], leanVar[i] + leanVar[o]));
     };
     for (const c of [...out.values()]) {
       const i = at.get(`${c.a}:${c.faceA}`)!, j = at.get(`${c.b}:${c.faceB}`)!;

@@ -129,24 +129,34 @@ export function describeFace(t: FaceTraits): FaceDescriptor {
   return { figures: descriptorFigures(t), fpfh: t.meanFpfh, mirrored: mirrorFpfh(t.meanFpfh) };
 }
 
-/** Dissimilarity of two faces as partners (symmetric; 0 for a face and its perfect mirror image). */
-export function partnerCost(a: FaceDescriptor, b: FaceDescriptor): number {
+/** Index of the lean figure in DESCRIPTOR_FIGURES (the one `partnerCost`'s `leanVariance` widens). */
+export const LEAN_FIGURE = DESCRIPTOR_FIGURES.findIndex((f) => f.name === 'normal lean out from the axis');
+
+/**
+ * Dissimilarity of two faces as partners (symmetric; 0 for a face and its perfect mirror image).
+ * `leanVariance` (default 0) is added to the square of the lean figure's scale: the variance of
+ * the two faces' lean readings beyond what true partners show on pieces whose axis is well held
+ * (lean-reading-variance.ts).
+ */
+export function partnerCost(a: FaceDescriptor, b: FaceDescriptor, leanVariance = 0): number {
   let s = 0;
-  for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) s += figureCost(a, b, c);
+  for (let c = 0; c < DESCRIPTOR_FIGURES.length; c++) s += figureCost(a, b, c, c === LEAN_FIGURE ? leanVariance : 0);
   return s + textureCost(a, b);
 }
 
 /**
  * The cost figure `c` of DESCRIPTOR_FIGURES adds to `partnerCost`: weight times the (capped)
  * robust loss of the difference in scales, the missing-figure cost when a side lacks the figure,
- * 0 for a weight of 0. Exported for the studies that take the cost apart (candidate-term-misses.ts).
+ * 0 for a weight of 0; `extraVariance` widens the scale to sqrt(scale^2 + extraVariance).
+ * Exported for the studies that take the cost apart (candidate-term-misses.ts).
  */
-export function figureCost(a: FaceDescriptor, b: FaceDescriptor, c: number): number {
+export function figureCost(a: FaceDescriptor, b: FaceDescriptor, c: number, extraVariance = 0): number {
   const { scale, weight, opposite, cap } = DESCRIPTOR_FIGURES[c];
   if (weight === 0) return 0;
   const x = a.figures[c], y = b.figures[c];
   if (Number.isNaN(x) || Number.isNaN(y)) return weight * MISSING_COST;
-  return weight * cappedCauchyLoss((opposite ? x + y : x - y) / scale, cap);
+  const s = extraVariance > 0 ? Math.sqrt(scale * scale + extraVariance) : scale;
+  return weight * cappedCauchyLoss((opposite ? x + y : x - y) / s, cap);
 }
 
 /** The texture term of `partnerCost`: TEXTURE_WEIGHT times the distance between one face's mirrored mean FPFH and the other's mean FPFH. */
